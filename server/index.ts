@@ -1,0 +1,25 @@
+import http from 'node:http';
+import { createApp } from './app';
+import { loadConfig } from './config';
+import { createSequelize } from './db/sequelize';
+
+const config = loadConfig();
+const sequelize = createSequelize(config.databaseUrl, config.databasePoolMax);
+const { app, close } = createApp({ config, sequelize });
+const server = http.createServer(app);
+
+server.listen(config.port, config.host, () => {
+  console.log(`Parapet listening on http://${config.host}:${config.port}`);
+});
+
+let stopping = false;
+async function stop(signal: string) {
+  if (stopping) return;
+  stopping = true;
+  console.log(`${signal}: stopping Parapet`);
+  server.close();
+  await Promise.allSettled([close(), sequelize.close()]);
+  process.exit(0);
+}
+process.on('SIGINT', () => void stop('SIGINT'));
+process.on('SIGTERM', () => void stop('SIGTERM'));

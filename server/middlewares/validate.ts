@@ -1,0 +1,33 @@
+import type { NextFunction, Request, Response } from 'express';
+import type { z } from 'zod';
+import { Invalid } from '../errors';
+
+/** Turns zod issues into API.md's `details`, with dotted paths like `radios.0.signalDbm`. */
+export function issuesToDetails(error: z.ZodError, prefix: (string | number)[] = []) {
+  return error.issues.map((i) => {
+    const path = [...prefix, ...i.path].map(String).join('.');
+    return { path, message: path ? `${path} ${i.message}` : i.message };
+  });
+}
+
+export function parseOrThrow<S extends z.ZodType>(schema: S, value: unknown, what = 'request'): z.infer<S> {
+  const result = schema.safeParse(value);
+  if (!result.success) {
+    const details = issuesToDetails(result.error);
+    const first = details[0]?.message ?? 'is invalid';
+    const more = details.length > 1 ? ` (and ${details.length - 1} more)` : '';
+    throw Invalid(`The ${what} is invalid: ${first}${more}.`, details);
+  }
+  return result.data;
+}
+
+type Where = 'body' | 'query' | 'params';
+
+/** Validates one part of the request; the parsed value is stored on res.locals[where]. */
+export function validate(where: Where, schema: z.ZodType) {
+  return (req: Request, res: Response, next: NextFunction) => {
+    const source = where === 'body' ? (req.body ?? {}) : where === 'query' ? req.query : req.params;
+    res.locals[where] = parseOrThrow(schema, source, where === 'body' ? 'request body' : where === 'query' ? 'query' : 'address');
+    next();
+  };
+}

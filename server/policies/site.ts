@@ -1,0 +1,20 @@
+import { Op, type WhereOptions } from 'sequelize';
+import type { Site } from '../models';
+import { type Actor, isAdmin, mayManage } from './actor';
+
+/** Admins see every site, operators their neighbourhoods' sites, everyone the sites they host. */
+export function siteScope(a: Actor): WhereOptions {
+  if (isAdmin(a)) return {};
+  const or: WhereOptions[] = [{ id: { [Op.in]: a.hostedSiteIds } }];
+  if (a.role === 'operator') or.push({ neighbourhoodId: { [Op.in]: a.neighbourhoodIds } });
+  return { [Op.or]: or };
+}
+
+export const siteAbilities = (a: Actor, s: Pick<Site, 'neighbourhoodId'>) => {
+  const manage = mayManage(a, s.neighbourhoodId);
+  return { update: manage, delete: manage };
+};
+export const mayCreateSiteIn = (a: Actor, neighbourhoodId: number) => mayManage(a, neighbourhoodId);
+/** Host contact details: admins, the neighbourhood's operators, and the host themself. */
+export const maySeeHostContact = (a: Actor, s: Pick<Site, 'neighbourhoodId' | 'hostUserId'>) =>
+  mayManage(a, s.neighbourhoodId) || s.hostUserId === a.id;

@@ -1,0 +1,18 @@
+import type { LinkDto } from '../../shared/schemas/link';
+import type { Link } from '../models';
+import { iso } from './common';
+
+export function presentLink(l: Link, abilities: { update: boolean; delete: boolean }): LinkDto {
+  return {
+    id: l.id,
+    name: l.name ?? null,
+    radioAId: l.radioAId,
+    radioBId: l.radioBId,
+    nodeAId: l.radioA!.nodeId,
+    nodeBId: l.radioB!.nodeId,
+    status: l.status,
+    createdAt: iso(l.createdAt)!,
+    updatedAt: iso(l.updatedAt)!,
+    abilities,
+  };
+}

@@ -1,0 +1,29 @@
+import type { RadioDto } from '../../shared/schemas/radio';
+import type { Radio } from '../models';
+import { type Actor, mayManage } from '../policies/actor';
+import { iso } from './common';
+
+/** The pre-shared key never leaves the server here: only whether one is set. */
+export function presentRadio(r: Radio, neighbourhoodId: number, actor: Actor): RadioDto {
+  const manage = mayManage(actor, neighbourhoodId);
+  return {
+    id: r.id,
+    nodeId: r.nodeId,
+    iface: r.iface,
+    band: r.band,
+    channel: r.channel,
+    channelWidthMHz: r.channelWidthMHz,
+    txPowerDbm: r.txPowerDbm,
+    antennaGainDbi: r.antennaGainDbi,
+    polarisation: r.polarisation,
+    cableLossDb: r.cableLossDb,
+    role: r.role,
+    ssid: r.ssid ?? null,
+    encryption: r.encryption,
+    hasPreSharedKey: Boolean(r.preSharedKey),
+    groupRekeyS: r.groupRekeyS,
+    createdAt: iso(r.createdAt)!,
+    updatedAt: iso(r.updatedAt)!,
+    abilities: { update: manage, delete: manage },
+  };
+}

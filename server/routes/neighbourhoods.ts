@@ -1,0 +1,112 @@
+import { Router } from 'express';
+import { Op } from 'sequelize';
+import { idParamsSchema } from '../../shared/schemas/common';
+import {
+  neighbourhoodCreateSchema,
+  neighbourhoodListQuerySchema,
+  neighbourhoodUpdateSchema,
+  operatorAssignmentSchema,
+} from '../../shared/schemas/neighbourhood';
+import { Invalid, NotFound } from '../errors';
+import { actorOf } from '../middlewares/requireUser';
+import { validate } from '../middlewares/validate';
+import { Neighbourhood, Node, OperatorAssignment, Site, User } from '../models';
+import type { Actor } from '../policies/actor';
+import { authorize } from '../policies/authorize';
+import { mayCreateNeighbourhood, neighbourhoodAbilities, neighbourhoodScope } from '../policies/neighbourhood';
+import { presentNeighbourhood } from '../presenters/neighbourhood';
+import { listPage } from '../services/listing';
+
+async function countsFor(ids: number[]) {
+  const [assignments, sites, nodes] = await Promise.all([
+    OperatorAssignment.findAll({ where: { neighbourhoodId: ids } }),
+    Site.count({ where: { neighbourhoodId: ids }, group: ['neighbourhoodId'] }),
+    Node.count({ where: { neighbourhoodId: ids }, group: ['neighbourhoodId'] }),
+  ]);
+  const byId = (rows: { neighbourhoodId: unknown; count: number }[], id: number) =>
+    rows.find((r) => Number(r.neighbourhoodId) === id)?.count ?? 0;
+  return (id: number) => ({
+    operatorIds: assignments.filter((a) => a.neighbourhoodId === id).map((a) => a.userId).sort((a, b) => a - b),
+    siteCount: byId(sites as never, id),
+    nodeCount: byId(nodes as never, id),
+  });
+}
+
+async function findReadable(actor: Actor, id: number) {
+  const n = await Neighbourhood.findOne({ where: { [Op.and]: [{ id }, neighbourhoodScope(actor)] } });
+  if (!n) throw NotFound(`Neighbourhood ${id}`);
+  return n;
+}
+
+async function present(n: Neighbourhood, actor: Actor) {
+  return presentNeighbourhood(n, (await countsFor([n.id]))(n.id), actor);
+}
+
+export function neighbourhoodRoutes() {
+  const router = Router();
+
+  router.get('/', validate('query', neighbourhoodListQuerySchema), async (req, res) => {
+    const actor = actorOf(req);
+    const { rows, pagination } = await listPage(Neighbourhood, res.locals.query, {
+      where: neighbourhoodScope(actor),
+      sortable: ['name', 'createdAt', 'id'],
+      searchable: ['name'],
+      defaultSort: 'name',
+    });
+    const counts = await countsFor(rows.map((n) => n.id));
+    res.json({
+      data: rows.map((n) => presentNeighbourhood(n, counts(n.id), actor)),
+      pagination,
+      abilities: { create: mayCreateNeighbourhood(actor) },
+    });
+  });
+
+  router.post('/', validate('body', neighbourhoodCreateSchema), async (req, res) => {
+    const actor = actorOf(req);
+    authorize(mayCreateNeighbourhood(actor), 'Only admins create neighbourhoods.');
+    const n = await Neighbourhood.create(res.locals.body);
+    res.status(201).json({ data: await present(n, actor) });
+  });
+
+  router.get('/:id', validate('params', idParamsSchema), async (req, res) => {
+    const actor = actorOf(req);
+    res.json({ data: await present(await findReadable(actor, res.locals.params.id), actor) });
+  });
+
+  router.patch('/:id', validate('params', idParamsSchema), validate('body', neighbourhoodUpdateSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const n = await findReadable(actor, res.locals.params.id);
+    authorize(neighbourhoodAbilities(actor, n).update, 'Only admins change neighbourhoods.');
+    await n.update(res.locals.body);
+    res.json({ data: await present(n, actor) });
+  });
+
+  router.delete('/:id', validate('params', idParamsSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const n = await findReadable(actor, res.locals.params.id);
+    authorize(neighbourhoodAbilities(actor, n).delete, 'Only admins remove neighbourhoods.');
+    await n.destroy();
+    res.status(204).end();
+  });
+
+  router.put('/:id/operators', validate('params', idParamsSchema), validate('body', operatorAssignmentSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const n = await findReadable(actor, res.locals.params.id);
+    authorize(neighbourhoodAbilities(actor, n).update, 'Only admins assign operators.');
+    const userIds: number[] = [...new Set<number>(res.locals.body.userIds)];
+    const operators = await User.findAll({ where: { id: userIds, role: 'operator', active: true } });
+    const missing = userIds.filter((id) => !operators.some((o) => o.id === id));
+    if (missing.length) {
+      throw Invalid(`People ${missing.join(', ')} are not active operators.`, [
+        { path: 'userIds', message: `userIds ${missing.join(', ')} are not active operators` },
+      ]);
+    }
+    await Neighbourhood.sequelize!.transaction(async (transaction) => {
+      await OperatorAssignment.destroy({ where: { neighbourhoodId: n.id }, transaction });
+      await OperatorAssignment.bulkCreate(userIds.map((userId) => ({ userId, neighbourhoodId: n.id })), { transaction });
+    });
+    res.json({ data: await present(n, actor) });
+  });
+
+  return router;
+}

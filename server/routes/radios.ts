@@ -1,0 +1,91 @@
+import { Router } from 'express';
+
+import { idParamsSchema } from '../../shared/schemas/common';
+import { radioCreateSchema, radioListQuerySchema, radioUpdateSchema } from '../../shared/schemas/radio';
+import { Invalid, NotFound } from '../errors';
+import { actorOf } from '../middlewares/requireUser';
+import { validate } from '../middlewares/validate';
+import { Node, Radio } from '../models';
+import { type Actor, isAdmin, mayManage } from '../policies/actor';
+import { authorize } from '../policies/authorize';
+import { nodeScope } from '../policies/node';
+import { presentRadio } from '../presenters/radio';
+import { filters, listPage } from '../services/listing';
+import { readableNode } from '../services/references';
+
+const MANAGE = 'Only admins and the operators of its neighbourhood change this radio.';
+const nodeInScope = (actor: Actor) => ({ model: Node, as: 'node', where: nodeScope(actor), required: true });
+
+export async function readableRadio(actor: Actor, id: number) {
+  const r = await Radio.findOne({ where: { id }, include: [nodeInScope(actor)] });
+  if (!r) throw NotFound(`Radio ${id}`);
+  return r;
+}
+
+/** The band and channel must agree after a partial update too. */
+function checkBandChannel(band: string, channel: number) {
+  const ok = band === '2.4' ? channel >= 1 && channel <= 14 : channel >= 32;
+  if (!ok) throw Invalid('The channel does not fit the band.', [{ path: 'channel', message: 'channel must be 1–14 on 2.4 GHz or 32 and above on 5 GHz' }]);
+}
+
+export function radioRoutes() {
+  const router = Router();
+
+  router.get('/', validate('query', radioListQuerySchema), async (req, res) => {
+    const actor = actorOf(req);
+    const q = res.locals.query;
+    const { rows, pagination } = await listPage(Radio, q, {
+      where: filters({ nodeId: q.nodeId, band: q.band, role: q.role }),
+      sortable: ['iface', 'nodeId', 'band', 'channel', 'role', 'encryption', 'txPowerDbm', 'createdAt', 'id'],
+      searchable: ['ssid', 'iface'],
+      defaultSort: 'id',
+      include: [nodeInScope(actor)],
+    });
+    res.json({
+      data: rows.map((r) => presentRadio(r, r.node!.neighbourhoodId, actor)),
+      pagination,
+      abilities: { create: isAdmin(actor) || actor.neighbourhoodIds.length > 0 },
+    });
+  });
+
+  router.post('/', validate('body', radioCreateSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const body = res.locals.body;
+    const node = await readableNode(actor, body.nodeId);
+    authorize(mayManage(actor, node.neighbourhoodId), 'Only admins and the operators of its neighbourhood add radios to this node.');
+    const radio = await Radio.create(body);
+    res.status(201).json({ data: presentRadio(radio, node.neighbourhoodId, actor) });
+  });
+
+  router.get('/:id', validate('params', idParamsSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const r = await readableRadio(actor, res.locals.params.id);
+    res.json({ data: presentRadio(r, r.node!.neighbourhoodId, actor) });
+  });
+
+  router.patch('/:id', validate('params', idParamsSchema), validate('body', radioUpdateSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const r = await readableRadio(actor, res.locals.params.id);
+    authorize(mayManage(actor, r.node!.neighbourhoodId), MANAGE);
+    const body = res.locals.body;
+    if (body.nodeId !== undefined && body.nodeId !== r.nodeId) {
+      const target = await readableNode(actor, body.nodeId);
+      authorize(mayManage(actor, target.neighbourhoodId), 'You cannot move a radio to a node you do not operate.');
+    }
+    checkBandChannel(body.band ?? r.band, body.channel ?? r.channel);
+    await r.update(body);
+    const fresh = await readableRadio(actor, r.id);
+    res.json({ data: presentRadio(fresh, fresh.node!.neighbourhoodId, actor) });
+  });
+
+  router.delete('/:id', validate('params', idParamsSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const r = await readableRadio(actor, res.locals.params.id);
+    authorize(mayManage(actor, r.node!.neighbourhoodId), MANAGE);
+    await r.destroy();
+    res.status(204).end();
+  });
+
+  return router;
+}
+

@@ -1,0 +1,63 @@
+import { Router, type Request } from 'express';
+import { rateLimit } from 'express-rate-limit';
+import type passport from 'passport';
+import { signInSchema } from '../../shared/schemas/session';
+import type { Config } from '../config';
+import { ApiError, TooMany } from '../errors';
+import { csrfTokenFor } from '../middlewares/csrf';
+import { parseOrThrow } from '../middlewares/validate';
+import type { Actor } from '../policies/actor';
+import { presentSessionUser } from '../presenters/user';
+
+function signInLimiter(config: Config, limit: number, key: (req: Request) => string) {
+  return rateLimit({
+    windowMs: config.signInLimitWindowMs,
+    limit,
+    skipSuccessfulRequests: true, // only failed attempts count
+    keyGenerator: key,
+    validate: { keyGeneratorIpFallback: false },
+    handler: (req, _res, next) => {
+      const resetAt = (req as typeof req & { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime?.getTime() ?? Date.now() + config.signInLimitWindowMs;
+      next(TooMany((resetAt - Date.now()) / 1000, 'Too many failed sign-ins. Wait a few minutes and try again.'));
+    },
+  });
+}
+
+export function sessionRoutes(config: Config, pp: typeof passport) {
+  const router = Router();
+  const perAddress = signInLimiter(config, config.signInLimitPerAddress, (req) => `addr:${req.ip}`);
+  const perAccount = signInLimiter(config, config.signInLimitPerAccount, (req) =>
+    `acct:${String((req.body as { email?: unknown })?.email ?? '').trim().toLowerCase()}`,
+  );
+
+  router.get('/', (req, res) => {
+    res.json({ user: req.user ? presentSessionUser(req.user as Actor) : null, csrfToken: csrfTokenFor(req) });
+  });
+
+  router.post('/', perAddress, perAccount, (req, res, next) => {
+    const input = parseOrThrow(signInSchema, req.body, 'sign-in');
+    req.body = input;
+    pp.authenticate('local', (err: unknown, actor: Actor | false) => {
+      if (err) return next(err);
+      if (!actor) return next(new ApiError(401, 'wrong_credentials', 'That e-mail and password do not match an active account.'));
+      // passport regenerates the session id here, so a planted id is useless after sign-in.
+      req.login(actor, (loginErr) => {
+        if (loginErr) return next(loginErr);
+        res.json({ user: presentSessionUser(actor), csrfToken: csrfTokenFor(req) });
+      });
+    })(req, res, next);
+  });
+
+  router.delete('/', (req, res, next) => {
+    req.logout((err) => {
+      if (err) return next(err);
+      req.session.destroy((destroyErr) => {
+        if (destroyErr) return next(destroyErr);
+        res.clearCookie('parapet.sid');
+        res.status(204).end();
+      });
+    });
+  });
+
+  return router;
+}

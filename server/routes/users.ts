@@ -1,0 +1,84 @@
+import { Router } from 'express';
+import { idParamsSchema } from '../../shared/schemas/common';
+import { userCreateSchema, userListQuerySchema, userUpdateSchema } from '../../shared/schemas/user';
+import { hashPassword } from '../auth/passwords';
+import { Conflict, Invalid, NotFound } from '../errors';
+import { actorOf } from '../middlewares/requireUser';
+import { validate } from '../middlewares/validate';
+import { OperatorAssignment, User } from '../models';
+import { authorize } from '../policies/authorize';
+import { mayListPeople, userAbilities } from '../policies/user';
+import { presentUser } from '../presenters/user';
+import { filters, listPage } from '../services/listing';
+
+async function assignmentsOf(userIds: number[]) {
+  const rows = await OperatorAssignment.findAll({ where: { userId: userIds } });
+  return (id: number) => rows.filter((r) => r.userId === id).map((r) => r.neighbourhoodId).sort((a, b) => a - b);
+}
+
+async function findUser(id: number) {
+  const u = await User.findByPk(id);
+  if (!u) throw NotFound(`Person ${id}`);
+  return u;
+}
+
+/** People are the admins' to manage; other roles only ever see themselves through the session. */
+export function userRoutes() {
+  const router = Router();
+
+  router.use((req, _res, next) => {
+    authorize(mayListPeople(actorOf(req)), 'Only admins manage people.');
+    next();
+  });
+
+  router.get('/', validate('query', userListQuerySchema), async (req, res) => {
+    const actor = actorOf(req);
+    const q = res.locals.query;
+    const { rows, pagination } = await listPage(User, q, {
+      where: filters({ role: q.role }),
+      sortable: ['name', 'email', 'role', 'createdAt', 'id'],
+      searchable: ['name', 'email'],
+      defaultSort: 'name',
+    });
+    const assigned = await assignmentsOf(rows.map((u) => u.id));
+    res.json({ data: rows.map((u) => presentUser(u, assigned(u.id), actor)), pagination, abilities: { create: true } });
+  });
+
+  router.post('/', validate('body', userCreateSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const { password, ...rest } = res.locals.body;
+    if (await User.findOne({ where: { email: rest.email } })) throw Conflict('Someone already has that e-mail address.', 'duplicate');
+    const user = await User.create({ ...rest, passwordHash: await hashPassword(password) });
+    res.status(201).json({ data: presentUser(user, [], actor) });
+  });
+
+  router.get('/:id', validate('params', idParamsSchema), async (req, res) => {
+    const user = await findUser(res.locals.params.id);
+    res.json({ data: presentUser(user, (await assignmentsOf([user.id]))(user.id), actorOf(req)) });
+  });
+
+  router.patch('/:id', validate('params', idParamsSchema), validate('body', userUpdateSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const user = await findUser(res.locals.params.id);
+    const body = res.locals.body;
+    if (user.id === actor.id && (body.role && body.role !== 'admin' || body.active === false)) {
+      throw Invalid('You cannot remove your own admin role or deactivate yourself; ask another admin.');
+    }
+    await User.sequelize!.transaction(async (transaction) => {
+      await user.update(body, { transaction });
+      // Assignments belong to operators only.
+      if (body.role && body.role !== 'operator') await OperatorAssignment.destroy({ where: { userId: user.id }, transaction });
+    });
+    res.json({ data: presentUser(user, (await assignmentsOf([user.id]))(user.id), actor) });
+  });
+
+  router.delete('/:id', validate('params', idParamsSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const user = await findUser(res.locals.params.id);
+    authorize(userAbilities(actor, user).delete, 'You cannot remove your own account.');
+    await user.destroy();
+    res.status(204).end();
+  });
+
+  return router;
+}

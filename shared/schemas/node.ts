@@ -1,0 +1,42 @@
+import { z } from 'zod';
+import { NODE_STATES } from '../enums';
+import { idSchema, listQuerySchema, nameSchema } from './common';
+
+const ipv4 = /^(25[0-5]|2[0-4]\d|1\d\d|[1-9]?\d)(\.(25[0-5]|2[0-4]\d|1\d\d|[1-9]?\d)){3}$/;
+
+export const nodeCreateSchema = z.object({
+  name: nameSchema,
+  siteId: idSchema,
+  neighbourhoodId: idSchema.optional(),
+  hardware: z.string().trim().max(120, 'must be at most 120 characters').optional(),
+  firmware: z.string().trim().max(120, 'must be at most 120 characters').optional(),
+  managementAddress: z.string().trim().regex(ipv4, 'must be an IPv4 address like 10.20.1.1').optional().nullable(),
+  reportIntervalS: z.number({ error: 'must be a number' }).int('must be a whole number of seconds').min(10, 'must be at least 10 s').max(3600, 'must be at most 3600 s').default(60),
+  isUplink: z.boolean().optional(),
+});
+export const nodeUpdateSchema = nodeCreateSchema.partial();
+export const nodeListQuerySchema = listQuerySchema.extend({
+  state: z.enum(NODE_STATES, { error: `must be one of ${NODE_STATES.join(', ')}` }).optional(),
+  neighbourhoodId: idSchema.optional(),
+  siteId: idSchema.optional(),
+});
+
+export type NodeCreate = z.infer<typeof nodeCreateSchema>;
+
+export interface NodeDto {
+  id: number;
+  name: string;
+  siteId: number;
+  neighbourhoodId: number;
+  hardware: string | null;
+  firmware: string | null;
+  managementAddress: string | null;
+  reportIntervalS: number;
+  isUplink: boolean;
+  state: (typeof NODE_STATES)[number];
+  stateSince: string | null;
+  lastSeenAt: string | null;
+  createdAt: string;
+  updatedAt: string;
+  abilities: { update: boolean; delete: boolean };
+}

@@ -1,0 +1,72 @@
+import { z } from 'zod';
+import { BANDS, CHANNEL_WIDTHS_MHZ, ENCRYPTIONS, POLARISATIONS, RADIO_ROLES } from '../enums';
+import { idSchema, listQuerySchema } from './common';
+
+const oneOf = (values: readonly string[]) => `must be one of ${values.join(', ')}`;
+
+export const radioBaseSchema = z.object({
+  nodeId: idSchema,
+  iface: z.string().trim().regex(/^[A-Za-z0-9._-]{1,15}$/, 'must be an interface name like wlan0').default('wlan0'),
+  band: z.enum(BANDS, { error: oneOf(BANDS) }),
+  channel: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(196, 'must be at most 196'),
+  channelWidthMHz: z.union(CHANNEL_WIDTHS_MHZ.map((w) => z.literal(w)) as [z.ZodLiteral<20>, z.ZodLiteral<40>, z.ZodLiteral<80>], {
+    error: `must be one of ${CHANNEL_WIDTHS_MHZ.join(', ')}`,
+  }),
+  txPowerDbm: z.number({ error: 'must be a number' }).min(-10, 'must be at least -10 dBm').max(36, 'must be at most 36 dBm'),
+  antennaGainDbi: z.number({ error: 'must be a number' }).min(-10, 'must be at least -10 dBi').max(45, 'must be at most 45 dBi'),
+  polarisation: z.enum(POLARISATIONS, { error: oneOf(POLARISATIONS) }).default('vertical'),
+  cableLossDb: z.number({ error: 'must be a number' }).min(0, 'must be 0 dB or more').max(30, 'must be at most 30 dB').default(0),
+  role: z.enum(RADIO_ROLES, { error: oneOf(RADIO_ROLES) }),
+  ssid: z
+    .string()
+    .max(32, 'must be at most 32 bytes')
+    .refine((s) => new TextEncoder().encode(s).length <= 32, 'must be at most 32 bytes')
+    .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'must not contain control characters')
+    .optional()
+    .nullable(),
+  encryption: z.enum(ENCRYPTIONS, { error: oneOf(ENCRYPTIONS) }),
+  /** 8–63 printable ASCII or 64 hex digits (IEEE 802.11i). Write-only: never presented back. */
+  preSharedKey: z
+    .string()
+    .refine((k) => /^[\x20-\x7e]{8,63}$/.test(k) || /^[0-9a-fA-F]{64}$/.test(k), 'must be 8–63 printable characters or 64 hex digits')
+    .optional()
+    .nullable(),
+  groupRekeyS: z.number({ error: 'must be a number' }).int('must be a whole number of seconds').min(0, 'must be 0 or more').max(604800, 'must be at most one week').default(600),
+});
+
+function channelFitsBand(r: { band?: string; channel?: number }): boolean {
+  if (r.band === undefined || r.channel === undefined) return true;
+  return r.band === '2.4' ? r.channel >= 1 && r.channel <= 14 : r.channel >= 32;
+}
+const channelBandMessage = { message: 'must be 1–14 on 2.4 GHz or 32 and above on 5 GHz', path: ['channel'] };
+
+export const radioCreateSchema = radioBaseSchema.refine(channelFitsBand, channelBandMessage);
+export const radioUpdateSchema = radioBaseSchema.partial().refine(channelFitsBand, channelBandMessage);
+export const radioListQuerySchema = listQuerySchema.extend({
+  nodeId: idSchema.optional(),
+  band: z.enum(BANDS, { error: oneOf(BANDS) }).optional(),
+  role: z.enum(RADIO_ROLES, { error: oneOf(RADIO_ROLES) }).optional(),
+});
+
+export type RadioCreate = z.infer<typeof radioCreateSchema>;
+
+export interface RadioDto {
+  id: number;
+  nodeId: number;
+  iface: string;
+  band: (typeof BANDS)[number];
+  channel: number;
+  channelWidthMHz: number;
+  txPowerDbm: number;
+  antennaGainDbi: number;
+  polarisation: string;
+  cableLossDb: number;
+  role: (typeof RADIO_ROLES)[number];
+  ssid: string | null;
+  encryption: (typeof ENCRYPTIONS)[number];
+  hasPreSharedKey: boolean;
+  groupRekeyS: number;
+  createdAt: string;
+  updatedAt: string;
+  abilities: { update: boolean; delete: boolean };
+}

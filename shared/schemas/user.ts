@@ -1,0 +1,36 @@
+import { z } from 'zod';
+import { ROLES } from '../enums';
+import { listQuerySchema, nameSchema } from './common';
+
+export const passwordSchema = z.string({ error: 'is required' }).min(12, 'must be at least 12 characters').max(1024, 'is too long');
+
+export const userCreateSchema = z.object({
+  email: z.string({ error: 'is required' }).trim().toLowerCase().email('must be an e-mail address').max(254),
+  name: nameSchema,
+  role: z.enum(ROLES, { error: `must be one of ${ROLES.join(', ')}` }),
+  password: passwordSchema,
+  phone: z.string().trim().max(40, 'must be at most 40 characters').optional().nullable(),
+});
+export const userUpdateSchema = z.object({
+  name: nameSchema.optional(),
+  role: z.enum(ROLES, { error: `must be one of ${ROLES.join(', ')}` }).optional(),
+  phone: z.string().trim().max(40, 'must be at most 40 characters').optional().nullable(),
+  active: z.boolean().optional(),
+});
+export const userListQuerySchema = listQuerySchema.extend({
+  role: z.enum(ROLES, { error: `must be one of ${ROLES.join(', ')}` }).optional(),
+});
+
+export type UserCreate = z.infer<typeof userCreateSchema>;
+
+export interface UserDto {
+  id: number;
+  email: string;
+  name: string;
+  role: (typeof ROLES)[number];
+  phone?: string | null;
+  active: boolean;
+  neighbourhoodIds: number[];
+  createdAt: string;
+  abilities: { update: boolean; delete: boolean };
+}
