@@ -1,16 +1,13 @@
-import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import { Sequelize } from 'sequelize';
 import { SequelizeStorage, Umzug } from 'umzug';
-
-const migrationsDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../migrations');
+import { MIGRATIONS } from '../migrations';
 
 export type MigrationContext = { sequelize: Sequelize };
 
-/** Migrations are TypeScript files in server/migrations, applied in name order and recorded in SequelizeMeta. */
+/** Migrations are listed in server/migrations/index.ts and recorded in SequelizeMeta once applied. */
 export function createMigrator(sequelize: Sequelize) {
   return new Umzug<MigrationContext>({
-    migrations: { glob: ['*.ts', { cwd: migrationsDir, ignore: ['*.d.ts'] }] },
+    migrations: MIGRATIONS.map(({ name, up, down }) => ({ name, up, down })),
     context: { sequelize },
     storage: new SequelizeStorage({ sequelize }),
     logger: undefined,
