@@ -13,6 +13,8 @@ import { requireCsrf } from './middlewares/csrf';
 import { errorHandler } from './middlewares/errorHandler';
 import { requireUser } from './middlewares/requireUser';
 import { initModels } from './models';
+import { heartbeatRoutes } from './routes/heartbeats';
+import { ingestTokenRoutes } from './routes/ingestTokens';
 import { linkRoutes } from './routes/links';
 import { neighbourhoodRoutes } from './routes/neighbourhoods';
 import { nodeRoutes } from './routes/nodes';
@@ -27,15 +29,15 @@ export interface AppContext {
   sequelize: Sequelize;
 }
 
-/** Mutating requests that authenticate another way (sign-in itself, node tokens) skip the CSRF check. */
-const csrfExempt = (req: Request) =>
-  (req.method === 'POST' && req.path === '/api/v1/session') || req.path === '/api/v1/heartbeats';
+/** Signing in needs no CSRF token (API.md); node reports never reach this router. Paths are relative to /api/v1. */
+const csrfExempt = (req: Request) => req.method === 'POST' && req.path === '/session';
 
 export function createApp({ config, sequelize }: AppContext) {
   initModels(sequelize);
   const pool = new pg.Pool({ connectionString: config.databaseUrl, max: 4, connectionTimeoutMillis: 5_000 });
   pool.on('error', (err) => console.error('session pool error:', err.message));
   const passport = configurePassport();
+  const session = sessionMiddleware(config, pool);
   const app = express();
   app.set('trust proxy', config.trustProxy);
   app.disable('x-powered-by');
@@ -71,15 +73,19 @@ export function createApp({ config, sequelize }: AppContext) {
     }
   });
 
+  // Hot path first: node reports skip sessions entirely.
+  app.use('/api/v1/heartbeats', heartbeatRoutes(config, sequelize));
+
   const api = express.Router();
   api.use(express.json({ limit: '64kb' }));
-  api.use(sessionMiddleware(config, pool));
+  api.use(session);
   api.use(passport.initialize());
   api.use(passport.session());
-  api.use((req, _res, next) => requireCsrf(csrfExempt)(req, _res, next));
+  api.use(requireCsrf(csrfExempt));
   api.use('/session', sessionRoutes(config, passport));
   api.use('/neighbourhoods', requireUser, neighbourhoodRoutes());
   api.use('/sites', requireUser, siteRoutes());
+  api.use('/nodes/:id/ingest-token', requireUser, ingestTokenRoutes(config, sequelize));
   api.use('/nodes', requireUser, nodeRoutes());
   api.use('/radios', requireUser, radioRoutes());
   api.use('/links', requireUser, linkRoutes());
@@ -96,5 +102,5 @@ export function createApp({ config, sequelize }: AppContext) {
   }
 
   app.use(errorHandler);
-  return { app, close: () => pool.end() };
+  return { app, session, passport, pool, close: () => pool.end() };
 }

@@ -26,6 +26,15 @@ const envSchema = z.object({
   CLIENT_DIST: z.string().default('dist'),
   PARAPET_DEMO_PASSWORD: z.string().default('parapet-demo'),
   LOG_REQUESTS: bool.default(false),
+  INGEST_RATE_LIMIT_PER_MIN: z.coerce.number().int().min(1).default(120),
+  INGEST_BODY_LIMIT: z.string().default('64kb'),
+  HEALTH_CHECK_INTERVAL_MS: z.coerce.number().int().min(50).default(10_000),
+  JOBS_ENABLED: bool.default(true),
+  RAW_RETENTION_DAYS: z.coerce.number().int().min(1).default(14),
+  ROLLUP_RETENTION_DAYS: z.coerce.number().int().min(1).default(400),
+  PARTITION_DAYS_AHEAD: z.coerce.number().int().min(1).max(60).default(7),
+  SOCKET_ADAPTER: z.enum(['postgres', 'memory']).default('postgres'),
+  FIGURES_THROTTLE_MS: z.coerce.number().int().min(0).default(2000),
 });
 
 export interface Config {
@@ -49,6 +58,16 @@ export interface Config {
   clientDist: string;
   demoPassword: string;
   logRequests: boolean;
+  ingestRateLimitPerMin: number;
+  ingestBodyLimit: string;
+  /** How often the silence check, roll-ups and partition upkeep run. */
+  healthCheckIntervalMs: number;
+  jobsEnabled: boolean;
+  rawRetentionDays: number;
+  rollupRetentionDays: number;
+  partitionDaysAhead: number;
+  socketAdapter: 'postgres' | 'memory';
+  figuresThrottleMs: number;
   /** The clock every rule reads; tests replace it. */
   now: () => Date;
 }
@@ -83,6 +102,15 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     clientDist: e.CLIENT_DIST,
     demoPassword: e.PARAPET_DEMO_PASSWORD,
     logRequests: e.LOG_REQUESTS,
+    ingestRateLimitPerMin: e.INGEST_RATE_LIMIT_PER_MIN,
+    ingestBodyLimit: e.INGEST_BODY_LIMIT,
+    healthCheckIntervalMs: e.HEALTH_CHECK_INTERVAL_MS,
+    jobsEnabled: e.JOBS_ENABLED,
+    rawRetentionDays: e.RAW_RETENTION_DAYS,
+    rollupRetentionDays: e.ROLLUP_RETENTION_DAYS,
+    partitionDaysAhead: e.PARTITION_DAYS_AHEAD,
+    socketAdapter: e.SOCKET_ADAPTER,
+    figuresThrottleMs: e.FIGURES_THROTTLE_MS,
     now: () => new Date(),
     ...overrides,
   };

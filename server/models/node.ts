@@ -14,6 +14,12 @@ export class Node extends Model<InferAttributes<Node>, InferCreationAttributes<N
   declare state: CreationOptional<NodeState>;
   declare stateSince: CreationOptional<Date | null>;
   declare lastSeenAt: CreationOptional<Date | null>;
+  declare lastSeq: CreationOptional<string | null>;
+  declare lastReport: CreationOptional<Record<string, unknown> | null>;
+  declare healthStreak: CreationOptional<number>;
+  declare healthReason: CreationOptional<string | null>;
+  declare thresholds: CreationOptional<Record<string, number> | null>;
+  declare drift: CreationOptional<{ field: string; expected: unknown; reported: unknown }[] | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -32,6 +38,12 @@ export class Node extends Model<InferAttributes<Node>, InferCreationAttributes<N
         state: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'unknown' },
         stateSince: { type: DataTypes.DATE },
         lastSeenAt: { type: DataTypes.DATE },
+        lastSeq: { type: DataTypes.BIGINT },
+        lastReport: { type: DataTypes.JSONB },
+        healthStreak: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        healthReason: { type: DataTypes.TEXT },
+        thresholds: { type: DataTypes.JSONB },
+        drift: { type: DataTypes.JSONB },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

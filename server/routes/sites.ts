@@ -3,13 +3,16 @@ import { idParamsSchema } from '../../shared/schemas/common';
 import { siteCreateSchema, siteListQuerySchema, siteUpdateSchema } from '../../shared/schemas/site';
 import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
-import { Site, User } from '../models';
+import { Node, Site, User } from '../models';
 import { isAdmin } from '../policies/actor';
 import { authorize } from '../policies/authorize';
 import { mayCreateSiteIn, siteAbilities, siteScope } from '../policies/site';
 import { presentSite } from '../presenters/site';
+import { countOf, InUse, uniquely } from '../services/conflicts';
 import { filters, listPage } from '../services/listing';
 import { assertHost, readableNeighbourhood, readableSite } from '../services/references';
+
+const duplicateName = (name: string) => `This neighbourhood already has a site named "${name}". Choose another name.`;
 
 export function siteRoutes() {
   const router = Router();
@@ -37,7 +40,7 @@ export function siteRoutes() {
     await readableNeighbourhood(actor, body.neighbourhoodId);
     authorize(mayCreateSiteIn(actor, body.neighbourhoodId), 'Only admins and the operators of that neighbourhood add sites to it.');
     await assertHost(body.hostUserId);
-    const site = await Site.create(body);
+    const site = await uniquely(() => Site.create(body), duplicateName(body.name));
     res.status(201).json({ data: presentSite(await readableSite(actor, site.id), actor) });
   });
 
@@ -56,7 +59,7 @@ export function siteRoutes() {
       authorize(mayCreateSiteIn(actor, body.neighbourhoodId), 'You cannot move a site into a neighbourhood you do not operate.');
     }
     await assertHost(body.hostUserId);
-    await site.update(body);
+    await uniquely(() => site.update(body), duplicateName(body.name ?? site.name));
     res.json({ data: presentSite(await readableSite(actor, site.id), actor) });
   });
 
@@ -64,6 +67,8 @@ export function siteRoutes() {
     const actor = actorOf(req);
     const site = await readableSite(actor, res.locals.params.id);
     authorize(siteAbilities(actor, site).delete, 'Only admins and the operators of its neighbourhood remove this site.');
+    const nodeCount = await Node.count({ where: { siteId: site.id } });
+    if (nodeCount) throw InUse(`This site still carries ${countOf(nodeCount, 'node')}. Move or remove its nodes first.`);
     await site.destroy();
     res.status(204).end();
   });

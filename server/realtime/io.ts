@@ -1,0 +1,102 @@
+import type http from 'node:http';
+import { createAdapter } from '@socket.io/postgres-adapter';
+import type { NextFunction, Request, RequestHandler, Response } from 'express';
+import type passport from 'passport';
+import pg from 'pg';
+import { Server } from 'socket.io';
+import type { Config } from '../config';
+import type { Actor } from '../policies/actor';
+import { domainEvents, type NodeFiguresEvent } from '../services/events';
+
+/** Rooms an event about a node goes to: its neighbourhood, the admins, and its site's host. */
+export function roomsFor(e: { neighbourhoodId: number; hostUserId: number | null }): string[] {
+  const rooms = ['admins', `hood:${e.neighbourhoodId}`];
+  if (e.hostUserId) rooms.push(`host:${e.hostUserId}`);
+  return rooms;
+}
+
+/** Rooms a person may listen in: deny by default, exactly what they may read over the API. */
+export function roomsOf(actor: Actor): string[] {
+  if (actor.role === 'admin') return ['admins'];
+  const rooms = [`host:${actor.id}`];
+  if (actor.role === 'operator') rooms.push(...actor.neighbourhoodIds.map((id) => `hood:${id}`));
+  return rooms;
+}
+
+type EngineMiddleware = (req: Request & { _query?: Record<string, string> }, res: Response, next: NextFunction) => void;
+const onlyForHandshake = (mw: RequestHandler): EngineMiddleware => (req, res, next) =>
+  req._query?.sid === undefined ? (mw(req, res, next) as void) : next();
+
+/** socket.io on the app's HTTP server, authenticated from the session cookie. */
+export function createRealtime(server: http.Server, config: Config, session: RequestHandler, pp: typeof passport) {
+  const io = new Server(server, { serveClient: false });
+  let adapterPool: pg.Pool | null = null;
+  if (config.socketAdapter === 'postgres') {
+    // Fan-out across instances goes through PostgreSQL NOTIFY, so any instance can serve any browser.
+    adapterPool = new pg.Pool({ connectionString: config.databaseUrl, max: 2 });
+    adapterPool.on('error', (err) => console.error('socket adapter pool error:', err.message));
+    io.adapter(createAdapter(adapterPool, { tableName: 'socket_io_attachments', heartbeatInterval: 5_000 }));
+  }
+  io.engine.use(onlyForHandshake(session));
+  io.engine.use(onlyForHandshake(pp.initialize() as RequestHandler));
+  io.engine.use(onlyForHandshake(pp.session() as RequestHandler));
+  io.engine.use(
+    onlyForHandshake((req, res, next) => {
+      if (req.user) return next();
+      res.writeHead(401, { 'content-type': 'application/json' });
+      res.end(JSON.stringify({ error: { code: 'not_signed_in', message: 'Sign in to receive live updates.' } }));
+    }),
+  );
+
+  io.on('connection', (socket) => {
+    const actor = (socket.request as Request).user as Actor;
+    void socket.join(roomsOf(actor));
+  });
+
+  const onState = (e: Parameters<typeof roomsFor>[0] & object) => io.to(roomsFor(e)).emit('node:state', e);
+  const onOutage = (e: Parameters<typeof roomsFor>[0] & object) => io.to(roomsFor(e)).emit('outage', e);
+  const figures = throttledFigures(config.figuresThrottleMs, (e) => io.to(roomsFor(e)).emit('node:figures', e));
+  domainEvents.on('node-state', onState);
+  domainEvents.on('outage', onOutage);
+  domainEvents.on('node-figures', figures.push);
+
+  return {
+    io,
+    close: async () => {
+      domainEvents.off('node-state', onState);
+      domainEvents.off('outage', onOutage);
+      domainEvents.off('node-figures', figures.push);
+      figures.stop();
+      await new Promise<void>((resolve) => io.close(() => resolve()));
+      await adapterPool?.end();
+    },
+  };
+}
+
+/** At most one figures push per node per window; the latest figures win. */
+export function throttledFigures(windowMs: number, send: (e: NodeFiguresEvent) => void) {
+  const lastSent = new Map<number, number>();
+  const pending = new Map<number, { event: NodeFiguresEvent; timer: NodeJS.Timeout }>();
+  const push = (e: NodeFiguresEvent) => {
+    const now = Date.now();
+    const since = now - (lastSent.get(e.nodeId) ?? 0);
+    const queued = pending.get(e.nodeId);
+    if (queued) {
+      queued.event = e;
+      return;
+    }
+    if (since >= windowMs) {
+      lastSent.set(e.nodeId, now);
+      send(e);
+      return;
+    }
+    const timer = setTimeout(() => {
+      const p = pending.get(e.nodeId)!;
+      pending.delete(e.nodeId);
+      lastSent.set(e.nodeId, Date.now());
+      send(p.event);
+    }, windowMs - since);
+    pending.set(e.nodeId, { event: e, timer });
+  };
+  return { push, stop: () => pending.forEach((p) => clearTimeout(p.timer)) };
+}

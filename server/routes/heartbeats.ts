@@ -1,0 +1,48 @@
+import { createHash } from 'node:crypto';
+import express, { Router, type Request } from 'express';
+import { rateLimit } from 'express-rate-limit';
+import type { Sequelize } from 'sequelize';
+import { heartbeatBatchSchema, heartbeatReportSchema } from '../../shared/schemas/heartbeat';
+import type { Config } from '../config';
+import { ApiError, TooMany } from '../errors';
+import { parseOrThrow } from '../middlewares/validate';
+import { ingestReports } from '../services/heartbeatIngest';
+import { nodeForToken } from '../services/ingestTokens';
+
+const bearer = (req: Request) => /^Bearer\s+(\S+)$/i.exec(req.get('authorization') ?? '')?.[1] ?? null;
+const badToken = () => new ApiError(401, 'bad_token', 'The node token is missing, wrong or revoked. Issue a new one from the node page.');
+
+/** Nodes post reports here with their own bearer token; no session, no CSRF. */
+export function heartbeatRoutes(config: Config, sequelize: Sequelize) {
+  const router = Router();
+  // Many nodes share one gateway address, so the limit is per token, never per address.
+  const perToken = rateLimit({
+    windowMs: 60_000,
+    limit: config.ingestRateLimitPerMin,
+    keyGenerator: (req) => createHash('sha256').update(bearer(req) ?? '').digest('hex'),
+    validate: { keyGeneratorIpFallback: false },
+    handler: (req, _res, next) => {
+      const resetAt = (req as Request & { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime?.getTime() ?? Date.now() + 60_000;
+      next(TooMany((resetAt - Date.now()) / 1000, 'This node is sending too many reports. Slow down and retry after the wait.'));
+    },
+  });
+
+  router.post(
+    '/',
+    (req, _res, next) => next(bearer(req) ? undefined : badToken()),
+    perToken,
+    express.json({ limit: config.ingestBodyLimit }),
+    async (req, res) => {
+      const node = await nodeForToken(sequelize, bearer(req)!);
+      if (!node) throw badToken();
+      const body = req.body as unknown;
+      const reports =
+        body && typeof body === 'object' && 'reports' in body
+          ? parseOrThrow(heartbeatBatchSchema, body, 'batch').reports
+          : [parseOrThrow(heartbeatReportSchema, body, 'report')];
+      const result = await ingestReports(sequelize, node, reports, config.now());
+      res.status(202).json(result);
+    },
+  );
+  return router;
+}

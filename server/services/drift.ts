@@ -1,0 +1,44 @@
+import { QueryTypes, type Sequelize } from 'sequelize';
+import type { HeartbeatReport } from '../../shared/schemas/heartbeat';
+
+export interface DriftItem {
+  field: string;
+  expected: string | number | null;
+  reported: string | number | null;
+}
+
+interface InventoryRadio { iface: string; channel: number; channelWidthMHz: number; ssid: string | null }
+const cache = new Map<number, { at: number; radios: InventoryRadio[] }>();
+const CACHE_MS = 30_000;
+
+async function inventoryRadios(sequelize: Sequelize, nodeId: number): Promise<InventoryRadio[]> {
+  const hit = cache.get(nodeId);
+  if (hit && Date.now() - hit.at < CACHE_MS) return hit.radios;
+  const radios = await sequelize.query<InventoryRadio>(
+    'SELECT iface, channel, channel_width_mhz AS "channelWidthMHz", ssid FROM radios WHERE node_id = $1',
+    { bind: [nodeId], type: QueryTypes.SELECT },
+  );
+  cache.set(nodeId, { at: Date.now(), radios });
+  return radios;
+}
+
+export const forgetInventory = (nodeId?: number) => (nodeId === undefined ? cache.clear() : cache.delete(nodeId));
+
+/** Settings the node reports that differ from what the inventory says it should run. */
+export async function driftOf(sequelize: Sequelize, nodeId: number, inventoryFirmware: string | null, r: HeartbeatReport): Promise<DriftItem[]> {
+  const out: DriftItem[] = [];
+  if (r.firmware && inventoryFirmware && r.firmware !== inventoryFirmware) out.push({ field: 'firmware', expected: inventoryFirmware, reported: r.firmware });
+  if (!r.radios?.length) return out;
+  const inventory = await inventoryRadios(sequelize, nodeId);
+  for (const reported of r.radios) {
+    const planned = inventory.find((i) => i.iface === reported.iface);
+    if (!planned) continue;
+    if (reported.channel !== undefined && reported.channel !== planned.channel)
+      out.push({ field: `${reported.iface}.channel`, expected: planned.channel, reported: reported.channel });
+    if (reported.channelWidthMHz !== undefined && reported.channelWidthMHz !== planned.channelWidthMHz)
+      out.push({ field: `${reported.iface}.channelWidthMHz`, expected: planned.channelWidthMHz, reported: reported.channelWidthMHz });
+    if (reported.ssid !== undefined && planned.ssid !== null && reported.ssid !== planned.ssid)
+      out.push({ field: `${reported.iface}.ssid`, expected: planned.ssid, reported: reported.ssid });
+  }
+  return out;
+}

@@ -1,0 +1,50 @@
+import { createHash, randomBytes } from 'node:crypto';
+import type { Sequelize } from 'sequelize';
+import { QueryTypes } from 'sequelize';
+
+/** 32 random bytes (256 bits); only the SHA-256 is stored, which is enough for a secret this long. */
+export function newToken(nodeId: number): string {
+  return `ppt_${nodeId}_${randomBytes(32).toString('base64url')}`;
+}
+export const hashToken = (token: string) => createHash('sha256').update(token).digest('hex');
+
+/** Issues a new token and revokes every earlier one of the node, in one transaction. */
+export async function rotateToken(sequelize: Sequelize, nodeId: number, now: Date): Promise<string> {
+  const token = newToken(nodeId);
+  await sequelize.transaction(async (transaction) => {
+    await sequelize.query('UPDATE node_tokens SET revoked_at = $2 WHERE node_id = $1 AND revoked_at IS NULL', { bind: [nodeId, now], transaction });
+    await sequelize.query('INSERT INTO node_tokens (node_id, token_hash, created_at) VALUES ($1, $2, $3)', { bind: [nodeId, hashToken(token), now], transaction });
+  });
+  return token;
+}
+
+export async function revokeTokens(sequelize: Sequelize, nodeId: number, now: Date): Promise<number> {
+  const [, count] = await sequelize.query('UPDATE node_tokens SET revoked_at = $2 WHERE node_id = $1 AND revoked_at IS NULL', { bind: [nodeId, now] });
+  return Number((count as { rowCount?: number })?.rowCount ?? count ?? 0);
+}
+
+export interface TokenNode {
+  nodeId: number;
+  neighbourhoodId: number;
+  hostUserId: number | null;
+  state: string;
+  healthStreak: number;
+  lastSeq: string | null;
+  reportIntervalS: number;
+  thresholds: Record<string, number> | null;
+  firmware: string | null;
+}
+
+/** The node a bearer token belongs to, with what ingest needs, in one indexed lookup. */
+export async function nodeForToken(sequelize: Sequelize, token: string): Promise<TokenNode | null> {
+  if (!/^ppt_\d+_[A-Za-z0-9_-]{43}$/.test(token)) return null;
+  const rows = await sequelize.query<TokenNode>(
+    `SELECT n.id AS "nodeId", n.neighbourhood_id AS "neighbourhoodId", s.host_user_id AS "hostUserId", n.state,
+            n.health_streak AS "healthStreak", n.last_seq::text AS "lastSeq", n.report_interval_s AS "reportIntervalS",
+            n.thresholds, n.firmware
+       FROM node_tokens t JOIN nodes n ON n.id = t.node_id JOIN sites s ON s.id = n.site_id
+      WHERE t.token_hash = $1 AND t.revoked_at IS NULL`,
+    { bind: [hashToken(token)], type: QueryTypes.SELECT },
+  );
+  return rows[0] ?? null;
+}
