@@ -19,6 +19,7 @@ import { linkRoutes } from './routes/links';
 import { neighbourhoodRoutes } from './routes/neighbourhoods';
 import { nodeRoutes } from './routes/nodes';
 import { overviewRoutes } from './routes/overview';
+import { planningRoutes } from './routes/planning';
 import { radioRoutes } from './routes/radios';
 import { sessionRoutes } from './routes/session';
 import { siteRoutes } from './routes/sites';
@@ -91,6 +92,7 @@ export function createApp({ config, sequelize }: AppContext) {
   api.use('/links', requireUser, linkRoutes());
   api.use('/users', requireUser, userRoutes());
   api.use('/overview', requireUser, overviewRoutes());
+  api.use('/planning', requireUser, planningRoutes());
   api.use((req, _res, next) => next(new ApiError(404, 'no_such_route', `There is no ${req.method} ${req.baseUrl}${req.path} in the API.`)));
   app.use('/api/v1', api);
   app.use('/api', (req, _res, next) => next(NotFound(`The API address ${req.originalUrl}`)));

@@ -1,5 +1,6 @@
 import type { NextFunction, Request, Response } from 'express';
 import { BaseError, ConnectionError, ForeignKeyConstraintError, UniqueConstraintError, ValidationError } from 'sequelize';
+import { isPlanningError } from '../../shared/radio/errors';
 import { ApiError, Conflict, Invalid, Unavailable } from '../errors';
 
 /** Maps database errors that reach the handler to the client errors they really are. */
@@ -24,6 +25,7 @@ function isConnectionFailure(err: unknown): boolean {
 export function errorHandler(err: unknown, req: Request, res: Response, _next: NextFunction) {
   let apiError: ApiError | null = null;
   if (err instanceof ApiError) apiError = err;
+  else if (isPlanningError(err)) apiError = new ApiError(err.status, err.code, err.message);
   else if (err instanceof BaseError) apiError = fromDatabase(err);
   else if (isConnectionFailure(err)) apiError = Unavailable();
   else if ((err as { type?: string })?.type === 'entity.too.large')

@@ -6,7 +6,11 @@ import { Invalid } from '../errors';
 export function issuesToDetails(error: z.ZodError, prefix: (string | number)[] = []) {
   return error.issues.map((i) => {
     const path = [...prefix, ...i.path].map(String).join('.');
-    return { path, message: path ? `${path} ${i.message}` : i.message };
+    const last = String(i.path[i.path.length - 1] ?? '');
+    // Some schemas already name the field in their message; do not name it twice.
+    const named = last !== '' && i.message.startsWith(`${last} `);
+    const message = !path ? i.message : named ? `${path}${i.message.slice(last.length)}` : `${path} ${i.message}`;
+    return { path, message };
   });
 }
 

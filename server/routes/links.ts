@@ -9,6 +9,7 @@ import { Link, Node, Radio } from '../models';
 import { type Actor, isAdmin, mayManage } from '../policies/actor';
 import { authorize } from '../policies/authorize';
 import { presentLink } from '../presenters/link';
+import { uniquely } from '../services/conflicts';
 import { listPage } from '../services/listing';
 import { readableRadio } from './radios';
 
@@ -63,7 +64,7 @@ export function linkRoutes() {
     const body = res.locals.body;
     const [a, b] = await Promise.all([readableRadio(actor, body.radioAId), readableRadio(actor, body.radioBId)]);
     authorize(mayManage(actor, a.node!.neighbourhoodId) || mayManage(actor, b.node!.neighbourhoodId), 'Only admins and the operators of one of its ends add this link.');
-    const link = await Link.create(body);
+    const link = await uniquely(() => Link.create(body), `Radios ${body.radioAId} and ${body.radioBId} are already linked. Change that link instead of adding another.`);
     res.status(201).json({ data: presentLinkFor(actor, await readableLink(actor, link.id)) });
   });
 

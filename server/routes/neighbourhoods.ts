@@ -15,6 +15,7 @@ import type { Actor } from '../policies/actor';
 import { authorize } from '../policies/authorize';
 import { mayCreateNeighbourhood, neighbourhoodAbilities, neighbourhoodScope } from '../policies/neighbourhood';
 import { presentNeighbourhood } from '../presenters/neighbourhood';
+import { countOf, InUse, uniquely } from '../services/conflicts';
 import { listPage } from '../services/listing';
 
 async function countsFor(ids: number[]) {
@@ -42,6 +43,8 @@ async function present(n: Neighbourhood, actor: Actor) {
   return presentNeighbourhood(n, (await countsFor([n.id]))(n.id), actor);
 }
 
+const duplicateName = (name: string) => `A neighbourhood named "${name}" already exists. Choose another name.`;
+
 export function neighbourhoodRoutes() {
   const router = Router();
 
@@ -64,7 +67,7 @@ export function neighbourhoodRoutes() {
   router.post('/', validate('body', neighbourhoodCreateSchema), async (req, res) => {
     const actor = actorOf(req);
     authorize(mayCreateNeighbourhood(actor), 'Only admins create neighbourhoods.');
-    const n = await Neighbourhood.create(res.locals.body);
+    const n = await uniquely(() => Neighbourhood.create(res.locals.body), duplicateName(res.locals.body.name));
     res.status(201).json({ data: await present(n, actor) });
   });
 
@@ -77,7 +80,7 @@ export function neighbourhoodRoutes() {
     const actor = actorOf(req);
     const n = await findReadable(actor, res.locals.params.id);
     authorize(neighbourhoodAbilities(actor, n).update, 'Only admins change neighbourhoods.');
-    await n.update(res.locals.body);
+    await uniquely(() => n.update(res.locals.body), duplicateName(res.locals.body.name ?? n.name));
     res.json({ data: await present(n, actor) });
   });
 
@@ -85,6 +88,11 @@ export function neighbourhoodRoutes() {
     const actor = actorOf(req);
     const n = await findReadable(actor, res.locals.params.id);
     authorize(neighbourhoodAbilities(actor, n).delete, 'Only admins remove neighbourhoods.');
+    const { siteCount, nodeCount } = (await countsFor([n.id]))(n.id);
+    if (siteCount || nodeCount) {
+      const held = [siteCount && countOf(siteCount, 'site'), nodeCount && countOf(nodeCount, 'node')].filter(Boolean).join(' and ');
+      throw InUse(`This neighbourhood still has ${held}. Move or remove them first.`);
+    }
     await n.destroy();
     res.status(204).end();
   });

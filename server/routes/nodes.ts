@@ -8,10 +8,13 @@ import { isAdmin, mayManage } from '../policies/actor';
 import { authorize } from '../policies/authorize';
 import { nodeAbilities, nodeScope } from '../policies/node';
 import { presentNode } from '../presenters/node';
+import { uniquely } from '../services/conflicts';
 import { filters, listPage } from '../services/listing';
 import { readableNeighbourhood, readableNode, readableSite } from '../services/references';
 
 const MANAGE = 'Only admins and the operators of its neighbourhood change this node.';
+
+const duplicateName = (name: string) => `A node named "${name}" already exists; node names are unique across the network. Choose another name.`;
 
 export function nodeRoutes() {
   const router = Router();
@@ -40,8 +43,9 @@ export function nodeRoutes() {
     const neighbourhoodId: number = body.neighbourhoodId ?? site.neighbourhoodId;
     if (body.neighbourhoodId !== undefined) await readableNeighbourhood(actor, neighbourhoodId);
     authorize(mayManage(actor, neighbourhoodId) && mayManage(actor, site.neighbourhoodId), 'Only admins and the operators of that neighbourhood add nodes to it.');
-    if (body.isUplink !== undefined) authorize(isAdmin(actor), 'Only admins mark which nodes carry the uplink.');
-    const node = await Node.create({ ...body, neighbourhoodId, stateSince: null });
+    // The form always sends the box; only ticking it is an admin's call.
+    if (body.isUplink) authorize(isAdmin(actor), 'Only admins mark which nodes carry the uplink.');
+    const node = await uniquely(() => Node.create({ ...body, neighbourhoodId, stateSince: null }), duplicateName(body.name));
     res.status(201).json({ data: presentNode(node, actor) });
   });
 
@@ -64,7 +68,7 @@ export function nodeRoutes() {
       authorize(mayManage(actor, body.neighbourhoodId), 'You cannot move a node into a neighbourhood you do not operate.');
     }
     if (body.isUplink !== undefined && body.isUplink !== node.isUplink) authorize(isAdmin(actor), 'Only admins mark which nodes carry the uplink.');
-    await node.update(body);
+    await uniquely(() => node.update(body), duplicateName(body.name ?? node.name));
     res.json({ data: presentNode(node, actor) });
   });
 

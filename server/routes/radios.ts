@@ -10,6 +10,7 @@ import { type Actor, isAdmin, mayManage } from '../policies/actor';
 import { authorize } from '../policies/authorize';
 import { nodeScope } from '../policies/node';
 import { presentRadio } from '../presenters/radio';
+import { uniquely } from '../services/conflicts';
 import { filters, listPage } from '../services/listing';
 import { readableNode } from '../services/references';
 
@@ -27,6 +28,8 @@ function checkBandChannel(band: string, channel: number) {
   const ok = band === '2.4' ? channel >= 1 && channel <= 14 : channel >= 32;
   if (!ok) throw Invalid('The channel does not fit the band.', [{ path: 'channel', message: 'channel must be 1–14 on 2.4 GHz or 32 and above on 5 GHz' }]);
 }
+
+const duplicateIface = (iface: string) => `That node already has a radio on interface ${iface}. Choose another interface name.`;
 
 export function radioRoutes() {
   const router = Router();
@@ -53,7 +56,7 @@ export function radioRoutes() {
     const body = res.locals.body;
     const node = await readableNode(actor, body.nodeId);
     authorize(mayManage(actor, node.neighbourhoodId), 'Only admins and the operators of its neighbourhood add radios to this node.');
-    const radio = await Radio.create(body);
+    const radio = await uniquely(() => Radio.create(body), duplicateIface(body.iface));
     res.status(201).json({ data: presentRadio(radio, node.neighbourhoodId, actor) });
   });
 
@@ -73,7 +76,7 @@ export function radioRoutes() {
       authorize(mayManage(actor, target.neighbourhoodId), 'You cannot move a radio to a node you do not operate.');
     }
     checkBandChannel(body.band ?? r.band, body.channel ?? r.channel);
-    await r.update(body);
+    await uniquely(() => r.update(body), duplicateIface(body.iface ?? r.iface));
     const fresh = await readableRadio(actor, r.id);
     res.json({ data: presentRadio(fresh, fresh.node!.neighbourhoodId, actor) });
   });

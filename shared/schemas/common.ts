@@ -7,7 +7,7 @@ export const idParamsSchema = z.object({ id: idSchema });
 
 /** Text that will appear in mail headers and pages: no control characters, trimmed. */
 export const nameSchema = z
-  .string({ error: 'is required' })
+  .string({ error: (issue) => (issue.input === undefined ? 'is required' : 'must be text') })
   .trim()
   .min(1, 'must not be empty')
   .max(120, 'must be at most 120 characters')

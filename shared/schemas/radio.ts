@@ -4,9 +4,10 @@ import { idSchema, listQuerySchema } from './common';
 
 const oneOf = (values: readonly string[]) => `must be one of ${values.join(', ')}`;
 
-export const radioBaseSchema = z.object({
+/** Every radio field, without defaults (see radioUpdateSchema for why). */
+const radioFields = {
   nodeId: idSchema,
-  iface: z.string().trim().regex(/^[A-Za-z0-9._-]{1,15}$/, 'must be an interface name like wlan0').default('wlan0'),
+  iface: z.string().trim().regex(/^[A-Za-z0-9._-]{1,15}$/, 'must be an interface name like wlan0'),
   band: z.enum(BANDS, { error: oneOf(BANDS) }),
   channel: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(196, 'must be at most 196'),
   channelWidthMHz: z.union(CHANNEL_WIDTHS_MHZ.map((w) => z.literal(w)) as [z.ZodLiteral<20>, z.ZodLiteral<40>, z.ZodLiteral<80>], {
@@ -14,8 +15,8 @@ export const radioBaseSchema = z.object({
   }),
   txPowerDbm: z.number({ error: 'must be a number' }).min(-10, 'must be at least -10 dBm').max(36, 'must be at most 36 dBm'),
   antennaGainDbi: z.number({ error: 'must be a number' }).min(-10, 'must be at least -10 dBi').max(45, 'must be at most 45 dBi'),
-  polarisation: z.enum(POLARISATIONS, { error: oneOf(POLARISATIONS) }).default('vertical'),
-  cableLossDb: z.number({ error: 'must be a number' }).min(0, 'must be 0 dB or more').max(30, 'must be at most 30 dB').default(0),
+  polarisation: z.enum(POLARISATIONS, { error: oneOf(POLARISATIONS) }),
+  cableLossDb: z.number({ error: 'must be a number' }).min(0, 'must be 0 dB or more').max(30, 'must be at most 30 dB'),
   role: z.enum(RADIO_ROLES, { error: oneOf(RADIO_ROLES) }),
   ssid: z
     .string()
@@ -31,7 +32,15 @@ export const radioBaseSchema = z.object({
     .refine((k) => /^[\x20-\x7e]{8,63}$/.test(k) || /^[0-9a-fA-F]{64}$/.test(k), 'must be 8–63 printable characters or 64 hex digits')
     .optional()
     .nullable(),
-  groupRekeyS: z.number({ error: 'must be a number' }).int('must be a whole number of seconds').min(0, 'must be 0 or more').max(604800, 'must be at most one week').default(600),
+  groupRekeyS: z.number({ error: 'must be a number' }).int('must be a whole number of seconds').min(0, 'must be 0 or more').max(604800, 'must be at most one week'),
+};
+
+export const radioBaseSchema = z.object({
+  ...radioFields,
+  iface: radioFields.iface.default('wlan0'),
+  polarisation: radioFields.polarisation.default('vertical'),
+  cableLossDb: radioFields.cableLossDb.default(0),
+  groupRekeyS: radioFields.groupRekeyS.default(600),
 });
 
 function channelFitsBand(r: { band?: string; channel?: number }): boolean {
@@ -41,7 +50,8 @@ function channelFitsBand(r: { band?: string; channel?: number }): boolean {
 const channelBandMessage = { message: 'must be 1–14 on 2.4 GHz or 32 and above on 5 GHz', path: ['channel'] };
 
 export const radioCreateSchema = radioBaseSchema.refine(channelFitsBand, channelBandMessage);
-export const radioUpdateSchema = radioBaseSchema.partial().refine(channelFitsBand, channelBandMessage);
+// Without defaults: zod fills defaults inside optional fields, which would reset what a partial update leaves out.
+export const radioUpdateSchema = z.object(radioFields).partial().refine(channelFitsBand, channelBandMessage);
 export const radioListQuerySchema = listQuerySchema.extend({
   nodeId: idSchema.optional(),
   band: z.enum(BANDS, { error: oneOf(BANDS) }).optional(),

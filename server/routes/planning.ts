@@ -1,0 +1,32 @@
+import { Router } from 'express';
+import { computeLinkBudget } from '../../shared/radio/plan';
+import { listChannels } from '../../shared/radio/channels';
+import { computeRegulatory } from '../../shared/radio/regulatory';
+import { planAddresses } from '../../shared/addressing/cidr';
+import { addressPlanBodySchema, channelsQuerySchema, linkBudgetBodySchema, regulatoryBodySchema } from '../../shared/schemas/planning';
+import { actorOf } from '../middlewares/requireUser';
+import { validate } from '../middlewares/validate';
+import { authorize } from '../policies/authorize';
+import { mayPlan } from '../policies/planning';
+
+/** The trade's computations; answers sit at the top level (API.md "Planning computations"). */
+export function planningRoutes() {
+  const router = Router();
+  router.use((req, _res, next) => {
+    authorize(mayPlan(actorOf(req)), 'Planning is for operators and admins.');
+    next();
+  });
+  router.post('/link-budget', validate('body', linkBudgetBodySchema), (_req, res) => {
+    res.json(computeLinkBudget(res.locals.body));
+  });
+  router.post('/regulatory', validate('body', regulatoryBodySchema), (_req, res) => {
+    res.json(computeRegulatory(res.locals.body));
+  });
+  router.get('/channels', validate('query', channelsQuerySchema), (_req, res) => {
+    res.json(listChannels(res.locals.query.region, res.locals.query.band));
+  });
+  router.post('/address-plan', validate('body', addressPlanBodySchema), (_req, res) => {
+    res.json(planAddresses(res.locals.body));
+  });
+  return router;
+}

@@ -1,0 +1,97 @@
+import { z } from 'zod';
+import { parseCidr } from '../addressing/cidr';
+import { PlanningError } from '../radio/errors';
+
+const num = (name: string) => z.number({ error: `${name} must be a number` });
+const between = (name: string, lo: number, hi: number, unit: string) =>
+  num(name).min(lo, `${name} must be at least ${lo} ${unit}`).max(hi, `${name} must be at most ${hi} ${unit}`);
+
+/** Wi-Fi channels only exist in 2400–2500 and 4900–5900 MHz. */
+export const wifiFreqMHzSchema = num('freqMHz').refine(
+  (f) => (f >= 2400 && f <= 2500) || (f >= 4900 && f <= 5900),
+  'freqMHz must be a Wi-Fi frequency: 2400–2500 or 4900–5900 MHz',
+);
+export const channelWidthMHzSchema = z.union([z.literal(20), z.literal(40), z.literal(80)], { error: 'channelWidthMHz must be 20, 40 or 80' });
+
+export const linkEndSchema = z.object({
+  lat: between('lat', -90, 90, 'degrees'),
+  lon: between('lon', -180, 180, 'degrees'),
+  heightM: between('heightM', 0, 300, 'm'),
+  groundElevationM: between('groundElevationM', -450, 9000, 'm').optional(),
+});
+
+export const linkBudgetBodySchema = z
+  .object({
+    a: linkEndSchema.optional(),
+    b: linkEndSchema.optional(),
+    distanceKm: num('distanceKm').positive('distanceKm must be greater than 0 km').max(500, 'distanceKm must be at most 500 km'),
+    freqMHz: wifiFreqMHzSchema,
+    channelWidthMHz: channelWidthMHzSchema,
+    txPowerDbm: between('txPowerDbm', -10, 36, 'dBm'),
+    txAntennaGainDbi: between('txAntennaGainDbi', -10, 45, 'dBi'),
+    txCableLossDb: between('txCableLossDb', 0, 30, 'dB'),
+    rxAntennaGainDbi: between('rxAntennaGainDbi', -10, 45, 'dBi'),
+    rxCableLossDb: between('rxCableLossDb', 0, 30, 'dB'),
+    noiseFigureDb: between('noiseFigureDb', 0, 20, 'dB').default(5),
+  })
+  .partial({ distanceKm: true })
+  .superRefine((body, ctx) => {
+    const sites = body.a !== undefined || body.b !== undefined;
+    const distance = body.distanceKm !== undefined;
+    if (sites && distance) {
+      ctx.addIssue({ code: 'custom', path: ['distanceKm'], message: 'Give either sites a and b or distanceKm, not both' });
+    } else if (!sites && !distance) {
+      ctx.addIssue({ code: 'custom', path: ['a'], message: 'Give sites a and b, or distanceKm' });
+    } else if (sites && (body.a === undefined || body.b === undefined)) {
+      ctx.addIssue({ code: 'custom', path: [body.a ? 'b' : 'a'], message: 'Both sites a and b are needed' });
+    } else if (body.a && body.b && body.a.lat === body.b.lat && body.a.lon === body.b.lon) {
+      ctx.addIssue({ code: 'custom', path: ['b'], message: 'Sites a and b are the same place; pick two different sites' });
+    }
+  });
+export type LinkBudgetBody = z.infer<typeof linkBudgetBodySchema>;
+
+export const regulatoryBodySchema = z.object({
+  region: z.enum(['US', 'EU'], { error: 'region must be US or EU' }),
+  freqMHz: wifiFreqMHzSchema,
+  antennaGainDbi: between('antennaGainDbi', -10, 45, 'dBi'),
+  txPowerDbm: between('txPowerDbm', -10, 36, 'dBm'),
+  cableLossDb: between('cableLossDb', 0, 30, 'dB'),
+  linkType: z.enum(['point-to-point', 'point-to-multipoint'], { error: 'linkType must be point-to-point or point-to-multipoint' }),
+});
+export type RegulatoryBody = z.infer<typeof regulatoryBodySchema>;
+
+export const channelsQuerySchema = z.object({
+  region: z.enum(['US', 'EU', 'JP'], { error: 'region must be US, EU or JP' }),
+  band: z.enum(['2.4', '5'], { error: 'band must be 2.4 or 5' }),
+});
+export type ChannelsQuery = z.infer<typeof channelsQuerySchema>;
+
+/** A strict IPv4 CIDR; the message says what is wrong (leading zeros, host bits set, …). */
+export const cidrSchema = z.string({ error: 'must be an IPv4 CIDR like 10.20.0.0/16' }).superRefine((text, ctx) => {
+  try {
+    parseCidr(text);
+  } catch (e) {
+    if (!(e instanceof PlanningError)) throw e;
+    ctx.addIssue({ code: 'custom', message: e.message });
+  }
+});
+
+export const addressPlanBodySchema = z
+  .object({
+    pool: cidrSchema,
+    prefixLength: num('prefixLength').int('prefixLength must be a whole number').min(1, 'prefixLength must be 1–32').max(32, 'prefixLength must be 1–32'),
+    count: num('count').int('count must be a whole number').min(1, 'count must be 1–4096').max(4096, 'count must be 1–4096'),
+    taken: z.array(cidrSchema).max(65536, 'taken may list at most 65536 blocks').optional(),
+  })
+  .superRefine((body, ctx) => {
+    let poolPrefix: number;
+    try {
+      poolPrefix = parseCidr(body.pool).prefixLength;
+    } catch {
+      return; // already reported on `pool`
+    }
+    if (body.prefixLength < poolPrefix) {
+      ctx.addIssue({ code: 'custom', path: ['prefixLength'], message: `prefixLength /${body.prefixLength} is shorter than the pool's /${poolPrefix}; use /${poolPrefix} or longer` });
+    }
+  });
+export type AddressPlanBody = z.infer<typeof addressPlanBodySchema>;

@@ -1,0 +1,136 @@
+import request from 'supertest';
+import { describe, expect, it } from 'vitest';
+import { buildUser, call, signIn, useApi } from '../helpers/api';
+
+const linkBody = {
+  distanceKm: 5,
+  freqMHz: 5500,
+  channelWidthMHz: 20,
+  txPowerDbm: 20,
+  txAntennaGainDbi: 23,
+  txCableLossDb: 1,
+  rxAntennaGainDbi: 23,
+  rxCableLossDb: 1,
+};
+
+describe('planning routes', () => {
+  const ctx = useApi();
+
+  it('requires sign-in (401) and refuses hosts (403)', async () => {
+    expect((await request(ctx.app).post('/api/v1/planning/link-budget').send(linkBody)).status).toBe(401);
+    const host = await signIn(ctx, await buildUser({ role: 'host' }));
+    const res = await call(host, 'post', '/api/v1/planning/link-budget', linkBody);
+    expect(res.status).toBe(403);
+    expect(res.body.error.message).toBe('Planning is for operators and admins.');
+  });
+
+  it('computes a link budget over a given distance with every field at the top level', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const res = await call(op, 'post', '/api/v1/planning/link-budget', linkBody);
+    expect(res.status).toBe(200);
+    // ITU-R P.525: 32.4478 + 20·log10(5500) + 20·log10(5) = 121.23 dB
+    expect(res.body.fsplDb).toBeCloseTo(121.23, 1);
+    // EIRP = Ptx + Gtx − Ltx = 20 + 23 − 1
+    expect(res.body.eirpDbm).toBeCloseTo(42, 5);
+    // Prx = 42 − 121.23 + 23 − 1 = −57.23 dBm
+    expect(res.body.rxSignalDbm).toBeCloseTo(-57.23, 1);
+    // −174 + 10·log10(20e6) + 5 = −95.99 dBm
+    expect(res.body.noiseFloorDbm).toBeCloseTo(-95.99, 1);
+    // 802.11 HT MCS7 at 20 MHz needs −64 dBm: 65 Mb/s long GI; fade margin against MCS0 (−82 dBm)
+    expect(res.body.expectedRateMbps).toBe(65);
+    expect(res.body.fadeMarginDb).toBeCloseTo(-57.23 + 82, 1);
+    expect(res.body.azimuthDeg).toBeNull();
+    for (const key of ['distanceKm', 'reverseAzimuthDeg', 'tiltDeg', 'snrDb', 'fresnelRadiusM', 'earthBulgeM', 'clearanceNeededM']) expect(res.body).toHaveProperty(key);
+  });
+
+  it('computes distance and bearings between two sites', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'admin' }));
+    const { distanceKm: _d, ...rest } = linkBody;
+    const res = await call(op, 'post', '/api/v1/planning/link-budget', { ...rest, a: { lat: 47.6, lon: -38.4, heightM: 20 }, b: { lat: 47.62, lon: -38.4, heightM: 10 } });
+    expect(res.status).toBe(200);
+    expect(res.body.distanceKm).toBeGreaterThan(2.2);
+    expect(res.body.distanceKm).toBeLessThan(2.3);
+    expect(res.body.azimuthDeg).toBeCloseTo(0, 1);
+    expect(res.body.reverseAzimuthDeg).toBeCloseTo(180, 1);
+  });
+
+  it.each([
+    ['a frequency outside Wi-Fi', { ...linkBody, freqMHz: 900 }, 'freqMHz'],
+    ['a width of 30 MHz', { ...linkBody, channelWidthMHz: 30 }, 'channelWidthMHz'],
+    ['a negative distance', { ...linkBody, distanceKm: -1 }, 'distanceKm'],
+    ['a latitude of 95', { ...linkBody, distanceKm: undefined, a: { lat: 95, lon: 0, heightM: 1 }, b: { lat: 0, lon: 0, heightM: 1 } }, 'a.lat'],
+    ['no distance and no sites', { ...linkBody, distanceKm: undefined }, 'a'],
+    ['power as text', { ...linkBody, txPowerDbm: '20' }, 'txPowerDbm'],
+  ])('rejects a link budget with %s (400)', async (_name, body, path) => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const res = await call(op, 'post', '/api/v1/planning/link-budget', body);
+    expect(res.status).toBe(400);
+    expect(res.body.error.details.map((d: { path: string }) => d.path)).toContain(path);
+  });
+
+  it('checks the US 2.4 GHz point-to-point rule (47 CFR §15.247 worked example: 24 dBi → 24 dBm, 48 dBm EIRP)', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const res = await call(op, 'post', '/api/v1/planning/regulatory', { region: 'US', freqMHz: 2437, antennaGainDbi: 24, txPowerDbm: 24, cableLossDb: 0, linkType: 'point-to-point' });
+    expect(res.status).toBe(200);
+    expect(res.body.maxTxPowerDbm).toBeCloseTo(24, 5);
+    expect(res.body.maxEirpDbm).toBeCloseTo(48, 5);
+    expect(res.body.compliant).toBe(true);
+    expect(typeof res.body.rule).toBe('string');
+  });
+
+  it('caps EU 2.4 GHz at 20 dBm EIRP whatever the antenna (ETSI EN 300 328)', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const res = await call(op, 'post', '/api/v1/planning/regulatory', { region: 'EU', freqMHz: 2437, antennaGainDbi: 8, txPowerDbm: 20, cableLossDb: 1, linkType: 'point-to-multipoint' });
+    expect(res.body.maxEirpDbm).toBeCloseTo(20, 5);
+    expect(res.body.eirpDbm).toBeCloseTo(27, 5);
+    expect(res.body.compliant).toBe(false);
+  });
+
+  it('refuses an unknown region and a frequency outside the licence-exempt bands with 400', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const base = { antennaGainDbi: 8, txPowerDbm: 20, cableLossDb: 1, linkType: 'point-to-point' };
+    expect((await call(op, 'post', '/api/v1/planning/regulatory', { ...base, region: 'XX', freqMHz: 2437 })).status).toBe(400);
+    expect((await call(op, 'post', '/api/v1/planning/regulatory', { ...base, region: 'EU', freqMHz: 5900 })).status).toBe(400);
+  });
+
+  it('lists the channels a region allows (JP 14 noted as 802.11b only; US DFS noted)', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const jp = await op.get('/api/v1/planning/channels?region=JP&band=2.4');
+    expect(jp.status).toBe(200);
+    const ch14 = jp.body.channels.find((c: { channel: number }) => c.channel === 14);
+    expect(ch14.centerMHz).toBe(2484); // IEEE 802.11: channel 14 = 2484 MHz
+    expect(ch14.note).toMatch(/802\.11b/);
+    const us = await op.get('/api/v1/planning/channels?region=US&band=2.4');
+    expect(us.body.channels.map((c: { channel: number }) => c.channel)).toEqual([1, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11]);
+    const us5 = await op.get('/api/v1/planning/channels?region=US&band=5');
+    const c52 = us5.body.channels.find((c: { channel: number }) => c.channel === 52);
+    expect(c52.centerMHz).toBe(5260);
+    expect(c52.note).toMatch(/DFS/);
+    expect((await op.get('/api/v1/planning/channels?region=XX&band=2.4')).status).toBe(400);
+  });
+
+  it('allocates the first free subnets in address order, skipping taken ones (RFC 4632)', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const res = await call(op, 'post', '/api/v1/planning/address-plan', { pool: '10.64.0.0/16', prefixLength: 24, count: 2, taken: ['10.64.0.0/24'] });
+    expect(res.status).toBe(200);
+    expect(res.body.subnets[0]).toEqual({
+      cidr: '10.64.1.0/24', netmask: '255.255.255.0', gateway: '10.64.1.1', firstHost: '10.64.1.1', lastHost: '10.64.1.254', broadcast: '10.64.1.255', usableHosts: 254,
+    });
+    expect(res.body.subnets[1].cidr).toBe('10.64.2.0/24');
+  });
+
+  it('gives /31 two usable hosts and no broadcast (RFC 3021)', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const res = await call(op, 'post', '/api/v1/planning/address-plan', { pool: '10.0.0.0/30', prefixLength: 31, count: 2 });
+    expect(res.body.subnets.map((s: { broadcast: null; usableHosts: number }) => [s.broadcast, s.usableHosts])).toEqual([[null, 2], [null, 2]]);
+  });
+
+  it('answers 409 when the pool is exhausted and 400 for a prefix shorter than the pool or a malformed CIDR', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const full = await call(op, 'post', '/api/v1/planning/address-plan', { pool: '10.0.0.0/24', prefixLength: 25, count: 3 });
+    expect(full.status).toBe(409);
+    expect((await call(op, 'post', '/api/v1/planning/address-plan', { pool: '10.0.0.0/24', prefixLength: 16, count: 1 })).status).toBe(400);
+    expect((await call(op, 'post', '/api/v1/planning/address-plan', { pool: '010.0.0.0/24', prefixLength: 26, count: 1 })).status).toBe(400);
+    expect((await call(op, 'post', '/api/v1/planning/address-plan', { pool: '10.0.0.0/33', prefixLength: 26, count: 1 })).status).toBe(400);
+  });
+});

@@ -1,0 +1,71 @@
+import { describe, expect, it } from 'vitest';
+import { congestionMwByChannel, planningSpan, recommendChannels, type RadioOnAir, type RadioToPlan } from '../../../shared/radio/channelPlan';
+import { PlanningError } from '../../../shared/radio/errors';
+import { freeSpacePathLossDb } from '../../../shared/radio/pathLoss';
+
+// A made-up rooftop in the demo town; 0.001° of latitude ≈ 111 m.
+const here = { lat: 47.5, lon: 8.7 };
+const north = (metres: number) => ({ lat: here.lat + metres / 111_195, lon: here.lon });
+const ap = (id: number, nodeId: number, band: '2.4' | '5' = '2.4', channelWidthMHz: 20 | 40 | 80 = 20): RadioToPlan => ({ id, nodeId, band, channelWidthMHz, ...here });
+const onAir = (nodeId: number, channel: number, metres: number, band: '2.4' | '5' = '2.4'): RadioOnAir => ({ nodeId, band, channel, channelWidthMHz: 20, ...north(metres) });
+
+describe('recommendChannels', () => {
+  it('keeps one node’s three 2.4 GHz radios apart: 1, 6, 11', () => {
+    const plan = recommendChannels({ region: 'US', radios: [ap(1, 10), ap(2, 10), ap(3, 10)] });
+    expect(plan.map((p) => p.channel)).toEqual([1, 6, 11]); // REFERENCES Channels: 1, 6, 11 — common practice
+    expect(plan.every((p) => p.ownNodeOverlapMHz === 0)).toBe(true);
+  });
+
+  it('treats 2.4 GHz channels as 22 MHz wide when planning', () => {
+    expect(planningSpan('2.4', 1, 20).widthMHz).toBe(22); // REFERENCES Channels: 22 MHz (802.11b mask)
+    expect(planningSpan('5', 36, 20).widthMHz).toBe(20);
+  });
+
+  it('avoids a near neighbour’s channel', () => {
+    const [p] = recommendChannels({ region: 'US', radios: [ap(1, 10)], nearby: [onAir(20, 1, 50)] });
+    expect(p.channel).toBe(6);
+    expect(p.interferenceMw).toBe(0);
+  });
+
+  it('when every channel is busy, shares with the farthest neighbour (weighted by free-space loss)', () => {
+    const nearby = [onAir(20, 1, 40), onAir(21, 6, 120), onAir(22, 11, 3000)];
+    // fill the gaps between 1, 6 and 11 too, so every candidate overlaps someone
+    for (const ch of [2, 3, 4, 5, 7, 8, 9, 10]) nearby.push(onAir(30 + ch, ch, 60));
+    const [p] = recommendChannels({ region: 'US', radios: [ap(1, 10)], nearby });
+    expect(p.channel).toBe(11);
+    // cost ≈ 20 dBm − FSPL(2462 MHz, 3 km) from node 22 plus the partial overlap of channel 10 at 60 m
+    const farMw = 10 ** ((20 - freeSpacePathLossDb(2462, 3)) / 10);
+    expect(p.interferenceMw).toBeGreaterThan(farMw);
+  });
+
+  it('avoids congestion seen in a site survey', () => {
+    const survey = { '2.4': [{ channel: 1, signalDbm: -40 }, { channel: 6, signalDbm: -50 }, { channel: 11, signalDbm: -85 }] };
+    const [p] = recommendChannels({ region: 'US', radios: [ap(1, 10)], survey });
+    expect(p.channel).not.toBe(1);
+    expect(p.channel).not.toBe(6);
+    const congestion = congestionMwByChannel('2.4', [1, 6, 11], survey['2.4']);
+    expect(congestion.get(1)).toBeCloseTo(10 ** (-40 / 10), 12); // dBm → mW: −40 dBm = 1e-4 mW
+    expect(congestion.get(11)).toBeCloseTo(10 ** (-85 / 10), 15);
+  });
+
+  it('plans wide 5 GHz channels on whole allowed blocks', () => {
+    const plan = recommendChannels({ region: 'US', radios: [ap(1, 10, '5', 80), ap(2, 10, '5', 80)] });
+    expect(plan.map((p) => p.channel)).toEqual([36, 52]);
+    expect(plan.map((p) => p.centerMHz)).toEqual([5210, 5290]); // IEEE 802.11: channels 42 and 58
+    const eu40 = recommendChannels({ region: 'EU', radios: [ap(1, 10, '5', 40)], nearby: [onAir(20, 36, 30, '5'), onAir(21, 44, 30, '5')] });
+    expect(eu40[0].channel).toBe(52);
+  });
+
+  it('is deterministic whatever the input order', () => {
+    const radios = [ap(3, 11), ap(1, 10), ap(2, 10), ap(4, 11)];
+    const nearby = [onAir(20, 6, 200)];
+    const a = recommendChannels({ region: 'EU', radios, nearby });
+    const b = recommendChannels({ region: 'EU', radios: [...radios].reverse(), nearby });
+    expect(a).toEqual(b);
+    expect(a.map((p) => p.radioId)).toEqual([1, 2, 3, 4]);
+  });
+
+  it('refuses a width the band cannot carry', () => {
+    expect(() => recommendChannels({ region: 'US', radios: [ap(1, 10, '2.4', 80)] })).toThrow(PlanningError);
+  });
+});

@@ -1,0 +1,94 @@
+import { describe, expect, it } from 'vitest';
+import { computeRegulatory, type RegulatoryInput } from '../../../shared/radio/regulatory';
+import { PlanningError } from '../../../shared/radio/errors';
+
+const us = (over: Partial<RegulatoryInput>): RegulatoryInput => ({ region: 'US', freqMHz: 2437, antennaGainDbi: 6, txPowerDbm: 20, cableLossDb: 0, linkType: 'point-to-point', ...over });
+const eu = (over: Partial<RegulatoryInput>): RegulatoryInput => ({ ...us(over), region: 'EU', ...over });
+
+describe('US 47 CFR §15.247, 2400–2483.5 MHz', () => {
+  it('worked example: 24 dBi point-to-point → 24 dBm conducted, 48 dBm EIRP', () => {
+    const r = computeRegulatory(us({ antennaGainDbi: 24, txPowerDbm: 24 })); // REFERENCES §15.247 worked example
+    expect(r.maxTxPowerDbm).toBe(24);
+    expect(r.maxEirpDbm).toBe(48);
+    expect(r.eirpDbm).toBe(48);
+    expect(r.compliant).toBe(true);
+    expect(r.rule).toMatch(/§15\.247/);
+    expect(r.rule).toMatch(/regulator decides/);
+  });
+  it('point-to-multipoint loses 1 dB per dB above 6 dBi: 36 dBm EIRP', () => {
+    const r = computeRegulatory(us({ antennaGainDbi: 24, linkType: 'point-to-multipoint' })); // §15.247(b)(4)
+    expect(r.maxTxPowerDbm).toBe(12);
+    expect(r.maxEirpDbm).toBe(36); // REFERENCES: point-to-multipoint, so 36 dBm EIRP
+  });
+  it('allows 30 dBm with 6 dBi or less, and never more', () => {
+    expect(computeRegulatory(us({ antennaGainDbi: 6 })).maxTxPowerDbm).toBe(30); // §15.247(b)(3): 1 W
+    expect(computeRegulatory(us({ antennaGainDbi: 2 })).maxTxPowerDbm).toBe(30); // low gain earns no extra power
+  });
+  it('reduces a gain that is not 6 + 3n dBi in proportion, not rounded', () => {
+    expect(computeRegulatory(us({ antennaGainDbi: 10 })).maxTxPowerDbm).toBeCloseTo(30 - 4 / 3, 2); // (10 − 6)/3 = 1.33 dB
+  });
+  it('limits conducted power: cable loss lowers EIRP but buys no extra power', () => {
+    const r = computeRegulatory(us({ antennaGainDbi: 24, txPowerDbm: 24, cableLossDb: 2 }));
+    expect(r.maxTxPowerDbm).toBe(24);
+    expect(r.eirpDbm).toBe(46);
+    const over = computeRegulatory(us({ antennaGainDbi: 24, txPowerDbm: 25, cableLossDb: 2 }));
+    expect(over.eirpDbm).toBe(47); // below 48 dBm EIRP…
+    expect(over.compliant).toBe(false); // …but 25 dBm conducted exceeds 24 dBm
+    expect(over.rule).toMatch(/lower the radio to 24\.00 dBm/);
+  });
+  it('refuses channel 14 (2484 MHz), outside 2400–2483.5 MHz', () => {
+    expect(() => computeRegulatory(us({ freqMHz: 2484 }))).toThrow(PlanningError);
+  });
+});
+
+describe('US 5 GHz', () => {
+  it('5725–5850 MHz point-to-point needs no reduction (§15.247(c)(1)(ii))', () => {
+    const r = computeRegulatory(us({ freqMHz: 5800, antennaGainDbi: 30, txPowerDbm: 30 })); // REFERENCES §15.247
+    expect(r.maxTxPowerDbm).toBe(30);
+    expect(r.maxEirpDbm).toBe(60);
+    expect(r.compliant).toBe(true);
+  });
+  it('5725–5850 MHz point-to-multipoint is reduced 1 dB per dB', () => {
+    expect(computeRegulatory(us({ freqMHz: 5800, antennaGainDbi: 16, linkType: 'point-to-multipoint' })).maxTxPowerDbm).toBe(20); // §15.247(b)(4)
+  });
+  it('U-NII-2C (5470–5725 MHz) allows 250 mW with DFS (§15.407(a)(2))', () => {
+    const r = computeRegulatory(us({ freqMHz: 5500, antennaGainDbi: 6 }));
+    expect(r.maxTxPowerDbm).toBe(24); // REFERENCES §15.407 per-band limit; 250 mW = 24 dBm
+    expect(r.rule).toMatch(/DFS/);
+    expect(computeRegulatory(us({ freqMHz: 5500, antennaGainDbi: 16 })).maxTxPowerDbm).toBe(14);
+  });
+  it('refuses 5400 MHz, between U-NII-2A and 2C', () => {
+    try {
+      computeRegulatory(us({ freqMHz: 5400 }));
+      expect.unreachable('should have thrown');
+    } catch (e) {
+      expect(e).toBeInstanceOf(PlanningError);
+      expect((e as PlanningError).status).toBe(400);
+      expect((e as PlanningError).code).toBe('frequency_not_licence_exempt');
+      expect((e as PlanningError).message).toMatch(/5400 MHz is outside the US/);
+    }
+  });
+});
+
+describe('EU (ETSI)', () => {
+  it('EN 300 328: 20 dBm EIRP on 2.4 GHz, cable loss counts', () => {
+    const r = computeRegulatory(eu({ antennaGainDbi: 14, cableLossDb: 2, txPowerDbm: 8 })); // REFERENCES EN 300 328
+    expect(r.maxEirpDbm).toBe(20);
+    expect(r.maxTxPowerDbm).toBe(8); // 20 − 14 + 2
+    expect(r.eirpDbm).toBe(20);
+    expect(r.compliant).toBe(true);
+    expect(computeRegulatory(eu({ antennaGainDbi: 14, cableLossDb: 2, txPowerDbm: 9 })).compliant).toBe(false);
+    expect(r.rule).toMatch(/EN 300 328/);
+  });
+  it('EN 301 893: 200 mW indoors at 5150–5350 MHz, 1 W at 5470–5725 MHz', () => {
+    expect(computeRegulatory(eu({ freqMHz: 5200 })).maxEirpDbm).toBe(23); // REFERENCES: 200 mW EIRP
+    const high = computeRegulatory(eu({ freqMHz: 5500, antennaGainDbi: 23 }));
+    expect(high.maxEirpDbm).toBe(30); // REFERENCES: 1 W EIRP
+    expect(high.maxTxPowerDbm).toBe(7);
+    expect(computeRegulatory(eu({ freqMHz: 5500, tpc: false })).maxEirpDbm).toBe(27); // REFERENCES: 3 dB lower without TPC
+  });
+  it('refuses 5800 MHz, outside EN 301 893, and unknown regions', () => {
+    expect(() => computeRegulatory(eu({ freqMHz: 5800 }))).toThrow(/outside the EU licence-exempt bands/);
+    expect(() => computeRegulatory(us({ region: 'JP' }))).toThrow(/choose US or EU/);
+  });
+});
