@@ -1,5 +1,8 @@
-import { Geodesic } from 'geographiclib-geodesic';
+import geographiclib from 'geographiclib-geodesic';
 import { EARTH_RADIUS_KM, EFFECTIVE_EARTH_K } from './fresnel';
+
+// The package is CommonJS; a default import works under Node's ESM loader and in Vite alike.
+const { Geodesic } = geographiclib;
 
 export interface GeoPoint {
   lat: number;
