@@ -18,11 +18,14 @@ import { ingestTokenRoutes } from './routes/ingestTokens';
 import { linkRoutes } from './routes/links';
 import { neighbourhoodRoutes } from './routes/neighbourhoods';
 import { nodeRoutes } from './routes/nodes';
+import { nodeTelemetryRoutes } from './routes/nodeTelemetry';
+import { outageRoutes } from './routes/outages';
 import { overviewRoutes } from './routes/overview';
 import { planningRoutes } from './routes/planning';
 import { radioRoutes } from './routes/radios';
 import { sessionRoutes } from './routes/session';
 import { siteRoutes } from './routes/sites';
+import { topologyRoutes } from './routes/topology';
 import { userRoutes } from './routes/users';
 
 export interface AppContext {
@@ -87,7 +90,10 @@ export function createApp({ config, sequelize }: AppContext) {
   api.use('/neighbourhoods', requireUser, neighbourhoodRoutes());
   api.use('/sites', requireUser, siteRoutes());
   api.use('/nodes/:id/ingest-token', requireUser, ingestTokenRoutes(config, sequelize));
+  api.use('/nodes/:id', requireUser, nodeTelemetryRoutes(config, sequelize));
   api.use('/nodes', requireUser, nodeRoutes());
+  api.use('/outages', requireUser, outageRoutes(config));
+  api.use('/topology', requireUser, topologyRoutes(sequelize));
   api.use('/radios', requireUser, radioRoutes());
   api.use('/links', requireUser, linkRoutes());
   api.use('/users', requireUser, userRoutes());

@@ -14,6 +14,7 @@ export class Node extends Model<InferAttributes<Node>, InferCreationAttributes<N
   declare state: CreationOptional<NodeState>;
   declare stateSince: CreationOptional<Date | null>;
   declare lastSeenAt: CreationOptional<Date | null>;
+  declare firstSeenAt: CreationOptional<Date | null>;
   declare lastSeq: CreationOptional<string | null>;
   declare lastReport: CreationOptional<Record<string, unknown> | null>;
   declare healthStreak: CreationOptional<number>;
@@ -38,6 +39,7 @@ export class Node extends Model<InferAttributes<Node>, InferCreationAttributes<N
         state: { type: DataTypes.TEXT, allowNull: false, defaultValue: 'unknown' },
         stateSince: { type: DataTypes.DATE },
         lastSeenAt: { type: DataTypes.DATE },
+        firstSeenAt: { type: DataTypes.DATE },
         lastSeq: { type: DataTypes.BIGINT },
         lastReport: { type: DataTypes.JSONB },
         healthStreak: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },

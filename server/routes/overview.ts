@@ -1,28 +1,35 @@
 import { Router } from 'express';
-import { fn, col } from 'sequelize';
+import { col, fn, literal } from 'sequelize';
 import { NODE_STATES, type NodeState } from '../../shared/enums';
 import { actorOf } from '../middlewares/requireUser';
-import { Neighbourhood, Node, Site } from '../models';
+import { Op } from 'sequelize';
+import { Neighbourhood, Node, Outage, Site } from '../models';
 import { neighbourhoodScope } from '../policies/neighbourhood';
 import { nodeScope } from '../policies/node';
 import { siteScope } from '../policies/site';
 
-/** Counts by state over what the caller may read. */
+const sequelizeJsonNotEmpty = () => literal("jsonb_array_length(coalesce(\"Node\".\"drift\", '[]'::jsonb)) > 0");
+
+/** Counts by state, open outages and drifting nodes, over what the caller may read. */
 export function overviewRoutes() {
   const router = Router();
   router.get('/', async (req, res) => {
     const actor = actorOf(req);
-    const [byState, siteCount, neighbourhoodCount] = await Promise.all([
+    const [byState, siteCount, neighbourhoodCount, open, drifting] = await Promise.all([
       Node.findAll({ where: nodeScope(actor), attributes: ['state', [fn('count', col('id')), 'n']], group: ['state'], raw: true }) as unknown as Promise<
         { state: NodeState; n: string }[]
       >,
       Site.count({ where: siteScope(actor) }),
       Neighbourhood.count({ where: neighbourhoodScope(actor) }),
+      Outage.findAll({ where: { endedAt: null }, include: [{ model: Node, as: 'node', required: true, where: nodeScope(actor) }], order: [['startedAt', 'DESC']], limit: 20 }),
+      Node.findAll({ where: { [Op.and]: [nodeScope(actor), { drift: { [Op.ne]: null } }, sequelizeJsonNotEmpty()] }, order: [['name', 'ASC']], limit: 20 }),
     ]);
     const countsByState = Object.fromEntries(NODE_STATES.map((s) => [s, 0])) as Record<NodeState, number>;
     for (const row of byState) countsByState[row.state] = Number(row.n);
     const nodeCount = Object.values(countsByState).reduce((a, b) => a + b, 0);
-    res.json({ data: { countsByState, nodeCount, siteCount, neighbourhoodCount, openOutages: [] } });
+    const openOutages = open.map((o) => ({ id: o.id, nodeId: o.nodeId, nodeName: o.node!.name, neighbourhoodId: o.node!.neighbourhoodId, startedAt: o.startedAt.toISOString(), acknowledged: Boolean(o.acknowledgedAt) }));
+    const driftNodes = drifting.map((n) => ({ id: n.id, name: n.name, drift: n.drift ?? [] }));
+    res.json({ data: { countsByState, nodeCount, siteCount, neighbourhoodCount, openOutages, driftNodes } });
   });
   return router;
 }

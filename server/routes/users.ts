@@ -9,6 +9,7 @@ import { OperatorAssignment, User } from '../models';
 import { authorize } from '../policies/authorize';
 import { mayListPeople, userAbilities } from '../policies/user';
 import { presentUser } from '../presenters/user';
+import { uniquely } from '../services/conflicts';
 import { filters, listPage } from '../services/listing';
 
 async function assignmentsOf(userIds: number[]) {
@@ -21,6 +22,8 @@ async function findUser(id: number) {
   if (!u) throw NotFound(`Person ${id}`);
   return u;
 }
+
+const DUPLICATE_EMAIL = 'Someone already has that e-mail address.';
 
 /** People are the admins' to manage; other roles only ever see themselves through the session. */
 export function userRoutes() {
@@ -47,8 +50,10 @@ export function userRoutes() {
   router.post('/', validate('body', userCreateSchema), async (req, res) => {
     const actor = actorOf(req);
     const { password, ...rest } = res.locals.body;
-    if (await User.findOne({ where: { email: rest.email } })) throw Conflict('Someone already has that e-mail address.', 'duplicate');
-    const user = await User.create({ ...rest, passwordHash: await hashPassword(password) });
+    if (await User.findOne({ where: { email: rest.email } })) throw Conflict(DUPLICATE_EMAIL, 'duplicate');
+    const passwordHash = await hashPassword(password);
+    // The unique index settles a race between two admins adding the same address.
+    const user = await uniquely(() => User.create({ ...rest, passwordHash }), DUPLICATE_EMAIL);
     res.status(201).json({ data: presentUser(user, [], actor) });
   });
 

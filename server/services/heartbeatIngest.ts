@@ -95,7 +95,7 @@ async function applyNewest(sequelize: Sequelize, node: TokenNode, report: Heartb
     }
     const verdict = afterReport({ state: current.state, streak: current.healthStreak }, figures, thresholds);
     await sequelize.query(
-      `UPDATE nodes SET last_seen_at = greatest(last_seen_at, $2), last_seq = $3, last_report = $4::jsonb,
+      `UPDATE nodes SET last_seen_at = greatest(last_seen_at, $2), first_seen_at = coalesce(first_seen_at, $2), last_seq = $3, last_report = $4::jsonb,
               health_streak = $5, health_reason = $6, drift = $7::jsonb,
               state = $8, state_since = CASE WHEN state = $8 THEN state_since ELSE $2 END
         WHERE id = $1`,

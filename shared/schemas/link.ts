@@ -9,7 +9,7 @@ export const linkCreateSchema = z
     radioBId: idSchema,
     status: z.enum(LINK_STATUSES, { error: `must be one of ${LINK_STATUSES.join(', ')}` }).default('planned'),
   })
-  .refine((l) => l.radioAId !== l.radioBId, { message: 'a link needs two different radios', path: ['radioBId'] });
+  .refine((l) => l.radioAId !== l.radioBId, { message: 'must be a different radio from radioAId: a link joins two radios', path: ['radioBId'] });
 export const linkUpdateSchema = z.object({
   name: nameSchema.optional(),
   status: z.enum(LINK_STATUSES, { error: `must be one of ${LINK_STATUSES.join(', ')}` }).optional(),

@@ -1,0 +1,22 @@
+import type { OutageDto } from '../../shared/schemas/outage';
+import type { Outage } from '../models';
+import { type Actor, mayManage } from '../policies/actor';
+import { iso } from './common';
+
+export function presentOutage(o: Outage, actor: Actor, now: Date): OutageDto {
+  const node = o.node!;
+  const manage = mayManage(actor, node.neighbourhoodId);
+  return {
+    id: o.id,
+    nodeId: o.nodeId,
+    nodeName: node.name,
+    neighbourhoodId: node.neighbourhoodId,
+    startedAt: iso(o.startedAt)!,
+    endedAt: iso(o.endedAt),
+    durationS: Math.max(0, Math.round(((o.endedAt ?? now).getTime() - o.startedAt.getTime()) / 1000)),
+    acknowledgedAt: iso(o.acknowledgedAt),
+    acknowledgedBy: o.acknowledger ? { id: o.acknowledger.id, name: o.acknowledger.name } : null,
+    notes: o.notes ?? null,
+    abilities: { acknowledge: manage && !o.acknowledgedAt && !o.endedAt, annotate: manage },
+  };
+}

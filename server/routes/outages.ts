@@ -1,0 +1,69 @@
+import { Router } from 'express';
+import { Op, type WhereOptions } from 'sequelize';
+import { idParamsSchema } from '../../shared/schemas/common';
+import { outageListQuerySchema, outageNotesSchema } from '../../shared/schemas/outage';
+import type { Config } from '../config';
+import { NotFound } from '../errors';
+import { actorOf } from '../middlewares/requireUser';
+import { validate } from '../middlewares/validate';
+import { Node, Outage, User } from '../models';
+import { type Actor, mayManage } from '../policies/actor';
+import { authorize } from '../policies/authorize';
+import { nodeScope } from '../policies/node';
+import { presentOutage } from '../presenters/outage';
+import { listPage } from '../services/listing';
+
+const include = (actor: Actor, nodeWhere: WhereOptions = {}) => [
+  { model: Node, as: 'node', required: true, where: { [Op.and]: [nodeScope(actor), nodeWhere] } },
+  { model: User, as: 'acknowledger', required: false },
+];
+
+async function readableOutage(actor: Actor, id: number) {
+  const o = await Outage.findOne({ where: { id }, include: include(actor) });
+  if (!o) throw NotFound(`Outage ${id}`);
+  return o;
+}
+
+/** Outages of the nodes the caller may read; the node's operators and admins acknowledge and annotate. */
+export function outageRoutes(config: Config) {
+  const router = Router();
+
+  router.get('/', validate('query', outageListQuerySchema), async (req, res) => {
+    const actor = actorOf(req);
+    const q = res.locals.query;
+    const where: WhereOptions = q.status === 'open' ? { endedAt: null } : q.status === 'closed' ? { endedAt: { [Op.ne]: null } } : {};
+    const nodeWhere: WhereOptions = { ...(q.neighbourhoodId ? { neighbourhoodId: q.neighbourhoodId } : {}), ...(q.nodeId ? { id: q.nodeId } : {}) };
+    const { rows, pagination } = await listPage(Outage, q, {
+      where,
+      sortable: ['startedAt', 'endedAt', 'acknowledgedAt', 'id'],
+      searchable: [],
+      defaultSort: '-startedAt',
+      include: include(actor, nodeWhere),
+    });
+    const now = config.now();
+    res.json({ data: rows.map((o) => presentOutage(o, actor, now)), pagination, abilities: { create: false } });
+  });
+
+  router.get('/:id', validate('params', idParamsSchema), async (req, res) => {
+    const actor = actorOf(req);
+    res.json({ data: presentOutage(await readableOutage(actor, res.locals.params.id), actor, config.now()) });
+  });
+
+  router.post('/:id/acknowledge', validate('params', idParamsSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const outage = await readableOutage(actor, res.locals.params.id);
+    authorize(mayManage(actor, outage.node!.neighbourhoodId), 'Only admins and the operators of its neighbourhood acknowledge this outage.');
+    if (!outage.acknowledgedAt) await outage.update({ acknowledgedAt: config.now(), acknowledgedBy: actor.id });
+    res.json({ data: presentOutage(await readableOutage(actor, outage.id), actor, config.now()) });
+  });
+
+  router.patch('/:id', validate('params', idParamsSchema), validate('body', outageNotesSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const outage = await readableOutage(actor, res.locals.params.id);
+    authorize(mayManage(actor, outage.node!.neighbourhoodId), 'Only admins and the operators of its neighbourhood add notes to this outage.');
+    await outage.update({ notes: res.locals.body.notes || null });
+    res.json({ data: presentOutage(await readableOutage(actor, outage.id), actor, config.now()) });
+  });
+
+  return router;
+}

@@ -1,0 +1,25 @@
+import { z } from 'zod';
+import { idSchema, listQuerySchema } from './common';
+
+export const outageListQuerySchema = listQuerySchema.extend({
+  status: z.enum(['open', 'closed'], { error: 'must be open or closed' }).optional(),
+  neighbourhoodId: idSchema.optional(),
+  nodeId: idSchema.optional(),
+});
+export const outageNotesSchema = z.object({
+  notes: z.string({ error: 'must be text' }).trim().max(4000, 'must be at most 4000 characters'),
+});
+
+export interface OutageDto {
+  id: number;
+  nodeId: number;
+  nodeName: string;
+  neighbourhoodId: number;
+  startedAt: string;
+  endedAt: string | null;
+  durationS: number;
+  acknowledgedAt: string | null;
+  acknowledgedBy: { id: number; name: string } | null;
+  notes: string | null;
+  abilities: { acknowledge: boolean; annotate: boolean };
+}

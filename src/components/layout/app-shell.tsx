@@ -1,0 +1,126 @@
+import { useEffect, useState, type ReactNode } from 'react';
+import { Link, NavLink, useLocation } from 'react-router-dom';
+import { capitalise } from '../../lib/format';
+import { useTheme } from '../../lib/theme';
+
+export interface NavItem {
+  to: string;
+  label: string;
+  end?: boolean;
+}
+
+interface AppShellProps {
+  user: { name: string; role: string };
+  navItems: NavItem[];
+  onSignOut: () => void;
+  signingOut: boolean;
+  children: ReactNode;
+}
+
+export function ParapetMark({ size = 28 }: { size?: number }) {
+  return (
+    <svg width={size} height={size} viewBox="0 0 32 32" aria-hidden="true">
+      <rect width="32" height="32" rx="7" className="fill-accent" />
+      <path d="M6 27V17h4v3h3v-3h6v3h3v-3h4v10z" className="fill-accent-ink" />
+      <path d="M11.5 11.5a6.4 6.4 0 0 1 9 0" fill="none" strokeWidth="2.2" strokeLinecap="round" className="stroke-accent-ink" />
+      <path d="M8.4 8.4a10.8 10.8 0 0 1 15.2 0" fill="none" strokeWidth="2.2" strokeLinecap="round" opacity=".7" className="stroke-accent-ink" />
+      <circle cx="16" cy="14.6" r="1.7" className="fill-accent-ink" />
+    </svg>
+  );
+}
+
+function ThemeToggle({ className = '' }: { className?: string }) {
+  const { theme, toggle } = useTheme();
+  const next = theme === 'dark' ? 'light' : 'dark';
+  return (
+    <button type="button" onClick={toggle} aria-label={`Use the ${next} theme`} title={`Use the ${next} theme`} className={`shrink-0 rounded-md p-2 text-muted hover:bg-sunken hover:text-ink ${className}`}>
+      <svg width="18" height="18" viewBox="0 0 16 16" aria-hidden="true">
+        {theme === 'dark' ? (
+          <g fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round">
+            <circle cx="8" cy="8" r="3" />
+            <path d="M8 1v1.5M8 13.5V15M1 8h1.5M13.5 8H15M3 3l1 1M12 12l1 1M3 13l1-1M12 4l1-1" />
+          </g>
+        ) : (
+          <path d="M13.5 10A6 6 0 0 1 6 2.5a6 6 0 1 0 7.5 7.5z" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinejoin="round" />
+        )}
+      </svg>
+    </button>
+  );
+}
+
+const linkClass = ({ isActive }: { isActive: boolean }) =>
+  `block rounded-md px-3 py-2 text-sm font-medium lg:py-1.5 ${isActive ? 'bg-accent-soft text-ink' : 'text-muted hover:bg-sunken hover:text-ink'}`;
+
+export function AppShell({ user, navItems, onSignOut, signingOut, children }: AppShellProps) {
+  const [menuOpen, setMenuOpen] = useState(false);
+  const location = useLocation();
+  useEffect(() => setMenuOpen(false), [location.pathname]);
+
+  return (
+    <div className="flex min-h-screen flex-col">
+      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-50 focus:rounded focus:bg-surface focus:px-3 focus:py-2">
+        Skip to content
+      </a>
+      <header className="relative border-b border-line bg-surface">
+        <div className="mx-auto flex h-14 max-w-6xl items-center gap-3 px-4">
+          <Link to="/" className="flex shrink-0 items-center gap-2 rounded-md font-semibold tracking-tight">
+            <ParapetMark />
+            <span className="text-lg">Parapet</span>
+          </Link>
+          <nav
+            id="main-nav"
+            data-testid="nav"
+            aria-label="Main"
+            className={`${menuOpen ? 'max-lg:block' : 'max-lg:hidden'} z-40 max-lg:absolute max-lg:inset-x-0 max-lg:top-14 max-lg:border-b max-lg:border-line max-lg:bg-surface max-lg:p-3 max-lg:shadow-md lg:ml-4`}
+          >
+            <ul className="flex flex-col gap-1 lg:flex-row">
+              {navItems.map((item) => (
+                <li key={item.to}>
+                  <NavLink to={item.to} end={item.end} className={linkClass}>
+                    {item.label}
+                  </NavLink>
+                </li>
+              ))}
+            </ul>
+          </nav>
+          <div className="ml-auto flex min-w-0 items-center gap-2">
+            <div data-testid="user-menu" className="flex min-w-0 items-center gap-2 md:gap-3">
+              <div className="min-w-0 text-right leading-tight">
+                <p className="truncate text-sm font-medium">{user.name}</p>
+                <p className="truncate text-xs text-muted">{capitalise(user.role)}</p>
+              </div>
+              <button
+                type="button"
+                onClick={onSignOut}
+                disabled={signingOut}
+                title="Sign out"
+                className="inline-flex shrink-0 items-center rounded-md border border-line px-2 py-1.5 text-sm hover:bg-sunken md:px-2.5 md:py-1"
+              >
+                <svg width="16" height="16" viewBox="0 0 16 16" aria-hidden="true" className="md:hidden">
+                  <path d="M6 2.5H3v11h3M10 5l3 3-3 3M13 8H6" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" strokeLinejoin="round" />
+                </svg>
+                <span className="max-md:sr-only">{signingOut ? 'Signing out…' : 'Sign out'}</span>
+              </button>
+            </div>
+            <ThemeToggle />
+            <button
+              type="button"
+              className="shrink-0 rounded-md border border-line p-2 lg:hidden"
+              aria-expanded={menuOpen}
+              aria-controls="main-nav"
+              onClick={() => setMenuOpen((open) => !open)}
+            >
+              <span className="sr-only">Menu</span>
+              <svg width="18" height="18" viewBox="0 0 16 16" aria-hidden="true">
+                <path d={menuOpen ? 'M3.5 3.5l9 9M12.5 3.5l-9 9' : 'M2 4h12M2 8h12M2 12h12'} stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" />
+              </svg>
+            </button>
+          </div>
+        </div>
+      </header>
+      <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-4 py-6">
+        {children}
+      </main>
+    </div>
+  );
+}

@@ -1,0 +1,54 @@
+import { useId } from 'react';
+import type { NodeState } from '../../shared/enums';
+
+// Colour, shape and word together, so a state never depends on colour vision alone.
+const LOOK: Record<NodeState, { word: string; shape: string }> = {
+  online: { word: 'Online', shape: 'filled circle' },
+  degraded: { word: 'Degraded', shape: 'triangle' },
+  offline: { word: 'Offline', shape: 'square' },
+  maintenance: { word: 'Maintenance', shape: 'hatched circle' },
+  stranded: { word: 'Stranded', shape: 'hollow diamond' },
+  unknown: { word: 'Unknown', shape: 'hollow circle' },
+};
+
+export function stateWord(state: NodeState): string {
+  return LOOK[state].word;
+}
+
+export function StateShape({ state, size = 14 }: { state: NodeState; size?: number }) {
+  const hatchId = useId();
+  const label = `${LOOK[state].word} (${LOOK[state].shape})`;
+  return (
+    <svg width={size} height={size} viewBox="0 0 16 16" role="img" aria-label={label} className="shrink-0">
+      {state === 'online' && <circle cx="8" cy="8" r="6.5" fill="#009E73" />}
+      {state === 'degraded' && <path d="M8 1.5 15 14.5H1z" fill="#E69F00" stroke="#7a5200" strokeWidth="0.8" strokeLinejoin="round" />}
+      {state === 'offline' && <rect x="2" y="2" width="12" height="12" rx="1" fill="#D55E00" />}
+      {state === 'maintenance' && (
+        <>
+          <defs>
+            <pattern id={hatchId} width="3" height="3" patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
+              <rect width="3" height="3" fill="#F0E442" />
+              <line x1="0" y1="0" x2="0" y2="3" stroke="#3b3a10" strokeWidth="1.2" />
+            </pattern>
+          </defs>
+          <circle cx="8" cy="8" r="6.3" fill={`url(#${hatchId})`} stroke="#2b2a0c" strokeWidth="1.4" />
+        </>
+      )}
+      {state === 'stranded' && <path d="M8 1.6 14.4 8 8 14.4 1.6 8z" fill="none" stroke="#CC79A7" strokeWidth="2.2" strokeLinejoin="round" />}
+      {state === 'unknown' && <circle cx="8" cy="8" r="5.8" fill="none" stroke="#8a8f93" strokeWidth="2" />}
+    </svg>
+  );
+}
+
+export function StateBadge({ state, count }: { state: NodeState; count?: number }) {
+  return (
+    <span
+      data-testid={`state-badge-${state}`}
+      className="inline-flex items-center gap-1.5 rounded-full border border-line bg-surface px-2.5 py-0.5 text-sm font-medium whitespace-nowrap text-ink"
+    >
+      <StateShape state={state} />
+      <span>{LOOK[state].word}</span>
+      {count !== undefined && <span className="ml-0.5 tabular-nums font-semibold">{count}</span>}
+    </span>
+  );
+}

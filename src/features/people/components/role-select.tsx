@@ -1,0 +1,50 @@
+import { useId, useState } from 'react';
+import { ROLES, type Role } from '../../../../shared/enums';
+import { userUpdateSchema, type UserDto } from '../../../../shared/schemas/user';
+import { ApiError } from '../../../lib/api';
+import { capitalise } from '../../../lib/format';
+import { useUpdatePerson } from '../api/people';
+
+/** Change one person's role in place; the server decides whether this caller may. */
+export function RoleSelect({ person }: { person: UserDto }) {
+  const id = useId();
+  const update = useUpdatePerson(person.id);
+  const [message, setMessage] = useState<string | null>(null);
+
+  function change(role: string) {
+    const parsed = userUpdateSchema.safeParse({ role });
+    if (!parsed.success) {
+      setMessage(parsed.error.issues.map((issue) => issue.message).join(' '));
+      return;
+    }
+    setMessage(null);
+    update.mutate(parsed.data, {
+      onError: (error) => setMessage(error instanceof ApiError ? error.message : 'Could not change the role. Try again.'),
+    });
+  }
+
+  return (
+    <div className="inline-flex flex-col items-end gap-1 sm:items-start">
+      <label htmlFor={id} className="sr-only">
+        Role of {person.name}
+      </label>
+      <select
+        id={id}
+        value={update.isPending && update.variables?.role ? update.variables.role : person.role}
+        disabled={update.isPending}
+        onChange={(event) => change(event.target.value)}
+        aria-describedby={`${id}-error`}
+        className="rounded-md border border-line bg-surface px-2 py-1 text-sm"
+      >
+        {ROLES.map((role: Role) => (
+          <option key={role} value={role}>
+            {capitalise(role)}
+          </option>
+        ))}
+      </select>
+      <p id={`${id}-error`} aria-live="polite" className="text-xs text-danger empty:hidden">
+        {message ?? ''}
+      </p>
+    </div>
+  );
+}

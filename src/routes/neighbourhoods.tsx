@@ -1,0 +1,59 @@
+import { useState } from 'react';
+import { useNavigate } from 'react-router-dom';
+import { Button } from '../components/button';
+import { ListBody } from '../components/list-body';
+import { ListToolbar, sortChoices } from '../components/list-toolbar';
+import { PageHeader } from '../components/page-header';
+import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
+import { NeighbourhoodForm } from '../features/neighbourhoods/components/neighbourhood-form';
+import { NEIGHBOURHOOD_SORT_FIELDS, NeighbourhoodsTable } from '../features/neighbourhoods/components/neighbourhoods-table';
+import { useListParams } from '../lib/list-params';
+import { paths } from '../lib/paths';
+
+export function NeighbourhoodsPage() {
+  const navigate = useNavigate();
+  const list = useListParams([], 'name');
+  const neighbourhoods = useNeighbourhoods(list.apiParams);
+  const [adding, setAdding] = useState(false);
+
+  return (
+    <>
+      <PageHeader
+        title="Neighbourhoods"
+        subtitle="Parts of the network, each with its sites, nodes and operators on the rota."
+        actions={
+          neighbourhoods.data?.abilities?.create &&
+          !adding && (
+            <Button variant="primary" onClick={() => setAdding(true)}>
+              Add neighbourhood
+            </Button>
+          )
+        }
+      />
+      {adding && (
+        <div className="mb-6">
+          <h2 className="mb-2 text-lg font-semibold">New neighbourhood</h2>
+          <NeighbourhoodForm onSaved={(n) => navigate(paths.neighbourhoodDetail.to(n.id))} onCancel={() => setAdding(false)} />
+        </div>
+      )}
+      <ListToolbar
+        q={list.q}
+        onSearch={(q) => list.update({ q }, { replace: true })}
+        searchLabel="Search neighbourhoods"
+        sortOptions={sortChoices(NEIGHBOURHOOD_SORT_FIELDS)}
+        sort={list.sort}
+        onSort={(sort) => list.update({ sort })}
+      />
+      <ListBody
+        query={neighbourhoods}
+        noun="neighbourhoods"
+        emptyTitle={list.q ? 'No neighbourhoods match' : 'No neighbourhoods yet'}
+        emptyHint={list.q ? 'Try a shorter search.' : 'Neighbourhoods you look after will be listed here.'}
+        onPage={(page) => list.update({ page })}
+        onPageSize={(pageSize) => list.update({ pageSize })}
+      >
+        {(rows) => <NeighbourhoodsTable neighbourhoods={rows} sort={list.sort} onSort={(sort) => list.update({ sort })} />}
+      </ListBody>
+    </>
+  );
+}

@@ -1,0 +1,104 @@
+import { useState } from 'react';
+import { useNavigate, useParams } from 'react-router-dom';
+import { Button, ButtonLink } from '../components/button';
+import { EmptyState } from '../components/empty-state';
+import { FormMessage } from '../components/form-field';
+import { PageHeader, Section } from '../components/page-header';
+import { LoadError, Loading } from '../components/query-state';
+import { useCurrentUser } from '../features/auth/api/session';
+import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
+import { useNodes } from '../features/nodes/api/nodes';
+import { NodesTable } from '../features/nodes/components/nodes-table';
+import { usePeople } from '../features/people/api/people';
+import { useDeleteSite, useSite } from '../features/sites/api/sites';
+import { SiteForm } from '../features/sites/components/site-form';
+import { SiteSummary } from '../features/sites/components/site-summary';
+import { ApiError } from '../lib/api';
+import { paths } from '../lib/paths';
+import { ALL_BY_NAME, idFromParam, nameLookup, toOptions } from '../lib/resource';
+import { NotFoundPage } from './not-found';
+
+export function SiteDetailPage() {
+  const siteId = idFromParam(useParams().siteId);
+  if (siteId === null) return <NotFoundPage what="site" />;
+  return <SiteDetail siteId={siteId} />;
+}
+
+function SiteDetail({ siteId }: { siteId: number }) {
+  const navigate = useNavigate();
+  const user = useCurrentUser();
+  const [editing, setEditing] = useState(false);
+  const site = useSite(siteId);
+  const neighbourhoods = useNeighbourhoods(ALL_BY_NAME);
+  const nodes = useNodes({ siteId, ...ALL_BY_NAME });
+  const people = usePeople(ALL_BY_NAME, { enabled: editing && user?.role === 'admin' });
+  const remove = useDeleteSite(siteId);
+
+  if (site.isPending) return <Loading label="Loading the site…" />;
+  if (site.error instanceof ApiError && site.error.status === 404) return <NotFoundPage what="site" />;
+  if (site.isError) return <LoadError error={site.error} />;
+
+  const record = site.data;
+  const neighbourhoodNames = nameLookup(neighbourhoods.data?.data);
+  const neighbourhoodName = neighbourhoodNames.get(record.neighbourhoodId) ?? `#${record.neighbourhoodId}`;
+
+  function confirmDelete() {
+    if (!window.confirm(`Remove the site “${record.name}”? This cannot be undone.`)) return;
+    remove.mutate(undefined, { onSuccess: () => navigate(paths.sites.to(), { replace: true }) });
+  }
+
+  return (
+    <>
+      <PageHeader
+        title={record.name}
+        subtitle="Site"
+        actions={
+          !editing && (
+            <>
+              {record.abilities.update && (
+                <Button variant="primary" onClick={() => setEditing(true)}>
+                  Edit site
+                </Button>
+              )}
+              {record.abilities.delete && (
+                <Button variant="danger" onClick={confirmDelete} disabled={remove.isPending}>
+                  Remove site
+                </Button>
+              )}
+            </>
+          )
+        }
+      />
+      <FormMessage message={remove.error instanceof ApiError ? remove.error.message : remove.error ? 'Could not remove the site.' : null} />
+      {editing ? (
+        <SiteForm
+          site={record}
+          neighbourhoodOptions={toOptions(neighbourhoods.data?.data)}
+          hostOptions={people.isSuccess ? toOptions(people.data.data) : null}
+          onSaved={() => setEditing(false)}
+          onCancel={() => setEditing(false)}
+        />
+      ) : (
+        <SiteSummary site={record} neighbourhoodName={neighbourhoodName} />
+      )}
+      <Section
+        title="Nodes at this site"
+        actions={
+          <ButtonLink to={`${paths.nodes.to()}?siteId=${record.id}`} variant="quiet">
+            Open in the node list
+          </ButtonLink>
+        }
+      >
+        {nodes.isPending ? (
+          <Loading label="Loading nodes…" />
+        ) : nodes.isError ? (
+          <LoadError error={nodes.error} />
+        ) : nodes.data.data.length === 0 ? (
+          <EmptyState title="No nodes at this site yet" />
+        ) : (
+          <NodesTable nodes={nodes.data.data} siteNames={new Map([[record.id, record.name]])} neighbourhoodNames={neighbourhoodNames} />
+        )}
+      </Section>
+    </>
+  );
+}
