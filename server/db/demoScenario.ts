@@ -67,7 +67,7 @@ export const SITES: DemoSite[] = [
   relay('mill', 'Millbrook Mill', 'Millbrook', 150, 2100, 'h1', 100, 132),
   relay('marsh', 'Saltmarsh Water Tower', 'Saltmarsh Row', -2400, 300, 'h2', 116, 149),
   relay('chapel', 'Chapel Hill Bell Loft', 'Chapel Hill', 2900, -600, 'h3', 52, 60),
-  leaf('harbourmaster', 'Harbourmaster Flats', 'Old Quay', 1250, -1500, 'host', 1, 52),
+  leaf('harbourmaster', 'Harbourmaster Flats', 'Old Quay', 1250, -1500, null, 1, 52),
   leaf('netloft', 'Net Loft', 'Old Quay', 700, -1550, null, 11, 52, { encryption: 'none', preSharedKey: null, ssid: 'Lindenfall-Free' }),
   leaf('rope', 'Ropewalk 14', 'Old Quay', 1050, -900, 'h4', 6, 52),
   leaf('pier', 'Pier Cottages', 'Old Quay', 500, -1300, null, 1, 52, { encryption: 'wep', preSharedKey: '1234567890123' }),
