@@ -8,8 +8,9 @@ import type { TokenNode } from './ingestTokens';
 import { emitTransition, recordTransition } from './nodeHealth';
 import { thresholdsFor } from './thresholds';
 
-// One statement stores the batch: new (node, seq) pairs claim a row in heartbeat_seqs, and only
-// those reach the partitioned tables, so a resent report is stored once.
+// One statement stores the batch and moves the node: new (node, seq) pairs claim a row in
+// heartbeat_seqs, and only those reach the partitioned tables, so a resent report is stored once.
+// $4 says whether the newest report is newer than the node's last one (decided under the row lock).
 const STORE_SQL = `
 WITH input AS (
   SELECT DISTINCT ON ((r->>'seq')::bigint) (r->>'seq')::bigint AS seq, r
@@ -36,6 +37,20 @@ rad AS (
          jsonb_to_recordset(coalesce(i.r->'radios', '[]'::jsonb)) AS x(iface text, role text, band text, channel int,
            "channelWidthMHz" int, ssid text, "signalDbm" float8, "noiseDbm" float8, "txRateMbps" float8,
            "rxRateMbps" float8, clients int, "peerMac" text)
+),
+node AS (
+  UPDATE nodes SET
+    last_seen_at = greatest(last_seen_at, $3),
+    first_seen_at = CASE WHEN $4 THEN coalesce(first_seen_at, $3) ELSE first_seen_at END,
+    last_seq = CASE WHEN $4 THEN $5::bigint ELSE last_seq END,
+    last_report = CASE WHEN $4 THEN $6::jsonb ELSE last_report END,
+    health_streak = CASE WHEN $4 THEN $7::int ELSE health_streak END,
+    health_reason = CASE WHEN $4 THEN $8 ELSE health_reason END,
+    drift = CASE WHEN $4 THEN $9::jsonb ELSE drift END,
+    state_since = CASE WHEN $4 AND state <> $10 THEN $3 ELSE state_since END,
+    state = CASE WHEN $4 THEN $10 ELSE state END
+  WHERE id = $2
+  RETURNING id
 )
 SELECT seq::text FROM fresh`;
 
@@ -57,56 +72,41 @@ export interface IngestResult {
 }
 
 /**
- * Stores reports once each; the newest report (by the node's own seq) moves the node's current
- * state only if it is newer than what the node last said. Receive time is the server's.
+ * Stores reports once each, in one transaction with one commit. The newest report (by the node's
+ * own seq) moves the node's current state only if it is newer than what the node last said, so late
+ * and repeated reports are kept without moving it backwards. Receive time is the server's.
  */
 export async function ingestReports(sequelize: Sequelize, node: TokenNode, reports: HeartbeatReport[], now: Date): Promise<IngestResult> {
-  const rows = await sequelize.query<{ seq: string }>(STORE_SQL, { bind: [JSON.stringify(reports), node.nodeId, now], type: QueryTypes.SELECT });
-  const fresh = new Set(rows.map((r) => r.seq));
-  const result = { accepted: fresh.size, duplicates: reports.length - fresh.size };
+  const newest = reports.reduce((a, b) => (b.seq > a.seq ? b : a));
+  const [thresholds, drift] = await Promise.all([thresholdsFor(sequelize, node.thresholds), driftOf(sequelize, node.nodeId, node.firmware, newest)]);
+  const figures = keyFigures(newest);
+  const lastReport = { seq: newest.seq, sentAt: newest.sentAt, receivedAt: now.toISOString(), ...figures, uptimeS: newest.uptimeS ?? null, firmware: newest.firmware ?? null, radios: newest.radios ?? [] };
 
-  const newest = reports.filter((r) => fresh.has(String(r.seq))).sort((a, b) => b.seq - a.seq)[0];
-  const isNewer = newest && (node.lastSeq === null || BigInt(newest.seq) > BigInt(node.lastSeq));
-  if (!isNewer) {
-    // Late, out-of-order or repeated reports still prove the node is alive now.
-    await sequelize.query('UPDATE nodes SET last_seen_at = greatest(last_seen_at, $2) WHERE id = $1', { bind: [node.nodeId, now] });
-    return result;
-  }
-  await applyNewest(sequelize, node, newest, now);
-  return result;
-}
-
-async function applyNewest(sequelize: Sequelize, node: TokenNode, report: HeartbeatReport, now: Date) {
-  const thresholds = await thresholdsFor(sequelize, node.thresholds);
-  const figures = keyFigures(report);
-  const drift = await driftOf(sequelize, node.nodeId, node.firmware, report);
-  const lastReport = { seq: report.seq, sentAt: report.sentAt, receivedAt: now.toISOString(), ...figures, uptimeS: report.uptimeS ?? null, firmware: report.firmware ?? null, radios: report.radios ?? [] };
-
-  const events = await sequelize.transaction(async (transaction) => {
+  const outcome = await sequelize.transaction(async (transaction) => {
     // The row lock orders concurrent reports and the silence check, so state never moves backwards.
     const [current] = await sequelize.query<{ state: NodeState; healthStreak: number; lastSeq: string | null }>(
       'SELECT state, health_streak AS "healthStreak", last_seq::text AS "lastSeq" FROM nodes WHERE id = $1 FOR UPDATE',
       { bind: [node.nodeId], type: QueryTypes.SELECT, transaction },
     );
-    if (!current) return null;
-    if (current.lastSeq !== null && BigInt(current.lastSeq) >= BigInt(report.seq)) {
-      await sequelize.query('UPDATE nodes SET last_seen_at = greatest(last_seen_at, $2) WHERE id = $1', { bind: [node.nodeId, now], transaction });
-      return null;
-    }
-    const verdict = afterReport({ state: current.state, streak: current.healthStreak }, figures, thresholds);
-    await sequelize.query(
-      `UPDATE nodes SET last_seen_at = greatest(last_seen_at, $2), first_seen_at = coalesce(first_seen_at, $2), last_seq = $3, last_report = $4::jsonb,
-              health_streak = $5, health_reason = $6, drift = $7::jsonb,
-              state = $8, state_since = CASE WHEN state = $8 THEN state_since ELSE $2 END
-        WHERE id = $1`,
-      { bind: [node.nodeId, now, report.seq, JSON.stringify(lastReport), verdict.streak, verdict.reason, JSON.stringify(drift), verdict.state], transaction },
-    );
-    if (verdict.state === current.state) return null;
-    return recordTransition(sequelize, { ...node, from: current.state, to: verdict.state, reason: verdict.reason, at: now }, transaction);
+    const advances = current.lastSeq === null || BigInt(newest.seq) > BigInt(current.lastSeq);
+    const verdict = advances ? afterReport({ state: current.state, streak: current.healthStreak }, figures, thresholds) : null;
+    const rows = await sequelize.query<{ seq: string }>(STORE_SQL, {
+      bind: [JSON.stringify(reports), node.nodeId, now, advances, newest.seq, JSON.stringify(lastReport), verdict?.streak ?? 0, verdict?.reason ?? null, JSON.stringify(drift), verdict?.state ?? current.state],
+      type: QueryTypes.SELECT,
+      transaction,
+    });
+    const events = verdict && verdict.state !== current.state
+      ? await recordTransition(sequelize, { ...node, from: current.state, to: verdict.state, reason: verdict.reason, at: now }, transaction)
+      : null;
+    return { stored: rows.length, advances, events };
   });
-  if (events) emitTransition(events);
-  domainEvents.emit('node-figures', {
-    nodeId: node.nodeId, neighbourhoodId: node.neighbourhoodId, hostUserId: node.hostUserId, at: now.toISOString(),
-    signalDbm: figures.signalDbm, snrDb: figures.snrDb, throughputMbps: figures.throughputMbps, latencyMs: figures.latencyMs,
-  });
+
+  if (outcome.events) emitTransition(outcome.events);
+  if (outcome.advances) {
+    domainEvents.emit('node-figures', {
+      nodeId: node.nodeId, neighbourhoodId: node.neighbourhoodId, hostUserId: node.hostUserId, at: now.toISOString(),
+      signalDbm: figures.signalDbm, snrDb: figures.snrDb, throughputMbps: figures.throughputMbps, latencyMs: figures.latencyMs,
+    });
+  }
+  return { accepted: outcome.stored, duplicates: reports.length - outcome.stored };
 }

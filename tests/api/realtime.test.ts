@@ -3,7 +3,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Node, Site } from '../../server/models';
 import { PASSWORD, buildUser, useApi } from '../helpers/api';
 import { buildNeighbourhood, buildNode } from '../helpers/factories';
-import { startServerProcess, type ServerProcess } from '../helpers/serverProcess';
+import { startServerProcess, type ServerProcess } from '../../server/tools/serverProcess';
 
 /** Signs in over HTTP and returns the session cookie and CSRF token. */
 async function signInAt(url: string, email: string) {

@@ -1,6 +1,6 @@
 import type { Browser, BrowserContext, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ServerProcess } from '../helpers/serverProcess';
+import type { ServerProcess } from '../../server/tools/serverProcess';
 import { launchBrowser, screenshot, signInAs, startE2EServer } from './helpers/browser';
 
 describe('what each role sees in the browser', () => {

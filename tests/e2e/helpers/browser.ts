@@ -1,7 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
 import { chromium, type Browser, type Page } from 'playwright-core';
-import { startServerProcess, type ServerProcess } from '../../helpers/serverProcess';
+import { startServerProcess, type ServerProcess } from '../../../server/tools/serverProcess';
 
 export const DEMO_PASSWORD = process.env.PARAPET_DEMO_PASSWORD ?? 'parapet-demo';
 export const artifactsDir = path.resolve(process.env.TEST_ARTIFACTS_DIR ?? 'test-artifacts');
