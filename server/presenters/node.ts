@@ -20,6 +20,7 @@ export function presentNode(n: Node, actor: Actor): NodeDto {
     lastSeenAt: iso(n.lastSeenAt),
     healthReason: n.healthReason ?? null,
     lastReport: n.lastReport ?? null,
+    thresholds: n.thresholds ?? null,
     drift: n.drift ?? [],
     createdAt: iso(n.createdAt)!,
     updatedAt: iso(n.updatedAt)!,

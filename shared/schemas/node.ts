@@ -42,6 +42,8 @@ export interface NodeDto {
   healthReason: string | null;
   /** The newest report's key figures and radios, as the node sent them. */
   lastReport: Record<string, unknown> | null;
+  /** This node's own health thresholds, over the network's. */
+  thresholds: Record<string, number> | null;
   /** Settings the node reports that differ from the inventory. */
   drift: { field: string; expected: unknown; reported: unknown }[];
   createdAt: string;

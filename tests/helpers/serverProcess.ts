@@ -1,0 +1,2 @@
+// Tests start real server processes the same way the benchmark scripts do.
+export * from '../../server/tools/serverProcess';
