@@ -1,0 +1,134 @@
+import { useState, type FormEvent } from 'react';
+import { Link } from 'react-router-dom';
+import { Button } from '../components/button';
+import { Caution } from '../components/caution';
+import { FormMessage, SelectField, TextField } from '../components/form-field';
+import { PageHeader, Section } from '../components/page-header';
+import { channelCenterMHz } from '../../shared/radio/channels';
+import type { PlannedLinkEnd } from '../../shared/schemas/planningRecords';
+import { useLinkBudget, useNetworkSettings, useRegulatory, useSavePlannedLink } from '../features/planning/api/planning';
+import type { LinkBudgetAnswer, RegulatoryAnswer } from '../features/planning/api/types';
+import { LinkBudgetFigures, LinkVerdictBadge, RegulatoryVerdict } from '../features/planning/components/link-budget-results';
+import { emptyEnd, LinkEndForm, type LinkEnd, type PickedRadio } from '../features/planning/components/link-end-form';
+import { LinkHealthPanel } from '../features/planning/components/link-health-panel';
+import { PathProfile } from '../features/planning/components/path-profile';
+import { ApiError } from '../lib/api';
+import { paths } from '../lib/paths';
+
+const num = (s: string) => (s.trim() === '' ? Number.NaN : Number(s));
+const errorText = (e: unknown) => (e instanceof ApiError ? [e.message, ...e.details.slice(1).map((d) => d.message)].join(' ') : 'Something went wrong. Try again.');
+
+export function LinkBudgetPage() {
+  const settings = useNetworkSettings();
+  const budget = useLinkBudget();
+  const regulatory = useRegulatory();
+  const save = useSavePlannedLink();
+  const [a, setA] = useState<LinkEnd>(emptyEnd);
+  const [b, setB] = useState<LinkEnd>(emptyEnd);
+  const [radioA, setRadioA] = useState<PickedRadio | null>(null);
+  const [, setRadioB] = useState<PickedRadio | null>(null);
+  const [radio, setRadio] = useState({ band: '5' as '2.4' | '5', channel: '100', channelWidthMHz: '20', noiseFigureDb: '5' });
+  const [result, setResult] = useState<{ answer: LinkBudgetAnswer; freqMHz: number; a: LinkEnd; b: LinkEnd; reg: RegulatoryAnswer | null; regError: string | null } | null>(null);
+  const [message, setMessage] = useState<string | null>(null);
+  const region = settings.data?.region ?? 'EU';
+  const band = radioA?.band ?? radio.band;
+  const channel = radioA?.channel ?? num(radio.channel);
+  const width = radioA?.channelWidthMHz ?? num(radio.channelWidthMHz);
+
+  async function compute(e: FormEvent) {
+    e.preventDefault();
+    setMessage(null);
+    save.reset();
+    let freqMHz: number;
+    try {
+      freqMHz = channelCenterMHz(band, channel);
+    } catch {
+      setMessage(`Channel ${radio.channel} is not a ${band} GHz channel.`);
+      return;
+    }
+    const end = (x: LinkEnd) => ({ lat: num(x.lat), lon: num(x.lon), heightM: num(x.heightM), groundElevationM: num(x.groundElevationM) });
+    try {
+      const answer = await budget.mutateAsync({
+        a: end(a), b: end(b), freqMHz, channelWidthMHz: width as 20 | 40 | 80, noiseFigureDb: num(radio.noiseFigureDb),
+        txPowerDbm: num(a.txPowerDbm), txAntennaGainDbi: num(a.antennaGainDbi), txCableLossDb: num(a.cableLossDb),
+        rxAntennaGainDbi: num(b.antennaGainDbi), rxCableLossDb: num(b.cableLossDb),
+      });
+      let reg: RegulatoryAnswer | null = null;
+      let regError: string | null = null;
+      if (region === 'US' || region === 'EU') {
+        try {
+          reg = await regulatory.mutateAsync({ region, freqMHz, antennaGainDbi: num(a.antennaGainDbi), txPowerDbm: num(a.txPowerDbm), cableLossDb: num(a.cableLossDb), linkType: 'point-to-point' });
+        } catch (err) {
+          regError = errorText(err);
+        }
+      }
+      setResult({ answer, freqMHz, a, b, reg, regError });
+    } catch (err) {
+      setResult(null);
+      setMessage(errorText(err));
+    }
+  }
+
+  function endSpec(x: LinkEnd): PlannedLinkEnd | null {
+    if (x.radioId) return { radioId: Number(x.radioId) };
+    if (!x.nodeId) return null;
+    return { nodeId: Number(x.nodeId), band, channel, channelWidthMHz: width as 20 | 40 | 80, txPowerDbm: num(x.txPowerDbm), antennaGainDbi: num(x.antennaGainDbi), cableLossDb: num(x.cableLossDb), role: 'backhaul-ap' };
+  }
+  const specA = result ? endSpec(result.a) : null;
+  const specB = result ? endSpec(result.b) : null;
+
+  return (
+    <>
+      <PageHeader title="Link budget" subtitle="Will this link close? Distance, loss, signal, margin and path clearance between two masts." />
+      <form onSubmit={compute} className="space-y-4" noValidate>
+        <div className="grid gap-4 lg:grid-cols-2">
+          <LinkEndForm label="A" value={a} onChange={setA} onRadio={setRadioA} />
+          <LinkEndForm label="B" value={b} onChange={setB} onRadio={setRadioB} />
+        </div>
+        <fieldset className="grid grid-cols-2 gap-3 rounded-lg border border-line bg-surface p-4 lg:grid-cols-4">
+          <legend className="px-1 text-sm font-semibold">Radio {radioA ? '(from radio A)' : ''}</legend>
+          <SelectField label="Band" value={band} disabled={!!radioA} onChange={(e) => setRadio({ ...radio, band: e.target.value as '2.4' | '5' })} options={[{ value: '2.4', label: '2.4 GHz' }, { value: '5', label: '5 GHz' }]} />
+          <TextField label="Channel" inputMode="numeric" value={radioA ? String(radioA.channel) : radio.channel} readOnly={!!radioA} onChange={(e) => setRadio({ ...radio, channel: e.target.value })} />
+          <SelectField label="Channel width" value={String(width)} disabled={!!radioA} onChange={(e) => setRadio({ ...radio, channelWidthMHz: e.target.value })} options={[20, 40, 80].map((w) => ({ value: String(w), label: `${w} MHz` }))} />
+          <TextField label="Receiver noise figure (dB)" inputMode="decimal" value={radio.noiseFigureDb} onChange={(e) => setRadio({ ...radio, noiseFigureDb: e.target.value })} />
+        </fieldset>
+        <FormMessage message={message} />
+        <Button type="submit" variant="primary" disabled={budget.isPending}>{budget.isPending ? 'Computing…' : 'Compute link budget'}</Button>
+      </form>
+
+      {result && (
+        <Section title="Result">
+          <div className="space-y-4">
+            <LinkVerdictBadge fadeMarginDb={result.answer.fadeMarginDb} />
+            <LinkBudgetFigures answer={result.answer} />
+            <RegulatoryVerdict region={region} answer={result.reg} error={result.regError} />
+            <PathProfile distanceKm={result.answer.distanceKm} freqMHz={result.freqMHz}
+              a={{ label: 'A', groundM: num(result.a.groundElevationM), heightM: num(result.a.heightM) }}
+              b={{ label: 'B', groundM: num(result.b.groundElevationM), heightM: num(result.b.heightM) }} />
+            <div className="flex flex-wrap items-center gap-3">
+              <Button variant="primary" disabled={!specA || !specB || save.isPending || save.isSuccess}
+                onClick={() => specA && specB && save.mutate({ a: specA, b: specB })}>
+                {save.isPending ? 'Saving…' : 'Save as planned link'}
+              </Button>
+              {(!specA || !specB) && <p className="text-sm text-muted">To save, choose a site and a node for both ends.</p>}
+              {save.isSuccess && (
+                <p role="status" data-testid="saved-link" className="text-sm">
+                  Saved “{save.data.name}” as a planned link. <Link className="underline" to={paths.topology.to(save.data.nodeAId)}>See it on the map</Link> (drawn dashed).
+                </p>
+              )}
+              {save.isError && <FormMessage message={errorText(save.error)} />}
+            </div>
+            <Caution title="Working at height">
+              Mast and roof work can kill: never climb alone, use fall protection, keep clear of power lines, and stay out of the beam of
+              high-gain antennas while they transmit. Regulatory figures are guidance; local codes, the regulator and licensed practice decide.
+            </Caution>
+          </div>
+        </Section>
+      )}
+
+      <Section title="Live links: measured against predicted">
+        <LinkHealthPanel />
+      </Section>
+    </>
+  );
+}

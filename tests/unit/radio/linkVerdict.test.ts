@@ -1,0 +1,49 @@
+import { describe, expect, it } from 'vitest';
+import { assessLinkHealth, linkVerdict } from '../../../shared/radio/linkVerdict';
+import { pathProfile, worstClearanceM } from '../../../shared/radio/pathProfile';
+
+describe('link verdict', () => {
+  it('bands the fade margin at 10 dB and 0 dB (common practice, no source)', () => {
+    expect(linkVerdict(10)).toBe('closes');
+    expect(linkVerdict(9.99)).toBe('marginal');
+    expect(linkVerdict(0)).toBe('marginal');
+    expect(linkVerdict(-0.01)).toBe('will-not-close');
+  });
+
+  it('flags only a link well below both its prediction and its own baseline (common practice, no source)', () => {
+    expect(assessLinkHealth({ measuredSignalDbm: -70, predictedSignalDbm: -55, baselineSignalDbm: -60 })).toEqual({ belowPredictionDb: 15, belowBaselineDb: 10, flagged: true });
+    expect(assessLinkHealth({ measuredSignalDbm: -70, predictedSignalDbm: -55, baselineSignalDbm: -66 }).flagged).toBe(false); // always weak
+    expect(assessLinkHealth({ measuredSignalDbm: -70, predictedSignalDbm: -62, baselineSignalDbm: -55 }).flagged).toBe(false); // prediction was optimistic only 8 dB
+    expect(assessLinkHealth({ measuredSignalDbm: -70, predictedSignalDbm: -60, baselineSignalDbm: -64 }).flagged).toBe(false); // exactly 10 dB is not "more than"
+    expect(assessLinkHealth({ measuredSignalDbm: null, predictedSignalDbm: -55, baselineSignalDbm: -60 })).toEqual({ belowPredictionDb: null, belowBaselineDb: null, flagged: false });
+  });
+});
+
+describe('path profile', () => {
+  const input = { distanceKm: 10, freqMHz: 5800, aGroundM: 20, aHeightM: 30, bGroundM: 40, bHeightM: 10 };
+  const points = pathProfile({ ...input, samples: 10 });
+
+  it('runs the line of sight from mast top to mast top', () => {
+    expect(points[0].sightM).toBe(50);
+    expect(points[10].sightM).toBe(50);
+    expect(points[0].fresnelM).toBe(0);
+    expect(points[10].bulgeM).toBe(0);
+  });
+
+  it('matches the practical first-zone radius at mid-path within 1 % (ITU-R P.526 Annex 1 §2.1: R1 = 17.31·sqrt(d1·d2/(f·D)))', () => {
+    const practical = 17.31 * Math.sqrt((5 * 5) / (5.8 * 10));
+    expect(Math.abs(points[5].fresnelM - practical) / practical).toBeLessThan(0.01);
+  });
+
+  it('raises the mid-path ground by the earth bulge within 1 % (ITU-R P.526: h = d1·d2/(12.742·k), k = 4/3)', () => {
+    const bulge = (5 * 5) / (12.742 * (4 / 3));
+    expect(Math.abs(points[5].bulgeM - bulge) / bulge).toBeLessThan(0.01);
+    expect(points[5].groundM).toBeCloseTo(30 + points[5].bulgeM, 9); // straight ground between 20 m and 40 m
+  });
+
+  it('finds the worst clearance where the bulge and zone are largest', () => {
+    const worst = worstClearanceM(points);
+    expect(worst).toBeCloseTo(Math.min(...points.map((p) => p.sightM - 0.6 * p.fresnelM - p.groundM)), 9);
+    expect(worst).toBeLessThan(points[0].sightM - points[0].groundM);
+  });
+});
