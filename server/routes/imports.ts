@@ -1,0 +1,39 @@
+import { Router } from 'express';
+import type { Sequelize } from 'sequelize';
+import { z } from 'zod';
+import { IMPORT_KINDS, importQuerySchema, type ImportKind } from '../../shared/schemas/csvImport';
+import { loadFeatureSettings, type FeatureSettings } from '../featureSettings';
+import { actorOf } from '../middlewares/requireUser';
+import { requireFile, singleUpload } from '../middlewares/upload';
+import { validate } from '../middlewares/validate';
+import { isAdmin } from '../policies/actor';
+import { authorize } from '../policies/authorize';
+import { checkImport, commitImport } from '../services/csvImport';
+
+const kindParamsSchema = z.object({ kind: z.enum(IMPORT_KINDS, { error: `must be one of ${IMPORT_KINDS.join(', ')}` }) });
+
+/** Mounted at /imports: CSV files of sites or nodes, previewed with ?dryRun=true, else committed whole. */
+export function importRoutes(sequelize: Sequelize, settings: FeatureSettings = loadFeatureSettings()) {
+  const router = Router();
+  const upload = singleUpload('file', settings.csvImportMaxBytes, 'CSV file');
+
+  router.post('/:kind', validate('params', kindParamsSchema), validate('query', importQuerySchema), (req, _res, next) => {
+    const actor = actorOf(req);
+    // Checked before the upload is read: hosts add nothing to the inventory.
+    authorize(isAdmin(actor) || actor.neighbourhoodIds.length > 0, 'Only admins and operators import sites and nodes.');
+    next();
+  }, upload, async (req, res) => {
+    const actor = actorOf(req);
+    const kind = res.locals.params.kind as ImportKind;
+    const file = requireFile(req, 'file', 'CSV file');
+    const checked = await checkImport(kind, file.buffer, actor, settings.csvImportMaxRows);
+    if (res.locals.query.dryRun) {
+      res.json({ data: checked.preview });
+      return;
+    }
+    const ids = await commitImport(sequelize, kind, checked);
+    res.status(201).json({ data: { kind, created: ids.length, ids } });
+  });
+
+  return router;
+}

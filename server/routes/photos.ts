@@ -1,0 +1,102 @@
+import { Router, type Response } from 'express';
+import type { Sequelize } from 'sequelize';
+import { idParamsSchema } from '../../shared/schemas/common';
+import { photoCaptionSchema } from '../../shared/schemas/photo';
+import { NotFound } from '../errors';
+import { loadFeatureSettings, type FeatureSettings } from '../featureSettings';
+import { actorOf } from '../middlewares/requireUser';
+import { requireFile, singleUpload } from '../middlewares/upload';
+import { parseOrThrow, validate } from '../middlewares/validate';
+import { Photo, usePhotoModel } from '../models/photo';
+import type { Actor } from '../policies/actor';
+import { authorize } from '../policies/authorize';
+import { mayAddPhoto, photoAbilities } from '../policies/photo';
+import { presentPhoto } from '../presenters/photo';
+import { photoStore, preparePhoto } from '../services/photoStore';
+import { readableSite } from '../services/references';
+
+const EXT = { 'image/jpeg': 'jpg', 'image/png': 'png', 'image/webp': 'webp' } as const;
+
+/** Mounted at /sites/:id/photos: the list and uploads of one site's install photos. */
+export function sitePhotoRoutes(sequelize: Sequelize, settings: FeatureSettings = loadFeatureSettings()) {
+  usePhotoModel(sequelize);
+  const store = photoStore(settings.dataDir);
+  const router = Router({ mergeParams: true });
+
+  router.get('/', validate('params', idParamsSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const site = await readableSite(actor, res.locals.params.id);
+    const photos = await Photo.findAll({ where: { siteId: site.id }, order: [['createdAt', 'DESC'], ['id', 'DESC']] });
+    res.json({ data: photos.map((p) => presentPhoto(p, photoAbilities(actor, site))), abilities: { create: mayAddPhoto(actor, site) } });
+  });
+
+  router.post('/', validate('params', idParamsSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const site = await readableSite(actor, res.locals.params.id);
+    authorize(mayAddPhoto(actor, site), 'Only admins, the operators of its neighbourhood and its host add photos to this site.');
+    await new Promise<void>((resolve, reject) => singleUpload('photo', settings.photoMaxBytes, 'photo')(req, res, (err?: unknown) => (err ? reject(err) : resolve())));
+    const file = requireFile(req, 'photo', 'photo');
+    const { caption } = parseOrThrow(photoCaptionSchema, { caption: req.body?.caption || undefined }, 'photo form');
+    const prepared = await preparePhoto(file.buffer);
+    const key = store.newKey();
+    await store.write(key, file.buffer, prepared.thumbnail);
+    try {
+      const photo = await Photo.create({
+        siteId: site.id, storageKey: key, contentType: prepared.contentType, sizeBytes: file.size,
+        widthPx: prepared.widthPx, heightPx: prepared.heightPx, hasThumbnail: true, caption: caption ?? null, uploadedBy: actor.id,
+      });
+      res.status(201).json({ data: presentPhoto(photo, photoAbilities(actor, site)) });
+    } catch (err) {
+      await store.remove(key); // the row failed, so the files must not stay behind
+      throw err;
+    }
+  });
+
+  return router;
+}
+
+/** Mounted at /photos: one photo's file, thumbnail and removal, read through its site's scope. */
+export function photoRoutes(sequelize: Sequelize, settings: FeatureSettings = loadFeatureSettings()) {
+  usePhotoModel(sequelize);
+  const store = photoStore(settings.dataDir);
+  const router = Router();
+
+  async function readablePhoto(actor: Actor, id: number) {
+    const photo = await Photo.findByPk(id);
+    if (!photo) throw NotFound(`Photo ${id}`);
+    try {
+      return { photo, site: await readableSite(actor, photo.siteId) };
+    } catch {
+      throw NotFound(`Photo ${id}`); // a photo of a site you cannot read does not exist for you
+    }
+  }
+
+  const send = (res: Response, file: string, type: string, name: string) => {
+    res.set({ 'Content-Type': type, 'Cache-Control': 'private, max-age=3600', 'Content-Disposition': `inline; filename="${name}"` });
+    res.sendFile(file, (err) => {
+      if (err && !res.headersSent) res.status(404).json({ error: { code: 'not_found', message: 'The photo file is missing on the server.' } });
+    });
+  };
+
+  router.get('/:id', validate('params', idParamsSchema), async (req, res) => {
+    const { photo } = await readablePhoto(actorOf(req), res.locals.params.id);
+    send(res, store.fileOf(photo.storageKey), photo.contentType, `site-${photo.siteId}-photo-${photo.id}.${EXT[photo.contentType]}`);
+  });
+
+  router.get('/:id/thumbnail', validate('params', idParamsSchema), async (req, res) => {
+    const { photo } = await readablePhoto(actorOf(req), res.locals.params.id);
+    if (!photo.hasThumbnail) throw NotFound(`A thumbnail of photo ${photo.id}`);
+    send(res, store.thumbOf(photo.storageKey), 'image/webp', `site-${photo.siteId}-photo-${photo.id}-small.webp`);
+  });
+
+  router.delete('/:id', validate('params', idParamsSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const { photo, site } = await readablePhoto(actor, res.locals.params.id);
+    authorize(photoAbilities(actor, site).delete, 'Only admins and the operators of its neighbourhood remove photos of this site.');
+    await photo.destroy();
+    await store.remove(photo.storageKey);
+    res.status(204).end();
+  });
+
+  return router;
+}

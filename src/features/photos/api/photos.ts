@@ -1,0 +1,34 @@
+import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import type { PhotoDto } from '../../../../shared/schemas/photo';
+import { api } from '../../../lib/api';
+import { postForm } from '../../../lib/form-upload';
+
+export const photoKeys = { site: (siteId: number) => ['sites', 'photos', siteId] as const };
+
+export function useSitePhotos(siteId: number) {
+  return useQuery({
+    queryKey: photoKeys.site(siteId),
+    queryFn: () => api.get<{ data: PhotoDto[]; abilities: { create: boolean } }>(`/sites/${siteId}/photos`),
+  });
+}
+
+export function useUploadPhoto(siteId: number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: ({ file, caption }: { file: File; caption: string }) => {
+      const form = new FormData();
+      form.append('photo', file);
+      if (caption.trim()) form.append('caption', caption.trim());
+      return postForm<{ data: PhotoDto }>(`/sites/${siteId}/photos`, form);
+    },
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: photoKeys.site(siteId) }),
+  });
+}
+
+export function useDeletePhoto(siteId: number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (photoId: number) => api.delete(`/photos/${photoId}`),
+    onSuccess: () => queryClient.invalidateQueries({ queryKey: photoKeys.site(siteId) }),
+  });
+}
