@@ -1,9 +1,10 @@
-import { useMutation, useQueryClient } from '@tanstack/react-query';
+import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { z } from 'zod';
-import type { NeighbourhoodDto, neighbourhoodCreateSchema, neighbourhoodUpdateSchema } from '../../../../shared/schemas/neighbourhood';
+import type { NeighbourhoodDto, NeighbourhoodSummaryDto, neighbourhoodCreateSchema, neighbourhoodUpdateSchema } from '../../../../shared/schemas/neighbourhood';
+import type { NodeDto } from '../../../../shared/schemas/node';
 import { api } from '../../../lib/api';
-import { neighbourhoodKeys, overviewKeys, peopleKeys } from '../../../lib/query-keys';
-import { resourceHooks } from '../../../lib/resource';
+import { type ListParams, neighbourhoodKeys, neighbourhoodSummaryKeys, nodeKeys, overviewKeys, peopleKeys } from '../../../lib/query-keys';
+import { type ListResponse, resourceHooks } from '../../../lib/resource';
 
 type NeighbourhoodCreate = z.output<typeof neighbourhoodCreateSchema>;
 type NeighbourhoodUpdate = z.output<typeof neighbourhoodUpdateSchema>;
@@ -31,4 +32,25 @@ export function useAssignOperators(id: number) {
       ]);
     },
   });
+}
+
+export function useNeighbourhoodSummary(id: number) {
+  return useQuery({
+    queryKey: neighbourhoodSummaryKeys.one(id),
+    queryFn: () => api.get<{ data: NeighbourhoodSummaryDto }>(`/neighbourhoods/${id}/summary`).then((b) => b.data),
+  });
+}
+
+/** Move nodes into this neighbourhood (admins); every list that groups nodes by neighbourhood changes. */
+export function useAssignNodes(id: number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (nodeIds: number[]) => api.post<{ data: { moved: number; unchanged: number } }>(`/neighbourhoods/${id}/nodes`, { nodeIds }).then((b) => b.data),
+    onSuccess: () => Promise.all([neighbourhoodKeys.all, nodeKeys.all, overviewKeys.all].map((queryKey) => queryClient.invalidateQueries({ queryKey: [...queryKey] }))),
+  });
+}
+
+/** Candidate nodes for the bulk move: the same list the nodes page reads, filtered on the server. */
+export function useNodeCandidates(params: ListParams) {
+  return useQuery({ queryKey: nodeKeys.list(params), queryFn: () => api.get<ListResponse<NodeDto>>('/nodes', params), placeholderData: keepPreviousData });
 }

@@ -12,9 +12,12 @@ export function NeighbourhoodsTable({ neighbourhoods, sort, onSort }: { neighbou
       header: 'Name',
       sortKey: 'name',
       render: (n) => (
-        <Link to={paths.neighbourhoodDetail.to(n.id)} className="font-medium text-accent hover:underline">
-          {n.name}
-        </Link>
+        <>
+          <Link to={paths.neighbourhoodDetail.to(n.id)} className="font-medium text-accent hover:underline">
+            {n.name}
+          </Link>
+          {n.retiredAt && <span className="ml-2 rounded border border-line px-1.5 text-xs text-muted">Retired</span>}
+        </>
       ),
     },
     { key: 'sites', header: 'Sites', align: 'right', render: (n) => n.siteCount },

@@ -1,0 +1,56 @@
+import { Router } from 'express';
+import type { Sequelize } from 'sequelize';
+import { meUpdateSchema, passwordChangeSchema, type MeDto } from '../../shared/schemas/account';
+import { endSessionsOf } from '../auth/accountTokens';
+import { hashPassword, verifyPassword } from '../auth/passwords';
+import { Invalid, NotFound } from '../errors';
+import { actorOf } from '../middlewares/requireUser';
+import { validate } from '../middlewares/validate';
+import { User } from '../models';
+import { assertPasswordFor } from '../services/accountLinks';
+
+const present = (u: User): MeDto => ({ id: u.id, email: u.email, name: u.name, role: u.role, phone: u.phone ?? null });
+
+async function me(id: number) {
+  const u = await User.findByPk(id);
+  if (!u) throw NotFound('Your account');
+  return u;
+}
+
+/** Each person's own account: contact details and password. The role is the admins' to change. */
+export function meRoutes(sequelize: Sequelize) {
+  const router = Router();
+
+  router.get('/', async (req, res) => {
+    res.json({ data: present(await me(actorOf(req).id)) });
+  });
+
+  router.patch('/', validate('body', meUpdateSchema), async (req, res) => {
+    const user = await me(actorOf(req).id);
+    await user.update(res.locals.body);
+    res.json({ data: present(user) });
+  });
+
+  router.post('/password', validate('body', passwordChangeSchema), async (req, res) => {
+    const user = await me(actorOf(req).id);
+    const { currentPassword, newPassword } = res.locals.body;
+    if (!(await verifyPassword(user.passwordHash, currentPassword))) {
+      throw Invalid('The current password is not right. Type it again, or sign out and use "Forgot password?".', [
+        { path: 'currentPassword', message: 'currentPassword does not match your current password' },
+      ]);
+    }
+    if (currentPassword === newPassword) {
+      throw Invalid('The new password is the same as the current one. Choose a different one.', [{ path: 'newPassword', message: 'newPassword must differ from the current password' }]);
+    }
+    assertPasswordFor(user, newPassword, 'newPassword');
+    await sequelize.transaction(async (transaction) => {
+      await user.update({ passwordHash: await hashPassword(newPassword) }, { transaction });
+      // Reset links from before the change stop working, and other devices are signed out; this one stays.
+      await sequelize.query(`UPDATE account_tokens SET used_at = now() WHERE user_id = $1 AND purpose = 'password-reset' AND used_at IS NULL`, { bind: [user.id], transaction });
+      await endSessionsOf(sequelize, user.id, req.sessionID, transaction);
+    });
+    res.status(204).end();
+  });
+
+  return router;
+}

@@ -1,0 +1,44 @@
+import { useState } from 'react';
+import { z } from 'zod';
+import { passwordChangeSchema } from '../../../../shared/schemas/account';
+import { Button } from '../../../components/button';
+import { FormMessage, TextField } from '../../../components/form-field';
+import { useForm } from '../../../lib/form';
+import { useChangePassword } from '../api/account';
+import { PASSWORD_HINT } from './new-password-form';
+
+const schema = passwordChangeSchema.extend({ repeat: z.string() }).refine((v) => v.newPassword === v.repeat, { path: ['repeat'], message: 'does not match the new password' });
+const EMPTY = { currentPassword: '', newPassword: '', repeat: '' };
+
+export function ChangePasswordForm() {
+  const form = useForm(EMPTY);
+  const change = useChangePassword();
+  const [done, setDone] = useState(false);
+  return (
+    <form
+      noValidate
+      data-testid="change-password-form"
+      className="max-w-md space-y-4"
+      onSubmit={(event) => {
+        event.preventDefault();
+        setDone(false);
+        const input = form.check(schema, form.values);
+        if (input) {
+          change.mutate(
+            { currentPassword: input.currentPassword, newPassword: input.newPassword },
+            { onSuccess: () => { form.reset(EMPTY); setDone(true); }, onError: form.showServerError },
+          );
+        }
+      }}
+    >
+      <FormMessage message={form.formError} />
+      <TextField label="Current password" name="currentPassword" type="password" autoComplete="current-password" value={form.values.currentPassword} onChange={(e) => form.set('currentPassword', e.target.value)} errors={form.errors.currentPassword} />
+      <TextField label="New password" name="newPassword" type="password" autoComplete="new-password" value={form.values.newPassword} onChange={(e) => form.set('newPassword', e.target.value)} errors={form.errors.newPassword} hint={PASSWORD_HINT} />
+      <TextField label="The new password again" name="repeat" type="password" autoComplete="new-password" value={form.values.repeat} onChange={(e) => form.set('repeat', e.target.value)} errors={form.errors.repeat} />
+      <div className="flex items-center gap-3">
+        <Button type="submit" variant="primary" disabled={change.isPending}>{change.isPending ? 'Changing…' : 'Change password'}</Button>
+        <span role="status" className="text-sm text-muted">{done ? 'Changed. Your other devices are signed out.' : ''}</span>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,35 @@
+import { useEffect, useState } from 'react';
+import type { MeDto } from '../../../../shared/schemas/account';
+import { meUpdateSchema } from '../../../../shared/schemas/account';
+import { Button } from '../../../components/button';
+import { FormMessage, TextField } from '../../../components/form-field';
+import { useForm } from '../../../lib/form';
+import { useUpdateMe } from '../api/account';
+
+export function ContactForm({ me }: { me: MeDto }) {
+  const form = useForm({ name: me.name, phone: me.phone ?? '' });
+  const update = useUpdateMe();
+  const [saved, setSaved] = useState(false);
+  useEffect(() => setSaved(false), [form.values]);
+  return (
+    <form
+      noValidate
+      data-testid="contact-form"
+      className="max-w-md space-y-4"
+      onSubmit={(event) => {
+        event.preventDefault();
+        const input = form.check(meUpdateSchema, { name: form.values.name, phone: form.values.phone.trim() === '' ? null : form.values.phone });
+        if (input) update.mutate(input, { onSuccess: () => setSaved(true), onError: form.showServerError });
+      }}
+    >
+      <FormMessage message={form.formError} />
+      <p className="text-sm text-muted">E-mail: {me.email} (an admin can change it)</p>
+      <TextField label="Name" name="name" autoComplete="name" value={form.values.name} onChange={(e) => form.set('name', e.target.value)} errors={form.errors.name} />
+      <TextField label="Phone" name="phone" type="tel" autoComplete="tel" value={form.values.phone} onChange={(e) => form.set('phone', e.target.value)} errors={form.errors.phone} hint="The operators of your neighbourhood see it, so they can reach you when your node needs a hand." />
+      <div className="flex items-center gap-3">
+        <Button type="submit" variant="primary" disabled={update.isPending}>{update.isPending ? 'Saving…' : 'Save contact details'}</Button>
+        <span role="status" className="text-sm text-muted">{saved ? 'Saved.' : ''}</span>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,35 @@
+import { ROLES } from '../../../../shared/enums';
+import { invitationCreateSchema } from '../../../../shared/schemas/account';
+import type { UserDto } from '../../../../shared/schemas/user';
+import { Button } from '../../../components/button';
+import { FormMessage, SelectField, TextField } from '../../../components/form-field';
+import { capitalise } from '../../../lib/format';
+import { useForm } from '../../../lib/form';
+import { useInvite } from '../api/account';
+
+/** An admin invites someone by e-mail; they choose their own password from the link. */
+export function InviteForm({ onSent, onCancel }: { onSent: (person: UserDto & { invitationExpiresAt: string }) => void; onCancel: () => void }) {
+  const form = useForm({ email: '', name: '', role: 'host' });
+  const invite = useInvite();
+  return (
+    <form
+      noValidate
+      data-testid="invite-form"
+      className="grid max-w-2xl gap-4 sm:grid-cols-3"
+      onSubmit={(event) => {
+        event.preventDefault();
+        const input = form.check(invitationCreateSchema, form.values);
+        if (input) invite.mutate(input, { onSuccess: onSent, onError: form.showServerError });
+      }}
+    >
+      <div className="sm:col-span-3"><FormMessage message={form.formError} /></div>
+      <TextField label="E-mail" name="email" type="email" value={form.values.email} onChange={(e) => form.set('email', e.target.value)} errors={form.errors.email} />
+      <TextField label="Name" name="name" value={form.values.name} onChange={(e) => form.set('name', e.target.value)} errors={form.errors.name} />
+      <SelectField label="Role" name="role" value={form.values.role} onChange={(e) => form.set('role', e.target.value)} errors={form.errors.role} options={ROLES.map((r) => ({ value: r, label: capitalise(r) }))} />
+      <div className="flex gap-2 sm:col-span-3">
+        <Button type="submit" variant="primary" disabled={invite.isPending}>{invite.isPending ? 'Sending…' : 'Send invitation'}</Button>
+        <Button onClick={onCancel}>Cancel</Button>
+      </div>
+    </form>
+  );
+}

@@ -1,0 +1,40 @@
+import { useState } from 'react';
+import { z } from 'zod';
+import { newPasswordSchema } from '../../../../shared/security/passwordRules';
+import { Button } from '../../../components/button';
+import { FormMessage, TextField } from '../../../components/form-field';
+import { useForm } from '../../../lib/form';
+
+const schema = z
+  .object({ password: newPasswordSchema, repeat: z.string() })
+  .refine((v) => v.password === v.repeat, { path: ['repeat'], message: 'does not match the password above' });
+
+export const PASSWORD_HINT = 'At least 12 characters. A few unrelated words work well; common passwords and your own name are refused.';
+
+/** Choose a password once (invitation or reset): checked here with the server's own rules, then sent with the link's token. */
+export function NewPasswordForm({ submitLabel, pending, onSubmit }: { submitLabel: string; pending: boolean; onSubmit: (password: string, showError: (e: unknown) => void) => void }) {
+  const form = useForm({ password: '', repeat: '' });
+  const [shown, setShown] = useState(false);
+  return (
+    <form
+      noValidate
+      data-testid="new-password-form"
+      className="space-y-4"
+      onSubmit={(event) => {
+        event.preventDefault();
+        const input = form.check(schema, form.values);
+        if (input) onSubmit(input.password, form.showServerError);
+      }}
+    >
+      <FormMessage message={form.formError} />
+      <TextField label="New password" name="password" type={shown ? 'text' : 'password'} autoComplete="new-password" value={form.values.password} onChange={(e) => form.set('password', e.target.value)} errors={form.errors.password} hint={PASSWORD_HINT} />
+      <TextField label="The same password again" name="repeat" type={shown ? 'text' : 'password'} autoComplete="new-password" value={form.values.repeat} onChange={(e) => form.set('repeat', e.target.value)} errors={form.errors.repeat} />
+      <label className="flex items-center gap-2 text-sm">
+        <input type="checkbox" checked={shown} onChange={(e) => setShown(e.target.checked)} /> Show the password
+      </label>
+      <Button type="submit" variant="primary" className="w-full py-2" disabled={pending}>
+        {pending ? 'Saving…' : submitLabel}
+      </Button>
+    </form>
+  );
+}

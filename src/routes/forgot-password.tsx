@@ -1,0 +1,36 @@
+import { z } from 'zod';
+import { passwordResetRequestSchema } from '../../shared/schemas/account';
+import { Button } from '../components/button';
+import { FormMessage, TextField } from '../components/form-field';
+import { useRequestPasswordReset } from '../features/people/api/account';
+import { AccountCard } from '../features/people/components/account-card';
+import { useForm } from '../lib/form';
+
+export function ForgotPasswordPage() {
+  const form = useForm({ email: '' });
+  const request = useRequestPasswordReset();
+  return (
+    <AccountCard title="Forgot your password?">
+      {request.isSuccess ? (
+        <p role="status" data-testid="reset-requested" className="text-sm">{request.data}</p>
+      ) : (
+        <form
+          noValidate
+          className="space-y-4"
+          onSubmit={(event) => {
+            event.preventDefault();
+            const input = form.check(passwordResetRequestSchema as z.ZodType<{ email: string }>, form.values);
+            if (input) request.mutate(input.email, { onError: form.showServerError });
+          }}
+        >
+          <p className="text-sm text-muted">Give the e-mail address you sign in with. If it has an account, we mail it a link to choose a new password.</p>
+          <FormMessage message={form.formError} />
+          <TextField label="E-mail" name="email" type="email" autoComplete="username" value={form.values.email} onChange={(e) => form.set('email', e.target.value)} errors={form.errors.email} />
+          <Button type="submit" variant="primary" className="w-full py-2" disabled={request.isPending}>
+            {request.isPending ? 'Sending…' : 'Mail me a link'}
+          </Button>
+        </form>
+      )}
+    </AccountCard>
+  );
+}
