@@ -8,6 +8,7 @@ export function NodeSummary({ node, siteName, neighbourhoodName }: { node: NodeD
     <Details
       items={[
         { label: 'State', value: <StateBadge state={node.state} /> },
+        { label: 'Why', value: node.healthReason ?? (node.lastSeenAt ? '—' : 'Has not reported yet') },
         { label: 'In this state since', value: node.stateSince ? formatDateTime(node.stateSince) : '—' },
         { label: 'Last report', value: node.lastSeenAt ? `${formatSince(node.lastSeenAt)} (${formatDateTime(node.lastSeenAt)})` : 'Never reported' },
         { label: 'Site', value: siteName },

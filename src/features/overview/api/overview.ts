@@ -8,7 +8,23 @@ export interface Overview {
   nodeCount: number;
   siteCount: number;
   neighbourhoodCount: number;
-  openOutages: unknown[];
+  openOutages: OpenOutage[];
+  driftNodes: DriftNode[];
+}
+
+export interface OpenOutage {
+  id: number;
+  nodeId: number;
+  nodeName: string;
+  neighbourhoodId: number;
+  startedAt: string;
+  acknowledged: boolean;
+}
+
+export interface DriftNode {
+  id: number;
+  name: string;
+  drift: { field: string; expected: unknown; reported: unknown }[];
 }
 
 export function useOverview() {

@@ -1,0 +1,116 @@
+import { useQueryClient, type QueryClient, type QueryKey } from '@tanstack/react-query';
+import { useEffect } from 'react';
+import type { NodeDto } from '../../shared/schemas/node';
+import { patchNodeRecord } from '../features/nodes/api/telemetry';
+import { patchTopologyNodes, type TopologyNodePatch } from '../features/topology/api/topology';
+import { neighbourhoodKeys, nodeKeys, nodeTelemetryKeys, outageKeys, overviewKeys, topologyKeys } from '../lib/query-keys';
+import { closeSocket, openSocket, type NodeFiguresEvent, type NodeStateEvent, type OutageEvent } from '../lib/socket';
+
+// Events are gathered for a moment and applied together: a burst of reports then costs one
+// pass over the graph and one refetch per list, and still shows well within a second.
+const FLUSH_MS = 150;
+
+type NodeChange = (node: NodeDto) => NodeDto;
+
+interface Pending {
+  topology: Map<number, TopologyNodePatch>;
+  nodes: Map<number, NodeChange[]>;
+  refetchNodes: Set<number>;
+  invalidate: Map<string, QueryKey>;
+}
+
+const empty = (): Pending => ({ topology: new Map(), nodes: new Map(), refetchNodes: new Set(), invalidate: new Map() });
+
+function flush(queryClient: QueryClient, pending: Pending) {
+  patchTopologyNodes(queryClient, pending.topology);
+  for (const [nodeId, changes] of pending.nodes) {
+    patchNodeRecord(queryClient, nodeId, (node) => changes.reduce((current, change) => change(current), node));
+  }
+  for (const nodeId of pending.refetchNodes) void queryClient.invalidateQueries({ queryKey: nodeKeys.detail(nodeId), exact: true });
+  for (const queryKey of pending.invalidate.values()) void queryClient.invalidateQueries({ queryKey });
+}
+
+/** How each event changes the cache: patch what is cheap to patch, refetch what is counted or listed. */
+function collector(queryClient: QueryClient) {
+  let pending = empty();
+  let timer: number | null = null;
+  const schedule = () => {
+    timer ??= window.setTimeout(() => {
+      timer = null;
+      const batch = pending;
+      pending = empty();
+      flush(queryClient, batch);
+    }, FLUSH_MS);
+  };
+  const invalidate = (queryKey: QueryKey) => pending.invalidate.set(JSON.stringify(queryKey), queryKey);
+  const changeNode = (nodeId: number, change: NodeChange) => pending.nodes.set(nodeId, [...(pending.nodes.get(nodeId) ?? []), change]);
+  const patchTopology = (nodeId: number, patch: TopologyNodePatch) => pending.topology.set(nodeId, { ...pending.topology.get(nodeId), ...patch });
+
+  return {
+    state(e: NodeStateEvent) {
+      // A move to online or degraded comes from a report, so the node was seen at that moment.
+      const seen = e.state === 'online' || e.state === 'degraded';
+      patchTopology(e.nodeId, seen ? { state: e.state, lastSeenAt: e.at } : { state: e.state });
+      changeNode(e.nodeId, (node) => ({ ...node, state: e.state, stateSince: e.at, healthReason: e.reason, lastSeenAt: seen ? e.at : node.lastSeenAt }));
+      invalidate(overviewKeys.all);
+      invalidate(nodeKeys.lists());
+      invalidate(neighbourhoodKeys.all);
+      schedule();
+    },
+    figures(e: NodeFiguresEvent) {
+      const cached = queryClient.getQueryData<NodeDto>(nodeKeys.detail(e.nodeId));
+      if (cached && !cached.lastReport) pending.refetchNodes.add(e.nodeId); // a first report: radios and drift come with the record
+      else
+        changeNode(e.nodeId, (node) => ({
+          ...node,
+          lastSeenAt: e.at,
+          lastReport: { ...node.lastReport, signalDbm: e.signalDbm, snrDb: e.snrDb, throughputMbps: e.throughputMbps, latencyMs: e.latencyMs, receivedAt: e.at },
+        }));
+      schedule();
+    },
+    outage(e: OutageEvent) {
+      patchTopology(e.nodeId, { openOutageId: e.kind === 'opened' ? e.outageId : null });
+      invalidate(outageKeys.all);
+      invalidate(overviewKeys.all);
+      invalidate(nodeTelemetryKeys.availability(e.nodeId));
+      schedule();
+    },
+    stop() {
+      if (timer !== null) window.clearTimeout(timer);
+    },
+  };
+}
+
+/**
+ * Keeps the signed-in person's cached pages current from the live connection, and closes the
+ * connection when they sign out (this hook's component unmounts with the signed-in layout).
+ */
+export function useLiveUpdates(userId: number) {
+  const queryClient = useQueryClient();
+  useEffect(() => {
+    const socket = openSocket(userId);
+    const apply = collector(queryClient);
+    let connectedBefore = socket.connected;
+    const onConnect = () => {
+      // Events sent while the connection was down are lost: read afresh what they would have changed.
+      if (connectedBefore) {
+        for (const queryKey of [topologyKeys.all, overviewKeys.all, nodeKeys.all, outageKeys.all, neighbourhoodKeys.all]) void queryClient.invalidateQueries({ queryKey });
+      }
+      connectedBefore = true;
+    };
+    socket.on('connect', onConnect);
+    socket.on('node:state', apply.state);
+    socket.on('node:figures', apply.figures);
+    socket.on('outage', apply.outage);
+    return () => {
+      apply.stop();
+      socket.off('connect', onConnect);
+      socket.off('node:state', apply.state);
+      socket.off('node:figures', apply.figures);
+      socket.off('outage', apply.outage);
+    };
+  }, [userId, queryClient]);
+
+  // Closing belongs to leaving the signed-in area, not to a re-render.
+  useEffect(() => () => closeSocket(), []);
+}

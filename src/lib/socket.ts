@@ -1,0 +1,64 @@
+import { useSyncExternalStore } from 'react';
+import { io, type Socket } from 'socket.io-client';
+
+import type { NodeFiguresEvent, NodeStateEvent, OutageEvent } from '../../shared/schemas/realtime';
+
+export type { NodeFiguresEvent, NodeStateEvent, OutageEvent };
+
+interface ServerEvents {
+  'node:state': (event: NodeStateEvent) => void;
+  'node:figures': (event: NodeFiguresEvent) => void;
+  outage: (event: OutageEvent) => void;
+}
+
+export type LiveSocket = Socket<ServerEvents, Record<string, never>>;
+
+/** `connecting` before the first answer, `live` while connected, `reconnecting` after a drop, `closed` when signed out. */
+export type LiveStatus = 'connecting' | 'live' | 'reconnecting' | 'closed';
+
+let socket: LiveSocket | null = null;
+let owner: number | null = null;
+let status: LiveStatus = 'closed';
+const listeners = new Set<() => void>();
+
+function setStatus(next: LiveStatus) {
+  if (next === status) return;
+  status = next;
+  listeners.forEach((listener) => listener());
+}
+
+/**
+ * The one live connection of the signed-in person. The session cookie authenticates it; a
+ * different person signing in on this browser gets a fresh connection, never the last one's.
+ */
+export function openSocket(userId: number): LiveSocket {
+  if (socket && owner === userId) return socket;
+  closeSocket();
+  owner = userId;
+  const next: LiveSocket = io({ withCredentials: true, reconnectionDelayMax: 10_000 });
+  next.on('connect', () => setStatus('live'));
+  next.on('disconnect', (reason) => setStatus(reason === 'io client disconnect' ? 'closed' : 'reconnecting'));
+  next.on('connect_error', () => setStatus('reconnecting'));
+  setStatus('connecting');
+  socket = next;
+  return next;
+}
+
+/** Ends the connection at sign-out, so nothing more arrives for a person who has left. */
+export function closeSocket() {
+  if (!socket) return;
+  socket.removeAllListeners();
+  socket.disconnect();
+  socket = null;
+  owner = null;
+  setStatus('closed');
+}
+
+function subscribe(listener: () => void) {
+  listeners.add(listener);
+  return () => listeners.delete(listener);
+}
+
+export function useLiveStatus(): LiveStatus {
+  return useSyncExternalStore(subscribe, () => status);
+}

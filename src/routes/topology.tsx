@@ -1,0 +1,89 @@
+import { useCallback, useMemo } from 'react';
+import { useSearchParams } from 'react-router-dom';
+import { NODE_STATES, type NodeState } from '../../shared/enums';
+import { EmptyState } from '../components/empty-state';
+import { PageHeader } from '../components/page-header';
+import { LoadError, Loading } from '../components/query-state';
+import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
+import { NodeQuickLook } from '../features/nodes/components/node-quick-look';
+import { useTopology } from '../features/topology/api/topology';
+import { NodeLinks } from '../features/topology/components/node-links';
+import { TopologyLegend } from '../features/topology/components/topology-legend';
+import { TopologyView } from '../features/topology/components/topology-view';
+import type { GraphFilters } from '../features/topology/utils/flow-elements';
+import { ALL_BY_NAME, idFromParam, toOptions } from '../lib/resource';
+
+function stateFrom(text: string | null): NodeState | undefined {
+  return NODE_STATES.find((state) => state === text);
+}
+
+export function TopologyPage() {
+  const [params, setParams] = useSearchParams();
+  const topology = useTopology();
+  const neighbourhoods = useNeighbourhoods(ALL_BY_NAME);
+
+  const neighbourhoodId = idFromParam(params.get('neighbourhoodId') ?? undefined) ?? undefined;
+  const state = stateFrom(params.get('state'));
+  const filters = useMemo<GraphFilters>(() => ({ neighbourhoodId, state }), [neighbourhoodId, state]);
+  const selectedId = idFromParam(params.get('node') ?? undefined);
+
+  // Filters and the chosen node live in the address, so a view can be shared or bookmarked.
+  const change = useCallback(
+    (changes: Record<string, string | undefined>) =>
+      setParams(
+        (previous) => {
+          const next = new URLSearchParams(previous);
+          for (const [key, value] of Object.entries(changes)) {
+            if (value === undefined) next.delete(key);
+            else next.set(key, value);
+          }
+          return next;
+        },
+        { replace: true },
+      ),
+    [setParams],
+  );
+  const onFilters = useCallback(
+    (next: GraphFilters) => change({ neighbourhoodId: next.neighbourhoodId === undefined ? undefined : String(next.neighbourhoodId), state: next.state }),
+    [change],
+  );
+  const onSelect = useCallback((id: number | null) => change({ node: id === null ? undefined : String(id) }), [change]);
+
+  const selected = selectedId === null ? undefined : topology.data?.nodes.find((n) => n.id === selectedId);
+  const nodeNames = useMemo(() => new Map((topology.data?.nodes ?? []).map((n) => [n.id, n.name])), [topology.data?.nodes]);
+
+  return (
+    <>
+      <PageHeader title="Network map" subtitle="Nodes at their sites, links drawn with their margin. Changes appear as they happen." />
+      {topology.isPending ? (
+        <Loading label="Loading the network map…" />
+      ) : topology.isError ? (
+        <LoadError error={topology.error} />
+      ) : topology.data.nodes.length === 0 ? (
+        <EmptyState title="No nodes to draw">Nodes you can see appear here, placed by their site's coordinates.</EmptyState>
+      ) : (
+        <>
+          <TopologyView
+            topology={topology.data}
+            neighbourhoodOptions={toOptions(neighbourhoods.data?.data)}
+            filters={filters}
+            onFilters={onFilters}
+            selectedId={selectedId}
+            onSelect={onSelect}
+            panel={
+              selected && (
+                <div className="space-y-3">
+                  <NodeQuickLook key={selected.id} nodeId={selected.id} openOutageId={selected.openOutageId} onClose={() => onSelect(null)} />
+                  <NodeLinks node={selected} links={topology.data.links} names={nodeNames} />
+                </div>
+              )
+            }
+          />
+          <div className="mt-4">
+            <TopologyLegend />
+          </div>
+        </>
+      )}
+    </>
+  );
+}

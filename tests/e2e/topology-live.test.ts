@@ -1,0 +1,221 @@
+import { request as playwrightRequest, type APIRequestContext, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import type { ServerProcess } from '../helpers/serverProcess';
+import { DEMO_PASSWORD, launchBrowser, screenshot, signInAs, startE2EServer } from './helpers/browser';
+
+// Demo nodes no other end-to-end file touches: one goes up and down on the map, one stays down for the outages page.
+const MAP_NODE = 'lf-weir';
+const OUTAGE_NODE = 'lf-granarylane';
+const ADMIN = 'admin@parapet.example';
+// The smallest report interval the API allows; a node is offline after 3 missed intervals (30 s).
+const REPORT_INTERVAL_S = 10;
+const OFFLINE_WAIT_MS = 50_000;
+
+interface NodeBody {
+  id: number;
+  name: string;
+  state: string;
+}
+
+/** Signed-in API calls with the session's CSRF token, through a page's or a standalone request context. */
+async function apiAs(request: APIRequestContext, baseUrl: string) {
+  const session = await request.get(`${baseUrl}/api/v1/session`);
+  expect(session.status()).toBe(200);
+  const csrfToken = ((await session.json()) as { csrfToken: string }).csrfToken;
+  const headers = { 'X-CSRF-Token': csrfToken };
+  return {
+    async nodeNamed(name: string): Promise<NodeBody> {
+      const res = await request.get(`${baseUrl}/api/v1/nodes?q=${encodeURIComponent(name)}`);
+      expect(res.status()).toBe(200);
+      const node = ((await res.json()) as { data: NodeBody[] }).data.find((n) => n.name === name);
+      if (!node) throw new Error(`the demo node ${name} is missing from the end-to-end database`);
+      return node;
+    },
+    async setReportInterval(nodeId: number, reportIntervalS: number) {
+      const res = await request.patch(`${baseUrl}/api/v1/nodes/${nodeId}`, { headers, data: { reportIntervalS } });
+      expect(res.status()).toBe(200);
+    },
+    async issueToken(nodeId: number): Promise<string> {
+      const res = await request.post(`${baseUrl}/api/v1/nodes/${nodeId}/ingest-token`, { headers });
+      expect(res.status()).toBe(201);
+      return ((await res.json()) as { token: string }).token;
+    },
+    async openOutageOf(nodeId: number): Promise<{ id: number; acknowledgedAt: string | null; notes: string | null } | undefined> {
+      const res = await request.get(`${baseUrl}/api/v1/outages?nodeId=${nodeId}&status=open`);
+      expect(res.status()).toBe(200);
+      return ((await res.json()) as { data: { id: number; acknowledgedAt: string | null; notes: string | null }[] }).data[0];
+    },
+  };
+}
+
+// Sequence numbers from the millisecond clock keep rising across runs on the shared database.
+let lastSeq = 0;
+async function postHeartbeat(baseUrl: string, token: string) {
+  lastSeq = Math.max(lastSeq + 1, Date.now());
+  const res = await fetch(`${baseUrl}/api/v1/heartbeats`, {
+    method: 'POST',
+    headers: { Authorization: `Bearer ${token}`, 'Content-Type': 'application/json' },
+    body: JSON.stringify({
+      reports: [
+        {
+          seq: lastSeq,
+          sentAt: new Date().toISOString(),
+          uptimeS: 3600,
+          throughputMbps: 42,
+          latencyMs: 9,
+          radios: [{ iface: 'wlan0', signalDbm: -58, noiseDbm: -95 }],
+        },
+      ],
+    }),
+  });
+  expect(res.status).toBe(202);
+}
+
+describe('the live network map and outages', () => {
+  let server: ServerProcess;
+  let browser: Browser;
+  let context: BrowserContext;
+  let page: Page;
+  let outageNodeId: number;
+
+  beforeAll(async () => {
+    // The silence check runs every 300 ms so a node that stops reporting goes offline within a second of its grace.
+    [server, browser] = await Promise.all([startE2EServer({ HEALTH_CHECK_INTERVAL_MS: '300' }), launchBrowser()]);
+    // The outage node reports once now and then falls silent, so its outage is open by the time the second test runs.
+    const setup = await playwrightRequest.newContext();
+    try {
+      const signIn = await setup.post(`${server.url}/api/v1/session`, { data: { email: ADMIN, password: DEMO_PASSWORD } });
+      expect(signIn.status()).toBe(200);
+      const api = await apiAs(setup, server.url);
+      outageNodeId = (await api.nodeNamed(OUTAGE_NODE)).id;
+      await api.setReportInterval(outageNodeId, REPORT_INTERVAL_S);
+      await postHeartbeat(server.url, await api.issueToken(outageNodeId));
+    } finally {
+      await setup.dispose();
+    }
+  });
+  afterAll(async () => {
+    await browser?.close();
+    await server?.stop();
+  });
+  const fresh = async (viewport = { width: 1280, height: 900 }) => {
+    await context?.close();
+    context = await browser.newContext({ viewport });
+    page = await context.newPage();
+  };
+  const nodeOnMap = (nodeId: number, state: string) => page.locator(`[data-testid="topology-node-${nodeId}"][data-state="${state}"]`);
+
+  it('shows a node go online, offline and online again on the map without reloading', async () => {
+    await fresh();
+    await signInAs(page, server.url, ADMIN);
+    const api = await apiAs(page.request, server.url);
+    const node = await api.nodeNamed(MAP_NODE);
+    await api.setReportInterval(node.id, REPORT_INTERVAL_S);
+    const token = await api.issueToken(node.id);
+
+    await page.goto(`${server.url}/topology?node=${node.id}`);
+    await page.getByTestId('topology').waitFor();
+    await page.getByTestId(`topology-node-${node.id}`).waitFor();
+    await page.locator('[data-testid="live-indicator"][data-status="live"]').waitFor({ timeout: 10_000 });
+    // A full reload would wipe this mark; it must survive every step below.
+    await page.evaluate(() => Object.assign(window, { parapetNoReload: true }));
+    await screenshot(page, 'topology-before-report');
+
+    await postHeartbeat(server.url, token);
+    await nodeOnMap(node.id, 'online').waitFor({ timeout: 10_000 });
+    await page.getByTestId('node-quick-look').getByTestId('latest-figures').getByText('42 Mbps').waitFor({ timeout: 10_000 });
+    await screenshot(page, 'topology-online');
+
+    // No more reports: three missed 10 s intervals later the silence check marks it offline.
+    await nodeOnMap(node.id, 'offline').waitFor({ timeout: OFFLINE_WAIT_MS });
+    expect(await page.getByTestId(`topology-node-${node.id}`).getAttribute('title')).toMatch(/Offline/);
+    await screenshot(page, 'topology-offline');
+
+    await postHeartbeat(server.url, token);
+    await nodeOnMap(node.id, 'online').waitFor({ timeout: 10_000 });
+    await screenshot(page, 'topology-back-online');
+    expect(await page.evaluate(() => (window as { parapetNoReload?: boolean }).parapetNoReload)).toBe(true);
+  }, 120_000);
+
+  it('acknowledges an open outage and adds notes from the outages page', async () => {
+    await fresh();
+    await signInAs(page, server.url, ADMIN);
+    await page.goto(`${server.url}/outages?status=open`);
+    await page.getByRole('heading', { name: 'Outages' }).waitFor();
+    const api = await apiAs(page.request, server.url);
+
+    // The outage node fell silent when the file started; its outage opens about 30 s after that report.
+    const deadline = Date.now() + OFFLINE_WAIT_MS;
+    let outage = await api.openOutageOf(outageNodeId);
+    while (!outage && Date.now() < deadline) {
+      await page.waitForTimeout(500);
+      outage = await api.openOutageOf(outageNodeId);
+    }
+    if (!outage) throw new Error(`${OUTAGE_NODE} did not go offline within ${OFFLINE_WAIT_MS / 1000} s`);
+    expect(outage.acknowledgedAt).toBeNull();
+
+    // The page was open before the outage began: the row arrives through the live connection.
+    const acknowledge = page.getByTestId(`acknowledge-${outage.id}`);
+    await acknowledge.waitFor({ timeout: 10_000 });
+    await screenshot(page, 'outages-open');
+    await acknowledge.click();
+    const table = page.getByTestId('outages-table');
+    await acknowledge.waitFor({ state: 'detached' });
+    await table.getByText('Marta Quillon').first().waitFor();
+
+    await table.getByRole('button', { name: `Add notes for the outage of ${OUTAGE_NODE}` }).click();
+    await page.getByLabel(`Notes on the outage of ${OUTAGE_NODE}`).fill('Host away; power cut on Granary Lane, back tonight.');
+    await page.getByRole('button', { name: 'Save notes' }).click();
+    await page.getByTestId(`notes-form-${outage.id}`).waitFor({ state: 'detached' });
+    await table.getByText('Host away; power cut on Granary Lane, back tonight.').waitFor();
+    await screenshot(page, 'outages-acknowledged');
+
+    const after = await api.openOutageOf(outageNodeId);
+    expect(after?.id).toBe(outage.id);
+    expect(after?.acknowledgedAt).not.toBeNull();
+    expect(after?.notes).toBe('Host away; power cut on Granary Lane, back tonight.');
+  }, 90_000);
+
+  it('fits the map, a node page and the outages page on a phone-sized screen', async () => {
+    await fresh({ width: 375, height: 760 });
+    await signInAs(page, server.url, ADMIN);
+    const overflow = () => page.evaluate(() => document.documentElement.scrollWidth - document.documentElement.clientWidth);
+
+    await page.goto(`${server.url}/topology?node=${outageNodeId}`);
+    await page.getByTestId('topology-legend').waitFor();
+    // The graph must really be drawn: a canvas with height, and the chosen node inside it.
+    const canvas = await page.getByTestId('topology').locator('.react-flow').boundingBox();
+    expect(canvas?.height ?? 0).toBeGreaterThan(300);
+    const nodeBox = await page.getByTestId(`topology-node-${outageNodeId}`).boundingBox();
+    expect(nodeBox).not.toBeNull();
+    expect(nodeBox!.y).toBeGreaterThanOrEqual(canvas!.y);
+    expect(nodeBox!.y + nodeBox!.height).toBeLessThanOrEqual(canvas!.y + canvas!.height);
+    await page.getByTestId('node-quick-look').getByText('Offline').first().waitFor();
+    expect(await overflow()).toBeLessThanOrEqual(0);
+    await screenshot(page, 'topology-phone');
+
+    // Searching by a site's name finds its node, selects it and brings it into view.
+    await page.getByLabel('Find a node').fill('Tidegate');
+    await page.getByRole('button', { name: 'Find', exact: true }).click();
+    await page.getByTestId('node-quick-look').getByRole('heading', { name: 'lf-tide' }).waitFor();
+    expect(page.url()).toMatch(/[?&]node=\d+/);
+    const tideId = Number(new URL(page.url()).searchParams.get('node'));
+    await page.waitForTimeout(700); // the view glides to the node
+    const tideBox = await page.getByTestId(`topology-node-${tideId}`).boundingBox();
+    expect(tideBox).not.toBeNull();
+    expect(tideBox!.y).toBeGreaterThanOrEqual(canvas!.y);
+    expect(tideBox!.y + tideBox!.height).toBeLessThanOrEqual(canvas!.y + canvas!.height);
+    await screenshot(page, 'topology-search-phone');
+
+    await page.goto(`${server.url}/nodes/${outageNodeId}`);
+    await page.getByTestId('latest-figures').waitFor();
+    await page.getByTestId('node-availability').waitFor();
+    expect(await overflow()).toBeLessThanOrEqual(0);
+    await screenshot(page, 'node-detail-phone');
+
+    await page.goto(`${server.url}/outages`);
+    await page.getByTestId('outages-table').waitFor();
+    expect(await overflow()).toBeLessThanOrEqual(0);
+    await screenshot(page, 'outages-phone');
+  }, 60_000);
+});
