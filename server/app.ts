@@ -12,21 +12,48 @@ import { ApiError, NotFound } from './errors';
 import { requireCsrf } from './middlewares/csrf';
 import { errorHandler } from './middlewares/errorHandler';
 import { requireUser } from './middlewares/requireUser';
+import { useMailConfig } from './mail/settings';
 import { initModels } from './models';
 import { heartbeatRoutes } from './routes/heartbeats';
+import { addressPlanRoutes } from './routes/addressPlans';
+import { channelPlanRoutes } from './routes/channelPlan';
+import { linkHealthRoutes } from './routes/linkHealth';
+import { plannedLinkRoutes } from './routes/plannedLinks';
+import { provisioningRoutes } from './routes/provisioning';
+import { securityReviewRoutes } from './routes/securityReview';
+import { settingsRoutes } from './routes/settings';
+import { siteSurveyRoutes } from './routes/siteSurveys';
 import { ingestTokenRoutes } from './routes/ingestTokens';
 import { linkRoutes } from './routes/links';
+import { mailInboxRoutes } from './routes/mailInbox';
+import { mailLinkRoutes } from './routes/mailLinks';
+import { maintenanceWindowRoutes } from './routes/maintenanceWindows';
 import { neighbourhoodRoutes } from './routes/neighbourhoods';
 import { nodeRoutes } from './routes/nodes';
 import { nodeTelemetryRoutes } from './routes/nodeTelemetry';
 import { outageRoutes } from './routes/outages';
+import { outboxRoutes } from './routes/outbox';
 import { overviewRoutes } from './routes/overview';
 import { planningRoutes } from './routes/planning';
+import { preferenceRoutes } from './routes/preferences';
 import { radioRoutes } from './routes/radios';
 import { sessionRoutes } from './routes/session';
 import { siteRoutes } from './routes/sites';
 import { topologyRoutes } from './routes/topology';
 import { userRoutes } from './routes/users';
+import { exportRoutes } from './routes/exports';
+import { importRoutes } from './routes/imports';
+import { photoRoutes, sitePhotoRoutes } from './routes/photos';
+import { publicStatusRoutes } from './routes/publicStatus';
+import { reportRoutes } from './routes/reports';
+import { historyRoutes } from './routes/history';
+import { hostPortalRoutes } from './routes/hostPortal';
+import { invitationRoutes } from './routes/invitations';
+import { meRoutes } from './routes/me';
+import { neighbourhoodMemberRoutes } from './routes/neighbourhoodMembers';
+import { passwordResetRoutes } from './routes/passwordResets';
+import { personalDataRoutes } from './routes/personalData';
+import { auditContext, installAuditHooks } from './services/audit';
 
 export interface AppContext {
   config: Config;
@@ -38,6 +65,8 @@ const csrfExempt = (req: Request) => req.method === 'POST' && req.path === '/ses
 
 export function createApp({ config, sequelize }: AppContext) {
   initModels(sequelize);
+  installAuditHooks();
+  useMailConfig(config);
   const pool = new pg.Pool({ connectionString: config.databaseUrl, max: 4, connectionTimeoutMillis: 5_000 });
   pool.on('error', (err) => console.error('session pool error:', err.message));
   const passport = configurePassport();
@@ -79,6 +108,10 @@ export function createApp({ config, sequelize }: AppContext) {
 
   // Hot path first: node reports skip sessions entirely.
   app.use('/api/v1/heartbeats', heartbeatRoutes(config, sequelize));
+  // Links in mail carry their own signature and need no session (nor its CSRF token).
+  app.use('/api/v1/mail-links', mailLinkRoutes(config));
+  // The public status page needs no session; it is computed once per cache period for everyone.
+  app.use('/api/v1/public', publicStatusRoutes(config, sequelize));
 
   const api = express.Router();
   api.use(express.json({ limit: '64kb' }));
@@ -86,19 +119,45 @@ export function createApp({ config, sequelize }: AppContext) {
   api.use(passport.initialize());
   api.use(passport.session());
   api.use(requireCsrf(csrfExempt));
+  api.use(auditContext);
   api.use('/session', sessionRoutes(config, passport));
+  // Accepting an invitation and resetting a password work signed out: the link in the mail is the proof.
+  api.use('/invitations', invitationRoutes(config, sequelize));
+  api.use('/password-resets', passwordResetRoutes(config, sequelize));
+  api.use('/history', requireUser, historyRoutes(sequelize));
+  api.use('/neighbourhoods/:id', requireUser, neighbourhoodMemberRoutes(config, sequelize));
   api.use('/neighbourhoods', requireUser, neighbourhoodRoutes());
+  api.use('/sites/:id/photos', requireUser, sitePhotoRoutes(sequelize));
   api.use('/sites', requireUser, siteRoutes());
+  api.use('/photos', requireUser, photoRoutes(sequelize));
+  api.use('/imports', requireUser, importRoutes(sequelize));
+  api.use('/exports', requireUser, exportRoutes(sequelize));
+  api.use('/reports', requireUser, reportRoutes(config, sequelize));
   api.use('/nodes/:id/ingest-token', requireUser, ingestTokenRoutes(config, sequelize));
+  api.use('/nodes/:id/site-surveys', requireUser, siteSurveyRoutes(sequelize));
+  api.use('/nodes/:id/provisioning', requireUser, provisioningRoutes(sequelize));
+  api.use('/nodes/:id/maintenance-windows', requireUser, maintenanceWindowRoutes(config, sequelize));
   api.use('/nodes/:id', requireUser, nodeTelemetryRoutes(config, sequelize));
   api.use('/nodes', requireUser, nodeRoutes());
-  api.use('/outages', requireUser, outageRoutes(config));
+  api.use('/outages', requireUser, outageRoutes(config, sequelize));
+  api.use('/outbox', requireUser, outboxRoutes(config));
+  api.use('/me/preferences', requireUser, preferenceRoutes());
+  api.use('/me/nodes', requireUser, hostPortalRoutes(config, sequelize));
+  api.use('/me', requireUser, meRoutes(sequelize));
+  api.use('/mail-inbox', requireUser, mailInboxRoutes(config));
   api.use('/topology', requireUser, topologyRoutes(sequelize));
   api.use('/radios', requireUser, radioRoutes());
+  api.use('/links/:id/health', requireUser, linkHealthRoutes(config, sequelize));
   api.use('/links', requireUser, linkRoutes());
+  api.use('/users/:id', requireUser, personalDataRoutes(config, sequelize));
   api.use('/users', requireUser, userRoutes());
   api.use('/overview', requireUser, overviewRoutes());
+  api.use('/planning/planned-links', requireUser, plannedLinkRoutes(sequelize));
+  api.use('/planning/channel-plan', requireUser, channelPlanRoutes(sequelize));
   api.use('/planning', requireUser, planningRoutes());
+  api.use('/address-plans', requireUser, addressPlanRoutes(sequelize));
+  api.use('/security-review', requireUser, securityReviewRoutes(sequelize));
+  api.use('/settings', requireUser, settingsRoutes(sequelize));
   api.use((req, _res, next) => next(new ApiError(404, 'no_such_route', `There is no ${req.method} ${req.baseUrl}${req.path} in the API.`)));
   app.use('/api/v1', api);
   app.use('/api', (req, _res, next) => next(NotFound(`The API address ${req.originalUrl}`)));

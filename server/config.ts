@@ -22,6 +22,23 @@ const envSchema = z.object({
   SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(1025),
   MAIL_FROM: z.string().default('Parapet <parapet@parapet.example>'),
   MAILDEV_WEB_URL: z.string().optional(),
+  SMTP_SECURE: bool.default(false),
+  SMTP_USER: z.string().optional(),
+  SMTP_PASS: z.string().optional(),
+  SMTP_TIMEOUT_MS: z.coerce.number().int().min(100).default(10_000),
+  ALERT_GRACE_S: z.coerce.number().int().min(0).optional(),
+  REMINDER_INTERVAL_S: z.coerce.number().int().min(1).default(4 * 3600),
+  FLAP_MAX_PER_HOUR: z.coerce.number().int().min(1).default(4),
+  OUTBOX_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(50).default(6),
+  OUTBOX_BACKOFF_BASE_MS: z.coerce.number().int().min(0).default(30_000),
+  OUTBOX_BATCH_SIZE: z.coerce.number().int().min(1).max(500).default(25),
+  DIGEST_HOUR_LOCAL: z.coerce.number().int().min(0).max(23).default(8),
+  DEGRADED_DIGEST_AFTER_S: z.coerce.number().int().min(60).default(3 * 3600),
+  MAIL_LINK_DAYS: z.coerce.number().int().min(1).max(365).default(60),
+  INVITATION_TTL_HOURS: z.coerce.number().int().min(1).max(24 * 30).default(72),
+  PASSWORD_RESET_TTL_MINUTES: z.coerce.number().int().min(5).max(24 * 60).default(60),
+  ACCOUNT_MAIL_LIMIT_PER_ADDRESS: z.coerce.number().int().min(1).default(3),
+  ACCOUNT_MAIL_LIMIT_WINDOW_S: z.coerce.number().int().min(1).default(3600),
   PUBLIC_URL: z.string().optional(),
   CLIENT_DIST: z.string().default('dist'),
   PARAPET_DEMO_PASSWORD: z.string().default('parapet-demo'),
@@ -29,6 +46,7 @@ const envSchema = z.object({
   INGEST_RATE_LIMIT_PER_MIN: z.coerce.number().int().min(1).default(120),
   INGEST_BODY_LIMIT: z.string().default('64kb'),
   HEALTH_CHECK_INTERVAL_MS: z.coerce.number().int().min(50).default(10_000),
+  ROOT_CAUSE_WINDOW_S: z.coerce.number().int().min(0).max(3600).default(120),
   JOBS_ENABLED: bool.default(true),
   RAW_RETENTION_DAYS: z.coerce.number().int().min(1).default(14),
   ROLLUP_RETENTION_DAYS: z.coerce.number().int().min(1).default(400),
@@ -54,6 +72,29 @@ export interface Config {
   smtpPort: number;
   mailFrom: string;
   maildevWebUrl: string | null;
+  smtpSecure: boolean;
+  smtpUser: string | null;
+  smtpPass: string | null;
+  smtpTimeoutMs: number;
+  /** Seconds from a node's last report before its first outage mail; null = the moment it goes offline. */
+  alertGraceS: number | null;
+  reminderIntervalS: number;
+  /** Outage mails per node and person in any hour before one summary replaces the rest. */
+  flapMaxPerHour: number;
+  outboxMaxAttempts: number;
+  outboxBackoffBaseMs: number;
+  outboxBatchSize: number;
+  /** Local hour (network time zone) of the daily digest of degraded nodes. */
+  digestHourLocal: number;
+  degradedDigestAfterS: number;
+  /** How long preference and unsubscribe links in mail stay valid. */
+  mailLinkDays: number;
+  /** How long an invitation link and a password-reset link stay valid. */
+  invitationTtlMs: number;
+  passwordResetTtlMs: number;
+  /** Invitation and reset mails per e-mail address within the window (per instance). */
+  accountMailLimitPerAddress: number;
+  accountMailLimitWindowMs: number;
   publicUrl: string;
   clientDist: string;
   demoPassword: string;
@@ -62,6 +103,8 @@ export interface Config {
   ingestBodyLimit: string;
   /** How often the silence check, roll-ups and partition upkeep run. */
   healthCheckIntervalMs: number;
+  /** Nodes whose last reports lie this close together are judged as one silence (root cause and stranded behind it). */
+  rootCauseWindowS: number;
   jobsEnabled: boolean;
   rawRetentionDays: number;
   rollupRetentionDays: number;
@@ -98,6 +141,23 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     smtpPort: e.SMTP_PORT,
     mailFrom: e.MAIL_FROM,
     maildevWebUrl: e.MAILDEV_WEB_URL ?? null,
+    smtpSecure: e.SMTP_SECURE,
+    smtpUser: e.SMTP_USER ?? null,
+    smtpPass: e.SMTP_PASS ?? null,
+    smtpTimeoutMs: e.SMTP_TIMEOUT_MS,
+    alertGraceS: e.ALERT_GRACE_S ?? null,
+    reminderIntervalS: e.REMINDER_INTERVAL_S,
+    flapMaxPerHour: e.FLAP_MAX_PER_HOUR,
+    outboxMaxAttempts: e.OUTBOX_MAX_ATTEMPTS,
+    outboxBackoffBaseMs: e.OUTBOX_BACKOFF_BASE_MS,
+    outboxBatchSize: e.OUTBOX_BATCH_SIZE,
+    digestHourLocal: e.DIGEST_HOUR_LOCAL,
+    degradedDigestAfterS: e.DEGRADED_DIGEST_AFTER_S,
+    mailLinkDays: e.MAIL_LINK_DAYS,
+    invitationTtlMs: e.INVITATION_TTL_HOURS * 3_600_000,
+    passwordResetTtlMs: e.PASSWORD_RESET_TTL_MINUTES * 60_000,
+    accountMailLimitPerAddress: e.ACCOUNT_MAIL_LIMIT_PER_ADDRESS,
+    accountMailLimitWindowMs: e.ACCOUNT_MAIL_LIMIT_WINDOW_S * 1000,
     publicUrl: e.PUBLIC_URL ?? `http://${e.HOST}:${e.PORT}`,
     clientDist: e.CLIENT_DIST,
     demoPassword: e.PARAPET_DEMO_PASSWORD,
@@ -105,6 +165,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     ingestRateLimitPerMin: e.INGEST_RATE_LIMIT_PER_MIN,
     ingestBodyLimit: e.INGEST_BODY_LIMIT,
     healthCheckIntervalMs: e.HEALTH_CHECK_INTERVAL_MS,
+    rootCauseWindowS: e.ROOT_CAUSE_WINDOW_S,
     jobsEnabled: e.JOBS_ENABLED,
     rawRetentionDays: e.RAW_RETENTION_DAYS,
     rollupRetentionDays: e.ROLLUP_RETENTION_DAYS,

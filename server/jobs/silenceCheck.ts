@@ -1,25 +1,23 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
-import type { NodeState } from '../../shared/enums';
 import { DEFAULT_THRESHOLDS } from '../../shared/health/state';
-import { emitTransition, recordTransition } from '../services/nodeHealth';
+import { writeSelfCheck } from '../services/alertDigests';
+import { applyMaintenanceWindows } from '../services/maintenance';
+import { emitTransition } from '../services/nodeHealth';
+import { judgeSilentNodes, type SilentNode } from '../services/silenceAttribution';
+import { releaseStranded } from '../services/strandRelease';
 import { thresholdsFor } from '../services/thresholds';
 import { asLeader } from './leader';
 
-interface SilentNode {
-  nodeId: number;
-  neighbourhoodId: number;
-  hostUserId: number | null;
-  state: NodeState;
-  outageStartedAt: Date;
-}
 
 /**
- * Finds nodes that missed their reports and marks them offline, opening an outage each.
+ * Finds nodes that missed their reports and marks them offline, opening an outage each, except
+ * those whose silence a failure upstream explains (stranded, see silenceAttribution).
  * If the check itself has not run for a while (Parapet was down), it starts watching afresh
  * and gives every node one full offline window of fresh reports before judging it.
  */
-export async function runSilenceCheck(sequelize: Sequelize, now: Date, checkIntervalMs: number) {
+export async function runSilenceCheck(sequelize: Sequelize, now: Date, checkIntervalMs: number, rootCauseWindowS = 120) {
   const network = await thresholdsFor(sequelize, null);
+  const offlineAfterIntervals = network.offlineAfterIntervals ?? DEFAULT_THRESHOLDS.offlineAfterIntervals;
   const result = await asLeader(sequelize, 'silence-check', async (transaction) => {
     const [job] = await sequelize.query<{ lastRunAt: Date | null; watchingSince: Date | null }>(
       `SELECT last_run_at AS "lastRunAt", watching_since AS "watchingSince" FROM job_state WHERE name = 'silence-check'`,
@@ -33,6 +31,9 @@ export async function runSilenceCheck(sequelize: Sequelize, now: Date, checkInte
        ON CONFLICT (name) DO UPDATE SET last_run_at = $1, watching_since = $2`,
       { bind: [now, watchingSince], transaction },
     );
+    // One admin-only message when the check itself had stopped (not on a database's very first run).
+    if (resumed && job?.lastRunAt) await writeSelfCheck(sequelize, gapMs, now, transaction);
+    const events = await applyMaintenanceWindows(sequelize, now, transaction);
     const silent = await sequelize.query<SilentNode>(
       `SELECT n.id AS "nodeId", n.neighbourhood_id AS "neighbourhoodId", s.host_user_id AS "hostUserId", n.state,
               n.last_seen_at + make_interval(secs => n.report_interval_s) AS "outageStartedAt"
@@ -42,22 +43,11 @@ export async function runSilenceCheck(sequelize: Sequelize, now: Date, checkInte
           AND greatest(n.last_seen_at, $3) + make_interval(secs => w.window_s) <= $1
         ORDER BY n.id
         FOR UPDATE OF n`,
-      { bind: [now, network.offlineAfterIntervals ?? DEFAULT_THRESHOLDS.offlineAfterIntervals, watchingSince], type: QueryTypes.SELECT, transaction },
+      { bind: [now, offlineAfterIntervals, watchingSince], type: QueryTypes.SELECT, transaction },
     );
-    const events = [];
-    for (const node of silent) {
-      await sequelize.query(`UPDATE nodes SET state = 'offline', state_since = $2, health_streak = 0, health_reason = 'missed its reports' WHERE id = $1`, {
-        bind: [node.nodeId, now],
-        transaction,
-      });
-      events.push(
-        await recordTransition(
-          sequelize,
-          { ...node, from: node.state, to: 'offline', reason: 'missed its reports', at: now, outageStartedAt: new Date(node.outageStartedAt) },
-          transaction,
-        ),
-      );
-    }
+    // Nodes behind a failed node or link are stranded under its outage, not given outages of their own.
+    events.push(...(await judgeSilentNodes(sequelize, silent, now, rootCauseWindowS, offlineAfterIntervals, transaction)));
+    events.push(...(await releaseStranded(sequelize, now, offlineAfterIntervals, transaction)));
     return { resumed, silenced: silent.length, events };
   });
   if (!result) return { leader: false, resumed: false, silenced: 0 };

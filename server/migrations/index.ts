@@ -1,10 +1,20 @@
 import * as m0001 from './0001-foundation';
 import * as m0002 from './0002-heartbeats';
 import * as m0003 from './0003-outage-views';
+import * as m0004 from './0004-alerts';
+import * as m0005 from './0005-planning';
+import * as m0006 from './0006-photos-reports';
+import * as m0007 from './0007-topology-outages';
+import * as m0008 from './0008-people';
 
 /** Every migration in order. A new migration is a new file here and one line in this list. */
 export const MIGRATIONS = [
   { name: '0001-foundation', ...m0001 },
   { name: '0002-heartbeats', ...m0002 },
   { name: '0003-outage-views', ...m0003 },
+  { name: '0004-alerts', ...m0004 },
+  { name: '0005-planning', ...m0005 },
+  { name: '0006-photos-reports', ...m0006 },
+  { name: '0007-topology-outages', ...m0007 },
+  { name: '0008-people', ...m0008 },
 ];

@@ -10,6 +10,9 @@ export class Outage extends Model<InferAttributes<Outage>, InferCreationAttribut
   declare acknowledgedAt: CreationOptional<Date | null>;
   declare acknowledgedBy: CreationOptional<number | null>;
   declare notes: CreationOptional<string | null>;
+  /** Nodes cut off behind this outage and the clients they served at their last report (the blast radius). */
+  declare blastNodeCount: CreationOptional<number>;
+  declare blastClients: CreationOptional<number>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare node?: NonAttribute<Node>;
@@ -25,6 +28,8 @@ export class Outage extends Model<InferAttributes<Outage>, InferCreationAttribut
         acknowledgedAt: { type: DataTypes.DATE },
         acknowledgedBy: { type: DataTypes.INTEGER },
         notes: { type: DataTypes.TEXT },
+        blastNodeCount: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
+        blastClients: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 0 },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

@@ -9,6 +9,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
   declare passwordHash: string | null;
   declare phone: CreationOptional<string | null>;
   declare active: CreationOptional<boolean>;
+  declare erasedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
 
@@ -22,6 +23,7 @@ export class User extends Model<InferAttributes<User>, InferCreationAttributes<U
         passwordHash: { type: DataTypes.TEXT },
         phone: { type: DataTypes.TEXT },
         active: { type: DataTypes.BOOLEAN, allowNull: false, defaultValue: true },
+        erasedAt: { type: DataTypes.DATE },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

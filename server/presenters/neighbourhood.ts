@@ -18,6 +18,7 @@ export function presentNeighbourhood(n: Neighbourhood, counts: NeighbourhoodCoun
     operatorIds: counts.operatorIds,
     siteCount: counts.siteCount,
     nodeCount: counts.nodeCount,
+    retiredAt: iso(n.retiredAt) ?? null,
     createdAt: iso(n.createdAt)!,
     updatedAt: iso(n.updatedAt)!,
     abilities: neighbourhoodAbilities(actor, n),

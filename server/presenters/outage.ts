@@ -1,9 +1,11 @@
-import type { OutageDto } from '../../shared/schemas/outage';
+import type { BlastRadiusDto, OutageDto } from '../../shared/schemas/outage';
 import type { Outage } from '../models';
 import { type Actor, mayManage } from '../policies/actor';
 import { iso } from './common';
 
-export function presentOutage(o: Outage, actor: Actor, now: Date): OutageDto {
+const NO_BLAST: BlastRadiusDto = { nodeCount: 0, neighbourhoodIds: [], clients: 0, nodeIds: [] };
+
+export function presentOutage(o: Outage, actor: Actor, now: Date, blast?: BlastRadiusDto): OutageDto {
   const node = o.node!;
   const manage = mayManage(actor, node.neighbourhoodId);
   return {
@@ -17,6 +19,7 @@ export function presentOutage(o: Outage, actor: Actor, now: Date): OutageDto {
     acknowledgedAt: iso(o.acknowledgedAt),
     acknowledgedBy: o.acknowledger ? { id: o.acknowledger.id, name: o.acknowledger.name } : null,
     notes: o.notes ?? null,
+    blastRadius: blast ?? { ...NO_BLAST, nodeCount: o.blastNodeCount ?? 0, clients: o.blastClients ?? 0 },
     abilities: { acknowledge: manage && !o.acknowledgedAt && !o.endedAt, annotate: manage },
   };
 }

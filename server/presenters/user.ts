@@ -14,6 +14,8 @@ export function presentUser(u: User, neighbourhoodIds: number[], actor: Actor): 
     role: u.role,
     phone: u.phone ?? null,
     active: u.active,
+    invited: !u.active && !u.passwordHash && !u.erasedAt,
+    erased: Boolean(u.erasedAt),
     neighbourhoodIds,
     createdAt: iso(u.createdAt)!,
     abilities: userAbilities(actor, u),

@@ -17,6 +17,7 @@ import { mayCreateNeighbourhood, neighbourhoodAbilities, neighbourhoodScope } fr
 import { presentNeighbourhood } from '../presenters/neighbourhood';
 import { countOf, InUse, uniquely } from '../services/conflicts';
 import { listPage } from '../services/listing';
+import { recordChange } from '../services/audit';
 
 async function countsFor(ids: number[]) {
   const [assignments, sites, nodes] = await Promise.all([
@@ -50,8 +51,9 @@ export function neighbourhoodRoutes() {
 
   router.get('/', validate('query', neighbourhoodListQuerySchema), async (req, res) => {
     const actor = actorOf(req);
+    const retired = res.locals.query.retired;
     const { rows, pagination } = await listPage(Neighbourhood, res.locals.query, {
-      where: neighbourhoodScope(actor),
+      where: { [Op.and]: [neighbourhoodScope(actor), retired === 'all' ? {} : { retiredAt: retired === 'true' ? { [Op.ne]: null } : null }] },
       sortable: ['name', 'createdAt', 'id'],
       searchable: ['name'],
       defaultSort: 'name',
@@ -80,7 +82,10 @@ export function neighbourhoodRoutes() {
     const actor = actorOf(req);
     const n = await findReadable(actor, res.locals.params.id);
     authorize(neighbourhoodAbilities(actor, n).update, 'Only admins change neighbourhoods.');
-    await uniquely(() => n.update(res.locals.body), duplicateName(res.locals.body.name ?? n.name));
+    const { retired, ...fields } = res.locals.body;
+    // Retiring again keeps the first date, so the history says when it really stopped.
+    const retiredAt = retired === undefined ? undefined : retired ? (n.retiredAt ?? new Date()) : null;
+    await uniquely(() => n.update({ ...fields, ...(retiredAt === undefined ? {} : { retiredAt }) }), duplicateName(fields.name ?? n.name));
     res.json({ data: await present(n, actor) });
   });
 
@@ -109,9 +114,11 @@ export function neighbourhoodRoutes() {
         { path: 'userIds', message: `userIds ${missing.join(', ')} are not active operators` },
       ]);
     }
+    const before = (await countsFor([n.id]))(n.id).operatorIds;
     await Neighbourhood.sequelize!.transaction(async (transaction) => {
       await OperatorAssignment.destroy({ where: { neighbourhoodId: n.id }, transaction });
       await OperatorAssignment.bulkCreate(userIds.map((userId) => ({ userId, neighbourhoodId: n.id })), { transaction });
+      await recordChange(transaction, 'neighbourhoods', n.id, { operatorIds: before }, { operatorIds: [...userIds].sort((a, b) => a - b) }, 'operators assigned');
     });
     res.json({ data: await present(n, actor) });
   });

@@ -2,6 +2,7 @@ import { Router } from 'express';
 import { Op, type WhereOptions } from 'sequelize';
 import { idParamsSchema } from '../../shared/schemas/common';
 import { outageListQuerySchema, outageNotesSchema } from '../../shared/schemas/outage';
+import type { Sequelize } from 'sequelize';
 import type { Config } from '../config';
 import { NotFound } from '../errors';
 import { actorOf } from '../middlewares/requireUser';
@@ -11,6 +12,7 @@ import { type Actor, mayManage } from '../policies/actor';
 import { authorize } from '../policies/authorize';
 import { nodeScope } from '../policies/node';
 import { presentOutage } from '../presenters/outage';
+import { blastRadii } from '../services/blastRadius';
 import { listPage } from '../services/listing';
 
 const include = (actor: Actor, nodeWhere: WhereOptions = {}) => [
@@ -25,28 +27,32 @@ async function readableOutage(actor: Actor, id: number) {
 }
 
 /** Outages of the nodes the caller may read; the node's operators and admins acknowledge and annotate. */
-export function outageRoutes(config: Config) {
+export function outageRoutes(config: Config, sequelize: Sequelize) {
   const router = Router();
+  const present = async (o: Outage, actor: Actor) => presentOutage(o, actor, config.now(), (await blastRadii(sequelize, [o.id], actor)).get(o.id));
 
   router.get('/', validate('query', outageListQuerySchema), async (req, res) => {
     const actor = actorOf(req);
     const q = res.locals.query;
     const where: WhereOptions = q.status === 'open' ? { endedAt: null } : q.status === 'closed' ? { endedAt: { [Op.ne]: null } } : {};
     const nodeWhere: WhereOptions = { ...(q.neighbourhoodId ? { neighbourhoodId: q.neighbourhoodId } : {}), ...(q.nodeId ? { id: q.nodeId } : {}) };
-    const { rows, pagination } = await listPage(Outage, q, {
+    // `blastRadius` sorts by the number of nodes cut off behind the outage, then by their clients.
+    const byBlast = q.sort?.replace(/^-/, '') === 'blastRadius';
+    const { rows, pagination } = await listPage(Outage, byBlast ? { ...q, sort: q.sort!.replace('blastRadius', 'blastNodeCount') } : q, {
       where,
-      sortable: ['startedAt', 'endedAt', 'acknowledgedAt', 'id'],
+      sortable: ['startedAt', 'endedAt', 'acknowledgedAt', 'id', 'blastNodeCount', 'blastClients'],
       searchable: [],
       defaultSort: '-startedAt',
       include: include(actor, nodeWhere),
     });
     const now = config.now();
-    res.json({ data: rows.map((o) => presentOutage(o, actor, now)), pagination, abilities: { create: false } });
+    const blast = await blastRadii(sequelize, rows.map((o) => o.id), actor);
+    res.json({ data: rows.map((o) => presentOutage(o, actor, now, blast.get(o.id))), pagination, abilities: { create: false } });
   });
 
   router.get('/:id', validate('params', idParamsSchema), async (req, res) => {
     const actor = actorOf(req);
-    res.json({ data: presentOutage(await readableOutage(actor, res.locals.params.id), actor, config.now()) });
+    res.json({ data: await present(await readableOutage(actor, res.locals.params.id), actor) });
   });
 
   router.post('/:id/acknowledge', validate('params', idParamsSchema), async (req, res) => {
@@ -54,7 +60,7 @@ export function outageRoutes(config: Config) {
     const outage = await readableOutage(actor, res.locals.params.id);
     authorize(mayManage(actor, outage.node!.neighbourhoodId), 'Only admins and the operators of its neighbourhood acknowledge this outage.');
     if (!outage.acknowledgedAt) await outage.update({ acknowledgedAt: config.now(), acknowledgedBy: actor.id });
-    res.json({ data: presentOutage(await readableOutage(actor, outage.id), actor, config.now()) });
+    res.json({ data: await present(await readableOutage(actor, outage.id), actor) });
   });
 
   router.patch('/:id', validate('params', idParamsSchema), validate('body', outageNotesSchema), async (req, res) => {
@@ -62,7 +68,7 @@ export function outageRoutes(config: Config) {
     const outage = await readableOutage(actor, res.locals.params.id);
     authorize(mayManage(actor, outage.node!.neighbourhoodId), 'Only admins and the operators of its neighbourhood add notes to this outage.');
     await outage.update({ notes: res.locals.body.notes || null });
-    res.json({ data: presentOutage(await readableOutage(actor, outage.id), actor, config.now()) });
+    res.json({ data: await present(await readableOutage(actor, outage.id), actor) });
   });
 
   return router;

@@ -10,7 +10,7 @@ import { siteScope } from '../policies/site';
 
 const sequelizeJsonNotEmpty = () => literal("jsonb_array_length(coalesce(\"Node\".\"drift\", '[]'::jsonb)) > 0");
 
-/** Counts by state, open outages and drifting nodes, over what the caller may read. */
+/** Counts by state, open outages (widest blast radius first) and drifting nodes, over what the caller may read. */
 export function overviewRoutes() {
   const router = Router();
   router.get('/', async (req, res) => {
@@ -21,13 +21,13 @@ export function overviewRoutes() {
       >,
       Site.count({ where: siteScope(actor) }),
       Neighbourhood.count({ where: neighbourhoodScope(actor) }),
-      Outage.findAll({ where: { endedAt: null }, include: [{ model: Node, as: 'node', required: true, where: nodeScope(actor) }], order: [['startedAt', 'DESC']], limit: 20 }),
+      Outage.findAll({ where: { endedAt: null }, include: [{ model: Node, as: 'node', required: true, where: nodeScope(actor) }], order: [['blastNodeCount', 'DESC'], ['blastClients', 'DESC'], ['startedAt', 'DESC']], limit: 20 }),
       Node.findAll({ where: { [Op.and]: [nodeScope(actor), { drift: { [Op.ne]: null } }, sequelizeJsonNotEmpty()] }, order: [['name', 'ASC']], limit: 20 }),
     ]);
     const countsByState = Object.fromEntries(NODE_STATES.map((s) => [s, 0])) as Record<NodeState, number>;
     for (const row of byState) countsByState[row.state] = Number(row.n);
     const nodeCount = Object.values(countsByState).reduce((a, b) => a + b, 0);
-    const openOutages = open.map((o) => ({ id: o.id, nodeId: o.nodeId, nodeName: o.node!.name, neighbourhoodId: o.node!.neighbourhoodId, startedAt: o.startedAt.toISOString(), acknowledged: Boolean(o.acknowledgedAt) }));
+    const openOutages = open.map((o) => ({ id: o.id, nodeId: o.nodeId, nodeName: o.node!.name, neighbourhoodId: o.node!.neighbourhoodId, startedAt: o.startedAt.toISOString(), acknowledged: Boolean(o.acknowledgedAt), blastNodeCount: o.blastNodeCount, blastClients: o.blastClients }));
     const driftNodes = drifting.map((n) => ({ id: n.id, name: n.name, drift: n.drift ?? [] }));
     res.json({ data: { countsByState, nodeCount, siteCount, neighbourhoodCount, openOutages, driftNodes } });
   });

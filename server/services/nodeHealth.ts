@@ -1,5 +1,6 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { NodeState } from '../../shared/enums';
+import { alertsAfterTransition } from './alerts';
 import { domainEvents, type NodeStateEvent, type OutageEvent } from './events';
 
 export interface TransitionInput {
@@ -12,11 +13,14 @@ export interface TransitionInput {
   at: Date;
   /** When the outage began, if this transition opens one (the first missed report). */
   outageStartedAt?: Date;
+  /** The caller writes the outage mail itself, later in the same transaction (after attaching what sits behind it). */
+  holdAlerts?: boolean;
 }
 
 /**
  * Records a state change inside the caller's transaction: the transition row, and the outage it
- * opens (going offline) or closes (leaving offline). Returns the events to emit after commit.
+ * opens (going offline) or closes (leaving offline), and the outage mail for it in the outbox.
+ * Returns the events to emit after commit.
  */
 export async function recordTransition(sequelize: Sequelize, t: TransitionInput, transaction: Transaction) {
   const events: { state: NodeStateEvent; outage?: OutageEvent } = {
@@ -40,6 +44,8 @@ export async function recordTransition(sequelize: Sequelize, t: TransitionInput,
     );
     if (rows[0]) events.outage = { ...base, outageId: rows[0].id, kind: 'closed' };
   }
+  // Outage mail is written in this same transaction (the outbox), so it exists exactly when the outage does.
+  if (!t.holdAlerts) await alertsAfterTransition(sequelize, t, events.outage, transaction);
   return events;
 }
 

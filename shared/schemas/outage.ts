@@ -10,6 +10,16 @@ export const outageNotesSchema = z.object({
   notes: z.string({ error: 'must be text' }).trim().max(4000, 'must be at most 4000 characters'),
 });
 
+/** The nodes cut off behind an outage's node (stranded by it), not counting the node itself. */
+export interface BlastRadiusDto {
+  nodeCount: number;
+  neighbourhoodIds: number[];
+  /** Clients on the cut-off nodes' access points at their last report. */
+  clients: number;
+  /** The cut-off nodes the caller may read (all of them for admins). */
+  nodeIds: number[];
+}
+
 export interface OutageDto {
   id: number;
   nodeId: number;
@@ -21,5 +31,6 @@ export interface OutageDto {
   acknowledgedAt: string | null;
   acknowledgedBy: { id: number; name: string } | null;
   notes: string | null;
+  blastRadius: BlastRadiusDto;
   abilities: { acknowledge: boolean; annotate: boolean };
 }

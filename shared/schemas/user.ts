@@ -1,8 +1,10 @@
 import { z } from 'zod';
 import { ROLES } from '../enums';
+import { newPasswordSchema } from '../security/passwordRules';
 import { listQuerySchema, nameSchema } from './common';
 
-export const passwordSchema = z.string({ error: 'is required' }).min(12, 'must be at least 12 characters').max(1024, 'is too long');
+/** A new password: at least 12 characters, not a common password, zxcvbn score 3 or more. */
+export const passwordSchema = newPasswordSchema;
 
 export const userCreateSchema = z.object({
   email: z.string({ error: 'is required' }).trim().toLowerCase().email('must be an e-mail address').max(254),
@@ -30,7 +32,10 @@ export interface UserDto {
   role: (typeof ROLES)[number];
   phone?: string | null;
   active: boolean;
+  /** Invited and not yet accepted: no password set, and never active. */
+  invited: boolean;
+  erased: boolean;
   neighbourhoodIds: number[];
   createdAt: string;
-  abilities: { update: boolean; delete: boolean };
+  abilities: { update: boolean; delete: boolean; export: boolean; erase: boolean; invite: boolean };
 }

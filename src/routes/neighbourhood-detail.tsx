@@ -7,7 +7,10 @@ import { FormMessage } from '../components/form-field';
 import { PageHeader, Section } from '../components/page-header';
 import { LoadError, Loading } from '../components/query-state';
 import { useCurrentUser } from '../features/auth/api/session';
-import { useDeleteNeighbourhood, useNeighbourhood } from '../features/neighbourhoods/api/neighbourhoods';
+import { HistorySection } from '../features/history/components/history-section';
+import { useDeleteNeighbourhood, useNeighbourhood, useNeighbourhoods, useNeighbourhoodSummary, useUpdateNeighbourhood } from '../features/neighbourhoods/api/neighbourhoods';
+import { BulkNodeAssign } from '../features/neighbourhoods/components/bulk-node-assign';
+import { AvailabilityFigures, NeighbourhoodHosts, NeighbourhoodNodes } from '../features/neighbourhoods/components/neighbourhood-summary';
 import { NeighbourhoodForm } from '../features/neighbourhoods/components/neighbourhood-form';
 import { OperatorAssignment } from '../features/neighbourhoods/components/operator-assignment';
 import { usePeople } from '../features/people/api/people';
@@ -16,7 +19,7 @@ import { SitesTable } from '../features/sites/components/sites-table';
 import { ApiError } from '../lib/api';
 import { formatDateTime } from '../lib/format';
 import { paths } from '../lib/paths';
-import { ALL_BY_NAME, idFromParam } from '../lib/resource';
+import { ALL_BY_NAME, idFromParam, nameLookup } from '../lib/resource';
 import { NotFoundPage } from './not-found';
 
 export function NeighbourhoodDetailPage() {
@@ -34,6 +37,10 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
   // Names of people come from the people list, which only admins may read.
   const operators = usePeople({ role: 'operator', ...ALL_BY_NAME }, { enabled: user?.role === 'admin' });
   const remove = useDeleteNeighbourhood(neighbourhoodId);
+  const update = useUpdateNeighbourhood(neighbourhoodId);
+  const summary = useNeighbourhoodSummary(neighbourhoodId);
+  const [moving, setMoving] = useState(false);
+  const allHoods = useNeighbourhoods({ ...ALL_BY_NAME, retired: 'all' }, { enabled: moving });
 
   if (neighbourhood.isPending) return <Loading label="Loading the neighbourhood…" />;
   if (neighbourhood.error instanceof ApiError && neighbourhood.error.status === 404) return <NotFoundPage what="neighbourhood" />;
@@ -42,6 +49,12 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
   const record = neighbourhood.data;
   const operatorRows = operators.data?.data ?? [];
   const assigned = operatorRows.filter((person) => record.operatorIds.includes(person.id));
+
+  function toggleRetired() {
+    const retiring = !record.retiredAt;
+    if (retiring && !window.confirm(`Retire “${record.name}”? It stays with its history, but no longer appears where neighbourhoods are picked.`)) return;
+    update.mutate({ retired: retiring });
+  }
 
   function confirmDelete() {
     if (!window.confirm(`Remove the neighbourhood “${record.name}”? This cannot be undone.`)) return;
@@ -59,6 +72,11 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
               {record.abilities.update && (
                 <Button variant="primary" onClick={() => setEditing(true)}>
                   Edit neighbourhood
+                </Button>
+              )}
+              {record.abilities.update && (
+                <Button onClick={toggleRetired} disabled={update.isPending}>
+                  {record.retiredAt ? 'Bring back' : 'Retire'}
                 </Button>
               )}
               {record.abilities.delete && (
@@ -80,10 +98,33 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
             { label: 'Nodes', value: record.nodeCount },
             { label: 'Operators on the rota', value: record.operatorIds.length },
             { label: 'Last changed', value: formatDateTime(record.updatedAt) },
+            ...(record.retiredAt ? [{ label: 'Retired', value: formatDateTime(record.retiredAt) }] : []),
             { label: 'Description', value: record.description ?? 'None' },
           ]}
         />
       )}
+
+      <Section title="Availability">
+        {summary.isSuccess ? <AvailabilityFigures availability={summary.data.availability} /> : summary.isError ? <LoadError error={summary.error} /> : <Loading />}
+      </Section>
+
+      <Section
+        title="Nodes"
+        actions={
+          record.abilities.update && !record.retiredAt && (
+            <Button onClick={() => setMoving((m) => !m)}>{moving ? 'Done moving' : 'Move nodes here'}</Button>
+          )
+        }
+      >
+        {moving && allHoods.isSuccess && (
+          <div className="mb-4 rounded-md border border-line p-3">
+            <BulkNodeAssign neighbourhoodId={record.id} neighbourhoodNames={nameLookup(allHoods.data.data)} />
+          </div>
+        )}
+        {summary.isSuccess && <NeighbourhoodNodes nodes={summary.data.nodes} />}
+      </Section>
+
+      <Section title="Hosts">{summary.isSuccess && <NeighbourhoodHosts hosts={summary.data.hosts} />}</Section>
 
       <Section title="Operators">
         {operators.isSuccess && record.abilities.update ? (
@@ -102,11 +143,19 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
             </ul>
           )
         ) : (
+          summary.isSuccess && summary.data.operators.length > 0 ? (
+            <ul className="list-inside list-disc text-sm">
+              {summary.data.operators.map((person) => (
+                <li key={person.id}>{person.name}</li>
+              ))}
+            </ul>
+          ) : (
           <p className="text-sm text-muted">
             {record.operatorIds.length === 0
               ? 'No operators are assigned yet.'
               : `${record.operatorIds.length} operator${record.operatorIds.length === 1 ? ' is' : 's are'} on the rota here. An admin can change who.`}
           </p>
+          )
         )}
       </Section>
 
@@ -128,6 +177,7 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
           <SitesTable sites={sites.data.data} neighbourhoodNames={new Map([[record.id, record.name]])} />
         )}
       </Section>
+      <HistorySection table="neighbourhoods" recordId={record.id} />
     </>
   );
 }

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { Button } from '../components/button';
 import { ListBody } from '../components/list-body';
-import { ListToolbar, sortChoices } from '../components/list-toolbar';
+import { FilterSelect, ListToolbar, sortChoices } from '../components/list-toolbar';
 import { PageHeader } from '../components/page-header';
 import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
 import { NeighbourhoodForm } from '../features/neighbourhoods/components/neighbourhood-form';
@@ -12,8 +12,9 @@ import { paths } from '../lib/paths';
 
 export function NeighbourhoodsPage() {
   const navigate = useNavigate();
-  const list = useListParams([], 'name');
-  const neighbourhoods = useNeighbourhoods(list.apiParams);
+  const list = useListParams(['retired'], 'name');
+  // This page shows retired neighbourhoods too unless asked not to; pickers elsewhere get only active ones.
+  const neighbourhoods = useNeighbourhoods({ ...list.apiParams, retired: list.filters.retired ?? 'all' });
   const [adding, setAdding] = useState(false);
 
   return (
@@ -43,7 +44,17 @@ export function NeighbourhoodsPage() {
         sortOptions={sortChoices(NEIGHBOURHOOD_SORT_FIELDS)}
         sort={list.sort}
         onSort={(sort) => list.update({ sort })}
-      />
+      >
+        <FilterSelect
+          label="Showing"
+          value={list.filters.retired}
+          onChange={(retired) => list.update({ retired })}
+          options={[
+            { value: 'false', label: 'Active only' },
+            { value: 'true', label: 'Retired only' },
+          ]}
+        />
+      </ListToolbar>
       <ListBody
         query={neighbourhoods}
         noun="neighbourhoods"

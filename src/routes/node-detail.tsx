@@ -1,19 +1,26 @@
 import { useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
-import { Button } from '../components/button';
-import { NotYetReporting } from '../components/details';
+import { Button, ButtonLink } from '../components/button';
 import { EmptyState } from '../components/empty-state';
 import { FormMessage } from '../components/form-field';
 import { PageHeader, Section } from '../components/page-header';
 import { LoadError, Loading } from '../components/query-state';
 import { StateBadge } from '../components/state-badge';
+import { MaintenanceWindows } from '../features/alerts/components/maintenance-windows';
 import { useLinks } from '../features/links/api/links';
 import { LinksTable } from '../features/links/components/links-table';
 import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
 import { useDeleteNode, useNode, useNodes } from '../features/nodes/api/nodes';
+import { AgentDownload } from '../features/nodes/components/agent-download';
+import { NodeAvailability } from '../features/nodes/components/node-availability';
+import { NodeCharts } from '../features/nodes/components/node-charts';
+import { DriftList, LatestFigures, ReportedRadios } from '../features/nodes/components/node-figures';
 import { NodeForm } from '../features/nodes/components/node-form';
 import { NodeSummary } from '../features/nodes/components/node-summary';
+import { useOutages } from '../features/outages/api/outages';
+import { OutagesTable } from '../features/outages/components/outages-table';
 import { useRadios } from '../features/radios/api/radios';
+import { LinkHealthCard } from '../features/planning/components/link-health-panel';
 import { RadiosTable } from '../features/radios/components/radios-table';
 import { useSites } from '../features/sites/api/sites';
 import { ApiError } from '../lib/api';
@@ -37,6 +44,7 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
   const links = useLinks({ nodeId, ...ALL_ROWS });
   const allNodes = useNodes(ALL_BY_NAME);
   const remove = useDeleteNode(nodeId);
+  const outages = useOutages({ nodeId, page: 1, pageSize: 10, sort: '-startedAt' });
 
   if (node.isPending) return <Loading label="Loading the node…" />;
   if (node.error instanceof ApiError && node.error.status === 404) return <NotFoundPage what="node" />;
@@ -71,6 +79,8 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
         actions={
           !editing && (
             <>
+              <ButtonLink to={paths.topology.to(record.id)}>Show on the map</ButtonLink>
+              {record.abilities.update && <ButtonLink to={paths.provisioningSheet.to(record.id)}>Provisioning sheet</ButtonLink>}
               {record.abilities.update && (
                 <Button variant="primary" onClick={() => setEditing(true)}>
                   Edit node
@@ -98,6 +108,50 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
         <NodeSummary node={record} siteName={siteName} neighbourhoodName={neighbourhoodName} />
       )}
 
+      <Section title="Latest report">
+        <LatestFigures node={record} />
+        <div className="mt-3">
+          <ReportedRadios node={record} />
+        </div>
+      </Section>
+
+      <Section title="Drift from the inventory">
+        <DriftList node={record} />
+      </Section>
+
+      <Section title="Availability">
+        <NodeAvailability nodeId={record.id} />
+      </Section>
+
+      <div className="mt-8">
+        <MaintenanceWindows nodeId={record.id} />
+      </div>
+
+      <Section title="Signal and throughput">
+        <NodeCharts nodeId={record.id} />
+      </Section>
+
+      <Section
+        title="Outages"
+        actions={
+          (outages.data?.pagination.total ?? 0) > 10 && (
+            <Link to={paths.outages.to({ nodeId: record.id })} className="text-sm font-medium text-accent hover:underline">
+              All {outages.data?.pagination.total} outages
+            </Link>
+          )
+        }
+      >
+        {outages.isPending ? (
+          <Loading label="Loading outages…" />
+        ) : outages.isError ? (
+          <LoadError error={outages.error} />
+        ) : outages.data.data.length === 0 ? (
+          <EmptyState title="No outages recorded">{record.lastSeenAt ? 'This node has not missed its reports so far.' : 'Outages are tracked once the node reports.'}</EmptyState>
+        ) : (
+          <OutagesTable outages={outages.data.data} showNode={false} testId="node-outages-table" />
+        )}
+      </Section>
+
       <Section title="Radios">
         {radios.isPending ? (
           <Loading label="Loading radios…" />
@@ -118,16 +172,26 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
         ) : links.data.data.length === 0 ? (
           <EmptyState title="No links to or from this node" />
         ) : (
-          <LinksTable links={links.data.data} nodeId={record.id} nodeNames={nameLookup(allNodes.data?.data)} />
+          <>
+            <LinksTable links={links.data.data} nodeId={record.id} nodeNames={nameLookup(allNodes.data?.data)} />
+            <div className="mt-3 grid gap-3 md:grid-cols-2">
+              {links.data.data
+                .filter((l) => l.status === 'live')
+                .map((l) => (
+                  <div key={l.id} className="min-w-0">
+                    <LinkHealthCard linkId={l.id} />
+                  </div>
+                ))}
+            </div>
+          </>
         )}
       </Section>
 
-      <Section title="Signal and throughput">
-        <NotYetReporting title="Charts">Signal, noise, throughput and latency over time appear here once this node reports.</NotYetReporting>
-      </Section>
-      <Section title="Outages">
-        <NotYetReporting title="Outage history">Each time this node went down, for how long, and who acknowledged it, appears here once outage tracking runs.</NotYetReporting>
-      </Section>
+      {record.abilities.update && (
+        <Section title="Heartbeat agent">
+          <AgentDownload nodeId={record.id} nodeName={record.name} hasReported={record.lastSeenAt !== null} />
+        </Section>
+      )}
     </>
   );
 }

@@ -1,11 +1,12 @@
 import { useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { NODE_STATES } from '../../shared/enums';
-import { Button } from '../components/button';
+import { Button, ButtonLink } from '../components/button';
 import { ListBody } from '../components/list-body';
 import { FilterSelect, ListToolbar, sortChoices } from '../components/list-toolbar';
 import { PageHeader } from '../components/page-header';
 import { stateWord } from '../components/state-badge';
+import { ExportButton } from '../features/csv/components/export-button';
 import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
 import { useNodes } from '../features/nodes/api/nodes';
 import { NodeForm } from '../features/nodes/components/node-form';
@@ -30,12 +31,17 @@ export function NodesPage() {
         title="Nodes"
         subtitle="Routers on the roofs, and how each one is doing."
         actions={
-          nodes.data?.abilities?.create &&
-          !adding && (
-            <Button variant="primary" onClick={() => setAdding(true)}>
-              Add node
-            </Button>
-          )
+          <>
+            <ExportButton table="nodes" />
+            {nodes.data?.abilities?.create && !adding && (
+              <>
+                <ButtonLink to={paths.imports.to('nodes')}>Import CSV</ButtonLink>
+                <Button variant="primary" onClick={() => setAdding(true)}>
+                  Add node
+                </Button>
+              </>
+            )}
+          </>
         }
       />
       {adding && (

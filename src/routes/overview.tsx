@@ -1,8 +1,9 @@
-import { NotYetReporting } from '../components/details';
-import { EmptyState } from '../components/empty-state';
+import { Link } from 'react-router-dom';
 import { PageHeader, Section } from '../components/page-header';
 import { LoadError, Loading } from '../components/query-state';
 import { useOverview } from '../features/overview/api/overview';
+import { DriftNodes } from '../features/overview/components/drift-nodes';
+import { OpenOutages } from '../features/overview/components/open-outages';
 import { StateCounts } from '../features/overview/components/state-counts';
 import { Totals } from '../features/overview/components/totals';
 import { paths } from '../lib/paths';
@@ -12,12 +13,19 @@ export function OverviewPage() {
 
   return (
     <>
-      <PageHeader title="Overview" subtitle="The part of the network you look after, at a glance." />
+      <PageHeader title="Overview" subtitle="The part of the network you look after, at a glance. Figures update as nodes report." />
       {overview.isPending && <Loading label="Loading the overview…" />}
       {overview.isError && <LoadError error={overview.error} />}
       {overview.data && (
         <>
-          <Section title="Nodes by state">
+          <Section
+            title="Nodes by state"
+            actions={
+              <Link to={paths.topology.to()} className="text-sm font-medium text-accent hover:underline">
+                See them on the network map
+              </Link>
+            }
+          >
             <StateCounts counts={overview.data.countsByState} />
           </Section>
           <div className="mt-6">
@@ -29,23 +37,23 @@ export function OverviewPage() {
               ]}
             />
           </div>
-          <Section title="Open outages">
-            {overview.data.openOutages.length === 0 ? (
-              <EmptyState title="No open outages" />
-            ) : (
-              <NotYetReporting title={`${overview.data.openOutages.length} open outage${overview.data.openOutages.length === 1 ? '' : 's'}`}>
-                The outage list with each outage's blast radius comes with outage tracking.
-              </NotYetReporting>
-            )}
-          </Section>
+          <div className="grid gap-x-6 lg:grid-cols-2">
+            <Section
+              title="Open outages"
+              actions={
+                <Link to={paths.outages.to({ status: 'open' })} className="text-sm font-medium text-accent hover:underline">
+                  All outages
+                </Link>
+              }
+            >
+              <OpenOutages outages={overview.data.openOutages} />
+            </Section>
+            <Section title="Nodes that drift from the inventory">
+              <DriftNodes nodes={overview.data.driftNodes} />
+            </Section>
+          </div>
         </>
       )}
-      <Section title="Live figures">
-        <div className="grid gap-3 md:grid-cols-2">
-          <NotYetReporting title="Throughput and latency">Live figures appear once nodes report.</NotYetReporting>
-          <NotYetReporting title="Network map">Sites placed by their coordinates, with their links, appear once nodes report.</NotYetReporting>
-        </div>
-      </Section>
     </>
   );
 }

@@ -6,6 +6,7 @@ import { FilterSelect, ListToolbar, sortChoices } from '../components/list-toolb
 import { PageHeader } from '../components/page-header';
 import { usePeople } from '../features/people/api/people';
 import { PEOPLE_SORT_FIELDS, PeopleTable } from '../features/people/components/people-table';
+import { InviteForm } from '../features/people/components/invite-form';
 import { PersonForm } from '../features/people/components/person-form';
 import { capitalise } from '../lib/format';
 import { useListParams } from '../lib/list-params';
@@ -14,6 +15,7 @@ export function PeoplePage() {
   const list = useListParams(['role'], 'name');
   const people = usePeople(list.apiParams);
   const [adding, setAdding] = useState(false);
+  const [inviting, setInviting] = useState(false);
   const [added, setAdded] = useState<string | null>(null);
   const filtered = Boolean(list.q || list.filters.role);
 
@@ -24,22 +26,45 @@ export function PeoplePage() {
         subtitle="Everyone with a sign-in, and what they may do."
         actions={
           people.data?.abilities?.create &&
-          !adding && (
-            <Button
-              variant="primary"
-              onClick={() => {
-                setAdded(null);
-                setAdding(true);
-              }}
-            >
-              Add person
-            </Button>
+          !adding &&
+          !inviting && (
+            <>
+              <Button
+                variant="primary"
+                onClick={() => {
+                  setAdded(null);
+                  setInviting(true);
+                }}
+              >
+                Invite by e-mail
+              </Button>
+              <Button
+                onClick={() => {
+                  setAdded(null);
+                  setAdding(true);
+                }}
+              >
+                Add with a password
+              </Button>
+            </>
           )
         }
       />
       <p aria-live="polite" className="empty:hidden mb-4 rounded-md border border-line bg-accent-soft px-3 py-2 text-sm">
         {added ?? ''}
       </p>
+      {inviting && (
+        <div className="mb-6">
+          <h2 className="mb-2 text-lg font-semibold">Invite someone</h2>
+          <InviteForm
+            onSent={(person) => {
+              setInviting(false);
+              setAdded(`Invitation sent to ${person.email}. The link works once, until ${new Date(person.invitationExpiresAt).toLocaleString()}.`);
+            }}
+            onCancel={() => setInviting(false)}
+          />
+        </div>
+      )}
       {adding && (
         <div className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">New person</h2>

@@ -6,9 +6,11 @@ import { FormMessage } from '../components/form-field';
 import { PageHeader, Section } from '../components/page-header';
 import { LoadError, Loading } from '../components/query-state';
 import { useCurrentUser } from '../features/auth/api/session';
+import { HistorySection } from '../features/history/components/history-section';
 import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
 import { useNodes } from '../features/nodes/api/nodes';
 import { NodesTable } from '../features/nodes/components/nodes-table';
+import { SitePhotos } from '../features/photos/components/site-photos';
 import { usePeople } from '../features/people/api/people';
 import { useDeleteSite, useSite } from '../features/sites/api/sites';
 import { SiteForm } from '../features/sites/components/site-form';
@@ -99,6 +101,8 @@ function SiteDetail({ siteId }: { siteId: number }) {
           <NodesTable nodes={nodes.data.data} siteNames={new Map([[record.id, record.name]])} neighbourhoodNames={neighbourhoodNames} />
         )}
       </Section>
+      <SitePhotos siteId={record.id} />
+      <HistorySection table="sites" recordId={record.id} />
     </>
   );
 }

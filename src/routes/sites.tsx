@@ -2,6 +2,7 @@ import { ButtonLink } from '../components/button';
 import { ListBody } from '../components/list-body';
 import { FilterSelect, ListToolbar, sortChoices } from '../components/list-toolbar';
 import { PageHeader } from '../components/page-header';
+import { ExportButton } from '../features/csv/components/export-button';
 import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
 import { useSites } from '../features/sites/api/sites';
 import { SITE_SORT_FIELDS, SitesTable } from '../features/sites/components/sites-table';
@@ -21,11 +22,17 @@ export function SitesPage() {
         title="Sites"
         subtitle="Roofs, windows and balconies that carry a node."
         actions={
-          sites.data?.abilities?.create && (
-            <ButtonLink to={paths.siteNew.to()} variant="primary">
-              Add site
-            </ButtonLink>
-          )
+          <>
+            <ExportButton table="sites" />
+            {sites.data?.abilities?.create && (
+              <>
+                <ButtonLink to={paths.imports.to('sites')}>Import CSV</ButtonLink>
+                <ButtonLink to={paths.siteNew.to()} variant="primary">
+                  Add site
+                </ButtonLink>
+              </>
+            )}
+          </>
         }
       />
       <ListToolbar

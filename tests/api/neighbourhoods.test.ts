@@ -150,6 +150,7 @@ describe('neighbourhoods API', () => {
           operatorIds: [],
           siteCount: 0,
           nodeCount: 0,
+          retiredAt: null,
           createdAt: expect.stringMatching(/Z$/),
           updatedAt: expect.stringMatching(/Z$/),
           abilities: { update: true, delete: true },

@@ -131,9 +131,11 @@ describe('users (people) API', () => {
           role: 'host',
           phone: '+00 555 0199',
           active: true,
+          invited: false,
+          erased: false,
           neighbourhoodIds: [],
           createdAt: expect.stringMatching(/Z$/),
-          abilities: { update: true, delete: true },
+          abilities: { update: true, delete: true, export: true, erase: true, invite: false },
         },
       });
       expect(res.text).not.toContain(NEW_PASSWORD);

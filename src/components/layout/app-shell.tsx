@@ -1,7 +1,9 @@
 import { useEffect, useState, type ReactNode } from 'react';
 import { Link, NavLink, useLocation } from 'react-router-dom';
 import { capitalise } from '../../lib/format';
+import { paths } from '../../lib/paths';
 import { useTheme } from '../../lib/theme';
+import { LiveIndicator } from './live-indicator';
 
 export interface NavItem {
   to: string;
@@ -84,10 +86,32 @@ export function AppShell({ user, navItems, onSignOut, signingOut, children }: Ap
             </ul>
           </nav>
           <div className="ml-auto flex min-w-0 items-center gap-2">
+            <LiveIndicator />
             <div data-testid="user-menu" className="flex min-w-0 items-center gap-2 md:gap-3">
               <div className="min-w-0 text-right leading-tight">
                 <p className="truncate text-sm font-medium">{user.name}</p>
-                <p className="truncate text-xs text-muted">{capitalise(user.role)}</p>
+                <p className="truncate text-xs text-muted">
+                  {capitalise(user.role)} ·{' '}
+                  <Link to={paths.account.to()} className="hover:text-ink hover:underline">
+                    Account
+                  </Link>{' '}
+                  ·{' '}
+                  <Link to={paths.preferences.to()} className="hover:text-ink hover:underline">
+                    Mail
+                  </Link>
+                  {user.role === 'admin' && (
+                    <>
+                      {' '}·{' '}
+                      <Link to={paths.outbox.to()} className="hover:text-ink hover:underline">
+                        Outbox
+                      </Link>{' '}
+                      ·{' '}
+                      <Link to={paths.history.to()} className="hover:text-ink hover:underline">
+                        History
+                      </Link>
+                    </>
+                  )}
+                </p>
               </div>
               <button
                 type="button"

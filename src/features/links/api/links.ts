@@ -1,12 +1,13 @@
 import type { z } from 'zod';
 import type { LinkDto, linkCreateSchema, linkUpdateSchema } from '../../../../shared/schemas/link';
-import { linkKeys } from '../../../lib/query-keys';
+import { linkKeys, topologyKeys } from '../../../lib/query-keys';
 import { resourceHooks } from '../../../lib/resource';
 
 type LinkCreate = z.output<typeof linkCreateSchema>;
 type LinkUpdate = z.output<typeof linkUpdateSchema>;
 
-const links = resourceHooks<LinkDto, LinkCreate, LinkUpdate>('/links', linkKeys, []);
+// Links are drawn on the map with their predicted margin.
+const links = resourceHooks<LinkDto, LinkCreate, LinkUpdate>('/links', linkKeys, [topologyKeys.all]);
 
 export const useLinks = links.useList;
 export const useLink = links.useOne;

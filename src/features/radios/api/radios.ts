@@ -1,13 +1,13 @@
 import type { z } from 'zod';
 import type { RadioDto, radioCreateSchema, radioUpdateSchema } from '../../../../shared/schemas/radio';
-import { linkKeys, radioKeys } from '../../../lib/query-keys';
+import { linkKeys, radioKeys, topologyKeys } from '../../../lib/query-keys';
 import { resourceHooks } from '../../../lib/resource';
 
 type RadioCreate = z.output<typeof radioCreateSchema>;
 type RadioUpdate = z.output<typeof radioUpdateSchema>;
 
-// Removing a radio removes its links.
-const radios = resourceHooks<RadioDto, RadioCreate, RadioUpdate>('/radios', radioKeys, [linkKeys.all]);
+// Removing a radio removes its links; its power and gain move the links' predicted margin on the map.
+const radios = resourceHooks<RadioDto, RadioCreate, RadioUpdate>('/radios', radioKeys, [linkKeys.all, topologyKeys.all]);
 
 export const useRadios = radios.useList;
 export const useRadio = radios.useOne;
