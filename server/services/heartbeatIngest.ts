@@ -1,4 +1,4 @@
-import { QueryTypes, type Sequelize } from 'sequelize';
+import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { NodeState } from '../../shared/enums';
 import { afterReport, snrDb } from '../../shared/health/state';
 import type { HeartbeatReport } from '../../shared/schemas/heartbeat';
@@ -10,7 +10,8 @@ import { thresholdsFor } from './thresholds';
 
 // One statement stores the batch and moves the node: new (node, seq) pairs claim a row in
 // heartbeat_seqs, and only those reach the partitioned tables, so a resent report is stored once.
-// $4 says whether the newest report is newer than the node's last one (decided under the row lock).
+// $4 says whether the newest report is newer than the node's last one. With $11 the node is only
+// moved if it is still as it was read ($12–$14); otherwise nothing about the node changes.
 const STORE_SQL = `
 WITH input AS (
   SELECT DISTINCT ON ((r->>'seq')::bigint) (r->>'seq')::bigint AS seq, r
@@ -50,9 +51,10 @@ node AS (
     state_since = CASE WHEN $4 AND state <> $10 THEN $3 ELSE state_since END,
     state = CASE WHEN $4 THEN $10 ELSE state END
   WHERE id = $2
+    AND (NOT $11 OR (last_seq IS NOT DISTINCT FROM $12::bigint AND state = $13 AND health_streak = $14))
   RETURNING id
 )
-SELECT seq::text FROM fresh`;
+SELECT coalesce((SELECT array_agg(seq::text) FROM fresh), '{}') AS seqs, (SELECT count(*) FROM node)::int AS updated`;
 
 /** The figures health looks at: the weakest radio link the node reports, and its own measurements. */
 export function keyFigures(r: HeartbeatReport) {
@@ -71,35 +73,62 @@ export interface IngestResult {
   duplicates: number;
 }
 
+interface NodeMemory {
+  state: NodeState;
+  healthStreak: number;
+  lastSeq: string | null;
+}
+
 /**
- * Stores reports once each, in one transaction with one commit. The newest report (by the node's
- * own seq) moves the node's current state only if it is newer than what the node last said, so late
- * and repeated reports are kept without moving it backwards. Receive time is the server's.
+ * Stores reports once each. The newest report (by the node's own seq) moves the node's current
+ * state only if it is newer than what the node last said, so late and repeated reports are kept
+ * without moving it backwards. Receive time is the server's.
+ * Most reports change no state: one guarded statement (one round trip, one commit) stores them
+ * and moves the node if nobody moved it since the token lookup. A state change, or a guard that
+ * finds the node changed meanwhile, takes the locked path that also records the transition.
  */
 export async function ingestReports(sequelize: Sequelize, node: TokenNode, reports: HeartbeatReport[], now: Date): Promise<IngestResult> {
   const newest = reports.reduce((a, b) => (b.seq > a.seq ? b : a));
   const [thresholds, drift] = await Promise.all([thresholdsFor(sequelize, node.thresholds), driftOf(sequelize, node.nodeId, node.firmware, newest)]);
   const figures = keyFigures(newest);
   const lastReport = { seq: newest.seq, sentAt: newest.sentAt, receivedAt: now.toISOString(), ...figures, uptimeS: newest.uptimeS ?? null, firmware: newest.firmware ?? null, radios: newest.radios ?? [] };
-
-  const outcome = await sequelize.transaction(async (transaction) => {
-    // The row lock orders concurrent reports and the silence check, so state never moves backwards.
-    const [current] = await sequelize.query<{ state: NodeState; healthStreak: number; lastSeq: string | null }>(
-      'SELECT state, health_streak AS "healthStreak", last_seq::text AS "lastSeq" FROM nodes WHERE id = $1 FOR UPDATE',
-      { bind: [node.nodeId], type: QueryTypes.SELECT, transaction },
-    );
-    const advances = current.lastSeq === null || BigInt(newest.seq) > BigInt(current.lastSeq);
-    const verdict = advances ? afterReport({ state: current.state, streak: current.healthStreak }, figures, thresholds) : null;
-    const rows = await sequelize.query<{ seq: string }>(STORE_SQL, {
-      bind: [JSON.stringify(reports), node.nodeId, now, advances, newest.seq, JSON.stringify(lastReport), verdict?.streak ?? 0, verdict?.reason ?? null, JSON.stringify(drift), verdict?.state ?? current.state],
+  const judge = (m: NodeMemory) => {
+    const advances = m.lastSeq === null || BigInt(newest.seq) > BigInt(m.lastSeq);
+    return { advances, verdict: advances ? afterReport({ state: m.state, streak: m.healthStreak }, figures, thresholds) : null };
+  };
+  const store = (m: NodeMemory, j: ReturnType<typeof judge>, guarded: boolean, transaction?: Transaction) =>
+    sequelize.query<{ seqs: string[]; updated: number }>(STORE_SQL, {
+      bind: [JSON.stringify(reports), node.nodeId, now, j.advances, newest.seq, JSON.stringify(lastReport), j.verdict?.streak ?? 0,
+        j.verdict?.reason ?? null, JSON.stringify(drift), j.verdict?.state ?? m.state, guarded, m.lastSeq, m.state, m.healthStreak],
       type: QueryTypes.SELECT,
       transaction,
+    }).then(([row]) => row);
+
+  const seen: NodeMemory = { state: node.state as NodeState, healthStreak: node.healthStreak, lastSeq: node.lastSeq };
+  const quick = judge(seen);
+  let stored: number | null = null;
+  let outcome: { advances: boolean; events: Awaited<ReturnType<typeof recordTransition>> | null } | null = null;
+  if (!quick.verdict || quick.verdict.state === seen.state) {
+    const row = await store(seen, quick, true);
+    stored = row.seqs.length;
+    if (row.updated) outcome = { advances: quick.advances, events: null };
+  }
+  if (!outcome) {
+    outcome = await sequelize.transaction(async (transaction) => {
+      // The row lock orders concurrent reports and the silence check, so state never moves backwards.
+      const [current] = await sequelize.query<NodeMemory>(
+        'SELECT state, health_streak AS "healthStreak", last_seq::text AS "lastSeq" FROM nodes WHERE id = $1 FOR UPDATE',
+        { bind: [node.nodeId], type: QueryTypes.SELECT, transaction },
+      );
+      const j = judge(current);
+      const row = await store(current, j, false, transaction);
+      stored ??= row.seqs.length;
+      const events = j.verdict && j.verdict.state !== current.state
+        ? await recordTransition(sequelize, { ...node, from: current.state, to: j.verdict.state, reason: j.verdict.reason, at: now }, transaction)
+        : null;
+      return { advances: j.advances, events };
     });
-    const events = verdict && verdict.state !== current.state
-      ? await recordTransition(sequelize, { ...node, from: current.state, to: verdict.state, reason: verdict.reason, at: now }, transaction)
-      : null;
-    return { stored: rows.length, advances, events };
-  });
+  }
 
   if (outcome.events) emitTransition(outcome.events);
   if (outcome.advances) {
@@ -108,5 +137,5 @@ export async function ingestReports(sequelize: Sequelize, node: TokenNode, repor
       signalDbm: figures.signalDbm, snrDb: figures.snrDb, throughputMbps: figures.throughputMbps, latencyMs: figures.latencyMs,
     });
   }
-  return { accepted: outcome.stored, duplicates: reports.length - outcome.stored };
+  return { accepted: stored ?? 0, duplicates: reports.length - (stored ?? 0) };
 }

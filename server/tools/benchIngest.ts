@@ -24,7 +24,10 @@ const site = await Site.create({ name: `Bench site ${run}`, neighbourhoodId: hoo
 const nodes = await Node.bulkCreate(Array.from({ length: NODES }, (_, i) => ({ name: `bench-${run}-${i}`, siteId: site.id, neighbourhoodId: hood.id })));
 const tokens = await Promise.all(nodes.map((n) => rotateToken(sequelize, n.id, new Date())));
 const seqs = nodes.map(() => 0);
-const server = await startServerProcess({ DATABASE_URL: databaseUrl, INGEST_RATE_LIMIT_PER_MIN: '100000000', JOBS_ENABLED: 'false', SESSION_SECRET: 'bench-secret-bench-secret', DATABASE_POOL_MAX: '20' });
+// BENCH_SERVER_URL loads a server you started yourself (e.g. under a profiler); its ingest rate limit must be high.
+const server = process.env.BENCH_SERVER_URL
+  ? { url: process.env.BENCH_SERVER_URL, stop: async () => {} }
+  : await startServerProcess({ DATABASE_URL: databaseUrl, INGEST_RATE_LIMIT_PER_MIN: '100000000', JOBS_ENABLED: 'false', SESSION_SECRET: 'bench-secret-bench-secret', DATABASE_POOL_MAX: '20' });
 
 const report = (i: number) => ({
   seq: ++seqs[i], sentAt: new Date().toISOString(), uptimeS: 1000 + seqs[i], load1: 0.3, throughputMbps: 42.5, latencyMs: 12,
