@@ -1,77 +1,59 @@
-import type { Browser, BrowserContext, Page } from 'playwright-core';
-import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ServerProcess } from '../../server/tools/serverProcess';
-import { launchBrowser, screenshot, signInAs, startE2EServer } from './helpers/browser';
+import { describe, expect, it } from 'vitest';
+import { screenshot, signInAs, useE2E } from './helpers/browser';
 
 describe('planning in the browser', () => {
-  let server: ServerProcess;
-  let browser: Browser;
-  let context: BrowserContext;
-  let page: Page;
-
-  beforeAll(async () => {
-    [server, browser] = await Promise.all([startE2EServer(), launchBrowser()]);
-  });
-  afterAll(async () => {
-    await browser?.close();
-    await server?.stop();
-  });
-  const fresh = async (viewport = { width: 1280, height: 900 }) => {
-    await context?.close();
-    context = await browser.newContext({ viewport });
-    page = await context.newPage();
-  };
+  const e2e = useE2E();
 
   async function pickEnd(end: 'A' | 'B', siteName: string) {
-    const site = page.getByLabel(`Site ${end}`, { exact: true });
+    const site = e2e.page.getByLabel(`Site ${end}`, { exact: true });
     await site.locator('option', { hasText: siteName }).first().waitFor({ state: 'attached' });
     await site.selectOption({ label: siteName });
-    const node = page.getByLabel(`Node ${end}`, { exact: true });
+    const node = e2e.page.getByLabel(`Node ${end}`, { exact: true });
     await expect.poll(() => node.locator('option').count(), { timeout: 10_000 }).toBeGreaterThan(1);
     await node.selectOption({ index: 1 });
     return Number(await node.inputValue());
   }
 
   it('computes a link budget between two demo sites, saves it and finds it dashed on the map', async () => {
-    await fresh();
-    await signInAs(page, server.url, 'admin@parapet.example');
-    await page.getByTestId('nav').getByRole('link', { name: 'Planning' }).click();
-    await page.getByTestId('planning-index').getByRole('link', { name: /Link budget/ }).click();
-    await page.waitForURL(/\/planning\/link-budget$/);
+    await e2e.fresh();
+    await signInAs(e2e.page, e2e.server.url, 'admin@parapet.example');
+    await e2e.page.getByTestId('nav').getByRole('link', { name: 'Planning' }).click();
+    await e2e.page.getByTestId('planning-index').getByRole('link', { name: /Link budget/ }).click();
+    await e2e.page.waitForURL(/\/planning\/link-budget$/);
     const nodeA = await pickEnd('A', 'Granary Tower');
     const nodeB = await pickEnd('B', 'Millbrook Mill');
-    await page.getByRole('button', { name: 'Compute link budget' }).click();
-    await page.getByTestId('link-verdict').waitFor();
-    const figures = await page.getByTestId('link-budget-figures').innerText();
+    await e2e.page.getByRole('button', { name: 'Compute link budget' }).click();
+    await e2e.page.getByTestId('link-verdict').waitFor();
+    const figures = await e2e.page.getByTestId('link-budget-figures').innerText();
     // The demo places Millbrook Mill 150 m north and 2100 m east of Granary Tower: about 2.1 km.
     const km = Number(/Distance\s+([\d.]+) km/.exec(figures)?.[1]);
     expect(km).toBeGreaterThan(2.0);
     expect(km).toBeLessThan(2.25);
     expect(figures).toMatch(/Free-space path loss\s+[\d.]+ dB/);
-    expect(await page.getByTestId('link-verdict').innerText()).toMatch(/Closes with margin|Marginal|Will not close/);
-    expect(await page.getByTestId('regulatory-verdict').innerText()).toMatch(/EU limit|not available/);
-    await page.getByTestId('path-profile').locator('svg polygon').waitFor();
-    await screenshot(page, 'link-budget-1280');
+    expect(await e2e.page.getByTestId('link-verdict').innerText()).toMatch(/Closes with margin|Marginal|Will not close/);
+    expect(await e2e.page.getByTestId('regulatory-verdict').innerText()).toMatch(/EU limit|not available/);
+    await e2e.page.getByTestId('path-profile').locator('svg polygon').waitFor();
+    await screenshot(e2e.page, 'link-budget-1280');
 
-    const saved = page.waitForResponse((r) => r.url().endsWith('/api/v1/planning/planned-links') && r.request().method() === 'POST');
-    await page.getByRole('button', { name: 'Save as planned link' }).click();
+    const saved = e2e.page.waitForResponse((r) => r.url().endsWith('/api/v1/planning/planned-links') && r.request().method() === 'POST');
+    await e2e.page.getByRole('button', { name: 'Save as planned link' }).click();
     const response = await saved;
     expect(response.status()).toBe(201);
     const link = (await response.json()).data as { id: number; status: string; nodeAId: number; nodeBId: number };
     expect(link).toMatchObject({ status: 'planned', nodeAId: nodeA, nodeBId: nodeB });
-    await page.getByTestId('saved-link').waitFor();
+    await e2e.page.getByTestId('saved-link').waitFor();
 
-    const topo = await page.request.get(`${server.url}/api/v1/topology`);
+    const topo = await e2e.page.request.get(`${e2e.server.url}/api/v1/topology`);
     const edge = ((await topo.json()).data.links as { id: number; status: string }[]).find((l) => l.id === link.id);
     expect(edge?.status).toBe('planned');
 
-    await page.goto(`${server.url}/topology`);
-    await page.getByTestId(`topology-node-${nodeA}`).waitFor();
-    await page.getByTestId(`topology-node-${nodeB}`).waitFor();
-    const line = page.getByTestId(`topology-link-${link.id}`);
+    await e2e.page.goto(`${e2e.server.url}/topology`);
+    await e2e.page.getByTestId(`topology-node-${nodeA}`).waitFor();
+    await e2e.page.getByTestId(`topology-node-${nodeB}`).waitFor();
+    const line = e2e.page.getByTestId(`topology-link-${link.id}`);
     await line.waitFor({ state: 'attached' });
     expect(await line.getAttribute('stroke-dasharray')).toBeTruthy();
-    await screenshot(page, 'link-budget-saved-on-topology');
+    await screenshot(e2e.page, 'link-budget-saved-on-topology');
   });
 
   const PAGES = [
@@ -82,42 +64,42 @@ describe('planning in the browser', () => {
     ['security', '/planning/security', 'security-radios'],
   ] as const;
   it.each([1280, 375])('shows every planning page to an operator at %i px', async (width) => {
-    await fresh({ width, height: 900 });
-    await signInAs(page, server.url, 'operator@parapet.example');
+    await e2e.fresh({ width, height: 900 });
+    await signInAs(e2e.page, e2e.server.url, 'operator@parapet.example');
     for (const [name, url, testId] of PAGES) {
-      await page.goto(`${server.url}${url}`);
-      await page.getByTestId(testId).waitFor();
+      await e2e.page.goto(`${e2e.server.url}${url}`);
+      await e2e.page.getByTestId(testId).waitFor();
       if (name === 'channels') {
         // A survey uploaded through the page: one bad row is listed with its line, the rest is charted.
-        await page.getByLabel('Node surveyed').selectOption({ index: 1 });
-        await page.getByLabel(/Survey file/).setInputFiles({ name: 'rooftop-scan.csv', mimeType: 'text/csv',
+        await e2e.page.getByLabel('Node surveyed').selectOption({ index: 1 });
+        await e2e.page.getByLabel(/Survey file/).setInputFiles({ name: 'rooftop-scan.csv', mimeType: 'text/csv',
           buffer: Buffer.from('ssid,channel,channelWidthMHz,signalDbm\nBakery Guest,1,20,-48\nLibrary,6,20,-77\nBroken,15,20,-60\n') });
-        await page.getByRole('button', { name: 'Upload survey' }).click();
-        await page.getByText(/Line 4: channel 15 is not a Wi-Fi channel/).waitFor({ timeout: 10_000 }).catch(async (e) => {
-          await screenshot(page, 'debug-upload');
+        await e2e.page.getByRole('button', { name: 'Upload survey' }).click();
+        await e2e.page.getByText(/Line 4: channel 15 is not a Wi-Fi channel/).waitFor({ timeout: 10_000 }).catch(async (e) => {
+          await screenshot(e2e.page, 'debug-upload');
           throw e;
         });
-        await page.getByTestId('congestion-chart').first().waitFor();
+        await e2e.page.getByTestId('congestion-chart').first().waitFor();
       }
-      await screenshot(page, `planning-${name}-${width}`);
+      await screenshot(e2e.page, `planning-${name}-${width}`);
     }
   });
 
   it('shows a provisioning sheet with the key to the neighbourhood’s operator', async () => {
     for (const width of [1280, 375]) {
-      await fresh({ width, height: 900 });
-      await signInAs(page, server.url, 'operator@parapet.example');
-      const nodes = await (await page.request.get(`${server.url}/api/v1/nodes?q=mill&pageSize=5`)).json();
+      await e2e.fresh({ width, height: 900 });
+      await signInAs(e2e.page, e2e.server.url, 'operator@parapet.example');
+      const nodes = await (await e2e.page.request.get(`${e2e.server.url}/api/v1/nodes?q=mill&pageSize=5`)).json();
       const node = (nodes.data as { id: number; name: string }[])[0];
-      await page.goto(`${server.url}/nodes/${node.id}/provisioning`);
-      await page.getByTestId('provisioning-sheet').waitFor();
-      const text = await page.getByTestId('provisioning-sheet').innerText();
+      await e2e.page.goto(`${e2e.server.url}/nodes/${node.id}/provisioning`);
+      await e2e.page.getByTestId('provisioning-sheet').waitFor();
+      const text = await e2e.page.getByTestId('provisioning-sheet').innerText();
       expect(text).toMatch(/RF exposure/);
       expect(text).toMatch(/Report interval/);
       // Millbrook is this operator's neighbourhood: keys are shown, not withheld.
       expect(text).toMatch(/Pre-shared key/);
       expect(text).not.toMatch(/withheld/);
-      await screenshot(page, `planning-provisioning-${width}`);
+      await screenshot(e2e.page, `planning-provisioning-${width}`);
     }
   });
 });

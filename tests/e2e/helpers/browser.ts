@@ -1,6 +1,7 @@
 import fs from 'node:fs';
 import path from 'node:path';
-import { chromium, type Browser, type Page } from 'playwright-core';
+import { chromium, type Browser, type BrowserContext, type Page } from 'playwright-core';
+import { afterAll, beforeAll } from 'vitest';
 import { startServerProcess, type ServerProcess } from '../../../server/tools/serverProcess';
 
 export const DEMO_PASSWORD = process.env.PARAPET_DEMO_PASSWORD ?? 'parapet-demo';
@@ -36,4 +37,33 @@ export async function signInAs(page: Page, baseUrl: string, email: string) {
   await page.getByLabel(/password/i).fill(DEMO_PASSWORD);
   await page.getByRole('button', { name: /sign in/i }).click();
   await page.getByTestId('user-menu').waitFor({ timeout: 15_000 });
+}
+
+export interface E2ESession {
+  server: ServerProcess;
+  browser: Browser;
+  page: Page;
+  /** A new browser context (fresh cookies) and page, at the given size. */
+  fresh: (viewport?: { width: number; height: number }) => Promise<Page>;
+}
+
+/** One server and one browser for a test file, started before its tests and stopped after them. */
+export function useE2E(extraEnv: Record<string, string> = {}): E2ESession {
+  let context: BrowserContext | null = null;
+  const session = {
+    async fresh(viewport = { width: 1280, height: 900 }) {
+      await context?.close();
+      context = await session.browser.newContext({ viewport });
+      session.page = await context.newPage();
+      return session.page;
+    },
+  } as E2ESession;
+  beforeAll(async () => {
+    [session.server, session.browser] = await Promise.all([startE2EServer(extraEnv), launchBrowser()]);
+  });
+  afterAll(async () => {
+    await session.browser?.close();
+    await session.server?.stop();
+  });
+  return session;
 }
