@@ -101,6 +101,11 @@ describe('blast radius on the topology', () => {
     await page.goto(`${server.url}/outages?status=open`);
     await page.getByText(`${LEAVES.length} nodes cut off behind it`).first().waitFor({ timeout: 10_000 });
     await screenshot(page, 'blast-radius-outages');
+
+    // The overview lists the open outage with what sits behind it.
+    await page.goto(`${server.url}/`);
+    await page.getByTestId('overview-open-outages').getByText(`${LEAVES.length} nodes cut off behind it`).waitFor({ timeout: 10_000 });
+    await screenshot(page, 'blast-radius-overview');
     await context.close();
   }, 150_000);
 });

@@ -19,6 +19,9 @@ export interface OpenOutage {
   neighbourhoodId: number;
   startedAt: string;
   acknowledged: boolean;
+  /** Nodes cut off behind this outage, and the clients they were serving at their last report. */
+  blastNodeCount?: number;
+  blastClients?: number;
 }
 
 export interface DriftNode {

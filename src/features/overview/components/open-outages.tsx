@@ -4,7 +4,7 @@ import { formatDateTime, formatDuration } from '../../../lib/format';
 import { paths } from '../../../lib/paths';
 import type { OpenOutage } from '../api/overview';
 
-/** The nodes down right now, longest first, each with a way to its page. */
+/** The nodes down right now, widest blast radius first (the server's order), each with a way to its page. */
 export function OpenOutages({ outages }: { outages: OpenOutage[] }) {
   if (outages.length === 0) return <EmptyState title="No open outages">Every node you look after is reporting or was never set up.</EmptyState>;
   const now = Date.now();
@@ -18,6 +18,12 @@ export function OpenOutages({ outages }: { outages: OpenOutage[] }) {
           <span className="text-muted">
             down {formatDuration((now - Date.parse(outage.startedAt)) / 1000)}, since <time dateTime={outage.startedAt}>{formatDateTime(outage.startedAt)}</time>
           </span>
+          {(outage.blastNodeCount ?? 0) > 0 && (
+            <span data-testid={`blast-radius-${outage.id}`} className="font-medium">
+              {outage.blastNodeCount} {outage.blastNodeCount === 1 ? 'node' : 'nodes'} cut off behind it
+              {(outage.blastClients ?? 0) > 0 && `, ${outage.blastClients} ${outage.blastClients === 1 ? 'client' : 'clients'}`}
+            </span>
+          )}
           <span className={outage.acknowledged ? 'text-muted' : 'font-medium'}>{outage.acknowledged ? 'Acknowledged' : 'Not acknowledged'}</span>
         </li>
       ))}
