@@ -1,14 +1,29 @@
 import { Router } from 'express';
-import { col, fn, literal } from 'sequelize';
+import { Op, col, fn, literal } from 'sequelize';
 import { NODE_STATES, type NodeState } from '../../shared/enums';
 import { actorOf } from '../middlewares/requireUser';
-import { Op } from 'sequelize';
 import { Neighbourhood, Node, Outage, Site } from '../models';
 import { neighbourhoodScope } from '../policies/neighbourhood';
 import { nodeScope } from '../policies/node';
 import { siteScope } from '../policies/site';
+import { linksWithPrediction } from '../services/topologyGraph';
 
 const sequelizeJsonNotEmpty = () => literal("jsonb_array_length(coalesce(\"Node\".\"drift\", '[]'::jsonb)) > 0");
+
+/** The five live links with the least predicted fade margin among the nodes the caller may read. */
+async function weakest(actor: Parameters<typeof nodeScope>[0]) {
+  const nodes = await Node.findAll({ where: nodeScope(actor), attributes: ['id', 'name'] });
+  const names = new Map(nodes.map((n) => [n.id, n.name]));
+  const links = await linksWithPrediction(Node.sequelize!, [...names.keys()]);
+  return links
+    .filter((l) => l.status === 'live' && l.fadeMarginDb !== null)
+    .sort((a, b) => a.fadeMarginDb! - b.fadeMarginDb! || a.id - b.id)
+    .slice(0, 5)
+    .map((l) => ({
+      id: l.id, nodeAId: l.nodeAId, nodeAName: names.get(l.nodeAId)!, nodeBId: l.nodeBId, nodeBName: names.get(l.nodeBId)!,
+      fadeMarginDb: l.fadeMarginDb, predictedSignalDbm: l.predictedSignalDbm, measuredSignalDbm: l.measuredSignalDbm,
+    }));
+}
 
 /** Counts by state, open outages (widest blast radius first) and drifting nodes, over what the caller may read. */
 export function overviewRoutes() {
@@ -29,7 +44,8 @@ export function overviewRoutes() {
     const nodeCount = Object.values(countsByState).reduce((a, b) => a + b, 0);
     const openOutages = open.map((o) => ({ id: o.id, nodeId: o.nodeId, nodeName: o.node!.name, neighbourhoodId: o.node!.neighbourhoodId, startedAt: o.startedAt.toISOString(), acknowledged: Boolean(o.acknowledgedAt), blastNodeCount: o.blastNodeCount, blastClients: o.blastClients }));
     const driftNodes = drifting.map((n) => ({ id: n.id, name: n.name, drift: n.drift ?? [] }));
-    res.json({ data: { countsByState, nodeCount, siteCount, neighbourhoodCount, openOutages, driftNodes } });
+    const weakestLinks = actor.role === 'host' ? [] : await weakest(actor);
+    res.json({ data: { countsByState, nodeCount, siteCount, neighbourhoodCount, openOutages, driftNodes, weakestLinks } });
   });
   return router;
 }

@@ -3,6 +3,7 @@ import { PageHeader, Section } from '../components/page-header';
 import { LoadError, Loading } from '../components/query-state';
 import { useOverview } from '../features/overview/api/overview';
 import { DriftNodes } from '../features/overview/components/drift-nodes';
+import { WeakestLinks } from '../features/overview/components/weakest-links';
 import { OpenOutages } from '../features/overview/components/open-outages';
 import { StateCounts } from '../features/overview/components/state-counts';
 import { Totals } from '../features/overview/components/totals';
@@ -51,6 +52,11 @@ export function OverviewPage() {
             <Section title="Nodes that drift from the inventory">
               <DriftNodes nodes={overview.data.driftNodes} />
             </Section>
+            {overview.data.weakestLinks.length > 0 && (
+              <Section title="Weakest links">
+                <WeakestLinks links={overview.data.weakestLinks} />
+              </Section>
+            )}
           </div>
         </>
       )}

@@ -2,7 +2,7 @@ import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import type { NodeState } from '../../shared/enums';
 import { buildUser, signIn, truncateAll, useApi } from '../helpers/api';
-import { buildNeighbourhood, buildNode, buildSite } from '../helpers/factories';
+import { buildLink, buildNeighbourhood, buildNode, buildRadio, buildSite } from '../helpers/factories';
 
 const NO_NODES: Record<NodeState, number> = { online: 0, degraded: 0, offline: 0, maintenance: 0, unknown: 0, stranded: 0 };
 
@@ -45,6 +45,7 @@ describe('overview API', () => {
         neighbourhoodCount: 2,
         openOutages: [],
         driftNodes: [{ id: drifting.id, name: 'ridge-b', drift: [{ field: 'channel', expected: 36, reported: 40 }] }],
+        weakestLinks: [],
       },
     });
   });
@@ -59,19 +60,46 @@ describe('overview API', () => {
       neighbourhoodCount: 1,
       openOutages: [],
       driftNodes: [],
+      weakestLinks: [],
     });
   });
 
   it('counts only what a host hosts', async () => {
     const { host } = await twoNeighbourhoods();
     const res = await (await signIn(ctx, host)).get('/api/v1/overview');
-    expect(res.body.data).toEqual({ countsByState: { ...NO_NODES, online: 1 }, nodeCount: 1, siteCount: 1, neighbourhoodCount: 1, openOutages: [], driftNodes: [] });
+    expect(res.body.data).toEqual({ countsByState: { ...NO_NODES, online: 1 }, nodeCount: 1, siteCount: 1, neighbourhoodCount: 1, openOutages: [], driftNodes: [], weakestLinks: [] });
   });
 
   it('shows all zeros to a host who hosts nothing, and ignores stray query parameters', async () => {
     await twoNeighbourhoods();
     const res = await (await signIn(ctx, await buildUser({ role: 'host' }))).get('/api/v1/overview?neighbourhoodId=1');
     expect(res.status).toBe(200);
-    expect(res.body.data).toEqual({ countsByState: NO_NODES, nodeCount: 0, siteCount: 0, neighbourhoodCount: 0, openOutages: [], driftNodes: [] });
+    expect(res.body.data).toEqual({ countsByState: NO_NODES, nodeCount: 0, siteCount: 0, neighbourhoodCount: 0, openOutages: [], driftNodes: [], weakestLinks: [] });
+  });
+
+  it('ranks live links by predicted fade margin, thinnest first, only among readable nodes', async () => {
+    await truncateAll(ctx.sequelize);
+    const operator = await buildUser({ role: 'operator' });
+    const hood = await buildNeighbourhood({ operators: [operator] });
+    const near = await buildSite({ neighbourhoodId: hood.id, latitude: 47.6, longitude: -38.4 });
+    const mid = await buildSite({ neighbourhoodId: hood.id, latitude: 47.61, longitude: -38.4 });
+    const far = await buildSite({ neighbourhoodId: hood.id, latitude: 47.65, longitude: -38.4 });
+    const [a, b, c] = await Promise.all([near, mid, far].map((s) => buildNode({ siteId: s.id })));
+    const [ra, rb, rc, ra2] = await Promise.all([buildRadio({ nodeId: a.id }), buildRadio({ nodeId: b.id }), buildRadio({ nodeId: c.id }), buildRadio({ nodeId: a.id, iface: 'wlan1' })]);
+    const short = await buildLink({ radioAId: ra.id, radioBId: rb.id });
+    const long = await buildLink({ radioAId: ra2.id, radioBId: rc.id });
+    await short.update({ status: 'live' });
+    await long.update({ status: 'live' });
+    const otherHood = await buildNeighbourhood();
+    const [x, y] = await Promise.all([buildNode({ neighbourhoodId: otherHood.id }), buildNode({ neighbourhoodId: otherHood.id })]);
+    const hidden = await buildLink({ radioAId: (await buildRadio({ nodeId: x.id })).id, radioBId: (await buildRadio({ nodeId: y.id })).id });
+    await hidden.update({ status: 'live' });
+
+    const res = await (await signIn(ctx, operator)).get('/api/v1/overview');
+    const weakest = res.body.data.weakestLinks as { id: number; fadeMarginDb: number }[];
+    // Free-space loss grows with distance (ITU-R P.525), so the 5.6 km link has less margin than the 1.1 km one.
+    expect(weakest.map((l) => l.id)).toEqual([long.id, short.id]);
+    expect(weakest[0].fadeMarginDb).toBeLessThan(weakest[1].fadeMarginDb);
+    expect(weakest[1].fadeMarginDb - weakest[0].fadeMarginDb).toBeCloseTo(20 * Math.log10(5.56 / 1.11), 0);
   });
 });

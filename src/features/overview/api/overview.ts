@@ -10,6 +10,18 @@ export interface Overview {
   neighbourhoodCount: number;
   openOutages: OpenOutage[];
   driftNodes: DriftNode[];
+  weakestLinks: WeakLink[];
+}
+
+export interface WeakLink {
+  id: number;
+  nodeAId: number;
+  nodeAName: string;
+  nodeBId: number;
+  nodeBName: string;
+  fadeMarginDb: number;
+  predictedSignalDbm: number | null;
+  measuredSignalDbm: number | null;
 }
 
 export interface OpenOutage {
