@@ -1,21 +1,14 @@
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { Neighbourhood } from '../../server/models';
-import { buildUser, call, signIn, useApi } from '../helpers/api';
-import { buildNeighbourhood, buildNode, buildSite } from '../helpers/factories';
+import { buildUser, call, ids, SIGNED_OUT, signIn, useApi } from '../helpers/api';
+import { buildNeighbourhood, buildNode, buildOperatorWithHood, buildSite } from '../helpers/factories';
 
-const SIGNED_OUT = { code: 'not_signed_in', message: 'Sign in to continue.' };
-const ids = (body: { data: { id: number }[] }) => body.data.map((r) => r.id);
 
 describe('neighbourhoods API', () => {
   const ctx = useApi();
   const admin = async () => signIn(ctx, await buildUser({ role: 'admin' }));
-  /** An operator assigned to a fresh neighbourhood. */
-  async function operatorWithHood() {
-    const user = await buildUser({ role: 'operator' });
-    const hood = await buildNeighbourhood({ operators: [user] });
-    return { user, hood, agent: await signIn(ctx, user) };
-  }
+  const operatorWithHood = () => buildOperatorWithHood(ctx);
 
   describe('signed out', () => {
     it.each([

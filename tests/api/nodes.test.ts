@@ -1,13 +1,11 @@
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { Node, Radio } from '../../server/models';
-import { buildUser, call, signIn, useApi } from '../helpers/api';
+import { buildUser, call, ids, SIGNED_OUT, signIn, useApi } from '../helpers/api';
 import { buildNeighbourhood, buildNode, buildRadio, buildSite } from '../helpers/factories';
 
-const SIGNED_OUT = { code: 'not_signed_in', message: 'Sign in to continue.' };
 const MANAGE = 'Only admins and the operators of its neighbourhood change this node.';
 const UPLINK = 'Only admins mark which nodes carry the uplink.';
-const ids = (body: { data: { id: number }[] }) => body.data.map((r) => r.id);
 
 describe('nodes API', () => {
   const ctx = useApi();

@@ -1,14 +1,12 @@
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { Radio } from '../../server/models';
-import { buildUser, call, signIn, useApi } from '../helpers/api';
+import { buildUser, call, ids, SIGNED_OUT, signIn, useApi } from '../helpers/api';
 import { buildLink, buildNeighbourhood, buildNode, buildRadio, buildSite } from '../helpers/factories';
 
-const SIGNED_OUT = { code: 'not_signed_in', message: 'Sign in to continue.' };
 const MANAGE = 'Only admins and the operators of its neighbourhood change this radio.';
 const BAND_CHANNEL = 'channel must be 1–14 on 2.4 GHz or 32 and above on 5 GHz';
 const PSK = 'harbour-lights-7731-secret';
-const ids = (body: { data: { id: number }[] }) => body.data.map((r) => r.id);
 const validRadio = (nodeId: number, overrides: Record<string, unknown> = {}) => ({
   nodeId,
   iface: 'wlan1',

@@ -1,10 +1,9 @@
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { OperatorAssignment, Site } from '../../server/models';
-import { buildUser, call, signIn, useApi, type Agent } from '../helpers/api';
-import { buildNeighbourhood, buildNode, buildSite } from '../helpers/factories';
+import { buildUser, call, ids, SIGNED_OUT, signIn, type Agent, useApi } from '../helpers/api';
+import { buildNeighbourhood, buildNode, buildOperatorWithHood, buildSite } from '../helpers/factories';
 
-const SIGNED_OUT = { code: 'not_signed_in', message: 'Sign in to continue.' };
 const validSite = (neighbourhoodId: number, overrides: Record<string, unknown> = {}) => ({
   name: 'Granary Roof',
   neighbourhoodId,
@@ -22,11 +21,7 @@ describe('sites API', () => {
     return signIn(ctx, await buildUser({ role: 'admin' }));
   }
   /** An operator assigned to a fresh neighbourhood, with that neighbourhood. */
-  async function operatorWithHood() {
-    const user = await buildUser({ role: 'operator' });
-    const hood = await buildNeighbourhood({ operators: [user] });
-    return { user, hood, agent: await signIn(ctx, user) };
-  }
+  const operatorWithHood = () => buildOperatorWithHood(ctx);
   /** A site in a fresh neighbourhood, hosted by a person with a phone. */
   async function hostedSite() {
     const host = await buildUser({ role: 'host', phone: '+00 555 0101' });

@@ -1,13 +1,11 @@
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { OperatorAssignment, User } from '../../server/models';
-import { buildUser, call, signIn, unique, useApi } from '../helpers/api';
+import { buildUser, call, ids, SIGNED_OUT, signIn, unique, useApi } from '../helpers/api';
 import { buildNeighbourhood } from '../helpers/factories';
 
-const SIGNED_OUT = { code: 'not_signed_in', message: 'Sign in to continue.' };
 const ADMINS_ONLY = { code: 'forbidden', message: 'Only admins manage people.' };
 const NEW_PASSWORD = 'lantern-harbour-quiet-tide';
-const ids = (body: { data: { id: number }[] }) => body.data.map((r) => r.id);
 const newPerson = (overrides: Record<string, unknown> = {}) => ({
   email: `${unique('ines')}@example.test`,
   name: 'Ines Marlow',

@@ -80,3 +80,9 @@ export function call(agent: Agent | ReturnType<typeof request>, method: Method, 
   if ('csrf' in agent && method !== 'get') req.set('X-CSRF-Token', (agent as Agent).csrf);
   return body === undefined ? req : req.send(body as object);
 }
+
+/** The 401 body every signed-out call gets. */
+export const SIGNED_OUT = { code: 'not_signed_in', message: 'Sign in to continue.' };
+
+/** The ids of a list answer, in order. */
+export const ids = (body: { data: { id: number }[] }) => body.data.map((r) => r.id);

@@ -1,5 +1,5 @@
 import { Link, Neighbourhood, Node, OperatorAssignment, Radio, Site, type User } from '../../server/models';
-import { unique } from './api';
+import { buildUser, signIn, unique, type TestContext } from './api';
 
 export async function buildNeighbourhood(overrides: Partial<{ name: string; operators: User[] }> = {}) {
   const n = await Neighbourhood.create({ name: overrides.name ?? unique('Hood') });
@@ -51,4 +51,11 @@ export async function buildLink(overrides: Partial<{ radioAId: number; radioBId:
   const a = overrides.radioAId ?? (await buildRadio({ neighbourhoodId: overrides.neighbourhoodId })).id;
   const b = overrides.radioBId ?? (await buildRadio({ neighbourhoodId: overrides.neighbourhoodId })).id;
   return Link.create({ radioAId: a, radioBId: b, status: 'planned' });
+}
+
+/** An operator assigned to a fresh neighbourhood, signed in. */
+export async function buildOperatorWithHood(ctx: TestContext) {
+  const user = await buildUser({ role: 'operator' });
+  const hood = await buildNeighbourhood({ operators: [user] });
+  return { user, hood, agent: await signIn(ctx, user) };
 }
