@@ -127,10 +127,10 @@ export function createApp({ config, sequelize }: AppContext) {
   api.use('/history', requireUser, historyRoutes(sequelize));
   api.use('/neighbourhoods/:id', requireUser, neighbourhoodMemberRoutes(config, sequelize));
   api.use('/neighbourhoods', requireUser, neighbourhoodRoutes());
-  api.use('/sites/:id/photos', requireUser, sitePhotoRoutes(sequelize));
+  api.use('/sites/:id/photos', requireUser, sitePhotoRoutes(sequelize, config));
   api.use('/sites', requireUser, siteRoutes());
-  api.use('/photos', requireUser, photoRoutes(sequelize));
-  api.use('/imports', requireUser, importRoutes(sequelize));
+  api.use('/photos', requireUser, photoRoutes(sequelize, config));
+  api.use('/imports', requireUser, importRoutes(sequelize, config));
   api.use('/exports', requireUser, exportRoutes(sequelize));
   api.use('/reports', requireUser, reportRoutes(config, sequelize));
   api.use('/nodes/:id/ingest-token', requireUser, ingestTokenRoutes(config, sequelize));

@@ -43,6 +43,11 @@ const envSchema = z.object({
   CLIENT_DIST: z.string().default('dist'),
   PARAPET_DEMO_PASSWORD: z.string().default('parapet-demo'),
   LOG_REQUESTS: bool.default(false),
+  PUBLIC_STATUS_CACHE_S: z.coerce.number().int().min(0).max(3600).default(30),
+  DATA_DIR: z.string().min(1).default('.data/uploads'),
+  PHOTO_MAX_BYTES: z.coerce.number().int().min(1024).default(8 * 1024 * 1024),
+  CSV_IMPORT_MAX_BYTES: z.coerce.number().int().min(1024).default(2 * 1024 * 1024),
+  CSV_IMPORT_MAX_ROWS: z.coerce.number().int().min(1).default(5000),
   INGEST_RATE_LIMIT_PER_MIN: z.coerce.number().int().min(1).default(120),
   INGEST_BODY_LIMIT: z.string().default('64kb'),
   HEALTH_CHECK_INTERVAL_MS: z.coerce.number().int().min(50).default(10_000),
@@ -99,6 +104,13 @@ export interface Config {
   clientDist: string;
   demoPassword: string;
   logRequests: boolean;
+  /** Seconds one computation of the public status page is served to everyone. */
+  publicStatusCacheS: number;
+  /** Where uploaded files live (photos under `photos/`). */
+  dataDir: string;
+  photoMaxBytes: number;
+  csvImportMaxBytes: number;
+  csvImportMaxRows: number;
   ingestRateLimitPerMin: number;
   ingestBodyLimit: string;
   /** How often the silence check, roll-ups and partition upkeep run. */
@@ -162,6 +174,11 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     clientDist: e.CLIENT_DIST,
     demoPassword: e.PARAPET_DEMO_PASSWORD,
     logRequests: e.LOG_REQUESTS,
+    publicStatusCacheS: e.PUBLIC_STATUS_CACHE_S,
+    dataDir: e.DATA_DIR,
+    photoMaxBytes: e.PHOTO_MAX_BYTES,
+    csvImportMaxBytes: e.CSV_IMPORT_MAX_BYTES,
+    csvImportMaxRows: e.CSV_IMPORT_MAX_ROWS,
     ingestRateLimitPerMin: e.INGEST_RATE_LIMIT_PER_MIN,
     ingestBodyLimit: e.INGEST_BODY_LIMIT,
     healthCheckIntervalMs: e.HEALTH_CHECK_INTERVAL_MS,

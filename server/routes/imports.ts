@@ -2,7 +2,7 @@ import { Router } from 'express';
 import type { Sequelize } from 'sequelize';
 import { z } from 'zod';
 import { IMPORT_KINDS, importQuerySchema, type ImportKind } from '../../shared/schemas/csvImport';
-import { loadFeatureSettings, type FeatureSettings } from '../featureSettings';
+import type { Config } from '../config';
 import { actorOf } from '../middlewares/requireUser';
 import { requireFile, singleUpload } from '../middlewares/upload';
 import { validate } from '../middlewares/validate';
@@ -13,7 +13,7 @@ import { checkImport, commitImport } from '../services/csvImport';
 const kindParamsSchema = z.object({ kind: z.enum(IMPORT_KINDS, { error: `must be one of ${IMPORT_KINDS.join(', ')}` }) });
 
 /** Mounted at /imports: CSV files of sites or nodes, previewed with ?dryRun=true, else committed whole. */
-export function importRoutes(sequelize: Sequelize, settings: FeatureSettings = loadFeatureSettings()) {
+export function importRoutes(sequelize: Sequelize, settings: Config) {
   const router = Router();
   const upload = singleUpload('file', settings.csvImportMaxBytes, 'CSV file');
 

@@ -3,7 +3,7 @@ import type { Sequelize } from 'sequelize';
 import { idParamsSchema } from '../../shared/schemas/common';
 import { photoCaptionSchema } from '../../shared/schemas/photo';
 import { NotFound } from '../errors';
-import { loadFeatureSettings, type FeatureSettings } from '../featureSettings';
+import type { Config } from '../config';
 import { actorOf } from '../middlewares/requireUser';
 import { requireFile, singleUpload } from '../middlewares/upload';
 import { parseOrThrow, validate } from '../middlewares/validate';
@@ -18,7 +18,7 @@ import { readableSite } from '../services/references';
 const EXT = { 'image/jpeg': 'jpg', 'image/png': 'png', 'image/webp': 'webp' } as const;
 
 /** Mounted at /sites/:id/photos: the list and uploads of one site's install photos. */
-export function sitePhotoRoutes(sequelize: Sequelize, settings: FeatureSettings = loadFeatureSettings()) {
+export function sitePhotoRoutes(sequelize: Sequelize, settings: Config) {
   usePhotoModel(sequelize);
   const store = photoStore(settings.dataDir);
   const router = Router({ mergeParams: true });
@@ -56,7 +56,7 @@ export function sitePhotoRoutes(sequelize: Sequelize, settings: FeatureSettings 
 }
 
 /** Mounted at /photos: one photo's file, thumbnail and removal, read through its site's scope. */
-export function photoRoutes(sequelize: Sequelize, settings: FeatureSettings = loadFeatureSettings()) {
+export function photoRoutes(sequelize: Sequelize, settings: Config) {
   usePhotoModel(sequelize);
   const store = photoStore(settings.dataDir);
   const router = Router();
