@@ -1,5 +1,7 @@
 import { Router } from 'express';
 
+import type { Band } from '../../shared/enums';
+import { channelProblem } from '../../shared/radio/channels';
 import { idParamsSchema } from '../../shared/schemas/common';
 import { radioCreateSchema, radioListQuerySchema, radioUpdateSchema } from '../../shared/schemas/radio';
 import { Invalid, NotFound } from '../errors';
@@ -23,10 +25,13 @@ export async function readableRadio(actor: Actor, id: number) {
   return r;
 }
 
-/** The band and channel must agree after a partial update too. */
-function checkBandChannel(band: string, channel: number) {
-  const ok = band === '2.4' ? channel >= 1 && channel <= 14 : channel >= 32;
-  if (!ok) throw Invalid('The channel does not fit the band.', [{ path: 'channel', message: 'channel must be 1–14 on 2.4 GHz or 32 and above on 5 GHz' }]);
+/** Band, channel and width must agree after a partial update too (one rule: shared/radio/channels.ts). */
+function checkBandChannel(band: Band, channel: number, channelWidthMHz: number) {
+  const problem = channelProblem(band, channel, channelWidthMHz);
+  if (!problem) return;
+  const sentence = problem.field === 'channel' ? 'The channel does not fit the band.' : 'The channel width does not fit the band.';
+  const message = `${problem.field} ${problem.message}`;
+  throw Invalid(problem.message.startsWith('must be 1–14') ? sentence : `${sentence} ${message[0].toUpperCase()}${message.slice(1)}.`, [{ path: problem.field, message }]);
 }
 
 const duplicateIface = (iface: string) => `That node already has a radio on interface ${iface}. Choose another interface name.`;
@@ -75,7 +80,7 @@ export function radioRoutes() {
       const target = await readableNode(actor, body.nodeId);
       authorize(mayManage(actor, target.neighbourhoodId), 'You cannot move a radio to a node you do not operate.');
     }
-    checkBandChannel(body.band ?? r.band, body.channel ?? r.channel);
+    checkBandChannel(body.band ?? r.band, body.channel ?? r.channel, body.channelWidthMHz ?? r.channelWidthMHz);
     await uniquely(() => r.update(body), duplicateIface(body.iface ?? r.iface));
     const fresh = await readableRadio(actor, r.id);
     res.json({ data: presentRadio(fresh, fresh.node!.neighbourhoodId, actor) });

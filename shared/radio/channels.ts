@@ -106,3 +106,69 @@ export function occupiedSpan(band: Band, channel: number, widthMHz: 20 | 40 | 80
   const channels = range(first, first + perBlock - 4, 4);
   return { centerMHz: channelCenterMHz(band, first) + widthMHz / 2 - 10, widthMHz, channels };
 }
+
+/** Every region with a channel table here; a stored radio is checked against all of them (its network's region may change). */
+const ANY_REGION: readonly ChannelRegion[] = CHANNEL_REGIONS;
+
+function blockFits(band: Band, channel: number, widthMHz: 20 | 40 | 80, allowed: Set<number>): boolean {
+  if (band === '2.4' && (widthMHz === 80 || (widthMHz === 40 && channel === 14))) return false;
+  try {
+    return occupiedSpan(band, channel, widthMHz).channels.every((c) => allowed.has(c));
+  } catch {
+    return false;
+  }
+}
+
+/**
+ * Primary channels usable at a width: every 20 MHz channel of the block (IEEE 802.11 fixed bonding on 5 GHz)
+ * must be allowed in the region. Without a region, the channels usable in any region listed here (US, EU, JP).
+ * The one home of the rule: radio schemas, the planning forms and the channel plan all call it.
+ */
+export function validChannels(band: Band, widthMHz: 20 | 40 | 80, region?: ChannelRegion): number[] {
+  const regions = region ? [region] : ANY_REGION;
+  const out = new Set<number>();
+  for (const r of regions) {
+    const allowed = new Set(allowedChannelNumbers(r, band));
+    for (const ch of allowed) if (blockFits(band, ch, widthMHz, allowed)) out.add(ch);
+  }
+  return [...out].sort((x, y) => x - y);
+}
+
+/** Ranges like "36–64, 100–144, 149–165" for a sorted list of channel numbers stepping by `step`. */
+function describeRanges(list: number[], step: number): string {
+  const parts: string[] = [];
+  let start = list[0];
+  for (let i = 1; i <= list.length; i++) {
+    if (i === list.length || list[i] !== list[i - 1] + step) {
+      parts.push(start === list[i - 1] ? String(start) : `${start}–${list[i - 1]}`);
+      start = list[i];
+    }
+  }
+  return parts.join(', ') + (step === 4 ? ' in steps of 4' : '');
+}
+
+export interface ChannelProblem {
+  field: 'channel' | 'channelWidthMHz';
+  /** Without the field's name, so the validator can prefix its path. */
+  message: string;
+}
+
+/** Why a band/channel/width combination cannot be set on a radio, or null when it can. */
+export function channelProblem(band: Band, channel: number, widthMHz: number, region?: ChannelRegion): ChannelProblem | null {
+  if (band === '2.4' && widthMHz === 80) {
+    return { field: 'channelWidthMHz', message: 'must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' };
+  }
+  if (widthMHz !== 20 && widthMHz !== 40 && widthMHz !== 80) return { field: 'channelWidthMHz', message: 'must be one of 20, 40, 80' };
+  if (band === '2.4' ? channel < 1 || channel > 14 : channel < 32) {
+    return { field: 'channel', message: 'must be 1–14 on 2.4 GHz or 32 and above on 5 GHz' };
+  }
+  const ok = validChannels(band, widthMHz, region);
+  if (ok.includes(channel)) return null;
+  const where = region ? ` in ${region}` : '';
+  if (widthMHz === 20 || !validChannels(band, 20, region).includes(channel)) {
+    const list = validChannels(band, 20, region);
+    return { field: 'channel', message: `must be a ${band} GHz channel on the IEEE 802.11 raster${where}: ${describeRanges(list, band === '5' ? 4 : 1)}` };
+  }
+  const block = band === '2.4' && channel === 14 ? 'channel 14 cannot be bonded' : `its ${widthMHz} MHz block runs outside the allowed channels${where}`;
+  return { field: 'channel', message: `cannot be used at ${widthMHz} MHz (${block}); use one of ${describeRanges(ok, band === '5' ? 4 : 1)}` };
+}

@@ -3,6 +3,7 @@ import { parseIpv4 } from '../addressing/cidr';
 import { BANDS, CHANNEL_WIDTHS_MHZ, RADIO_ROLES } from '../enums';
 import { idSchema } from './common';
 import { cidrSchema } from './planning';
+import { checkChannelFields } from './radio';
 
 const oneOf = (values: readonly (string | number)[]) => `must be one of ${values.join(', ')}`;
 const ipv4Schema = z.string({ error: 'must be an IPv4 address like 10.64.1.1' }).trim().refine((t) => parseIpv4(t) !== null, 'must be an IPv4 address like 10.64.1.1 (four numbers 0–255, no leading zeros)');
@@ -46,7 +47,7 @@ const newRadioSchema = z.object({
   antennaGainDbi: z.number({ error: 'must be a number' }).min(-10, 'must be at least -10 dBi').max(45, 'must be at most 45 dBi'),
   cableLossDb: z.number({ error: 'must be a number' }).min(0, 'must be 0 dB or more').max(30, 'must be at most 30 dB').default(0),
   role: z.enum(RADIO_ROLES, { error: oneOf(RADIO_ROLES) }).default('backhaul-ap'),
-});
+}).superRefine(checkChannelFields);
 const linkEndSchema = z.union([z.object({ radioId: idSchema }).strict(), newRadioSchema], {
   error: 'must name an inventory radio ({radioId}) or a new radio ({nodeId, band, channel, channelWidthMHz, txPowerDbm, antennaGainDbi})',
 });

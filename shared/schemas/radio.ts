@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { BANDS, CHANNEL_WIDTHS_MHZ, ENCRYPTIONS, POLARISATIONS, RADIO_ROLES } from '../enums';
+import { channelProblem } from '../radio/channels';
 import { idSchema, listQuerySchema } from './common';
 
 const oneOf = (values: readonly string[]) => `must be one of ${values.join(', ')}`;
@@ -43,15 +44,23 @@ export const radioBaseSchema = z.object({
   groupRekeyS: radioFields.groupRekeyS.default(600),
 });
 
-function channelFitsBand(r: { band?: string; channel?: number }): boolean {
-  if (r.band === undefined || r.channel === undefined) return true;
-  return r.band === '2.4' ? r.channel >= 1 && r.channel <= 14 : r.channel >= 32;
+/**
+ * Band, channel and width must agree (shared/radio/channels.ts channelProblem): on the IEEE 802.11 raster, a whole
+ * bonding block, no 80 MHz on 2.4 GHz. A partial update is checked here with what it sends and in the route with
+ * the stored values merged in.
+ */
+export function checkChannelFields(r: { band?: string; channel?: number; channelWidthMHz?: number }, ctx: z.RefinementCtx) {
+  if ((r.band !== '2.4' && r.band !== '5') || r.channel === undefined) return;
+  const problem = channelProblem(r.band, r.channel, r.channelWidthMHz ?? 20);
+  // A width that was not sent cannot be at fault; the route checks it against the stored one.
+  if (!problem || (r.channelWidthMHz === undefined && problem.field === 'channelWidthMHz')) return;
+  if (r.channelWidthMHz === undefined && problem.message.startsWith('cannot be used at')) return;
+  ctx.addIssue({ code: 'custom', path: [problem.field], message: problem.message });
 }
-const channelBandMessage = { message: 'must be 1–14 on 2.4 GHz or 32 and above on 5 GHz', path: ['channel'] };
 
-export const radioCreateSchema = radioBaseSchema.refine(channelFitsBand, channelBandMessage);
+export const radioCreateSchema = radioBaseSchema.superRefine(checkChannelFields);
 // Without defaults: zod fills defaults inside optional fields, which would reset what a partial update leaves out.
-export const radioUpdateSchema = z.object(radioFields).partial().refine(channelFitsBand, channelBandMessage);
+export const radioUpdateSchema = z.object(radioFields).partial().superRefine(checkChannelFields);
 export const radioListQuerySchema = listQuerySchema.extend({
   nodeId: idSchema.optional(),
   band: z.enum(BANDS, { error: oneOf(BANDS) }).optional(),

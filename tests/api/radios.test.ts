@@ -88,6 +88,35 @@ describe('radios API', () => {
       expect((await Radio.findByPk(radio.id))!.band).toBe('5');
     });
 
+    it.each([33, 70, 196])('refuses 5 GHz channel %i, off the IEEE 802.11 raster, and stores nothing', async (channel) => {
+      const node = await buildNode();
+      const res = await call(await admin(), 'post', '/api/v1/radios', validRadio(node.id, { channel, channelWidthMHz: 20 }));
+      expect(res.status).toBe(400);
+      expect(res.body.error.details).toEqual([{ path: 'channel', message: 'channel must be a 5 GHz channel on the IEEE 802.11 raster: 36–64, 100–144, 149–165 in steps of 4' }]);
+      expect(await Radio.count({ where: { nodeId: node.id } })).toBe(0);
+    });
+
+    it('refuses 80 MHz on 2.4 GHz, naming channelWidthMHz, on create and on an update that changes only the band', async () => {
+      const node = await buildNode();
+      const agent = await admin();
+      const res = await call(agent, 'post', '/api/v1/radios', validRadio(node.id, { band: '2.4', channel: 6, channelWidthMHz: 80 }));
+      expect(res.status).toBe(400);
+      expect(res.body.error.details).toEqual([{ path: 'channelWidthMHz', message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' }]);
+      const wide = await call(agent, 'post', '/api/v1/radios', validRadio(node.id, { channel: 36, channelWidthMHz: 80 }));
+      expect(wide.status).toBe(201);
+      const moved = await call(agent, 'patch', `/api/v1/radios/${wide.body.data.id}`, { band: '2.4', channel: 6 });
+      expect(moved.status).toBe(400);
+      expect(moved.body.error.details).toEqual([{ path: 'channelWidthMHz', message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' }]);
+      expect((await Radio.findByPk(wide.body.data.id))!.band).toBe('5');
+    });
+
+    it('refuses a 40 MHz radio on channel 165, whose bonding partner 169 is not a channel here', async () => {
+      const node = await buildNode();
+      const res = await call(await admin(), 'post', '/api/v1/radios', validRadio(node.id, { channel: 165, channelWidthMHz: 40 }));
+      expect(res.status).toBe(400);
+      expect(res.body.error.details[0]).toEqual({ path: 'channel', message: expect.stringMatching(/^channel cannot be used at 40 MHz/) });
+    });
+
     it.each(['get', 'patch', 'delete'] as const)('answers 400 to %s with a non-numeric id in the path', async (method) => {
       const res = await call(await admin(), method, '/api/v1/radios/wlan0', method === 'patch' ? { channel: 40 } : undefined);
       expect(res.status).toBe(400);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { channelCenterMHz, channelOverlapMHz, listChannels, occupiedSpan, spanOverlapMHz } from '../../../shared/radio/channels';
+import { channelCenterMHz, channelOverlapMHz, channelProblem, listChannels, occupiedSpan, spanOverlapMHz, validChannels } from '../../../shared/radio/channels';
 import { PlanningError } from '../../../shared/radio/errors';
 
 const numbers = (region: string, band: string) => listChannels(region, band).channels.map((c) => c.channel);
@@ -93,5 +93,27 @@ describe('bonded channels', () => {
     expect(occupiedSpan('2.4', 1, 40).centerMHz).toBe(2422); // common practice HT40+: centre of channel 3
     expect(occupiedSpan('2.4', 11, 40).centerMHz).toBe(2452); // HT40−: centre of channel 9
     expect(() => occupiedSpan('2.4', 6, 80)).toThrow(/no 80 MHz/);
+  });
+});
+
+describe('validChannels and channelProblem: one rule for stored radios, forms and the plan', () => {
+  it('5 GHz primaries sit on the 5000 + 5n raster in steps of 4; 33, 70 and 196 are off it', () => {
+    // IEEE 802.11 channel numbering with the region tables above (REFERENCES Channels)
+    expect(validChannels('5', 20)).toEqual([...span(36, 64, 4), ...span(100, 144, 4), ...span(149, 165, 4)]);
+    for (const ch of [33, 70, 196]) expect(channelProblem('5', ch, 20)).toEqual({ field: 'channel', message: expect.stringMatching(/raster.*36–64, 100–144, 149–165 in steps of 4/) });
+  });
+  it('2.4 GHz has no 80 MHz channel, and the problem names the width field', () => {
+    expect(validChannels('2.4', 80)).toEqual([]); // IEEE 802.11-2020 clause 21: VHT is 5 GHz only
+    expect(channelProblem('2.4', 6, 80)).toEqual({ field: 'channelWidthMHz', message: expect.stringMatching(/no 80 MHz/) });
+  });
+  it('a wide channel needs its whole fixed bonding block: 165 has no 40 MHz partner; 144 at 80 MHz is US-only', () => {
+    // IEEE 802.11 fixed 40/80 MHz blocks (36+40, 36–48, 132–144, 149–161)
+    expect(validChannels('5', 40, 'US')).not.toContain(165);
+    expect(channelProblem('5', 165, 40)?.field).toBe('channel');
+    expect(validChannels('5', 80, 'US')).toContain(144);
+    expect(validChannels('5', 80, 'EU')).not.toContain(132); // ETSI band ends at 5725 MHz, channel 144 is outside it
+    expect(validChannels('5', 80, 'EU')).toEqual([...span(36, 64, 4), ...span(100, 128, 4)]);
+    expect(channelProblem('2.4', 14, 40)?.message).toMatch(/channel 14 cannot be bonded/);
+    expect(channelProblem('5', 149, 80)).toBeNull();
   });
 });
