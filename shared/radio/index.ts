@@ -6,6 +6,7 @@ export * from './fresnel';
 export * from './geodesy';
 export * from './plan';
 export * from './regulatory';
+export * from './dfs';
 export * from './channels';
 export * from './channelPlan';
 export * from './surveyCsv';

@@ -57,8 +57,11 @@ export const regulatoryBodySchema = z.object({
   txPowerDbm: between('txPowerDbm', -10, 36, 'dBm'),
   cableLossDb: between('cableLossDb', 0, 30, 'dB'),
   linkType: z.enum(['point-to-point', 'point-to-multipoint'], { error: 'linkType must be point-to-point or point-to-multipoint' }),
+  channelWidthMHz: channelWidthMHzSchema.default(20),
+  tpc: z.boolean({ error: 'tpc must be true or false' }).default(true),
+  deployment: z.enum(['outdoor', 'indoor'], { error: 'deployment must be outdoor or indoor' }).default('outdoor'),
 });
-export type RegulatoryBody = z.infer<typeof regulatoryBodySchema>;
+export type RegulatoryBody = z.input<typeof regulatoryBodySchema>;
 
 export const channelsQuerySchema = z.object({
   region: z.enum(['US', 'EU', 'JP'], { error: 'region must be US, EU or JP' }),

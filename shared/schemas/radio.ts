@@ -50,8 +50,10 @@ export const radioBaseSchema = z.object({
  * the stored values merged in.
  */
 export function checkChannelFields(r: { band?: string; channel?: number; channelWidthMHz?: number }, ctx: z.RefinementCtx) {
-  if ((r.band !== '2.4' && r.band !== '5') || r.channel === undefined) return;
-  const problem = channelProblem(r.band, r.channel, r.channelWidthMHz ?? 20);
+  // Fields that failed their own check are reported there once, not again here.
+  if ((r.band !== '2.4' && r.band !== '5') || !Number.isInteger(r.channel) || r.channel! < 1 || r.channel! > 196) return;
+  if (r.channelWidthMHz !== undefined && ![20, 40, 80].includes(r.channelWidthMHz)) return;
+  const problem = channelProblem(r.band, r.channel!, r.channelWidthMHz ?? 20);
   // A width that was not sent cannot be at fault; the route checks it against the stored one.
   if (!problem || (r.channelWidthMHz === undefined && problem.field === 'channelWidthMHz')) return;
   if (r.channelWidthMHz === undefined && problem.message.startsWith('cannot be used at')) return;

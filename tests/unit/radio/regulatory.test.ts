@@ -53,9 +53,9 @@ describe('US 5 GHz', () => {
   });
   it('U-NII-2C (5470–5725 MHz) allows 250 mW with DFS (§15.407(a)(2))', () => {
     const r = computeRegulatory(us({ freqMHz: 5500, antennaGainDbi: 6 }));
-    expect(r.maxTxPowerDbm).toBe(24); // REFERENCES §15.407 per-band limit; 250 mW = 24 dBm
+    expect(r.maxTxPowerDbm).toBeCloseTo(23.98, 2); // §15.407(a)(2): 250 mW = 10·log10(250) = 23.98 dBm
     expect(r.rule).toMatch(/DFS/);
-    expect(computeRegulatory(us({ freqMHz: 5500, antennaGainDbi: 16 })).maxTxPowerDbm).toBe(14);
+    expect(computeRegulatory(us({ freqMHz: 5500, antennaGainDbi: 16 })).maxTxPowerDbm).toBeCloseTo(13.98, 2); // less 1 dB per dB above 6 dBi
   });
   it('refuses 5400 MHz, between U-NII-2A and 2C', () => {
     try {
@@ -81,7 +81,7 @@ describe('EU (ETSI)', () => {
     expect(r.rule).toMatch(/EN 300 328/);
   });
   it('EN 301 893: 200 mW indoors at 5150–5350 MHz, 1 W at 5470–5725 MHz', () => {
-    expect(computeRegulatory(eu({ freqMHz: 5200 })).maxEirpDbm).toBe(23); // REFERENCES: 200 mW EIRP
+    expect(computeRegulatory(eu({ freqMHz: 5200, deployment: 'indoor' })).maxEirpDbm).toBe(23); // REFERENCES: 200 mW EIRP
     const high = computeRegulatory(eu({ freqMHz: 5500, antennaGainDbi: 23 }));
     expect(high.maxEirpDbm).toBe(30); // REFERENCES: 1 W EIRP
     expect(high.maxTxPowerDbm).toBe(7);
@@ -90,5 +90,73 @@ describe('EU (ETSI)', () => {
   it('refuses 5800 MHz, outside EN 301 893, and unknown regions', () => {
     expect(() => computeRegulatory(eu({ freqMHz: 5800 }))).toThrow(/outside the EU licence-exempt bands/);
     expect(() => computeRegulatory(us({ region: 'JP' }))).toThrow(/choose US or EU/);
+  });
+});
+
+describe('US U-NII-1 and U-NII-2A, 47 CFR §15.407(a)(1)–(2)', () => {
+  it('fixed point-to-point at 23 dBi keeps 1 W conducted under §15.407(a)(1)(iii), not (i)', () => {
+    const r = computeRegulatory(us({ freqMHz: 5180, antennaGainDbi: 23, txPowerDbm: 30 })); // REFERENCES §15.407(a)(1)(iii): up to 23 dBi without reduction
+    expect(r.maxTxPowerDbm).toBe(30);
+    expect(r.maxEirpDbm).toBe(53);
+    expect(r.compliant).toBe(true);
+    expect(r.rule).toMatch(/§15\.407\(a\)\(1\)\(iii\)/);
+    expect(computeRegulatory(us({ freqMHz: 5180, antennaGainDbi: 25 })).maxTxPowerDbm).toBe(28); // 1 dB per dB above 23 dBi
+  });
+  it('an outdoor access point on U-NII-1 is (a)(1)(i), reduced above 6 dBi; an indoor one is (a)(1)(ii)', () => {
+    const ap = computeRegulatory(us({ freqMHz: 5180, antennaGainDbi: 10, linkType: 'point-to-multipoint' }));
+    expect(ap.maxTxPowerDbm).toBe(26); // §15.407(a)(1)(i): 30 dBm less (10 − 6) dB
+    expect(ap.rule).toMatch(/\(a\)\(1\)\(i\):.*125 mW/);
+    expect(computeRegulatory(us({ freqMHz: 5180, linkType: 'point-to-multipoint', deployment: 'indoor' })).rule).toMatch(/\(a\)\(1\)\(ii\)/);
+  });
+  it('U-NII-2A (5250–5350 MHz): 250 mW conducted with DFS', () => {
+    const r = computeRegulatory(us({ freqMHz: 5300, antennaGainDbi: 6, txPowerDbm: 24 }));
+    expect(r.maxTxPowerDbm).toBeCloseTo(23.98, 2); // §15.407(a)(2): 250 mW
+    expect(r.compliant).toBe(false); // 24 dBm is 251 mW
+    expect(r.dfs).toEqual({ channelAvailabilityCheckS: 60, nonOccupancyMin: 30, advice: expect.stringMatching(/prefer a channel without DFS/) }); // KDB 905462, from memory
+  });
+});
+
+describe('band edges: the whole occupied channel must lie in one band', () => {
+  it('EU 2.4 GHz: a 20 MHz channel centred at 2483 MHz crosses 2483.5 MHz', () => {
+    const r = computeRegulatory(eu({ freqMHz: 2483, txPowerDbm: 10, antennaGainDbi: 2 })); // EN 300 328 band 2400–2483.5 MHz
+    expect(r.compliant).toBe(false);
+    expect(r.occupiedMHz).toEqual({ lo: 2473, hi: 2493 });
+    expect(r.problems[0]).toMatch(/crosses the band edge at 2483.5 MHz/);
+    expect(computeRegulatory(eu({ freqMHz: 2472, txPowerDbm: 10, antennaGainDbi: 2 })).compliant).toBe(true); // channel 13: 2462–2482 MHz fits
+  });
+  it('5720 MHz at 20 MHz crosses 5725 MHz in the EU and in the US (where the straddle is flagged for the regulator)', () => {
+    expect(computeRegulatory(eu({ freqMHz: 5720, antennaGainDbi: 6, txPowerDbm: 10 })).problems[0]).toMatch(/band edge at 5725 MHz/); // EN 301 893: 5470–5725 MHz
+    const us144 = computeRegulatory(us({ freqMHz: 5720, antennaGainDbi: 6, txPowerDbm: 10 }));
+    expect(us144.compliant).toBe(false);
+    expect(us144.rule).toMatch(/ask the regulator/);
+  });
+  it('an 80 MHz channel centred at 5530 MHz (5490–5570) fits 5470–5725 MHz; at 5690 MHz (5650–5730) it does not', () => {
+    expect(computeRegulatory(eu({ freqMHz: 5530, channelWidthMHz: 80, antennaGainDbi: 23, txPowerDbm: 7 })).compliant).toBe(true); // ETSI EN 301 893
+    expect(computeRegulatory(eu({ freqMHz: 5690, channelWidthMHz: 80, antennaGainDbi: 23, txPowerDbm: 7 })).compliant).toBe(false);
+  });
+});
+
+describe('EU 5 GHz: TPC, indoor-only bands and DFS (ECC/DEC/(04)08, ETSI EN 301 893)', () => {
+  it('5250–5350 MHz indoors: 23 dBm EIRP with TPC, 20 dBm without', () => {
+    expect(computeRegulatory(eu({ freqMHz: 5300, deployment: 'indoor' })).maxEirpDbm).toBe(23); // REFERENCES: 200 mW EIRP
+    expect(computeRegulatory(eu({ freqMHz: 5300, deployment: 'indoor', tpc: false })).maxEirpDbm).toBe(20); // REFERENCES: 3 dB lower without TPC
+  });
+  it('5470–5725 MHz without TPC: 27 dBm EIRP, so 28 dBm EIRP is not compliant', () => {
+    const r = computeRegulatory(eu({ freqMHz: 5500, antennaGainDbi: 23, txPowerDbm: 5, tpc: false })); // REFERENCES: 3 dB lower without TPC
+    expect(r.maxEirpDbm).toBe(27);
+    expect(r.compliant).toBe(false);
+  });
+  it('a rooftop link on 5150–5350 MHz is not compliant, whatever its power', () => {
+    const r = computeRegulatory(eu({ freqMHz: 5180, antennaGainDbi: 2, txPowerDbm: 10 })); // ECC/DEC/(04)08: indoor only
+    expect(r.compliant).toBe(false);
+    expect(r.problems).toEqual([expect.stringMatching(/indoor use only/)]);
+    expect(computeRegulatory(eu({ freqMHz: 5180, antennaGainDbi: 2, txPowerDbm: 10, deployment: 'indoor' })).compliant).toBe(true);
+  });
+  it('DFS: 60 s channel availability check, 10 minutes in 5600–5650 MHz, 30 minutes off after radar', () => {
+    expect(computeRegulatory(eu({ freqMHz: 5500 })).dfs?.channelAvailabilityCheckS).toBe(60); // REFERENCES ETSI EN 301 893
+    const weather = computeRegulatory(eu({ freqMHz: 5620 })).dfs; // channel 124, 5610–5630 MHz
+    expect(weather?.channelAvailabilityCheckS).toBe(600);
+    expect(weather?.nonOccupancyMin).toBe(30);
+    expect(computeRegulatory(eu({ freqMHz: 2437 })).dfs).toBeNull();
   });
 });
