@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { Band, ChannelWidthMHz } from '../../shared/enums';
-import { allowedChannelNumbers, occupiedSpan } from '../../shared/radio/channels';
+import { validChannels } from '../../shared/radio/channels';
 import { channelApplySchema, channelPlanQuerySchema, type ChannelApplyBody } from '../../shared/schemas/planningRecords';
 import { Invalid, NotFound } from '../errors';
 import { actorOf } from '../middlewares/requireUser';
@@ -15,14 +15,9 @@ import { Node, Radio } from '../models';
 import { recordChanges } from '../services/changeHistory';
 import { channelPlanFor } from '../services/channelPlanning';
 
-/** A block is allowed when every 20 MHz channel it spans is allowed in the region (IEEE 802.11 bonding). */
+/** A block is allowed when every 20 MHz channel it spans is allowed in the region (one rule: validChannels); 14 is 802.11b only. */
 function fitsRegion(region: 'US' | 'EU' | 'JP', band: Band, channel: number, widthMHz: ChannelWidthMHz): boolean {
-  const allowed = new Set(allowedChannelNumbers(region, band).filter((c) => !(band === '2.4' && c === 14)));
-  try {
-    return occupiedSpan(band, channel, widthMHz).channels.every((c) => allowed.has(c));
-  } catch {
-    return false;
-  }
+  return !(band === '2.4' && channel === 14) && validChannels(band, widthMHz, region).includes(channel);
 }
 
 /** The channel plan: recommendations with surveyed congestion, and applying them in one recorded change. */

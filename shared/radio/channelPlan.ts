@@ -69,9 +69,29 @@ export function congestionMwByChannel(band: Band, allowed: number[], survey: Obs
   return out;
 }
 
+/**
+ * Spectrum a surveyed network occupies. A wide 5 GHz network sits on its fixed IEEE 802.11 bonding block, not around
+ * its primary (primary 36 at 80 MHz covers 36–48; 48 at 80 MHz covers 36–48 too and never touches 52); 160 MHz blocks
+ * start at 36, 100 and 149 (from memory). 20 and 22 MHz are centred on the channel.
+ */
+export function surveyedSpan(band: Band, channel: number, widthMHz: number): Span {
+  if (widthMHz === 40 || widthMHz === 80) {
+    try {
+      return occupiedSpan(band, channel, widthMHz);
+    } catch {
+      // Not a bondable primary (e.g. 80 MHz reported on 2.4 GHz): fall back to the width around the channel.
+    }
+  }
+  if (widthMHz === 160 && band === '5') {
+    const base = channel >= 149 ? 149 : channel >= 100 ? 100 : 36;
+    const first = base + Math.floor((channel - base) / 32) * 32;
+    return { centerMHz: channelCenterMHz(band, first) + 70, widthMHz };
+  }
+  return { centerMHz: channelCenterMHz(band, channel), widthMHz };
+}
+
 function surveyCostMw(band: Band, span: Span, n: ObservedNetwork): number {
-  const width = n.channelWidthMHz ?? 20;
-  const heard = { centerMHz: channelCenterMHz(band, n.channel), widthMHz: width };
+  const heard = surveyedSpan(band, n.channel, n.channelWidthMHz ?? 20);
   return (dbmToMw(n.signalDbm) * spanOverlapMHz(span, heard)) / span.widthMHz;
 }
 

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { congestionMwByChannel, planningSpan, recommendChannels, type RadioOnAir, type RadioToPlan } from '../../../shared/radio/channelPlan';
+import { congestionMwByChannel, planningSpan, recommendChannels, surveyedSpan, type RadioOnAir, type RadioToPlan } from '../../../shared/radio/channelPlan';
 import { PlanningError } from '../../../shared/radio/errors';
 import { freeSpacePathLossDb } from '../../../shared/radio/pathLoss';
 
@@ -67,5 +67,21 @@ describe('recommendChannels', () => {
 
   it('refuses a width the band cannot carry', () => {
     expect(() => recommendChannels({ region: 'US', radios: [ap(1, 10, '2.4', 80)] })).toThrow(PlanningError);
+  });
+});
+
+describe('surveyed wide networks sit on their fixed bonding block', () => {
+  const five = [36, 40, 44, 48, 52, 56, 60, 64];
+  it('primary 36 at 80 MHz fills 36–48; primary 48 at 80 MHz fills 36–48 and leaves 52 clean', () => {
+    // IEEE 802.11 fixed 80 MHz blocks: channel 42 (5210 MHz centre) spans 36–48
+    expect(surveyedSpan('5', 48, 80)).toEqual(expect.objectContaining({ centerMHz: 5210, widthMHz: 80 }));
+    const mw = congestionMwByChannel('5', five, [{ channel: 48, channelWidthMHz: 80, signalDbm: -60 }]);
+    for (const ch of [36, 40, 44, 48]) expect(mw.get(ch)).toBeCloseTo(1e-6, 12); // −60 dBm = 1e-6 mW on each covered channel
+    for (const ch of [52, 56, 60, 64]) expect(mw.get(ch)).toBe(0);
+    const from36 = congestionMwByChannel('5', five, [{ channel: 36, channelWidthMHz: 80, signalDbm: -60 }]);
+    expect([...from36.values()]).toEqual([...mw.values()]);
+  });
+  it('160 MHz from primary 60 covers 36–64 (block starting at 36; from memory)', () => {
+    expect(surveyedSpan('5', 60, 160)).toEqual({ centerMHz: 5250, widthMHz: 160 });
   });
 });
