@@ -33,9 +33,29 @@ export const linkBudgetBodySchema = z
     rxAntennaGainDbi: between('rxAntennaGainDbi', -10, 45, 'dBi'),
     rxCableLossDb: between('rxCableLossDb', 0, 30, 'dB'),
     noiseFigureDb: between('noiseFigureDb', 0, 20, 'dB').default(5),
+    streams: z.union([z.literal(1), z.literal(2)], { error: 'streams must be 1 or 2' }).default(1),
+    guardInterval: z.enum(['long', 'short'], { error: 'guardInterval must be long or short' }).default('long'),
+    // ITU-R P.530: 4/3 median; 2/3 worst case in temperate climates; below 0.5 or above 10 is not a planning value.
+    kFactor: num('kFactor').min(0.5, 'kFactor must be at least 0.5').max(10, 'kFactor must be at most 10').default(4 / 3),
+    obstacles: z
+      .array(z.object({
+        distanceKm: num('distanceKm').positive('distanceKm must be greater than 0 km (distance from end a)'),
+        heightM: between('heightM', -450, 9000, 'm'),
+      }), { error: 'obstacles must be a list of {distanceKm, heightM}' })
+      .max(50, 'obstacles may list at most 50 entries')
+      .default([]),
+    region: z.enum(['US', 'EU'], { error: 'region must be US or EU' }).optional(),
+    targetRateMbps: between('targetRateMbps', 1, 2000, 'Mb/s').optional(),
+    terrain: z.boolean({ error: 'terrain must be true or false' }).default(false),
   })
   .partial({ distanceKm: true })
   .superRefine((body, ctx) => {
+    if (typeof body.freqMHz === 'number' && body.freqMHz < 3000 && body.channelWidthMHz === 80) {
+      ctx.addIssue({ code: 'custom', path: ['channelWidthMHz'], message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' });
+    }
+    if (body.terrain && body.distanceKm !== undefined) {
+      ctx.addIssue({ code: 'custom', path: ['terrain'], message: 'terrain needs sites a and b, not distanceKm' });
+    }
     const sites = body.a !== undefined || body.b !== undefined;
     const distance = body.distanceKm !== undefined;
     if (sites && distance) {
@@ -48,7 +68,7 @@ export const linkBudgetBodySchema = z
       ctx.addIssue({ code: 'custom', path: ['b'], message: 'Sites a and b are the same place; pick two different sites' });
     }
   });
-export type LinkBudgetBody = z.infer<typeof linkBudgetBodySchema>;
+export type LinkBudgetBody = z.input<typeof linkBudgetBodySchema>;
 
 export const regulatoryBodySchema = z.object({
   region: z.enum(['US', 'EU'], { error: 'region must be US or EU' }),
