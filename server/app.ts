@@ -35,6 +35,7 @@ import { outageRoutes } from './routes/outages';
 import { outboxRoutes } from './routes/outbox';
 import { overviewRoutes } from './routes/overview';
 import { planningRoutes } from './routes/planning';
+import { terrainRoutes } from './routes/terrain';
 import { preferenceRoutes } from './routes/preferences';
 import { radioRoutes } from './routes/radios';
 import { sessionRoutes } from './routes/session';
@@ -154,7 +155,8 @@ export function createApp({ config, sequelize }: AppContext) {
   api.use('/overview', requireUser, overviewRoutes());
   api.use('/planning/planned-links', requireUser, plannedLinkRoutes(sequelize));
   api.use('/planning/channel-plan', requireUser, channelPlanRoutes(sequelize));
-  api.use('/planning', requireUser, planningRoutes());
+  api.use('/planning', requireUser, planningRoutes(sequelize));
+  api.use('/terrain', requireUser, terrainRoutes(sequelize));
   api.use('/address-plans', requireUser, addressPlanRoutes(sequelize));
   api.use('/security-review', requireUser, securityReviewRoutes(sequelize));
   api.use('/settings', requireUser, settingsRoutes(sequelize));

@@ -1,5 +1,6 @@
 import { Router } from 'express';
-import { computeLinkBudget } from '../../shared/radio/plan';
+import type { Sequelize } from 'sequelize';
+import { linkBudgetWithTerrain } from '../services/linkPrediction';
 import { listChannels } from '../../shared/radio/channels';
 import { computeRegulatory } from '../../shared/radio/regulatory';
 import { planAddresses } from '../../shared/addressing/cidr';
@@ -10,14 +11,14 @@ import { authorize } from '../policies/authorize';
 import { mayPlan } from '../policies/planning';
 
 /** The trade's computations; answers sit at the top level (API.md "Planning computations"). */
-export function planningRoutes() {
+export function planningRoutes(sequelize: Sequelize) {
   const router = Router();
   router.use((req, _res, next) => {
     authorize(mayPlan(actorOf(req)), 'Planning is for operators and admins.');
     next();
   });
-  router.post('/link-budget', validate('body', linkBudgetBodySchema), (_req, res) => {
-    res.json(computeLinkBudget(res.locals.body));
+  router.post('/link-budget', validate('body', linkBudgetBodySchema), async (_req, res) => {
+    res.json(await linkBudgetWithTerrain(sequelize, res.locals.body));
   });
   router.post('/regulatory', validate('body', regulatoryBodySchema), (_req, res) => {
     res.json(computeRegulatory(res.locals.body));

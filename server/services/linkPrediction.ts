@@ -1,6 +1,9 @@
 import { computeLinkBudget, type LinkBudgetAnswer } from '../../shared/radio/plan';
 import { channelCenterMHz } from '../../shared/radio/channels';
+import type { Sequelize } from 'sequelize';
 import type { ChannelWidthMHz } from '../../shared/enums';
+import type { LinkBudgetInput } from '../../shared/radio/plan';
+import { terrainProfile } from './terrain';
 
 export interface RadioEnd {
   band: '2.4' | '5';
@@ -32,4 +35,19 @@ export function predictLink(a: RadioEnd, b: RadioEnd): LinkBudgetAnswer | null {
   } catch {
     return null;
   }
+}
+
+/**
+ * The planning link budget; with `terrain: true` the ground under the path comes from the elevation tiles, and so does
+ * each end's ground elevation when the body leaves it out (API.md "Terrain").
+ */
+export async function linkBudgetWithTerrain(sequelize: Sequelize, body: LinkBudgetInput & { terrain?: boolean }): Promise<LinkBudgetAnswer> {
+  const { terrain, ...input } = body;
+  if (!terrain || !input.a || !input.b) return computeLinkBudget(input);
+  // Too-far or too-close sites are refused by the budget before any tile is read.
+  computeLinkBudget(input);
+  const profile = await terrainProfile(sequelize, input.a, input.b);
+  const a = { ...input.a, groundElevationM: input.a.groundElevationM ?? profile[0].groundM };
+  const b = { ...input.b, groundElevationM: input.b.groundElevationM ?? profile[profile.length - 1].groundM };
+  return computeLinkBudget({ ...input, a, b, terrainProfile: profile });
 }

@@ -54,3 +54,14 @@ export function antennaTiltDeg(a: MastPoint, b: MastPoint, distanceKm: number, k
   const rad = Math.atan2(heightB - heightA, distanceM) - distanceM / (2 * effectiveRadiusM);
   return (rad * 180) / Math.PI;
 }
+
+/** n + 1 points evenly spaced along the WGS84 geodesic from a to b (GeographicLib InverseLine), with their distance from a. */
+export function geodesicPoints(a: GeoPoint, b: GeoPoint, n: number): (GeoPoint & { distanceKm: number })[] {
+  const line = Geodesic.WGS84.InverseLine(a.lat, a.lon, b.lat, b.lon);
+  const total = line.s13 ?? NaN;
+  return Array.from({ length: n + 1 }, (_, i) => {
+    const s = (i / n) * total;
+    const p = line.Position(s);
+    return { lat: p.lat2 ?? NaN, lon: p.lon2 ?? NaN, distanceKm: s / 1000 };
+  });
+}

@@ -68,6 +68,56 @@ describe('planning routes', () => {
     expect(res.body.error.details.map((d: { path: string }) => d.path)).toContain(path);
   });
 
+  it('second edition: 80 MHz on 2.4 GHz and sites 5,500 km apart are 400s naming the problem', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const wide = await call(op, 'post', '/api/v1/planning/link-budget', { ...linkBody, freqMHz: 2437, channelWidthMHz: 80 });
+    expect(wide.status).toBe(400);
+    expect(wide.body.error.details).toEqual([{ path: 'channelWidthMHz', message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' }]);
+    const { distanceKm: _d, ...rest } = linkBody;
+    const far = await call(op, 'post', '/api/v1/planning/link-budget', { ...rest, a: { lat: 47.6, lon: 8.5, heightM: 20 }, b: { lat: 10, lon: 60, heightM: 20 } });
+    expect(far.status).toBe(400);
+    expect(far.body.error.code).toBe('sites_too_far');
+    const badObstacle = await call(op, 'post', '/api/v1/planning/link-budget', { ...linkBody, obstacles: [{ distanceKm: 'near', heightM: 3 }] });
+    expect(badObstacle.status).toBe(400);
+    expect(badObstacle.body.error.details[0].path).toBe('obstacles.0.distanceKm');
+    const k = await call(op, 'post', '/api/v1/planning/link-budget', { ...linkBody, kFactor: 0 });
+    expect(k.body.error.details).toEqual([{ path: 'kFactor', message: 'kFactor must be at least 0.5' }]);
+  });
+
+  it('second edition: obstacles, line of sight, knife-edge loss, round trip and two-stream rates in one answer', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const { distanceKm: _d, ...rest } = linkBody;
+    // 2.224 km due north (GeographicLib), masts 10 m on flat ground, a tree line 14 m tall 1.1 km from a.
+    const res = await call(op, 'post', '/api/v1/planning/link-budget', {
+      ...rest, a: { lat: 47.6, lon: -38.4, heightM: 10, groundElevationM: 0 }, b: { lat: 47.62, lon: -38.4, heightM: 10, groundElevationM: 0 },
+      obstacles: [{ distanceKm: 1.1, heightM: 14 }], streams: 2, guardInterval: 'short', region: 'EU',
+    });
+    expect(res.status).toBe(200);
+    expect(res.body.lineOfSight).toMatchObject({ clear: false, atDistanceKm: 1.1, blockedBy: 'obstacle' });
+    expect(res.body.diffractionLossDb).toBeGreaterThan(6); // the top is above the line: ν > 0, so J > J(0) ≈ 6.0 dB (ITU-R P.526)
+    expect(res.body.roundTripUs).toBeCloseTo((2 * 2223.9) / 299.792458, 0); // 2d/c in µs
+    expect(res.body.radioHorizonKm).toBeCloseTo(4.12 * 2 * Math.sqrt(10), 1); // ITU-R P.530: 26.06 km
+    expect(res.body.streams).toBe(2);
+    expect(res.body.rates[0]).toMatchObject({ mcs: 8, rateMbps: 14.4 }); // HT20 MCS8 short GI (IEEE 802.11-2020 HT tables)
+    expect(res.body.warnings.join(' ')).toMatch(/knife-edge/);
+  });
+
+  it('regulatory second edition: band edge, TPC and indoor-only from the body (ETSI EN 301 893, ECC/DEC/(04)08)', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const base = { region: 'EU', antennaGainDbi: 2, txPowerDbm: 10, cableLossDb: 0, linkType: 'point-to-point' };
+    const edge = await call(op, 'post', '/api/v1/planning/regulatory', { ...base, freqMHz: 2483 });
+    expect(edge.body.compliant).toBe(false);
+    expect(edge.body.rule).toMatch(/band edge at 2483.5 MHz/);
+    const noTpc = await call(op, 'post', '/api/v1/planning/regulatory', { ...base, freqMHz: 5500, tpc: false });
+    expect(noTpc.body.maxEirpDbm).toBe(27); // REFERENCES: 3 dB lower without TPC
+    const roof = await call(op, 'post', '/api/v1/planning/regulatory', { ...base, freqMHz: 5300 });
+    expect(roof.body.compliant).toBe(false);
+    const indoor = await call(op, 'post', '/api/v1/planning/regulatory', { ...base, freqMHz: 5300, deployment: 'indoor' });
+    expect(indoor.body.compliant).toBe(true);
+    const bad = await call(op, 'post', '/api/v1/planning/regulatory', { ...base, freqMHz: 5300, deployment: 'roof' });
+    expect(bad.body.error.details).toEqual([{ path: 'deployment', message: 'deployment must be outdoor or indoor' }]);
+  });
+
   it('checks the US 2.4 GHz point-to-point rule (47 CFR §15.247 worked example: 24 dBi → 24 dBm, 48 dBm EIRP)', async () => {
     const op = await signIn(ctx, await buildUser({ role: 'operator' }));
     const res = await call(op, 'post', '/api/v1/planning/regulatory', { region: 'US', freqMHz: 2437, antennaGainDbi: 24, txPowerDbm: 24, cableLossDb: 0, linkType: 'point-to-point' });
