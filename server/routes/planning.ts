@@ -3,7 +3,7 @@ import type { Sequelize } from 'sequelize';
 import { linkBudgetWithTerrain } from '../services/linkPrediction';
 import { listChannels } from '../../shared/radio/channels';
 import { computeRegulatory } from '../../shared/radio/regulatory';
-import { planAddresses } from '../../shared/addressing/cidr';
+import { planAddressPool } from '../../shared/addressing/poolPlan';
 import { addressPlanBodySchema, channelsQuerySchema, linkBudgetBodySchema, regulatoryBodySchema } from '../../shared/schemas/planning';
 import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
@@ -27,7 +27,7 @@ export function planningRoutes(sequelize: Sequelize) {
     res.json(listChannels(res.locals.query.region, res.locals.query.band));
   });
   router.post('/address-plan', validate('body', addressPlanBodySchema), (_req, res) => {
-    res.json(planAddresses(res.locals.body));
+    res.json(planAddressPool(res.locals.body));
   });
   return router;
 }

@@ -1,4 +1,6 @@
 export * from './cidr';
 export * from './dhcp';
 export * from './addressPlanChecks';
+export * from './ipv6';
+export * from './poolPlan';
 export { PlanningError, isPlanningError } from '../radio/errors';

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { parseCidr } from '../addressing/cidr';
+import { parseCidr6 } from '../addressing/ipv6';
 import { PlanningError } from '../radio/errors';
 
 const num = (name: string) => z.number({ error: `${name} must be a number` });
@@ -99,22 +100,41 @@ export const cidrSchema = z.string({ error: 'must be an IPv4 CIDR like 10.20.0.0
   }
 });
 
+/** An IPv4 or IPv6 CIDR (IPv6 for RFC 4193 pools such as fd12:3456:789a::/48). */
+export const anyCidrSchema = z.string({ error: 'must be a CIDR like 10.20.0.0/16 or fd12:3456:789a::/48' }).superRefine((text, ctx) => {
+  try {
+    if (text.includes(':')) parseCidr6(text);
+    else parseCidr(text);
+  } catch (e) {
+    if (!(e instanceof PlanningError)) throw e;
+    ctx.addIssue({ code: 'custom', message: e.message });
+  }
+});
+
 export const addressPlanBodySchema = z
   .object({
-    pool: cidrSchema,
-    prefixLength: num('prefixLength').int('prefixLength must be a whole number').min(1, 'prefixLength must be 1–32').max(32, 'prefixLength must be 1–32'),
+    pool: anyCidrSchema,
+    prefixLength: num('prefixLength').int('prefixLength must be a whole number').min(1, 'prefixLength must be 1–32 (IPv4) or 1–128 (IPv6)').max(128, 'prefixLength must be 1–32 (IPv4) or 1–128 (IPv6)'),
     count: num('count').int('count must be a whole number').min(1, 'count must be 1–4096').max(4096, 'count must be 1–4096'),
-    taken: z.array(cidrSchema).max(65536, 'taken may list at most 65536 blocks').optional(),
+    taken: z.array(anyCidrSchema).max(65536, 'taken may list at most 65536 blocks').optional(),
+    expectedClients: num('expectedClients').int('expectedClients must be a whole number').min(1, 'expectedClients must be 1–100000').max(100000, 'expectedClients must be 1–100000').optional(),
   })
   .superRefine((body, ctx) => {
     let poolPrefix: number;
+    const v6 = typeof body.pool === 'string' && body.pool.includes(':');
     try {
-      poolPrefix = parseCidr(body.pool).prefixLength;
+      poolPrefix = v6 ? parseCidr6(body.pool).prefixLength : parseCidr(body.pool).prefixLength;
     } catch {
       return; // already reported on `pool`
     }
-    if (body.prefixLength < poolPrefix) {
+    if (!v6 && body.prefixLength > 32) {
+      ctx.addIssue({ code: 'custom', path: ['prefixLength'], message: 'prefixLength must be 1–32 for an IPv4 pool' });
+    } else if (body.prefixLength < poolPrefix) {
       ctx.addIssue({ code: 'custom', path: ['prefixLength'], message: `prefixLength /${body.prefixLength} is shorter than the pool's /${poolPrefix}; use /${poolPrefix} or longer` });
     }
+    body.taken?.forEach((t, i) => {
+      if (typeof t === 'string' && t.includes(':') !== v6) ctx.addIssue({ code: 'custom', path: ['taken', i], message: `must be ${v6 ? 'IPv6' : 'IPv4'} like the pool` });
+    });
+    if (v6 && body.expectedClients !== undefined) ctx.addIssue({ code: 'custom', path: ['expectedClients'], message: 'expectedClients sizes IPv4 DHCP pools; an IPv6 /64 holds any number of clients' });
   });
 export type AddressPlanBody = z.infer<typeof addressPlanBodySchema>;

@@ -169,6 +169,22 @@ describe('planning routes', () => {
     expect(res.body.subnets[1].cidr).toBe('10.64.2.0/24');
   });
 
+  it('plans IPv6 /64s from a RFC 4193 /48 and warns about a public IPv4 pool (RFC 1918, RFC 6598)', async () => {
+    const op = await signIn(ctx, await buildUser({ role: 'operator' }));
+    const v6 = await call(op, 'post', '/api/v1/planning/address-plan', { pool: 'fd12:3456:789a::/48', prefixLength: 64, count: 2, taken: ['fd12:3456:789a::/64'] });
+    expect(v6.status).toBe(200);
+    expect(v6.body.subnets.map((s: { cidr: string }) => s.cidr)).toEqual(['fd12:3456:789a:1::/64', 'fd12:3456:789a:2::/64']);
+    expect(v6.body.subnets[0]).toMatchObject({ netmask: null, broadcast: null, gateway: 'fd12:3456:789a:1::1' });
+    expect(v6.body.warnings).toEqual([]);
+    const mixed = await call(op, 'post', '/api/v1/planning/address-plan', { pool: 'fd12:3456:789a::/48', prefixLength: 64, count: 1, taken: ['10.0.0.0/24'] });
+    expect(mixed.body.error.details).toEqual([{ path: 'taken.0', message: 'taken.0 must be IPv6 like the pool' }]);
+    const pub = await call(op, 'post', '/api/v1/planning/address-plan', { pool: '198.51.100.0/24', prefixLength: 26, count: 1, expectedClients: 100 });
+    expect(pub.status).toBe(200);
+    expect(pub.body.warnings[0]).toMatch(/neither private \(RFC 1918/);
+    expect(pub.body.dhcp).toMatchObject({ addressesNeeded: 151, suggestedPrefixLength: 24, fitsRequested: false });
+    expect((await call(op, 'post', '/api/v1/planning/address-plan', { pool: '10.0.0.0/8', prefixLength: 40, count: 1 })).body.error.details[0].path).toBe('prefixLength');
+  });
+
   it('gives /31 two usable hosts and no broadcast (RFC 3021)', async () => {
     const op = await signIn(ctx, await buildUser({ role: 'operator' }));
     const res = await call(op, 'post', '/api/v1/planning/address-plan', { pool: '10.0.0.0/30', prefixLength: 31, count: 2 });
