@@ -66,7 +66,7 @@ describe('addressPlanBodySchema', () => {
   it('bounds count and prefix length', () => {
     expect(messages(addressPlanBodySchema.safeParse({ pool: '10.20.0.0/16', prefixLength: 24, count: 0 }))).toEqual(['count: count must be 1–4096']);
     expect(messages(addressPlanBodySchema.safeParse({ pool: '10.20.0.0/16', prefixLength: 24, count: 5000 }))).toEqual(['count: count must be 1–4096']);
-    expect(messages(addressPlanBodySchema.safeParse({ pool: '10.20.0.0/16', prefixLength: 33, count: 1 }))).toEqual(['prefixLength: prefixLength must be 1–32']);
+    expect(messages(addressPlanBodySchema.safeParse({ pool: '10.20.0.0/16', prefixLength: 33, count: 1 }))).toEqual(['prefixLength: prefixLength must be 1–32 for an IPv4 pool']);
     expect(messages(addressPlanBodySchema.safeParse({ pool: '10.20.0.0/16', prefixLength: 12, count: 1 }))).toEqual([
       "prefixLength: prefixLength /12 is shorter than the pool's /16; use /16 or longer",
     ]);
