@@ -7,8 +7,12 @@ describe('wpaPskHex (PBKDF2-HMAC-SHA1, 4096 iterations, 32 bytes)', () => {
     expect(wpaPskHex('password', 'IEEE')).toBe('f42c6fc52df0ebef9ebb4b90b38a5f902e83fe1b135a70e23aed762e9710a12e');
   });
   it('reproduces the second Annex H vector', () => {
-    // IEEE 802.11i Annex H, second vector (from memory): "ThisIsAPassword" + "ThisIsASSID"
+    // IEEE 802.11i Annex H.4 case 2 (IEEE 802.11-2016 J.4.2 test case 2): "ThisIsAPassword" + "ThisIsASSID"
     expect(wpaPskHex('ThisIsAPassword', 'ThisIsASSID')).toBe('0dc0d6eb90555ed6419756b9a15ec3e3209b63df707dd508d14581f8982721af');
+  });
+  it('reproduces the third Annex H vector: 32 × "a" with a 32-byte SSID of "Z"', () => {
+    // IEEE 802.11i Annex H.4 case 3 (IEEE 802.11-2016 J.4.2 test case 3): the longest SSID the standard allows
+    expect(wpaPskHex('a'.repeat(32), 'Z'.repeat(32))).toBe('becb93866bb8c3832cb777c2f559807c8c59afcb6eae734885001300a981cc62');
   });
   it('depends on the SSID (it is the salt)', () => {
     expect(wpaPskHex('password', 'IEEE')).not.toBe(wpaPskHex('password', 'IEEE2'));
