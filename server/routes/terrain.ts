@@ -33,8 +33,9 @@ export function terrainRoutes(sequelize: Sequelize) {
   const router = Router();
 
   router.get('/tiles', async (req, res) => {
-    authorize(mayPlan(actorOf(req)), 'Terrain tiles are for operators and admins.');
-    res.json({ data: await listTiles(sequelize) });
+    const actor = actorOf(req);
+    authorize(mayPlan(actor), 'Terrain tiles are for operators and admins.');
+    res.json({ data: await listTiles(sequelize), abilities: { upload: isAdmin(actor), delete: isAdmin(actor) } });
   });
 
   router.post('/tiles', (req, _res, next) => {

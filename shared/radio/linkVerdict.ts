@@ -1,14 +1,30 @@
 /**
- * Fade-margin bands for a planned link. A margin of 10 dB or more is the usual target for a fixed outdoor
- * Wi-Fi link (common practice, no source); 0–10 dB may close but fades with rain, foliage and misalignment.
+ * Parapet's fade-margin bands, one scale for the planning page and the map (common practice, no source): about 20 dB
+ * rides out most fading on a rooftop link; 10 dB is the usual minimum target for a fixed outdoor link; under 10 dB
+ * it drops in rain or when a tree grows into the path; below 0 dB even the slowest rate cannot be received.
  */
 export const FADE_MARGIN_TARGET_DB = 10;
-export type LinkVerdict = 'closes' | 'marginal' | 'will-not-close';
+export const FADE_MARGIN_COMFORTABLE_DB = 20;
+export type MarginBand = 'comfortable' | 'thin' | 'at-risk' | 'unknown';
+export type LinkVerdict = Exclude<MarginBand, 'unknown'>;
 
+export const MARGIN_BANDS: { band: MarginBand; label: string; range: string }[] = [
+  { band: 'comfortable', label: 'Comfortable', range: `${FADE_MARGIN_COMFORTABLE_DB} dB or more` },
+  { band: 'thin', label: 'Thin', range: `${FADE_MARGIN_TARGET_DB} to ${FADE_MARGIN_COMFORTABLE_DB} dB` },
+  { band: 'at-risk', label: 'At risk', range: `under ${FADE_MARGIN_TARGET_DB} dB` },
+  { band: 'unknown', label: 'Unknown', range: 'radio settings missing' },
+];
+
+export function marginBand(fadeMarginDb: number | null): MarginBand {
+  if (fadeMarginDb === null || !Number.isFinite(fadeMarginDb)) return 'unknown';
+  if (fadeMarginDb >= FADE_MARGIN_COMFORTABLE_DB) return 'comfortable';
+  if (fadeMarginDb >= FADE_MARGIN_TARGET_DB) return 'thin';
+  return 'at-risk';
+}
+
+/** The planning verdict: the map's band for the same margin. */
 export function linkVerdict(fadeMarginDb: number): LinkVerdict {
-  if (fadeMarginDb >= FADE_MARGIN_TARGET_DB) return 'closes';
-  if (fadeMarginDb >= 0) return 'marginal';
-  return 'will-not-close';
+  return marginBand(fadeMarginDb) as LinkVerdict;
 }
 
 /**

@@ -1,13 +1,16 @@
 import { describe, expect, it } from 'vitest';
-import { assessLinkHealth, linkVerdict } from '../../../shared/radio/linkVerdict';
+import { assessLinkHealth, linkVerdict, marginBand } from '../../../shared/radio/linkVerdict';
 import { pathProfile, worstClearanceM } from '../../../shared/radio/pathProfile';
 
 describe('link verdict', () => {
-  it('bands the fade margin at 10 dB and 0 dB (common practice, no source)', () => {
-    expect(linkVerdict(10)).toBe('closes');
-    expect(linkVerdict(9.99)).toBe('marginal');
-    expect(linkVerdict(0)).toBe('marginal');
-    expect(linkVerdict(-0.01)).toBe('will-not-close');
+  it('bands the fade margin at 20 dB and 10 dB, one scale with the map (common practice, no source)', () => {
+    expect(linkVerdict(20)).toBe('comfortable');
+    expect(linkVerdict(12)).toBe('thin'); // the planning page and the map now agree on a 12 dB margin
+    expect(marginBand(12)).toBe('thin');
+    expect(linkVerdict(10)).toBe('thin');
+    expect(linkVerdict(9.99)).toBe('at-risk');
+    expect(linkVerdict(-5)).toBe('at-risk');
+    expect(marginBand(null)).toBe('unknown');
   });
 
   it('flags only a link well below both its prediction and its own baseline (common practice, no source)', () => {

@@ -9,4 +9,5 @@ export const planningKeys = {
   security: () => ['planning', 'security-review'] as const,
   linkHealth: (linkId: number) => ['planning', 'link-health', linkId] as const,
   provisioning: (nodeId: number) => ['planning', 'provisioning', nodeId] as const,
+  terrainTiles: () => ['planning', 'terrain-tiles'] as const,
 };

@@ -55,14 +55,14 @@ export function useApplyChannelPlan() {
   });
 }
 
-/** Multipart upload: the JSON client cannot carry a file, so this one call uses fetch directly. */
-async function uploadSurvey(nodeId: number, file: File): Promise<SurveyUpload> {
+/** Multipart upload: the JSON client cannot carry a file, so these calls use fetch directly. */
+async function postFile<T>(url: string, field: string, file: File): Promise<T> {
   const session = await api.get<SessionBody>('/session');
   const form = new FormData();
-  form.append('file', file);
+  form.append(field, file);
   let response: Response;
   try {
-    response = await fetch(`/api/v1/nodes/${nodeId}/site-surveys`, { method: 'POST', body: form, credentials: 'same-origin', headers: { 'X-CSRF-Token': session.csrfToken ?? '', Accept: 'application/json' } });
+    response = await fetch(url, { method: 'POST', body: form, credentials: 'same-origin', headers: { 'X-CSRF-Token': session.csrfToken ?? '', Accept: 'application/json' } });
   } catch {
     throw new ApiError(0, 'network_error', 'Could not reach the Parapet server. Check your connection and try again.');
   }
@@ -71,7 +71,24 @@ async function uploadSurvey(nodeId: number, file: File): Promise<SurveyUpload> {
     const e = body?.error;
     throw new ApiError(response.status, e?.code ?? `http_${response.status}`, e?.message ?? `The upload failed (${response.status}). Try again.`, e?.details ?? []);
   }
-  return body as SurveyUpload;
+  return body as T;
+}
+const uploadSurvey = (nodeId: number, file: File) => postFile<SurveyUpload>(`/api/v1/nodes/${nodeId}/site-surveys`, 'file', file);
+
+export interface TerrainTile { name: string; south: number; west: number; samplesPerSide: number; createdAt: string }
+export function useTerrainTiles() {
+  return useQuery({ queryKey: planningKeys.terrainTiles(), queryFn: () => api.get<{ data: TerrainTile[]; abilities: { upload: boolean } }>('/terrain/tiles') });
+}
+export function useUploadTerrainTile() {
+  const qc = useQueryClient();
+  return useMutation({
+    mutationFn: (file: File) => postFile<{ data: TerrainTile }>('/api/v1/terrain/tiles', 'tile', file).then((b) => b.data),
+    onSuccess: () => qc.invalidateQueries({ queryKey: planningKeys.terrainTiles() }),
+  });
+}
+export function useDeleteTerrainTile() {
+  const qc = useQueryClient();
+  return useMutation({ mutationFn: (name: string) => api.delete(`/terrain/tiles/${name}`), onSuccess: () => qc.invalidateQueries({ queryKey: planningKeys.terrainTiles() }) });
 }
 export function useUploadSurvey() {
   const qc = useQueryClient();

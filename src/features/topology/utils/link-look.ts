@@ -1,25 +1,8 @@
 // How a link is drawn: width by the rate it should carry, colour by its fade margin.
+import type { MarginBand } from '../../../../shared/radio/linkVerdict';
 
-export type MarginBand = 'comfortable' | 'thin' | 'at-risk' | 'unknown';
-
-/**
- * Parapet's own bands for a link's predicted fade margin (common practice, no source: about
- * 20 dB rides out most fading on a short rooftop link; under 10 dB the link drops in rain or
- * when a tree grows into the path).
- */
-export const MARGIN_BANDS: { band: MarginBand; label: string; range: string }[] = [
-  { band: 'comfortable', label: 'Comfortable', range: '20 dB or more' },
-  { band: 'thin', label: 'Thin', range: '10 to 20 dB' },
-  { band: 'at-risk', label: 'At risk', range: 'under 10 dB' },
-  { band: 'unknown', label: 'Unknown', range: 'radio settings missing' },
-];
-
-export function marginBand(fadeMarginDb: number | null): MarginBand {
-  if (fadeMarginDb === null || !Number.isFinite(fadeMarginDb)) return 'unknown';
-  if (fadeMarginDb >= 20) return 'comfortable';
-  if (fadeMarginDb >= 10) return 'thin';
-  return 'at-risk';
-}
+// One scale with the planning page: the bands live in shared/radio/linkVerdict.ts.
+export { MARGIN_BANDS, marginBand, type MarginBand } from '../../../../shared/radio/linkVerdict';
 
 /** CSS colour of a band; the variables are set per theme in styles.css. */
 export function marginColour(band: MarginBand): string {
