@@ -9,6 +9,7 @@ import type { AddressPlanRow } from '../features/planning/api/types';
 import { AddressPlanEditor } from '../features/planning/components/address-plan-editor';
 import { ApiError } from '../lib/api';
 import { paths } from '../lib/paths';
+import { PlanningCaution } from '../features/planning/components/planning-caution';
 
 const say = (e: unknown) => (e instanceof ApiError ? e.message : 'Something went wrong. Try again.');
 
@@ -103,6 +104,7 @@ export function AddressPlanPage() {
           </form>
         )}
       </Section>
+      <PlanningCaution />
     </>
   );
 }

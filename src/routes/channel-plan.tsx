@@ -8,6 +8,7 @@ import { CongestionChart } from '../features/planning/components/congestion-char
 import { SurveyUpload } from '../features/planning/components/survey-upload';
 import { ApiError } from '../lib/api';
 import { formatDateTime } from '../lib/format';
+import { PlanningCaution } from '../features/planning/components/planning-caution';
 
 export function ChannelPlanPage() {
   const [band, setBand] = useState<'2.4' | '5'>('2.4');
@@ -77,6 +78,7 @@ export function ChannelPlanPage() {
           {history.data?.map((h) => <li key={h.id}>{formatDateTime(h.changedAt)} — radio {h.radioId}: channel {h.before.channel} → {h.after.channel}{h.changedBy ? ` by ${h.changedBy}` : ''}</li>)}
         </ul>
       </Section>
+      <PlanningCaution />
     </>
   );
 }

@@ -1,6 +1,7 @@
 import { Link } from 'react-router-dom';
 import { PageHeader } from '../components/page-header';
 import { paths } from '../lib/paths';
+import { PlanningCaution } from '../features/planning/components/planning-caution';
 
 const PAGES = [
   { to: paths.linkBudget.to(), title: 'Link budget', text: 'Will a link between two masts close? Loss, signal, fade margin, Fresnel zone and the legal power limit.' },
@@ -24,6 +25,7 @@ export function PlanningPage() {
         ))}
       </ul>
       <p className="mt-6 text-sm text-muted">Each node’s provisioning sheet (every setting to type into its router) opens from the address plan and at /nodes/&lt;id&gt;/provisioning.</p>
+      <PlanningCaution />
     </>
   );
 }

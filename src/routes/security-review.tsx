@@ -3,6 +3,7 @@ import { LoadError, Loading } from '../components/query-state';
 import { SEVERITY_ORDER } from '../../shared/security/review';
 import { useSecurityReview } from '../features/planning/api/planning';
 import { SeverityBadge } from '../features/planning/components/severity-badge';
+import { PlanningCaution } from '../features/planning/components/planning-caution';
 
 export function SecurityReviewPage() {
   const review = useSecurityReview();
@@ -50,6 +51,7 @@ export function SecurityReviewPage() {
           </table>
         </div>
       </Section>
+      <PlanningCaution />
     </>
   );
 }

@@ -22,7 +22,20 @@ describe('planning in the browser', () => {
     await e2e.page.waitForURL(/\/planning\/link-budget$/);
     const nodeA = await pickEnd('A', 'Granary Tower');
     const nodeB = await pickEnd('B', 'Millbrook Mill');
+    // A building across the path 1 km from A, its top well above both masts: the side view draws it and the verdict says blocked.
+    await e2e.page.getByRole('button', { name: 'Add obstacle' }).click();
+    await e2e.page.getByLabel('Obstacle 1 distance from A (km)').fill('1');
+    await e2e.page.getByLabel('Obstacle 1 top height (m)').fill('400');
     await e2e.page.getByRole('button', { name: 'Compute link budget' }).click();
+    await e2e.page.getByTestId('link-verdict').waitFor();
+    expect(await e2e.page.getByTestId('link-verdict').innerText()).toMatch(/At risk — line of sight blocked/);
+    expect(await e2e.page.getByTestId('link-warnings').innerText()).toMatch(/Line of sight blocked at k = 4\/3: 1\.0 km from a/);
+    await e2e.page.getByTestId('profile-obstacle').first().waitFor({ state: 'attached' });
+    expect(await e2e.page.getByTestId('link-budget-figures').innerText()).toMatch(/Diffraction loss \(worst obstacle\)\s+[1-9][\d.]* dB/);
+    await screenshot(e2e.page, 'link-budget-obstacle-1280');
+    await e2e.page.getByRole('button', { name: 'Remove' }).click();
+    await e2e.page.getByRole('button', { name: 'Compute link budget' }).click();
+    await expect.poll(() => e2e.page.getByTestId('profile-obstacle').count(), { timeout: 15_000 }).toBe(0);
     await e2e.page.getByTestId('link-verdict').waitFor();
     const figures = await e2e.page.getByTestId('link-budget-figures').innerText();
     // The demo places Millbrook Mill 150 m north and 2100 m east of Granary Tower: about 2.1 km.
@@ -30,8 +43,11 @@ describe('planning in the browser', () => {
     expect(km).toBeGreaterThan(2.0);
     expect(km).toBeLessThan(2.25);
     expect(figures).toMatch(/Free-space path loss\s+[\d.]+ dB/);
-    expect(await e2e.page.getByTestId('link-verdict').innerText()).toMatch(/Closes with margin|Marginal|Will not close/);
-    expect(await e2e.page.getByTestId('regulatory-verdict').innerText()).toMatch(/EU limit|not available/);
+    // One scale with the map's legend: Comfortable, Thin or At risk.
+    expect(await e2e.page.getByTestId('link-verdict').innerText()).toMatch(/Comfortable|Thin|At risk/);
+    expect(await e2e.page.getByTestId('regulatory-verdict').innerText()).toMatch(/EU rules|not available/);
+    expect(await e2e.page.getByTestId('width-trade-off').innerText()).toMatch(/20 MHz[\s\S]*40 MHz[\s\S]*80 MHz/);
+    expect(await e2e.page.getByText(/RF exposure/).count()).toBeGreaterThan(0);
     await e2e.page.getByTestId('path-profile').locator('svg polygon').waitFor();
     await screenshot(e2e.page, 'link-budget-1280');
 
