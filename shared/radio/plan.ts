@@ -127,6 +127,10 @@ function losWarning(los: LineOfSight, k: string): string {
 
 /** The link-budget planning answer (API.md): geometry, budget, rates, margin, clearance and warnings. */
 export function computeLinkBudget(input: LinkBudgetInput): LinkBudgetAnswer {
+  if (input.freqMHz < 3000 && input.channelWidthMHz === 80) {
+    // Stored radios saved before the channel rule can still carry this; no rate table exists for it (VHT is 5 GHz only).
+    throw new PlanningError(400, 'no_80mhz_on_24ghz', 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel.');
+  }
   const g = geometry(input);
   const D = g.distanceKm;
   const k = input.kFactor ?? EFFECTIVE_EARTH_K;

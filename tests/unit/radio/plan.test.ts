@@ -86,6 +86,7 @@ describe('computeLinkBudget between two sites', () => {
     expectPlanningError({ ...radio, a }, 'link_geometry_required');
     expectPlanningError({ ...radio, a, b, distanceKm: 3 }, 'link_geometry_required');
     expectPlanningError({ ...radio, distanceKm: 0 }, 'distance_too_short');
+    expectPlanningError({ ...radio, freqMHz: 2437, channelWidthMHz: 80, distanceKm: 1 }, 'no_80mhz_on_24ghz'); // IEEE 802.11-2020 clause 21: VHT is 5 GHz only
   });
 });
 
