@@ -167,7 +167,8 @@ export function computeLinkBudget(input: LinkBudgetInput): LinkBudgetAnswer {
   const horizon = input.a && input.b ? radioHorizonKm(input.a.heightM, input.b.heightM) : null;
   const is24 = input.freqMHz < 3000;
 
-  if (los && !los.clear) warnings.push(losWarning(los, k === EFFECTIVE_EARTH_K ? '4/3' : String(round(k, 3))));
+  const kText = Math.abs(k - 4 / 3) < 0.001 ? '4/3' : Math.abs(k - 2 / 3) < 0.001 ? '2/3' : String(round(k, 3));
+  if (los && !los.clear) warnings.push(losWarning(los, kText));
   if (los?.clear && losWorst && !losWorst.clear) warnings.push(`${losWarning(losWorst, '2/3')} Clear at k = 4/3 but not in worst-case refraction (ITU-R P.530): expect fades on some days.`);
   if (horizon !== null && D > horizon && !input.terrainProfile) warnings.push(`The path (${fmt1(D)} km) is longer than the radio horizon for these antenna heights (${fmt1(horizon)} km): raise the antennas.`);
   if (diffractionLossDb > 0 && knife.obstacle) warnings.push(`The obstacle ${knife.obstacle.distanceKm} km from a costs ${fmt1(diffractionLossDb)} dB of knife-edge diffraction loss (ITU-R P.526); it is included in the received signal.`);

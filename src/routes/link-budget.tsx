@@ -4,7 +4,7 @@ import { Button } from '../components/button';
 import { Caution } from '../components/caution';
 import { CheckboxField, FormMessage, SelectField, TextField } from '../components/form-field';
 import { PageHeader, Section } from '../components/page-header';
-import { channelCenterMHz } from '../../shared/radio/channels';
+import { channelCenterMHz, channelProblem } from '../../shared/radio/channels';
 import type { PlannedLinkEnd } from '../../shared/schemas/planningRecords';
 import { useLinkBudget, useNetworkSettings, useRegulatory, useSavePlannedLink } from '../features/planning/api/planning';
 import type { LinkBudgetAnswer, RegulatoryAnswer } from '../features/planning/api/types';
@@ -18,6 +18,11 @@ import { ApiError } from '../lib/api';
 import { paths } from '../lib/paths';
 
 const num = (s: string) => (s.trim() === '' ? Number.NaN : Number(s));
+/** k may be typed as a fraction, as the trade writes it (4/3, 2/3). */
+const fraction = (s: string) => {
+  const m = /^\s*(\d+(?:\.\d+)?)\s*\/\s*(\d+(?:\.\d+)?)\s*$/.exec(s);
+  return m ? Number(m[1]) / Number(m[2]) : num(s);
+};
 const errorText = (e: unknown) => (e instanceof ApiError ? [e.message, ...e.details.slice(1).map((d) => d.message)].join(' ') : 'Something went wrong. Try again.');
 
 export function LinkBudgetPage() {
@@ -30,7 +35,7 @@ export function LinkBudgetPage() {
   const [radioA, setRadioA] = useState<PickedRadio | null>(null);
   const [, setRadioB] = useState<PickedRadio | null>(null);
   const [radio, setRadio] = useState({ band: '5' as '2.4' | '5', channel: '100', channelWidthMHz: '20', noiseFigureDb: '5' });
-  const [adv, setAdv] = useState({ streams: '1', guardInterval: 'long', kFactor: '1.333', targetRateMbps: '', terrain: false, tpc: true });
+  const [adv, setAdv] = useState({ streams: '1', guardInterval: 'long', kFactor: '4/3', targetRateMbps: '', terrain: false, tpc: true });
   const [obstacles, setObstacles] = useState<ObstacleRow[]>([]);
   const [result, setResult] = useState<{ answer: LinkBudgetAnswer; freqMHz: number; width: number; a: LinkEnd; b: LinkEnd; obstacles: { distanceKm: number; heightM: number }[]; reg: RegulatoryAnswer | null; regError: string | null } | null>(null);
   const [message, setMessage] = useState<string | null>(null);
@@ -43,13 +48,13 @@ export function LinkBudgetPage() {
     e.preventDefault();
     setMessage(null);
     save.reset();
-    let freqMHz: number;
-    try {
-      freqMHz = channelCenterMHz(band, channel);
-    } catch {
-      setMessage(`Channel ${radio.channel} is not a ${band} GHz channel.`);
+    // The same channel rule as stored radios (shared/radio/channels.ts); the region's own limits come back as warnings.
+    const problem = Number.isInteger(channel) ? channelProblem(band, channel, width) : null;
+    if (!Number.isInteger(channel) || problem) {
+      setMessage(problem ? `Channel ${channel} at ${width} MHz: ${problem.field === 'channel' ? 'the channel' : 'the width'} ${problem.message}.` : `Channel ${radio.channel} is not a ${band} GHz channel.`);
       return;
     }
+    const freqMHz = channelCenterMHz(band, channel);
     // With terrain, an empty ground elevation is filled from the tiles; without, it is required as before.
     const ground = (x: LinkEnd) => (adv.terrain && x.groundElevationM.trim() === '' ? {} : { groundElevationM: num(x.groundElevationM) });
     const end = (x: LinkEnd) => ({ lat: num(x.lat), lon: num(x.lon), heightM: num(x.heightM), ...ground(x) });
@@ -59,7 +64,7 @@ export function LinkBudgetPage() {
         a: end(a), b: end(b), freqMHz, channelWidthMHz: width as 20 | 40 | 80, noiseFigureDb: num(radio.noiseFigureDb),
         txPowerDbm: num(a.txPowerDbm), txAntennaGainDbi: num(a.antennaGainDbi), txCableLossDb: num(a.cableLossDb),
         rxAntennaGainDbi: num(b.antennaGainDbi), rxCableLossDb: num(b.cableLossDb),
-        streams: adv.streams === '2' ? 2 : 1, guardInterval: adv.guardInterval === 'short' ? 'short' : 'long', kFactor: num(adv.kFactor),
+        streams: adv.streams === '2' ? 2 : 1, guardInterval: adv.guardInterval === 'short' ? 'short' : 'long', kFactor: fraction(adv.kFactor),
         obstacles: obstacleBody, terrain: adv.terrain,
         ...(adv.targetRateMbps.trim() ? { targetRateMbps: num(adv.targetRateMbps) } : {}),
         ...(region === 'US' || region === 'EU' ? { region } : {}),

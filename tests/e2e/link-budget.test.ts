@@ -70,7 +70,7 @@ describe('planning in the browser', () => {
     await line.waitFor({ state: 'attached' });
     expect(await line.getAttribute('stroke-dasharray')).toBeTruthy();
     await screenshot(e2e.page, 'link-budget-saved-on-topology');
-  });
+  }, 180_000);
 
   const PAGES = [
     ['link-budget', '/planning/link-budget', 'link-end-a'],
@@ -98,8 +98,9 @@ describe('planning in the browser', () => {
         await e2e.page.getByTestId('congestion-chart').first().waitFor();
       }
       await screenshot(e2e.page, `planning-${name}-${width}`);
+      expect(await e2e.page.getByTestId(name === 'link-budget' ? 'link-end-a' : 'planning-caution').count()).toBeGreaterThan(0);
     }
-  });
+  }, 180_000);
 
   it('shows a provisioning sheet with the key to the neighbourhood’s operator', async () => {
     for (const width of [1280, 375]) {
