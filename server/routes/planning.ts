@@ -1,7 +1,8 @@
 import { Router } from 'express';
 import type { Sequelize } from 'sequelize';
 import { linkBudgetWithTerrain } from '../services/linkPrediction';
-import { listChannels } from '../../shared/radio/channels';
+import { listChannels, validChannels } from '../../shared/radio/channels';
+import { Invalid } from '../errors';
 import { computeRegulatory } from '../../shared/radio/regulatory';
 import { planAddressPool } from '../../shared/addressing/poolPlan';
 import { addressPlanBodySchema, channelsQuerySchema, linkBudgetBodySchema, regulatoryBodySchema } from '../../shared/schemas/planning';
@@ -24,7 +25,12 @@ export function planningRoutes(sequelize: Sequelize) {
     res.json(computeRegulatory(res.locals.body));
   });
   router.get('/channels', validate('query', channelsQuerySchema), (_req, res) => {
-    res.json(listChannels(res.locals.query.region, res.locals.query.band));
+    const { region, band, channelWidthMHz } = res.locals.query;
+    const all = listChannels(region, band);
+    if (channelWidthMHz === undefined) return void res.json(all);
+    if (band === '2.4' && channelWidthMHz === 80) throw Invalid('2.4 GHz has no 80 MHz channels; ask for 20 or 40.', [{ path: 'channelWidthMHz', message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' }]);
+    const ok = new Set(validChannels(band, channelWidthMHz, region));
+    res.json({ channels: all.channels.filter((c) => ok.has(c.channel)) });
   });
   router.post('/address-plan', validate('body', addressPlanBodySchema), (_req, res) => {
     res.json(planAddressPool(res.locals.body));

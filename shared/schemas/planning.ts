@@ -87,6 +87,8 @@ export type RegulatoryBody = z.input<typeof regulatoryBodySchema>;
 export const channelsQuerySchema = z.object({
   region: z.enum(['US', 'EU', 'JP'], { error: 'region must be US, EU or JP' }),
   band: z.enum(['2.4', '5'], { error: 'band must be 2.4 or 5' }),
+  /** Optional: only the primaries whose whole block at this width is allowed (validChannels). */
+  channelWidthMHz: z.enum(['20', '40', '80'], { error: 'channelWidthMHz must be 20, 40 or 80' }).transform(Number).optional(),
 });
 export type ChannelsQuery = z.infer<typeof channelsQuerySchema>;
 

@@ -157,6 +157,12 @@ describe('planning routes', () => {
     expect(c52.centerMHz).toBe(5260);
     expect(c52.note).toMatch(/DFS/);
     expect((await op.get('/api/v1/planning/channels?region=XX&band=2.4')).status).toBe(400);
+    // At a width, only primaries whose whole fixed block is allowed (IEEE 802.11 bonding; ETSI EN 301 893 ends at 5725 MHz)
+    const eu80 = await op.get('/api/v1/planning/channels?region=EU&band=5&channelWidthMHz=80');
+    expect(eu80.body.channels.map((c: { channel: number }) => c.channel)).toEqual([36, 40, 44, 48, 52, 56, 60, 64, 100, 104, 108, 112, 116, 120, 124, 128]);
+    const no80 = await op.get('/api/v1/planning/channels?region=EU&band=2.4&channelWidthMHz=80');
+    expect(no80.status).toBe(400);
+    expect(no80.body.error.details[0].path).toBe('channelWidthMHz');
   });
 
   it('allocates the first free subnets in address order, skipping taken ones (RFC 4632)', async () => {
