@@ -42,6 +42,10 @@ describe('allowed channels per region', () => {
       expect(c.centerMHz).toBe(5000 + 5 * c.channel);
     }
   });
+  it('EU channels 120–128 touch the 5600–5650 MHz weather-radar band: a 10 minute check (ETSI EN 301 893)', () => {
+    const list = listChannels('EU', '5').channels;
+    for (const c of list.filter((x) => x.channel >= 100)) expect(/10 min/.test(c.note ?? '')).toBe(c.channel >= 120 && c.channel <= 128); // 5590–5650 MHz
+  });
   it('EU 5 GHz stops at channel 140 (5470–5725 MHz)', () => {
     const list = numbers('EU', '5'); // ETSI EN 301 893: 5470–5725 MHz
     expect(list).toContain(140);
