@@ -8,7 +8,9 @@ export interface TileSummary { name: string; south: number; west: number; sample
 
 /** Decoded tiles kept in memory by name and upload time, so a second budget over the same ground reads no bytea. */
 const cache = new Map<string, { createdAt: number; tile: HgtTile }>();
-const MAX_CACHED = 16;
+const MAX_CACHED = 6;
+/** A 1″ tile decodes to 26 MB; a path crossing more tiles than this is refused rather than risk the server's memory. */
+export const MAX_TILES_PER_PATH = 8;
 
 export async function saveTile(sequelize: Sequelize, tile: HgtTile, bytes: Uint8Array, userId: number): Promise<TileSummary> {
   const [row] = await sequelize.query<{ createdAt: Date }>(
@@ -72,6 +74,10 @@ export async function terrainProfile(sequelize: Sequelize, a: GeoPoint, b: GeoPo
   const n = profileSamples(geodesicDistanceKm(a, b));
   const points = geodesicPoints(a, b, n);
   const needed = [...new Set(points.flatMap((p) => tilesForPoint(p.lat, p.lon)))];
+  const crossed = new Set(points.map((p) => tilesForPoint(p.lat, p.lon)[0]));
+  if (crossed.size > MAX_TILES_PER_PATH) {
+    throw new PlanningError(400, 'terrain_path_too_long', `The path crosses ${crossed.size} elevation tiles; terrain profiles are drawn over at most ${MAX_TILES_PER_PATH} tiles. Plan it without terrain, or in shorter hops.`);
+  }
   const tiles = await loadTiles(sequelize, needed);
   const missing = new Set<string>();
   const out: GroundPoint[] = [];

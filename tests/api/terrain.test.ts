@@ -96,6 +96,10 @@ describe('terrain tiles and link budgets over real ground', () => {
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('terrain_not_covered');
     expect(res.body.error.message).toMatch(/missing .*N48E009\.hgt/);
+    // Far north a degree of longitude is about 37 km: 480 km east–west at 70.5° N crosses 13 tiles, more than the 8 allowed.
+    const long = await call(admin, 'post', '/api/v1/planning/link-budget', { ...radio, terrain: true, a: { lat: 70.5, lon: 10.05, heightM: 30 }, b: { lat: 70.5, lon: 22.95, heightM: 30 } });
+    expect(long.status).toBe(400);
+    expect(long.body.error.message).toMatch(/crosses 13 elevation tiles/);
     const dist = await call(admin, 'post', '/api/v1/planning/link-budget', { ...radio, terrain: true, distanceKm: 3 });
     expect(dist.status).toBe(400);
     expect(dist.body.error.details).toEqual([{ path: 'terrain', message: 'terrain needs sites a and b, not distanceKm' }]);
