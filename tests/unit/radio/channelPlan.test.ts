@@ -1,7 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { congestionMwByChannel, planningSpan, recommendChannels, surveyedSpan, type RadioOnAir, type RadioToPlan } from '../../../shared/radio/channelPlan';
 import { PlanningError } from '../../../shared/radio/errors';
-import { freeSpacePathLossDb } from '../../../shared/radio/pathLoss';
 
 // A made-up rooftop in the demo town; 0.001° of latitude ≈ 111 m.
 const here = { lat: 47.5, lon: 8.7 };
@@ -34,7 +33,8 @@ describe('recommendChannels', () => {
     const [p] = recommendChannels({ region: 'US', radios: [ap(1, 10)], nearby });
     expect(p.channel).toBe(11);
     // cost ≈ 20 dBm − FSPL(2462 MHz, 3 km) from node 22 plus the partial overlap of channel 10 at 60 m
-    const farMw = 10 ** ((20 - freeSpacePathLossDb(2462, 3)) / 10);
+    // ITU-R P.525 §2.2: 32.45 + 20·log10(2462) + 20·log10(3) = 32.45 + 67.83 + 9.54 = 109.82 dB
+    const farMw = 10 ** ((20 - 109.82) / 10);
     expect(p.interferenceMw).toBeGreaterThan(farMw);
   });
 

@@ -88,10 +88,10 @@ describe('overlap = intersection of [f − w/2, f + w/2]', () => {
 
 describe('bonded channels', () => {
   it('5 GHz blocks follow IEEE 802.11 numbering (38, 42, 46, 155)', () => {
-    expect(occupiedSpan('5', 40, 40).centerMHz).toBe(channelCenterMHz('5', 38)); // 36+40 → channel 38
-    expect(occupiedSpan('5', 44, 80).centerMHz).toBe(channelCenterMHz('5', 42)); // 36–48 → channel 42
+    expect(occupiedSpan('5', 40, 40).centerMHz).toBe(5190); // 36+40 → channel 38 = 5000 + 5·38 (IEEE 802.11 numbering)
+    expect(occupiedSpan('5', 44, 80).centerMHz).toBe(5210); // 36–48 → channel 42 = 5210 MHz
     expect(occupiedSpan('5', 48, 40).channels).toEqual([44, 48]); // → channel 46
-    expect(occupiedSpan('5', 157, 80)).toEqual({ centerMHz: channelCenterMHz('5', 155), widthMHz: 80, channels: [149, 153, 157, 161] });
+    expect(occupiedSpan('5', 157, 80)).toEqual({ centerMHz: 5775, widthMHz: 80, channels: [149, 153, 157, 161] });
   });
   it('2.4 GHz 40 MHz goes up to channel 7 and down from 8', () => {
     expect(occupiedSpan('2.4', 1, 40).centerMHz).toBe(2422); // common practice HT40+: centre of channel 3
