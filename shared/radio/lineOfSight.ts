@@ -120,5 +120,6 @@ export function roundTripUs(distanceKm: number): number {
 export const ACK_DISTANCE_WARNING_KM = 3;
 /** The distance setting to enter: the path plus 10 %, rounded up to a whole km (common practice, no source). */
 export function ackDistanceSettingKm(distanceKm: number): number {
-  return Math.ceil(distanceKm * 1.1);
+  // Rounded to 1 mm first, so 50 km × 1.1 = 55.000000000000007 asks for 55 km, not 56.
+  return Math.ceil(Math.round(distanceKm * 1.1 * 1e6) / 1e6);
 }
