@@ -1,4 +1,4 @@
-import { keepPreviousData, useMutation, useQuery, useQueryClient, type QueryKey } from '@tanstack/react-query';
+import { keepPreviousData, queryOptions, useMutation, useQuery, useQueryClient, type QueryKey } from '@tanstack/react-query';
 import type { ListEnvelope } from '../../shared/schemas/common';
 import { api } from './api';
 import type { ListParams } from './query-keys';
@@ -15,6 +15,18 @@ interface ResourceKeys {
 }
 
 /**
+ * The one query behind a resource's list key: the key always holds the whole list envelope
+ * (rows, pagination, abilities). Readers that want only the rows narrow it with `select`, never
+ * by storing a different shape under the same key.
+ */
+export function listQuery<Dto>(path: string, keys: Pick<ResourceKeys, 'list'>, params: ListParams) {
+  return queryOptions({ queryKey: keys.list(params), queryFn: () => api.get<ListResponse<Dto>>(path, params) });
+}
+
+/** The rows of a list envelope, for `select`. */
+export const rowsOf = <Dto,>(body: ListResponse<Dto>): Dto[] => body.data;
+
+/**
  * The read and write hooks every inventory resource shares. `related` are the keys whose
  * figures a change here also moves (counts on the overview, a neighbourhood's node count).
  */
@@ -28,8 +40,7 @@ export function resourceHooks<Dto, Create, Update>(path: string, keys: ResourceK
   return {
     useList(params: ListParams, options: { enabled?: boolean } = {}) {
       return useQuery({
-        queryKey: keys.list(params),
-        queryFn: () => api.get<ListResponse<Dto>>(path, params),
+        ...listQuery<Dto>(path, keys, params),
         placeholderData: keepPreviousData,
         enabled: options.enabled ?? true,
       });

@@ -4,7 +4,7 @@ import type { NeighbourhoodDto, NeighbourhoodSummaryDto, neighbourhoodCreateSche
 import type { NodeDto } from '../../../../shared/schemas/node';
 import { api } from '../../../lib/api';
 import { type ListParams, neighbourhoodKeys, neighbourhoodSummaryKeys, nodeKeys, overviewKeys, peopleKeys } from '../../../lib/query-keys';
-import { type ListResponse, resourceHooks } from '../../../lib/resource';
+import { listQuery, resourceHooks } from '../../../lib/resource';
 
 type NeighbourhoodCreate = z.output<typeof neighbourhoodCreateSchema>;
 type NeighbourhoodUpdate = z.output<typeof neighbourhoodUpdateSchema>;
@@ -52,5 +52,5 @@ export function useAssignNodes(id: number) {
 
 /** Candidate nodes for the bulk move: the same list the nodes page reads, filtered on the server. */
 export function useNodeCandidates(params: ListParams) {
-  return useQuery({ queryKey: nodeKeys.list(params), queryFn: () => api.get<ListResponse<NodeDto>>('/nodes', params), placeholderData: keepPreviousData });
+  return useQuery({ ...listQuery<NodeDto>('/nodes', nodeKeys, params), placeholderData: keepPreviousData });
 }
