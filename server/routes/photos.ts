@@ -1,8 +1,9 @@
-import { Router, type Response } from 'express';
+import path from 'node:path';
+import { Router, type NextFunction, type Response } from 'express';
 import type { Sequelize } from 'sequelize';
 import { idParamsSchema } from '../../shared/schemas/common';
 import { photoCaptionSchema } from '../../shared/schemas/photo';
-import { NotFound } from '../errors';
+import { ApiError, NotFound } from '../errors';
 import type { Config } from '../config';
 import { actorOf } from '../middlewares/requireUser';
 import { requireFile, singleUpload } from '../middlewares/upload';
@@ -39,10 +40,11 @@ export function sitePhotoRoutes(sequelize: Sequelize, settings: Config) {
     const { caption } = parseOrThrow(photoCaptionSchema, { caption: req.body?.caption || undefined }, 'photo form');
     const prepared = await preparePhoto(file.buffer);
     const key = store.newKey();
-    await store.write(key, file.buffer, prepared.thumbnail);
+    // Only the cleaned picture is kept: the uploaded bytes may carry where it was taken and who took it.
+    await store.write(key, prepared.original, prepared.thumbnail);
     try {
       const photo = await Photo.create({
-        siteId: site.id, storageKey: key, contentType: prepared.contentType, sizeBytes: file.size,
+        siteId: site.id, storageKey: key, contentType: prepared.contentType, sizeBytes: prepared.original.length,
         widthPx: prepared.widthPx, heightPx: prepared.heightPx, hasThumbnail: true, caption: caption ?? null, uploadedBy: actor.id,
       });
       res.status(201).json({ data: presentPhoto(photo, photoAbilities(actor, site)) });
@@ -71,22 +73,27 @@ export function photoRoutes(sequelize: Sequelize, settings: Config) {
     }
   }
 
-  const send = (res: Response, file: string, type: string, name: string) => {
-    res.set({ 'Content-Type': type, 'Cache-Control': 'private, max-age=3600', 'Content-Disposition': `inline; filename="${name}"` });
-    res.sendFile(file, (err) => {
-      if (err && !res.headersSent) res.status(404).json({ error: { code: 'not_found', message: 'The photo file is missing on the server.' } });
+  // Served relative to the store's folder: send refuses any path with a dot-segment ("dotfiles"), and the
+  // store of a real install lives under .data/; with `root` only the file's own name is checked.
+  // The headers go through sendFile so they are set only when the file is really sent, and a missing
+  // file is answered as JSON, not under the picture's content type.
+  const send = (res: Response, next: NextFunction, file: string, type: string, name: string) => {
+    const headers = { 'Content-Type': type, 'Cache-Control': 'private, max-age=3600', 'Content-Disposition': `inline; filename="${name}"` };
+    res.sendFile(path.basename(file), { root: store.dir, headers, dotfiles: 'deny' }, (err?: Error & { code?: string }) => {
+      if (!err || err.code === 'ECONNABORTED' || res.headersSent) return; // sent, or the client went away mid-file
+      next(new ApiError(404, 'photo_file_missing', 'The file of this photo is missing on the server. Ask an admin to restore it from a backup, or remove the photo and upload it again.'));
     });
   };
 
-  router.get('/:id', validate('params', idParamsSchema), async (req, res) => {
+  router.get('/:id', validate('params', idParamsSchema), async (req, res, next) => {
     const { photo } = await readablePhoto(actorOf(req), res.locals.params.id);
-    send(res, store.fileOf(photo.storageKey), photo.contentType, `site-${photo.siteId}-photo-${photo.id}.${EXT[photo.contentType]}`);
+    send(res, next, store.fileOf(photo.storageKey), photo.contentType, `site-${photo.siteId}-photo-${photo.id}.${EXT[photo.contentType]}`);
   });
 
-  router.get('/:id/thumbnail', validate('params', idParamsSchema), async (req, res) => {
+  router.get('/:id/thumbnail', validate('params', idParamsSchema), async (req, res, next) => {
     const { photo } = await readablePhoto(actorOf(req), res.locals.params.id);
     if (!photo.hasThumbnail) throw NotFound(`A thumbnail of photo ${photo.id}`);
-    send(res, store.thumbOf(photo.storageKey), 'image/webp', `site-${photo.siteId}-photo-${photo.id}-small.webp`);
+    send(res, next, store.thumbOf(photo.storageKey), 'image/webp', `site-${photo.siteId}-photo-${photo.id}-small.webp`);
   });
 
   router.delete('/:id', validate('params', idParamsSchema), async (req, res) => {

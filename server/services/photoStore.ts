@@ -21,12 +21,28 @@ const unsupported = () =>
 
 export interface PreparedPhoto {
   contentType: PhotoContentType;
+  /** The picture as stored: upright, with its EXIF, XMP and text metadata (GPS, camera owner, …) removed. */
+  original: Buffer;
   widthPx: number | null;
   heightPx: number | null;
   thumbnail: Buffer;
 }
 
-/** Checks the bytes really are a photo of an allowed type and makes a 320 px thumbnail (WebP, metadata stripped). */
+type PhotoFormat = keyof typeof PHOTO_TYPES;
+
+// Re-encoded in the format it came in; PNG stays lossless. The colour profile is kept: it holds no personal data.
+function encode(image: sharp.Sharp, format: PhotoFormat): sharp.Sharp {
+  const kept = image.keepIccProfile();
+  if (format === 'jpeg') return kept.jpeg({ quality: 90 });
+  if (format === 'png') return kept.png();
+  return kept.webp({ quality: 90 });
+}
+
+/**
+ * Checks the bytes really are a photo of an allowed type, turns it upright from its EXIF orientation and
+ * re-encodes it without metadata (sharp drops EXIF, XMP and IPTC unless asked to keep them), and makes a
+ * 320 px WebP thumbnail. Phones write the place a photo was taken and often the owner's name into EXIF.
+ */
 export async function preparePhoto(bytes: Buffer): Promise<PreparedPhoto> {
   const contentType = sniffImageType(bytes);
   if (!contentType) throw unsupported();
@@ -34,9 +50,14 @@ export async function preparePhoto(bytes: Buffer): Promise<PreparedPhoto> {
     // A decompression bomb stops at 50 megapixels; the format sharp decodes must match the sniffed one.
     const image = sharp(bytes, { limitInputPixels: 50_000_000, failOn: 'error' });
     const meta = await image.metadata();
-    if (!meta.format || PHOTO_TYPES[meta.format as keyof typeof PHOTO_TYPES] !== contentType) throw unsupported();
-    const thumbnail = await image.rotate().resize({ width: 320, height: 320, fit: 'inside', withoutEnlargement: true }).webp({ quality: 75 }).toBuffer();
-    return { contentType, widthPx: meta.width ?? null, heightPx: meta.height ?? null, thumbnail };
+    const format = meta.format as PhotoFormat | undefined;
+    if (!format || PHOTO_TYPES[format] !== contentType) throw unsupported();
+    const upright = image.rotate(); // applies the EXIF orientation, so the picture needs no Orientation tag
+    const [original, thumbnail] = await Promise.all([
+      encode(upright.clone(), format).toBuffer({ resolveWithObject: true }),
+      upright.clone().resize({ width: 320, height: 320, fit: 'inside', withoutEnlargement: true }).webp({ quality: 75 }).toBuffer(),
+    ]);
+    return { contentType, original: original.data, widthPx: original.info.width ?? null, heightPx: original.info.height ?? null, thumbnail };
   } catch (err) {
     if (err instanceof ApiError) throw err;
     throw new ApiError(415, 'unreadable_image', 'The photo could not be read: the file looks damaged or is not an image. Try exporting it again.');
@@ -52,6 +73,8 @@ export function photoStore(dataDir: string) {
   };
   const thumbOf = (key: string) => `${fileOf(key)}.thumb.webp`;
   return {
+    /** The folder the files live in; files are served relative to it (see routes/photos.ts). */
+    dir,
     newKey: () => randomBytes(16).toString('hex'),
     fileOf,
     thumbOf,

@@ -9,7 +9,10 @@ import { buildUser, call, signIn, useApi, type Agent } from '../helpers/api';
 import { buildNeighbourhood, buildSite } from '../helpers/factories';
 
 // Settings are read when the app is made: a small limit keeps the "too large" file small.
-const dataDir = fs.mkdtempSync(path.join(os.tmpdir(), 'parapet-photos-'));
+// The store sits under a dot-directory, as in a real install (start.sh keeps its data in .data/).
+const scratch = fs.mkdtempSync(path.join(os.tmpdir(), 'parapet-photos-'));
+const dataDir = path.join(scratch, '.data', 'uploads');
+fs.mkdirSync(dataDir, { recursive: true });
 process.env.DATA_DIR = dataDir;
 process.env.PHOTO_MAX_BYTES = String(64 * 1024);
 const photosDir = path.join(dataDir, 'photos');
@@ -17,6 +20,32 @@ const filesOnDisk = () => (fs.existsSync(photosDir) ? fs.readdirSync(photosDir).
 
 const image = (format: 'jpeg' | 'png' | 'webp') =>
   sharp({ create: { width: 64, height: 48, channels: 3, background: '#0a7' } })[format]().toBuffer();
+
+/**
+ * The tag ids of a TIFF/EXIF block's first IFD (TIFF 6.0 §2: byte order "II"/"MM", magic 42, offset of IFD0;
+ * each entry 12 bytes, tag first). sharp's `metadata().exif` starts with "Exif\0\0" before the TIFF header.
+ */
+function ifd0Tags(exif: Buffer): number[] {
+  const tiff = exif.subarray(exif.toString('latin1', 0, 4) === 'Exif' ? 6 : 0);
+  const le = tiff.toString('latin1', 0, 2) === 'II';
+  const u16 = (at: number) => (le ? tiff.readUInt16LE(at) : tiff.readUInt16BE(at));
+  const u32 = (at: number) => (le ? tiff.readUInt32LE(at) : tiff.readUInt32BE(at));
+  const ifd = u32(4);
+  return Array.from({ length: u16(ifd) }, (_, i) => u16(ifd + 2 + 12 * i));
+}
+const ARTIST_TAG = 0x013b; // TIFF 6.0 / CIPA DC-008 (Exif 2.32) tag 315, Artist
+const GPS_IFD_TAG = 0x8825; // CIPA DC-008 (Exif 2.32) §4.6.3: GPS Info IFD pointer
+
+/** A phone-like JPEG: 64 × 32 pixels stored sideways (EXIF orientation 6), with its owner's name and a GPS position. */
+const phoneJpeg = () =>
+  sharp({ create: { width: 64, height: 32, channels: 3, background: '#0a7' } })
+    .jpeg()
+    .withMetadata({ orientation: 6 })
+    .withExifMerge({ IFD0: { Artist: 'Odile Brenner' }, IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '52/1 4/1 12/1', GPSLongitudeRef: 'E', GPSLongitude: '4/1 18/1 3/1' } })
+    .toBuffer();
+
+const bytesOf = (agent: Agent, url: string) =>
+  agent.get(url).buffer(true).parse((r, cb) => { const c: Buffer[] = []; r.on('data', (d: Buffer) => c.push(d)); r.on('end', () => cb(null, Buffer.concat(c))); });
 
 describe('site photos API', () => {
   const ctx = useApi();
@@ -38,7 +67,7 @@ describe('site photos API', () => {
     otherOperator = await signIn(ctx, await buildUser({ role: 'operator' }));
     host = await signIn(ctx, hostUser);
   });
-  afterAll(() => fs.rmSync(dataDir, { recursive: true, force: true }));
+  afterAll(() => fs.rmSync(scratch, { recursive: true, force: true }));
 
   const upload = (agent: Agent, id: number, file: Buffer, filename = 'roof.jpg', contentType = 'image/jpeg', field = 'photo') =>
     agent.post(`/api/v1/sites/${id}/photos`).set('X-CSRF-Token', agent.csrf).attach(field, file, { filename, contentType });
@@ -65,19 +94,68 @@ describe('site photos API', () => {
     const res = await upload(hoodOperator, siteId, bytes, 'holiday.gif', 'application/octet-stream').field('caption', 'Mast from the north');
     expect(res.status).toBe(201);
     const expectedType = { jpeg: 'image/jpeg', png: 'image/png', webp: 'image/webp' }[format];
-    expect(res.body.data).toMatchObject({ siteId, contentType: expectedType, sizeBytes: bytes.length, widthPx: 64, heightPx: 48, caption: 'Mast from the north', abilities: { delete: true } });
+    expect(res.body.data).toMatchObject({ siteId, contentType: expectedType, widthPx: 64, heightPx: 48, caption: 'Mast from the north', abilities: { delete: true } });
     expect(JSON.stringify(res.body)).not.toMatch(/holiday|storageKey/);
     const row = await Photo.findByPk(res.body.data.id);
     expect(row!.storageKey).toMatch(/^[0-9a-f]{32}$/);
     expect(filesOnDisk()).toEqual(expect.arrayContaining([row!.storageKey, `${row!.storageKey}.thumb.webp`]));
+    const stored = fs.readFileSync(path.join(photosDir, row!.storageKey));
+    expect(res.body.data.sizeBytes).toBe(stored.length);
 
-    const original = await hoodOperator.get(res.body.data.url).buffer(true).parse((r, cb) => { const c: Buffer[] = []; r.on('data', (d: Buffer) => c.push(d)); r.on('end', () => cb(null, Buffer.concat(c))); });
+    // Downloads work from a store under a dot-directory, and give back exactly the stored picture.
+    const original = await bytesOf(hoodOperator, res.body.data.url);
     expect(original.status).toBe(200);
     expect(original.headers['content-type']).toBe(expectedType);
-    expect(Buffer.compare(original.body as Buffer, bytes)).toBe(0);
-    const thumb = await hoodOperator.get(res.body.data.thumbnailUrl);
+    expect(original.headers['content-disposition']).toMatch(new RegExp(`filename="site-${siteId}-photo-${row!.id}\\.`));
+    expect(Buffer.compare(original.body as Buffer, stored)).toBe(0);
+    expect(await sharp(original.body as Buffer).metadata()).toMatchObject({ format: format, width: 64, height: 48 });
+    const thumb = await bytesOf(hoodOperator, res.body.data.thumbnailUrl);
     expect(thumb.status).toBe(200);
     expect(thumb.headers['content-type']).toBe('image/webp');
+    expect(await sharp(thumb.body as Buffer).metadata()).toMatchObject({ format: 'webp' });
+  });
+
+  it('keeps no EXIF of an upload (owner, GPS position), and turns the picture upright from its orientation', async () => {
+    const upload0 = await phoneJpeg();
+    const sent = await sharp(upload0).metadata();
+    // The fixture really carries what must go: orientation 6, the owner's name and a GPS block.
+    expect(sent).toMatchObject({ width: 64, height: 32, orientation: 6 });
+    expect(ifd0Tags(sent.exif!)).toEqual(expect.arrayContaining([ARTIST_TAG, GPS_IFD_TAG]));
+    expect(upload0.toString('latin1')).toContain('Odile Brenner');
+
+    const res = await upload(hoodOperator, siteId, upload0, 'IMG_2041.jpg');
+    expect(res.status).toBe(201);
+    // Orientation 6 is "rotate 90° clockwise to view" (CIPA DC-008 tag 274), so 64 × 32 stands up as 32 × 64.
+    expect(res.body.data).toMatchObject({ contentType: 'image/jpeg', widthPx: 32, heightPx: 64 });
+    const row = await Photo.findByPk(res.body.data.id);
+    for (const file of [row!.storageKey, `${row!.storageKey}.thumb.webp`]) {
+      const bytes = fs.readFileSync(path.join(photosDir, file));
+      const meta = await sharp(bytes).metadata();
+      expect(meta.exif, file).toBeUndefined();
+      expect(meta.xmp, file).toBeUndefined();
+      expect(meta.orientation, file).toBeUndefined();
+      expect(bytes.toString('latin1'), file).not.toContain('Odile Brenner');
+      expect([meta.width, meta.height], file).toEqual([32, 64]);
+    }
+    const downloaded = await bytesOf(hoodOperator, res.body.data.url);
+    expect(downloaded.status).toBe(200);
+    expect((await sharp(downloaded.body as Buffer).metadata()).exif).toBeUndefined();
+  });
+
+  it('answers a photo whose file went missing with a JSON 404, not an empty picture', async () => {
+    const res = await upload(hoodOperator, siteId, jpeg);
+    expect(res.status).toBe(201);
+    const row = await Photo.findByPk(res.body.data.id);
+    fs.rmSync(path.join(photosDir, row!.storageKey));
+    fs.rmSync(path.join(photosDir, `${row!.storageKey}.thumb.webp`));
+    for (const url of [res.body.data.url, res.body.data.thumbnailUrl]) {
+      const missing = await call(hoodOperator, 'get', url);
+      expect(missing.status, url).toBe(404);
+      expect(missing.headers['content-type'], url).toMatch(/^application\/json/);
+      expect(missing.headers['content-disposition'], url).toBeUndefined();
+      expect(missing.body.error).toMatchObject({ code: 'photo_file_missing', message: expect.stringMatching(/missing on the server.*restore it from a backup/) });
+    }
+    expect((await call(hoodOperator, 'delete', res.body.data.url)).status).toBe(204);
   });
 
   it('ignores a path-traversal file name: the file lands only under the photos folder, under its random name', async () => {
