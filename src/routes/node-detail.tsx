@@ -8,6 +8,7 @@ import { LoadError, Loading } from '../components/query-state';
 import { StateBadge } from '../components/state-badge';
 import { MaintenanceWindows } from '../features/alerts/components/maintenance-windows';
 import { useLinks } from '../features/links/api/links';
+import { LinkEditor } from '../features/links/components/link-editor';
 import { LinksTable } from '../features/links/components/links-table';
 import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
 import { useDeleteNode, useNode, useNodes } from '../features/nodes/api/nodes';
@@ -19,9 +20,10 @@ import { NodeForm } from '../features/nodes/components/node-form';
 import { NodeSummary } from '../features/nodes/components/node-summary';
 import { useOutages } from '../features/outages/api/outages';
 import { OutagesTable } from '../features/outages/components/outages-table';
-import { useRadios } from '../features/radios/api/radios';
 import { LinkHealthCard } from '../features/planning/components/link-health-panel';
-import { RadiosTable } from '../features/radios/components/radios-table';
+import { NodeRadios } from '../features/radios/components/node-radios';
+import { channelRegionOf } from '../features/radios/components/radio-form';
+import { useNetworkSettings } from '../features/planning/api/planning';
 import { useSites } from '../features/sites/api/sites';
 import { ApiError } from '../lib/api';
 import { paths } from '../lib/paths';
@@ -40,7 +42,8 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
   const node = useNode(nodeId);
   const sites = useSites(ALL_BY_NAME);
   const neighbourhoods = useNeighbourhoods(ALL_BY_NAME);
-  const radios = useRadios({ nodeId, ...ALL_ROWS });
+  const settings = useNetworkSettings();
+  const region = channelRegionOf(settings.data?.region);
   const links = useLinks({ nodeId, ...ALL_ROWS });
   const allNodes = useNodes(ALL_BY_NAME);
   const remove = useDeleteNode(nodeId);
@@ -153,38 +156,34 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
       </Section>
 
       <Section title="Radios">
-        {radios.isPending ? (
-          <Loading label="Loading radios…" />
-        ) : radios.isError ? (
-          <LoadError error={radios.error} />
-        ) : radios.data.data.length === 0 ? (
-          <EmptyState title="No radios recorded for this node" />
-        ) : (
-          <RadiosTable radios={radios.data.data} />
-        )}
+        <NodeRadios nodeId={record.id} canManage={record.abilities.update} region={region} />
       </Section>
 
       <Section title="Links">
-        {links.isPending ? (
-          <Loading label="Loading links…" />
-        ) : links.isError ? (
-          <LoadError error={links.error} />
-        ) : links.data.data.length === 0 ? (
-          <EmptyState title="No links to or from this node" />
-        ) : (
-          <>
-            <LinksTable links={links.data.data} nodeId={record.id} nodeNames={nameLookup(allNodes.data?.data)} />
-            <div className="mt-3 grid gap-3 md:grid-cols-2">
-              {links.data.data
-                .filter((l) => l.status === 'live')
-                .map((l) => (
-                  <div key={l.id} className="min-w-0">
-                    <LinkHealthCard linkId={l.id} />
-                  </div>
-                ))}
-            </div>
-          </>
-        )}
+        <LinkEditor nodeId={record.id} canManage={record.abilities.update}>
+          {(actionsFor) =>
+            links.isPending ? (
+              <Loading label="Loading links…" />
+            ) : links.isError ? (
+              <LoadError error={links.error} />
+            ) : links.data.data.length === 0 ? (
+              <EmptyState title="No links to or from this node" />
+            ) : (
+              <>
+                <LinksTable links={links.data.data} nodeId={record.id} nodeNames={nameLookup(allNodes.data?.data)} actions={(l) => actionsFor(l.id)} />
+                <div className="mt-3 grid gap-3 md:grid-cols-2">
+                  {links.data.data
+                    .filter((l) => l.status === 'live')
+                    .map((l) => (
+                      <div key={l.id} className="min-w-0">
+                        <LinkHealthCard linkId={l.id} />
+                      </div>
+                    ))}
+                </div>
+              </>
+            )
+          }
+        </LinkEditor>
       </Section>
 
       {record.abilities.update && (

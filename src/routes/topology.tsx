@@ -5,16 +5,29 @@ import { EmptyState } from '../components/empty-state';
 import { PageHeader } from '../components/page-header';
 import { LoadError, Loading } from '../components/query-state';
 import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
+import { useNode } from '../features/nodes/api/nodes';
 import { NodeQuickLook } from '../features/nodes/components/node-quick-look';
+import { LinkEditor } from '../features/links/components/link-editor';
 import { useTopology } from '../features/topology/api/topology';
 import { NodeLinks } from '../features/topology/components/node-links';
 import { TopologyLegend } from '../features/topology/components/topology-legend';
 import { TopologyView } from '../features/topology/components/topology-view';
+import type { TopologyLink, TopologyNode } from '../features/topology/api/topology';
 import type { GraphFilters } from '../features/topology/utils/flow-elements';
 import { ALL_BY_NAME, idFromParam, toOptions } from '../lib/resource';
 
 function stateFrom(text: string | null): NodeState | undefined {
   return NODE_STATES.find((state) => state === text);
+}
+
+/** The selected node's links on the map, with adding, editing and removing them for those who manage the node. */
+function MapLinkTools({ node, links, names }: { node: TopologyNode; links: TopologyLink[]; names: Map<number, string> }) {
+  const record = useNode(node.id);
+  return (
+    <LinkEditor nodeId={node.id} canManage={record.data?.abilities.update ?? false}>
+      {(actionsFor) => <NodeLinks node={node} links={links} names={names} actions={actionsFor} />}
+    </LinkEditor>
+  );
 }
 
 export function TopologyPage() {
@@ -74,7 +87,7 @@ export function TopologyPage() {
               selected && (
                 <div className="space-y-3">
                   <NodeQuickLook key={selected.id} nodeId={selected.id} openOutageId={selected.openOutageId} onClose={() => onSelect(null)} />
-                  <NodeLinks node={selected} links={topology.data.links} names={nodeNames} />
+                  <MapLinkTools node={selected} links={topology.data.links} names={nodeNames} />
                 </div>
               )
             }

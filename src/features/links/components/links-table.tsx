@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { Link } from 'react-router-dom';
 import type { LinkDto } from '../../../../shared/schemas/link';
 import { DataTable, type Column } from '../../../components/data-table';
@@ -8,9 +9,11 @@ interface LinksTableProps {
   /** The node whose page this is; the table names the far end. */
   nodeId: number;
   nodeNames: Map<number, string>;
+  /** Edit and remove buttons for a row, where the caller may use them. */
+  actions?: (link: LinkDto) => ReactNode;
 }
 
-export function LinksTable({ links, nodeId, nodeNames }: LinksTableProps) {
+export function LinksTable({ links, nodeId, nodeNames, actions }: LinksTableProps) {
   const farEnd = (link: LinkDto) => (link.nodeAId === nodeId ? link.nodeBId : link.nodeAId);
   const columns: Column<LinkDto>[] = [
     { key: 'name', header: 'Link', render: (link) => link.name ?? `Link #${link.id}` },
@@ -25,6 +28,7 @@ export function LinksTable({ links, nodeId, nodeNames }: LinksTableProps) {
     },
     { key: 'radios', header: 'Radios', render: (link) => `#${link.radioAId} ↔ #${link.radioBId}` },
     { key: 'status', header: 'Status', render: (link) => (link.status === 'live' ? 'Live' : 'Planned') },
+    ...(actions ? [{ key: 'actions', header: 'Actions', render: actions }] : []),
   ];
-  return <DataTable caption="Links" rows={links} columns={columns} rowKey={(link) => link.id} />;
+  return <DataTable caption="Links" testId="links-table" rows={links} columns={columns} rowKey={(link) => link.id} />;
 }

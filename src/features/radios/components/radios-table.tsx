@@ -1,22 +1,9 @@
+import type { ReactNode } from 'react';
 import type { RadioDto } from '../../../../shared/schemas/radio';
 import { DataTable, type Column } from '../../../components/data-table';
+import { ENCRYPTION_WORDS, ROLE_WORDS } from './radio-words';
 
-const ROLE_WORDS: Record<RadioDto['role'], string> = {
-  'access-point': 'Access point',
-  'backhaul-client': 'Backhaul (client end)',
-  'backhaul-ap': 'Backhaul (access point end)',
-  mesh: 'Mesh',
-};
-
-const ENCRYPTION_WORDS: Record<RadioDto['encryption'], string> = {
-  none: 'Open (none)',
-  wep: 'WEP',
-  'wpa-tkip': 'WPA (TKIP)',
-  'wpa2-ccmp': 'WPA2 (CCMP)',
-  'wpa3-sae': 'WPA3 (SAE)',
-};
-
-export function RadiosTable({ radios }: { radios: RadioDto[] }) {
+export function RadiosTable({ radios, actions }: { radios: RadioDto[]; actions?: (radio: RadioDto) => ReactNode }) {
   const columns: Column<RadioDto>[] = [
     { key: 'iface', header: 'Interface', render: (radio) => <code>{radio.iface}</code> },
     { key: 'role', header: 'Role', render: (radio) => ROLE_WORDS[radio.role] },
@@ -26,6 +13,7 @@ export function RadiosTable({ radios }: { radios: RadioDto[] }) {
     { key: 'antennaGainDbi', header: 'Antenna gain', align: 'right', render: (radio) => `${radio.antennaGainDbi} dBi` },
     { key: 'ssid', header: 'SSID', render: (radio) => radio.ssid ?? '—' },
     { key: 'encryption', header: 'Encryption', render: (radio) => ENCRYPTION_WORDS[radio.encryption] },
+    ...(actions ? [{ key: 'actions', header: 'Actions', render: actions }] : []),
   ];
-  return <DataTable caption="Radios" rows={radios} columns={columns} rowKey={(radio) => radio.id} />;
+  return <DataTable caption="Radios" testId="radios-table" rows={radios} columns={columns} rowKey={(radio) => radio.id} />;
 }

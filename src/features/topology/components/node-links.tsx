@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { formatFigure } from '../../../lib/format';
 import type { TopologyLink, TopologyNode } from '../api/topology';
 import { MARGIN_BANDS, marginBand, marginColour } from '../utils/link-look';
@@ -5,7 +6,7 @@ import { MARGIN_BANDS, marginBand, marginColour } from '../utils/link-look';
 const bandLabel = new Map(MARGIN_BANDS.map((b) => [b.band, b.label]));
 
 /** A node's links with the figures the map's colours and widths stand for. */
-export function NodeLinks({ node, links, names }: { node: TopologyNode; links: TopologyLink[]; names: Map<number, string> }) {
+export function NodeLinks({ node, links, names, actions }: { node: TopologyNode; links: TopologyLink[]; names: Map<number, string>; actions?: (linkId: number) => ReactNode }) {
   const own = links.filter((l) => l.nodeAId === node.id || l.nodeBId === node.id);
   return (
     <section aria-label="Links of the selected node" className="rounded-lg border border-line bg-surface p-3">
@@ -30,6 +31,7 @@ export function NodeLinks({ node, links, names }: { node: TopologyNode; links: T
                   {link.measuredSignalDbm !== null &&
                     `, measured ${formatFigure(link.measuredSignalDbm, 'dBm', 0)} against ${formatFigure(link.predictedSignalDbm, 'dBm', 0)} predicted`}
                 </p>
+                {actions && <div className="mt-1">{actions(link.id)}</div>}
               </li>
             );
           })}

@@ -1,0 +1,178 @@
+import { BANDS, CHANNEL_WIDTHS_MHZ, ENCRYPTIONS, POLARISATIONS, RADIO_ROLES, type Band, type ChannelWidthMHz } from '../../../../shared/enums';
+import { CHANNEL_REGIONS, channelCenterMHz, listChannels, validChannels, type ChannelRegion } from '../../../../shared/radio/channels';
+import { radioCreateSchema, type RadioDto } from '../../../../shared/schemas/radio';
+import { Button } from '../../../components/button';
+import { Caution } from '../../../components/caution';
+import { FormMessage, SelectField, TextField, type Option } from '../../../components/form-field';
+import { toNumber, useForm } from '../../../lib/form';
+import { useCreateRadio, useUpdateRadio } from '../api/radios';
+import { ENCRYPTION_WORDS, ROLE_WORDS } from './radio-words';
+
+interface RadioFormProps {
+  nodeId: number;
+  /** The network's region (admin setting): the channel list offers only what is allowed there. */
+  region: ChannelRegion;
+  radio?: RadioDto;
+  onSaved: (radio: RadioDto) => void;
+  onCancel: () => void;
+}
+
+function initialValues(radio?: RadioDto) {
+  return {
+    iface: radio?.iface ?? 'wlan0',
+    role: radio?.role ?? 'access-point',
+    band: radio?.band ?? '5',
+    channelWidthMHz: String(radio?.channelWidthMHz ?? 20),
+    channel: radio ? String(radio.channel) : '',
+    txPowerDbm: radio ? String(radio.txPowerDbm) : '',
+    antennaGainDbi: radio ? String(radio.antennaGainDbi) : '',
+    polarisation: radio?.polarisation ?? 'vertical',
+    cableLossDb: radio ? String(radio.cableLossDb) : '0',
+    ssid: radio?.ssid ?? '',
+    encryption: radio?.encryption ?? 'wpa2-ccmp',
+    preSharedKey: '',
+    groupRekeyS: radio ? String(radio.groupRekeyS) : '600',
+  };
+}
+
+/** The network's region as a channel table's region, or undefined while it loads (or if it has none). */
+export function channelRegionOf(region: string | undefined): ChannelRegion | undefined {
+  return CHANNEL_REGIONS.find((r) => r === region);
+}
+
+const isBand = (text: string): text is Band => (BANDS as readonly string[]).includes(text);
+const asWidth = (text: string): ChannelWidthMHz => (Number(text) === 40 ? 40 : Number(text) === 80 ? 80 : 20);
+
+/** Widths with at least one usable channel in the region and band (no 80 MHz on 2.4 GHz). */
+export function widthOptions(region: ChannelRegion, band: Band): Option[] {
+  return CHANNEL_WIDTHS_MHZ.filter((w) => validChannels(band, w, region).length > 0).map((w) => ({ value: String(w), label: `${w} MHz` }));
+}
+
+/**
+ * Primary channels usable at the band and width in the region (shared/radio/channels.ts validChannels), with their
+ * centre frequency and any condition (DFS, indoor only). A stored channel outside the list stays visible, marked,
+ * so an edit never changes it silently.
+ */
+export function channelOptions(region: ChannelRegion, band: Band, widthMHz: ChannelWidthMHz, current?: string): Option[] {
+  const notes = new Map(listChannels(region, band).channels.map((c) => [c.channel, c.note]));
+  const options: Option[] = validChannels(band, widthMHz, region).map((channel) => {
+    const note = notes.get(channel);
+    return { value: String(channel), label: `${channel} (${channelCenterMHz(band, channel)} MHz)${note ? ` · ${note}` : ''}` };
+  });
+  const kept = current ? Number(current) : NaN;
+  if (Number.isInteger(kept) && !options.some((o) => o.value === current)) {
+    options.unshift({ value: current!, label: `${kept} · not usable at ${widthMHz} MHz in ${region}: choose another` });
+  }
+  return options;
+}
+
+const choices = (values: readonly string[], words?: Record<string, string>): Option[] => values.map((v) => ({ value: v, label: words?.[v] ?? v }));
+const POLARISATION_WORDS: Record<string, string> = { vertical: 'Vertical', horizontal: 'Horizontal', dual: 'Dual (both)', circular: 'Circular' };
+
+/** Add or edit one radio of a node; validated with the API's own schema, so the messages are the API's. */
+export function RadioForm({ nodeId, region, radio, onSaved, onCancel }: RadioFormProps) {
+  const form = useForm(initialValues(radio));
+  const create = useCreateRadio();
+  const update = useUpdateRadio(radio?.id ?? 0);
+  const saving = create.isPending || update.isPending;
+  const { values, errors, set } = form;
+  const band: Band = isBand(values.band) ? values.band : '5';
+  const width = asWidth(values.channelWidthMHz);
+  const widths = widthOptions(region, band);
+  const keyless = values.encryption === 'none';
+
+  // A new band or width keeps the channel only where it is still offered.
+  function changeBandOrWidth(nextBand: Band, nextWidth: ChannelWidthMHz) {
+    const usableWidth = widthOptions(region, nextBand).some((o) => o.value === String(nextWidth)) ? nextWidth : 20;
+    set('band', nextBand);
+    set('channelWidthMHz', String(usableWidth));
+    if (!validChannels(nextBand, usableWidth, region).includes(Number(values.channel))) set('channel', '');
+  }
+
+  function submit() {
+    const input = {
+      nodeId,
+      iface: values.iface,
+      role: values.role,
+      band: values.band,
+      channel: toNumber(values.channel),
+      channelWidthMHz: toNumber(values.channelWidthMHz),
+      txPowerDbm: toNumber(values.txPowerDbm),
+      antennaGainDbi: toNumber(values.antennaGainDbi),
+      polarisation: values.polarisation,
+      cableLossDb: toNumber(values.cableLossDb),
+      ssid: values.ssid === '' ? null : values.ssid,
+      encryption: values.encryption,
+      // Write-only: an open network holds no key; a blank field keeps the stored key (or sets none on a new radio).
+      ...(keyless ? { preSharedKey: null } : values.preSharedKey !== '' ? { preSharedKey: values.preSharedKey } : {}),
+      groupRekeyS: toNumber(values.groupRekeyS),
+    };
+    const parsed = form.check(radioCreateSchema, input);
+    if (!parsed) return;
+    if (radio) update.mutate(parsed, { onSuccess: onSaved, onError: form.showServerError });
+    else create.mutate(parsed, { onSuccess: onSaved, onError: form.showServerError });
+  }
+
+  return (
+    <form
+      noValidate
+      aria-label={radio ? `Edit radio ${radio.iface}` : 'New radio'}
+      data-testid="radio-form"
+      className="space-y-4 rounded-lg border border-line bg-surface p-4"
+      onSubmit={(event) => {
+        event.preventDefault();
+        submit();
+      }}
+    >
+      <Caution>
+        High-gain antennas concentrate radio energy: keep people out of the beam while the radio transmits, and never work on a mast or antenna
+        while it is powered. Power and exposure limits are set by your regulator; follow local codes and licensed practice.
+      </Caution>
+      <FormMessage message={form.formError} />
+      <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
+        <TextField label="Interface" value={values.iface} onChange={(e) => set('iface', e.target.value)} errors={errors.iface} hint="The router's name for the radio, e.g. wlan0" />
+        <SelectField label="Role" value={values.role} onChange={(e) => set('role', e.target.value as typeof values.role)} options={choices(RADIO_ROLES, ROLE_WORDS)} errors={errors.role} />
+        <SelectField label="Band" value={values.band} onChange={(e) => isBand(e.target.value) && changeBandOrWidth(e.target.value, width)} options={BANDS.map((b) => ({ value: b, label: `${b} GHz` }))} errors={errors.band} />
+        <SelectField label="Channel width" value={values.channelWidthMHz} onChange={(e) => changeBandOrWidth(band, asWidth(e.target.value))} options={widths} errors={errors.channelWidthMHz} />
+        <SelectField
+          label="Channel"
+          value={values.channel}
+          onChange={(e) => set('channel', e.target.value)}
+          options={channelOptions(region, band, width, values.channel)}
+          placeholder="Choose…"
+          errors={errors.channel}
+          hint={`Channels allowed in ${region} at this band and width (the network's region)`}
+        />
+        <TextField label="Transmit power (dBm)" inputMode="decimal" value={values.txPowerDbm} onChange={(e) => set('txPowerDbm', e.target.value)} errors={errors.txPowerDbm} hint="At the radio's output, −10 to 36" />
+        <TextField label="Antenna gain (dBi)" inputMode="decimal" value={values.antennaGainDbi} onChange={(e) => set('antennaGainDbi', e.target.value)} errors={errors.antennaGainDbi} />
+        <SelectField label="Polarisation" value={values.polarisation} onChange={(e) => set('polarisation', e.target.value)} options={choices(POLARISATIONS, POLARISATION_WORDS)} errors={errors.polarisation} />
+        <TextField label="Cable and connector loss (dB)" inputMode="decimal" value={values.cableLossDb} onChange={(e) => set('cableLossDb', e.target.value)} errors={errors.cableLossDb} hint="Between the radio and the antenna; 0 for a radio built into its antenna" />
+        <TextField label="SSID" value={values.ssid} onChange={(e) => set('ssid', e.target.value)} errors={errors.ssid} hint="Blank when the radio announces no network name" />
+        <SelectField label="Encryption" value={values.encryption} onChange={(e) => set('encryption', e.target.value as typeof values.encryption)} options={choices(ENCRYPTIONS, ENCRYPTION_WORDS)} errors={errors.encryption} />
+        <TextField
+          label="Pre-shared key"
+          type="password"
+          autoComplete="new-password"
+          value={keyless ? '' : values.preSharedKey}
+          disabled={keyless}
+          onChange={(e) => set('preSharedKey', e.target.value)}
+          errors={errors.preSharedKey}
+          hint={
+            keyless
+              ? 'An open network has no key.'
+              : radio?.hasPreSharedKey
+                ? 'A key is stored and never shown. Leave blank to keep it, or type a new one.'
+                : '8–63 printable characters or 64 hex digits. Never shown again after saving.'
+          }
+        />
+        <TextField label="Group key rekey interval (s)" inputMode="numeric" value={values.groupRekeyS} onChange={(e) => set('groupRekeyS', e.target.value)} errors={errors.groupRekeyS} hint="0 turns rekeying off (not advised)" />
+      </div>
+      <div className="flex flex-wrap gap-2">
+        <Button type="submit" variant="primary" disabled={saving}>
+          {saving ? 'Saving…' : radio ? 'Save radio' : 'Add radio'}
+        </Button>
+        <Button onClick={onCancel}>Cancel</Button>
+      </div>
+    </form>
+  );
+}
