@@ -22,108 +22,109 @@ describe('a walk through the console in one session', () => {
     return problems;
   }
 
-  /** The page has settled: its title is shown, no loader is left, and it did not fall into the error screen. */
-  async function settled(page: Page, title: string | RegExp, step: string) {
-    await page.getByRole('heading', { level: 1, name: title }).waitFor({ timeout: 20_000 });
+  /** The page has settled: its title is shown (or the error screen, which fails the step with what was caught), no loader is left. */
+  async function settled(page: Page, title: string | RegExp, step: string, problems: string[]) {
+    const errorScreen = page.getByText('This page ran into a problem');
+    await page.getByRole('heading', { level: 1, name: title }).or(errorScreen).first().waitFor({ timeout: 20_000 });
+    expect(await errorScreen.count(), `${step}: error screen; caught ${JSON.stringify(problems)}`).toBe(0);
     await expect.poll(() => page.locator('p[role="status"]').count(), { timeout: 20_000, message: `${step}: loaders left` }).toBe(0);
-    expect(await page.getByText('This page ran into a problem').count(), `${step}: error screen`).toBe(0);
     // A failed read shows as a div[role=alert] (query-state.tsx LoadError); warnings inside pages are not divs.
     expect(await page.locator('div[role="alert"]').count(), `${step}: load error shown`).toBe(0);
   }
 
   const nav = (page: Page, label: string) => page.getByTestId('nav').getByRole('link', { name: label, exact: true }).click();
   const userMenu = (page: Page, label: string) => page.getByTestId('user-menu').getByRole('link', { name: label, exact: true }).click();
-  const planningTo = async (page: Page, title: string) => {
+  const planningTo = async (page: Page, title: string, problems: string[]) => {
     await nav(page, 'Planning');
-    await settled(page, 'Planning', 'planning index');
+    await settled(page, 'Planning', 'planning index', problems);
     await page.getByTestId('planning-index').getByRole('link', { name: new RegExp(`^${title}`) }).click();
-    await settled(page, title, title);
+    await settled(page, title, title, problems);
   };
 
   it('visits every page of an admin’s console, node pages between planning pages, without an error', async () => {
     const page = await e2e.fresh();
     const problems = watch(page);
     await signInAs(page, e2e.server.url, 'admin@parapet.example');
-    await settled(page, 'Overview', 'overview');
+    await settled(page, 'Overview', 'overview', problems);
 
     // A node page fills the inventory lists' cache; the planning pages read the same keys next.
     await nav(page, 'Nodes');
-    await settled(page, 'Nodes', 'nodes');
+    await settled(page, 'Nodes', 'nodes', problems);
     await page.getByRole('link', { name: 'lf-mill', exact: true }).click();
-    await settled(page, /lf-mill/, 'node page');
+    await settled(page, /lf-mill/, 'node page', problems);
     await page.getByTestId('radios-table').waitFor();
-    await planningTo(page, 'Channel plan');
+    await planningTo(page, 'Channel plan', problems);
     await page.getByTestId('channel-plan-table').waitFor();
-    await planningTo(page, 'Link budget');
+    await planningTo(page, 'Link budget', problems);
     await page.getByLabel('Site A', { exact: true }).locator('option', { hasText: 'Granary Tower' }).waitFor({ state: 'attached' });
-    await planningTo(page, 'Address plan');
-    await planningTo(page, 'Security review');
+    await planningTo(page, 'Address plan', problems);
+    await planningTo(page, 'Security review', problems);
 
     await nav(page, 'Sites');
-    await settled(page, 'Sites', 'sites');
+    await settled(page, 'Sites', 'sites', problems);
     await page.getByRole('link', { name: 'Granary Tower', exact: true }).click();
-    await settled(page, 'Granary Tower', 'site page');
+    await settled(page, 'Granary Tower', 'site page', problems);
     await page.getByRole('link', { name: 'lf-granary' }).first().click();
-    await settled(page, /lf-granary/, 'node page from the site');
+    await settled(page, /lf-granary/, 'node page from the site', problems);
     await page.getByRole('link', { name: 'Show on the map' }).click();
-    await settled(page, 'Network map', 'map');
+    await settled(page, 'Network map', 'map', problems);
     await page.getByTestId('node-links').waitFor();
 
     for (const [label, title] of [['Overview', 'Overview'], ['Outages', 'Outages'], ['Neighbourhoods', 'Neighbourhoods'], ['Reports', 'Availability report'], ['People', 'People']] as const) {
       await nav(page, label);
-      await settled(page, title, label);
+      await settled(page, title, label, problems);
     }
     await nav(page, 'Neighbourhoods');
-    await settled(page, 'Neighbourhoods', 'neighbourhoods again');
+    await settled(page, 'Neighbourhoods', 'neighbourhoods again', problems);
     await page.getByRole('link', { name: 'Millbrook', exact: true }).click();
-    await settled(page, 'Millbrook', 'neighbourhood page');
+    await settled(page, 'Millbrook', 'neighbourhood page', problems);
 
     for (const [label, title] of [['Account', 'Your account'], ['Mail', 'Mail preferences'], ['Outbox', 'Outbox'], ['History', 'History']] as const) {
       await userMenu(page, label);
-      await settled(page, title, label);
+      await settled(page, title, label, problems);
     }
 
     // Back and forward through the history, then the crash path once more: node page, then the channel plan.
     await page.goBack();
-    await settled(page, 'Outbox', 'back');
+    await settled(page, 'Outbox', 'back', problems);
     await page.goForward();
-    await settled(page, 'History', 'forward');
+    await settled(page, 'History', 'forward', problems);
     await nav(page, 'Nodes');
-    await settled(page, 'Nodes', 'nodes again');
+    await settled(page, 'Nodes', 'nodes again', problems);
     await page.getByRole('link', { name: 'lf-quay', exact: true }).click();
-    await settled(page, /lf-quay/, 'second node page');
-    await planningTo(page, 'Channel plan');
+    await settled(page, /lf-quay/, 'second node page', problems);
+    await planningTo(page, 'Channel plan', problems);
     await page.getByLabel('Band', { exact: true }).selectOption('5');
     await page.getByTestId('channel-plan-table').waitFor();
-    await settled(page, 'Channel plan', 'channel plan, 5 GHz');
+    await settled(page, 'Channel plan', 'channel plan, 5 GHz', problems);
     await screenshot(page, 'walk-end-channel-plan');
 
     expect(problems).toEqual([]);
   });
 
-  it('walks an operator from a node page to the channel plan and the link budget without an error', async () => {
+  it('walks an operator at phone width from a node page to the channel plan and back without an error', async () => {
     const page = await e2e.fresh({ width: 375, height: 800 });
     const problems = watch(page);
     await signInAs(page, e2e.server.url, 'operator@parapet.example');
-    await settled(page, 'Overview', 'overview');
+    await settled(page, 'Overview', 'overview', problems);
     const menu = page.getByRole('button', { name: /menu/i });
     const openMenu = async () => {
       if (await menu.count()) await menu.first().click();
     };
     await openMenu();
     await nav(page, 'Nodes');
-    await settled(page, 'Nodes', 'nodes');
+    await settled(page, 'Nodes', 'nodes', problems);
     await page.getByRole('link', { name: 'lf-cooper', exact: true }).click();
-    await settled(page, /lf-cooper/, 'node page');
+    await settled(page, /lf-cooper/, 'node page', problems);
     await openMenu();
     await nav(page, 'Planning');
-    await settled(page, 'Planning', 'planning');
+    await settled(page, 'Planning', 'planning', problems);
     await page.getByTestId('planning-index').getByRole('link', { name: /^Channel plan/ }).click();
-    await settled(page, 'Channel plan', 'channel plan');
+    await settled(page, 'Channel plan', 'channel plan', problems);
     await page.getByTestId('channel-plan-table').waitFor();
     await page.goBack();
     await page.goBack();
-    await settled(page, /lf-cooper/, 'node page again');
+    await settled(page, /lf-cooper/, 'node page again', problems);
     await screenshot(page, 'walk-operator-375');
     expect(problems).toEqual([]);
   });
