@@ -1,5 +1,9 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
 import type { Page } from 'playwright-core';
-import { describe, expect, it } from 'vitest';
+import sharp from 'sharp';
+import { afterAll, describe, expect, it } from 'vitest';
 import { validChannels } from '../../shared/radio/channels';
 import { screenshot, signInAs, useE2E } from './helpers/browser';
 
@@ -36,9 +40,14 @@ async function fieldError(page: Page, label: string) {
   return (await page.locator(`[id="${id}-error"]`).innerText()).trim();
 }
 
-describe('radios and links in the browser', () => {
-  const e2e = useE2E();
+// Photos are stored under a dot-directory, as start.sh's install does (.data/uploads).
+const scratch = fs.mkdtempSync(path.join(os.tmpdir(), 'parapet-e2e-photos-'));
+const dataDir = path.join(scratch, '.data', 'uploads');
+
+describe('the inventory in the browser: radios, links and install photos', () => {
+  const e2e = useE2E({ DATA_DIR: dataDir });
   const base = () => e2e.server.url;
+  afterAll(() => fs.rmSync(scratch, { recursive: true, force: true }));
 
   it('adds, edits and removes a radio on a node page, offering only the region’s channels and the API’s messages', async () => {
     const page = await e2e.fresh();
@@ -248,5 +257,56 @@ describe('radios and links in the browser', () => {
     expect(await page.getByRole('button', { name: 'Add a radio' }).count()).toBe(0);
     expect(await page.getByRole('button', { name: 'Add a link' }).count()).toBe(0);
     expect(await page.getByRole('button', { name: /^Edit radio/ }).count()).toBe(0);
+  });
+
+  it('shows a stored channel the region does not allow as it is, marked, instead of changing it', async () => {
+    const page = await e2e.fresh();
+    await signInAs(page, base(), 'admin@parapet.example');
+    // The demo's Saltmarsh relay sends on 5 GHz channel 149 at 40 MHz: allowed in the US, not in the EU (ETSI EN 301 893).
+    const marsh = await nodeNamed(page, base(), 'lf-marsh');
+    await page.goto(`${base()}/nodes/${marsh.id}`);
+    await page.getByRole('button', { name: 'Edit radio wlan2' }).click();
+    await page.getByTestId('radio-form').waitFor();
+    const channel = page.getByLabel('Channel', { exact: true });
+    expect(await channel.inputValue()).toBe('149');
+    expect(await channel.locator('option:checked').innerText()).toMatch(/149 · not usable at 40 MHz in EU/);
+    await page.getByRole('button', { name: 'Cancel' }).click();
+    await page.getByTestId('radio-form').waitFor({ state: 'detached' });
+  });
+
+  it('uploads an install photo on a site page, shows it, serves it without its EXIF, and removes it', async () => {
+    const page = await e2e.fresh();
+    page.on('dialog', (d) => void d.accept());
+    await signInAs(page, base(), 'operator@parapet.example');
+    const { body } = await api(page, base(), 'GET', '/sites?q=Cooperage');
+    const site = (body.data as { id: number; name: string }[])[0];
+    await page.goto(`${base()}/sites/${site.id}`);
+    const phoneJpeg = await sharp({ create: { width: 64, height: 32, channels: 3, background: '#0a7' } })
+      .jpeg()
+      .withMetadata({ orientation: 6 })
+      .withExifMerge({ IFD0: { Artist: 'Odile Brenner' }, IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '52/1 4/1 12/1' } })
+      .toBuffer();
+    const uploaded = page.waitForResponse((r) => r.url().endsWith(`/api/v1/sites/${site.id}/photos`) && r.request().method() === 'POST');
+    await page.getByTestId('photo-file').setInputFiles({ name: 'IMG_2041.jpg', mimeType: 'image/jpeg', buffer: phoneJpeg });
+    expect((await uploaded).status()).toBe(201);
+    const img = page.getByTestId('site-photos').locator('img').first();
+    await img.waitFor();
+    // The thumbnail really loads from the store under .data/: a decoded picture, upright (taller than wide).
+    await expect.poll(() => img.evaluate((el) => (el as HTMLImageElement).complete && (el as HTMLImageElement).naturalWidth), { timeout: 15_000 }).toBeGreaterThan(0);
+    const [w, h] = await img.evaluate((el) => [(el as HTMLImageElement).naturalWidth, (el as HTMLImageElement).naturalHeight]);
+    expect(h).toBeGreaterThan(w);
+    const href = await page.getByTestId('site-photos').locator('a').first().getAttribute('href');
+    const full = await page.request.get(`${base()}${href}`);
+    expect(full.status()).toBe(200);
+    expect(full.headers()['content-type']).toBe('image/jpeg');
+    const meta = await sharp(await full.body()).metadata();
+    expect(meta).toMatchObject({ width: 32, height: 64 });
+    expect(meta.exif).toBeUndefined();
+    expect((await full.body()).toString('latin1')).not.toContain('Odile Brenner');
+    await screenshot(page, 'site-photo-1280');
+
+    await page.getByTestId('site-photos').getByRole('button', { name: 'Remove' }).first().click();
+    await page.getByTestId('site-photos').waitFor({ state: 'detached' });
+    expect((await page.request.get(`${base()}${href}`)).status()).toBe(404);
   });
 });
