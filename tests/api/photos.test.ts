@@ -36,10 +36,10 @@ function ifd0Tags(exif: Buffer): number[] {
 const ARTIST_TAG = 0x013b; // TIFF 6.0 / CIPA DC-008 (Exif 2.32) tag 315, Artist
 const GPS_IFD_TAG = 0x8825; // CIPA DC-008 (Exif 2.32) §4.6.3: GPS Info IFD pointer
 
-/** A phone-like JPEG: 64 × 32 pixels stored sideways (EXIF orientation 6), with its owner's name and a GPS position. */
-const phoneJpeg = () =>
+/** A phone-like photo: 64 × 32 pixels stored sideways (EXIF orientation 6), with its owner's name and a GPS position. */
+const phonePhoto = (format: 'jpeg' | 'png' | 'webp' = 'jpeg') =>
   sharp({ create: { width: 64, height: 32, channels: 3, background: '#0a7' } })
-    .jpeg()
+    [format]()
     .withMetadata({ orientation: 6 })
     .withExifMerge({ IFD0: { Artist: 'Odile Brenner' }, IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '52/1 4/1 12/1', GPSLongitudeRef: 'E', GPSLongitude: '4/1 18/1 3/1' } })
     .toBuffer();
@@ -115,18 +115,18 @@ describe('site photos API', () => {
     expect(await sharp(thumb.body as Buffer).metadata()).toMatchObject({ format: 'webp' });
   });
 
-  it('keeps no EXIF of an upload (owner, GPS position), and turns the picture upright from its orientation', async () => {
-    const upload0 = await phoneJpeg();
+  it.each(['jpeg', 'png', 'webp'] as const)('keeps no EXIF of a %s upload (owner, GPS position), and turns the picture upright from its orientation', async (format) => {
+    const upload0 = await phonePhoto(format);
     const sent = await sharp(upload0).metadata();
     // The fixture really carries what must go: orientation 6, the owner's name and a GPS block.
     expect(sent).toMatchObject({ width: 64, height: 32, orientation: 6 });
     expect(ifd0Tags(sent.exif!)).toEqual(expect.arrayContaining([ARTIST_TAG, GPS_IFD_TAG]));
     expect(upload0.toString('latin1')).toContain('Odile Brenner');
 
-    const res = await upload(hoodOperator, siteId, upload0, 'IMG_2041.jpg');
+    const res = await upload(hoodOperator, siteId, upload0, `IMG_2041.${format}`, `image/${format}`);
     expect(res.status).toBe(201);
     // Orientation 6 is "rotate 90° clockwise to view" (CIPA DC-008 tag 274), so 64 × 32 stands up as 32 × 64.
-    expect(res.body.data).toMatchObject({ contentType: 'image/jpeg', widthPx: 32, heightPx: 64 });
+    expect(res.body.data).toMatchObject({ contentType: `image/${format}`, widthPx: 32, heightPx: 64 });
     const row = await Photo.findByPk(res.body.data.id);
     for (const file of [row!.storageKey, `${row!.storageKey}.thumb.webp`]) {
       const bytes = fs.readFileSync(path.join(photosDir, file));
