@@ -138,7 +138,7 @@ describe('the inventory in the browser: radios, links and install photos', () =>
     await page.getByRole('button', { name: 'Remove radio wlan3' }).click();
     await page.getByTestId('radios-table').getByText('wlan3').waitFor({ state: 'detached' });
     expect((await api(page, base(), 'GET', `/radios/${stored.id}`)).status).toBe(404);
-  });
+  }, 180_000);
 
   it('adds a link from one node’s page, edits it from the far node’s page, and adds and removes links on the map', async () => {
     const page = await e2e.fresh();
@@ -230,7 +230,7 @@ describe('the inventory in the browser: radios, links and install photos', () =>
     await page.getByRole('button', { name: 'Remove Ropewalk – Cooperage from the map' }).click();
     await page.getByTestId(`topology-link-${mapLink.id}`).waitFor({ state: 'detached', timeout: 15_000 });
     expect((await api(page, base(), 'GET', `/links/${mapLink.id}`)).status).toBe(404);
-  });
+  }, 180_000);
 
   it('shows the radio and link forms at phone width', async () => {
     const page = await e2e.fresh({ width: 375, height: 800 });

@@ -100,7 +100,7 @@ describe('a walk through the console in one session', () => {
     await screenshot(page, 'walk-end-channel-plan');
 
     expect(problems).toEqual([]);
-  });
+  }, 300_000); // some thirty pages; a loaded machine takes minutes, and no speed is asserted here
 
   it('walks an operator at phone width from a node page to the channel plan and back without an error', async () => {
     const page = await e2e.fresh({ width: 375, height: 800 });
@@ -127,5 +127,5 @@ describe('a walk through the console in one session', () => {
     await settled(page, /lf-cooper/, 'node page again', problems);
     await screenshot(page, 'walk-operator-375');
     expect(problems).toEqual([]);
-  });
+  }, 180_000);
 });
