@@ -11,12 +11,21 @@ interface NodeRow { id: number; name: string; siteId: number }
 interface RadioRow { id: number; nodeId: number; iface: string; band: string; channel: number; channelWidthMHz: number; txPowerDbm: number; antennaGainDbi: number; polarisation: string; cableLossDb: number; role: string; ssid: string | null; encryption: string; hasPreSharedKey: boolean; groupRekeyS: number }
 interface LinkRow { id: number; name: string | null; radioAId: number; radioBId: number; status: string }
 
-/** The API as the signed-in page sees it (same cookies), with the CSRF token for writes. */
+/**
+ * The API as the signed-in page sees it (its cookies, the CSRF token for writes), called with the page's own fetch:
+ * the browser retries an idempotent request whose kept-alive connection the server had just closed.
+ */
 async function api(page: Page, base: string, method: 'GET' | 'POST' | 'PATCH' | 'DELETE', path: string, data?: unknown) {
-  const headers: Record<string, string> = {};
-  if (method !== 'GET') headers['X-CSRF-Token'] = (await (await page.request.get(`${base}/api/v1/session`)).json()).csrfToken;
-  const res = await page.request.fetch(`${base}/api/v1${path}`, { method, headers, data });
-  return { status: res.status(), body: res.status() === 204 ? null : await res.json() };
+  return page.evaluate(
+    async ({ url, method, data, sessionUrl }) => {
+      const headers: Record<string, string> = { Accept: 'application/json' };
+      if (method !== 'GET') headers['X-CSRF-Token'] = (await (await fetch(sessionUrl)).json()).csrfToken;
+      if (data !== undefined) headers['Content-Type'] = 'application/json';
+      const res = await fetch(url, { method, headers, body: data === undefined ? undefined : JSON.stringify(data) });
+      return { status: res.status, body: res.status === 204 ? null : await res.json() };
+    },
+    { url: `${base}/api/v1${path}`, method, data, sessionUrl: `${base}/api/v1/session` },
+  );
 }
 
 async function nodeNamed(page: Page, base: string, name: string): Promise<NodeRow> {
