@@ -11,6 +11,7 @@ import type { Config } from './config';
 import { ApiError, NotFound } from './errors';
 import { requireCsrf } from './middlewares/csrf';
 import { errorHandler } from './middlewares/errorHandler';
+import { requireRole } from './middlewares/requireRole';
 import { requireUser } from './middlewares/requireUser';
 import { useMailConfig } from './mail/settings';
 import { initModels } from './models';
@@ -55,6 +56,7 @@ import { neighbourhoodMemberRoutes } from './routes/neighbourhoodMembers';
 import { passwordResetRoutes } from './routes/passwordResets';
 import { personalDataRoutes } from './routes/personalData';
 import { auditContext, installAuditHooks } from './services/audit';
+import { mayPlan } from './policies/planning';
 
 export interface AppContext {
   config: Config;
@@ -153,6 +155,8 @@ export function createApp({ config, sequelize }: AppContext) {
   api.use('/users/:id', requireUser, personalDataRoutes(config, sequelize));
   api.use('/users', requireUser, userRoutes());
   api.use('/overview', requireUser, overviewRoutes());
+  // Planning is for operators and admins: others hear 403 before anything about their input.
+  api.use('/planning', requireUser, requireRole(mayPlan, 'Planning is for operators and admins.'));
   api.use('/planning/planned-links', requireUser, plannedLinkRoutes(sequelize));
   api.use('/planning/channel-plan', requireUser, channelPlanRoutes(sequelize));
   api.use('/planning', requireUser, planningRoutes(sequelize));

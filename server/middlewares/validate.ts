@@ -18,7 +18,8 @@ export function parseOrThrow<S extends z.ZodType>(schema: S, value: unknown, wha
   const result = schema.safeParse(value);
   if (!result.success) {
     const details = issuesToDetails(result.error);
-    const first = details[0]?.message ?? 'is invalid';
+    // Some messages are whole sentences already; the summary adds its own full stop, once.
+    const first = (details[0]?.message ?? 'is invalid').replace(/[.\s]+$/, '');
     const more = details.length > 1 ? ` (and ${details.length - 1} more)` : '';
     throw Invalid(`The ${what} is invalid: ${first}${more}.`, details);
   }

@@ -3,11 +3,11 @@ import type { Sequelize } from 'sequelize';
 import { z } from 'zod';
 import { IMPORT_KINDS, importQuerySchema, type ImportKind } from '../../shared/schemas/csvImport';
 import type { Config } from '../config';
+import { requireRole } from '../middlewares/requireRole';
 import { actorOf } from '../middlewares/requireUser';
 import { requireFile, singleUpload } from '../middlewares/upload';
 import { validate } from '../middlewares/validate';
 import { isAdmin } from '../policies/actor';
-import { authorize } from '../policies/authorize';
 import { checkImport, commitImport } from '../services/csvImport';
 
 const kindParamsSchema = z.object({ kind: z.enum(IMPORT_KINDS, { error: `must be one of ${IMPORT_KINDS.join(', ')}` }) });
@@ -17,12 +17,9 @@ export function importRoutes(sequelize: Sequelize, settings: Config) {
   const router = Router();
   const upload = singleUpload('file', settings.csvImportMaxBytes, 'CSV file');
 
-  router.post('/:kind', validate('params', kindParamsSchema), validate('query', importQuerySchema), (req, _res, next) => {
-    const actor = actorOf(req);
-    // Checked before the upload is read: hosts add nothing to the inventory.
-    authorize(isAdmin(actor) || actor.neighbourhoodIds.length > 0, 'Only admins and operators import sites and nodes.');
-    next();
-  }, upload, async (req, res) => {
+  // Checked before the address, the query and the upload are read: hosts add nothing to the inventory.
+  const gate = requireRole((actor) => isAdmin(actor) || actor.neighbourhoodIds.length > 0, 'Only admins and operators import sites and nodes.');
+  router.post('/:kind', gate, validate('params', kindParamsSchema), validate('query', importQuerySchema), upload, async (req, res) => {
     const actor = actorOf(req);
     const kind = res.locals.params.kind as ImportKind;
     const file = requireFile(req, 'file', 'CSV file');

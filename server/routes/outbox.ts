@@ -3,11 +3,10 @@ import { idParamsSchema } from '../../shared/schemas/common';
 import { outboxListQuerySchema } from '../../shared/schemas/alerts';
 import type { Config } from '../config';
 import { Conflict, NotFound } from '../errors';
-import { actorOf } from '../middlewares/requireUser';
+import { requireRole } from '../middlewares/requireRole';
 import { validate } from '../middlewares/validate';
 import { OutboxMessage } from '../models';
 import { isAdmin } from '../policies/actor';
-import { authorize } from '../policies/authorize';
 import { presentOutboxMessage } from '../presenters/alerts';
 import { filters, listPage } from '../services/listing';
 
@@ -16,9 +15,9 @@ const ADMINS_ONLY = 'Only admins see the outbox: it holds everyone’s mail.';
 /** The outgoing mail, for admins: what was written, to whom, and whether it went out; failed mail can be retried. */
 export function outboxRoutes(config: Config) {
   const router = Router();
+  router.use(requireRole(isAdmin, ADMINS_ONLY));
 
   router.get('/', validate('query', outboxListQuerySchema), async (req, res) => {
-    authorize(isAdmin(actorOf(req)), ADMINS_ONLY);
     const q = res.locals.query;
     const { rows, pagination } = await listPage(OutboxMessage, q, {
       where: filters({ status: q.status, kind: q.kind }),
@@ -30,7 +29,6 @@ export function outboxRoutes(config: Config) {
   });
 
   router.post('/:id/retry', validate('params', idParamsSchema), async (req, res) => {
-    authorize(isAdmin(actorOf(req)), ADMINS_ONLY);
     const message = await OutboxMessage.findByPk(res.locals.params.id);
     if (!message) throw NotFound(`Outbox message ${res.locals.params.id}`);
     if (message.status !== 'failed') {

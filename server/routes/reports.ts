@@ -3,19 +3,19 @@ import type { Sequelize } from 'sequelize';
 import { toSafeCsv } from '../../shared/csv/csvSafe';
 import { availabilityReportQuerySchema } from '../../shared/schemas/report';
 import type { Config } from '../config';
+import { requireRole } from '../middlewares/requireRole';
 import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
 import { isAdmin } from '../policies/actor';
-import { authorize } from '../policies/authorize';
 import { availabilityReport } from '../services/availabilityReport';
 
 /** Mounted at /reports: monthly figures for admins and operators (their neighbourhoods). */
 export function reportRoutes(config: Config, sequelize: Sequelize) {
   const router = Router();
 
-  router.get('/availability', validate('query', availabilityReportQuerySchema), async (req, res) => {
+  const gate = requireRole((actor) => isAdmin(actor) || actor.role === 'operator', 'Reports are for admins and operators.');
+  router.get('/availability', gate, validate('query', availabilityReportQuerySchema), async (req, res) => {
     const actor = actorOf(req);
-    authorize(isAdmin(actor) || actor.role === 'operator', 'Reports are for admins and operators.');
     const q = res.locals.query;
     const report = await availabilityReport(sequelize, actor, q.month, config.now());
     if (q.format === 'json') {

@@ -1,11 +1,11 @@
 import { Router } from 'express';
 import type { Sequelize } from 'sequelize';
 import { networkSettingsUpdateSchema, type NetworkSettingsDto } from '../../shared/schemas/planningRecords';
+import { requireRole } from '../middlewares/requireRole';
 import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
 import { NetworkSettings } from '../models';
 import { isAdmin, type Actor } from '../policies/actor';
-import { authorize } from '../policies/authorize';
 import { iso } from '../presenters/common';
 import { recordChanges } from '../services/changeHistory';
 
@@ -23,9 +23,8 @@ export function settingsRoutes(sequelize: Sequelize) {
     const settings = await NetworkSettings.findByPk(1, { rejectOnEmpty: true });
     res.json({ data: present(settings, actorOf(req)) });
   });
-  router.patch('/network', validate('body', networkSettingsUpdateSchema), async (req, res) => {
+  router.patch('/network', requireRole(isAdmin, 'Only admins change the network settings.'), validate('body', networkSettingsUpdateSchema), async (req, res) => {
     const actor = actorOf(req);
-    authorize(isAdmin(actor), 'Only admins change the network settings.');
     const settings = await sequelize.transaction(async (transaction) => {
       const s = await NetworkSettings.findByPk(1, { rejectOnEmpty: true, transaction, lock: transaction.LOCK.UPDATE });
       const before = snapshot(s);

@@ -1,11 +1,11 @@
 import { z } from 'zod';
 import { type NodeState, ROLES } from '../enums';
 import { newPasswordSchema } from '../security/passwordRules';
-import { listQuerySchema, nameSchema } from './common';
+import { lineSchema, listQuerySchema, nameSchema } from './common';
 
 const emailSchema = z.string({ error: 'is required' }).trim().toLowerCase().email('must be an e-mail address').max(254, 'must be at most 254 characters');
 const tokenSchema = z.string({ error: 'is required' }).min(1, 'is required').max(200, 'is too long');
-const phoneSchema = z.string().trim().max(40, 'must be at most 40 characters').nullable();
+const phoneSchema = lineSchema(40).nullable();
 
 export const invitationCreateSchema = z.object({
   email: emailSchema,

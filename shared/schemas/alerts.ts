@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { OUTBOX_KINDS, OUTBOX_STATUSES } from '../enums';
-import { listQuerySchema } from './common';
+import { lineSchema, listQuerySchema } from './common';
 
 export const OPERATOR_MAIL_MODES = ['immediate', 'hourly', 'off'] as const;
 export type OperatorMailMode = (typeof OPERATOR_MAIL_MODES)[number];
@@ -56,7 +56,7 @@ export const maintenanceWindowCreateSchema = z
   .object({
     startsAt: isoTime,
     endsAt: isoTime,
-    reason: z.string({ error: 'must be text' }).trim().max(500, 'must be at most 500 characters').optional(),
+    reason: lineSchema(500).optional(),
   })
   .strict()
   .refine((w) => new Date(w.endsAt) > new Date(w.startsAt), { message: 'endsAt must be after startsAt', path: ['endsAt'] })

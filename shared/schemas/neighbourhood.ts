@@ -1,10 +1,10 @@
 import { z } from 'zod';
 import type { NodeState } from '../enums';
-import { idSchema, listQuerySchema, nameSchema } from './common';
+import { idSchema, listQuerySchema, nameSchema, notesSchema } from './common';
 
 export const neighbourhoodCreateSchema = z.object({
   name: nameSchema,
-  description: z.string().trim().max(2000, 'must be at most 2000 characters').optional(),
+  description: notesSchema.optional(),
 });
 export const neighbourhoodUpdateSchema = neighbourhoodCreateSchema.partial().extend({
   /** Retiring keeps the neighbourhood for history and hides it from pickers; false brings it back. */

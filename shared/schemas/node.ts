@@ -1,6 +1,6 @@
 import { z } from 'zod';
 import { NODE_STATES } from '../enums';
-import { idSchema, listQuerySchema, nameSchema } from './common';
+import { idSchema, lineSchema, listQuerySchema, nameSchema } from './common';
 
 const ipv4 = /^(25[0-5]|2[0-4]\d|1\d\d|[1-9]?\d)(\.(25[0-5]|2[0-4]\d|1\d\d|[1-9]?\d)){3}$/;
 
@@ -8,8 +8,8 @@ const nodeFields = {
   name: nameSchema,
   siteId: idSchema,
   neighbourhoodId: idSchema.optional(),
-  hardware: z.string().trim().max(120, 'must be at most 120 characters').optional(),
-  firmware: z.string().trim().max(120, 'must be at most 120 characters').optional(),
+  hardware: lineSchema(120).optional(),
+  firmware: lineSchema(120).optional(),
   managementAddress: z.string().trim().regex(ipv4, 'must be an IPv4 address like 10.20.1.1').optional().nullable(),
   reportIntervalS: z.number({ error: 'must be a number' }).int('must be a whole number of seconds').min(10, 'must be at least 10 s').max(3600, 'must be at most 3600 s'),
   isUplink: z.boolean({ error: 'must be true or false' }).optional(),

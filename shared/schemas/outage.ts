@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { idSchema, listQuerySchema } from './common';
+import { hasHiddenCharacters, idSchema, listQuerySchema } from './common';
 
 export const outageListQuerySchema = listQuerySchema.extend({
   status: z.enum(['open', 'closed'], { error: 'must be open or closed' }).optional(),
@@ -7,7 +7,7 @@ export const outageListQuerySchema = listQuerySchema.extend({
   nodeId: idSchema.optional(),
 });
 export const outageNotesSchema = z.object({
-  notes: z.string({ error: 'must be text' }).trim().max(4000, 'must be at most 4000 characters'),
+  notes: z.string({ error: 'must be text' }).trim().max(4000, 'must be at most 4000 characters').refine((s) => !hasHiddenCharacters(s, true), 'must not contain control characters (other than line breaks) or text-direction characters'),
 });
 
 /** The nodes cut off behind an outage's node (stranded by it), not counting the node itself. */

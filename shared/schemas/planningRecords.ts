@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { parseIpv4 } from '../addressing/cidr';
 import { BANDS, CHANNEL_WIDTHS_MHZ, RADIO_ROLES } from '../enums';
-import { idSchema } from './common';
+import { idSchema, nameSchema } from './common';
 import { cidrSchema } from './planning';
 import { checkChannelFields } from './radio';
 
@@ -20,7 +20,7 @@ function isTimeZone(tz: string): boolean {
 /** Network settings an admin changes; every field optional. */
 export const networkSettingsUpdateSchema = z
   .object({
-    name: z.string().trim().min(1, 'must not be empty').max(120, 'must be at most 120 characters'),
+    name: nameSchema,
     region: z.enum(['US', 'EU', 'JP'], { error: 'must be US, EU or JP' }),
     timeZone: z.string().trim().refine(isTimeZone, 'must be an IANA time zone like Europe/Lisbon'),
     addressPool: cidrSchema.nullable(),
@@ -52,7 +52,7 @@ const linkEndSchema = z.union([z.object({ radioId: idSchema }).strict(), newRadi
   error: 'must name an inventory radio ({radioId}) or a new radio ({nodeId, band, channel, channelWidthMHz, txPowerDbm, antennaGainDbi})',
 });
 export const plannedLinkBodySchema = z.object({
-  name: z.string().trim().min(1, 'must not be empty').max(120, 'must be at most 120 characters').optional(),
+  name: nameSchema.optional(),
   a: linkEndSchema,
   b: linkEndSchema,
 });

@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { BANDS, CHANNEL_WIDTHS_MHZ, ENCRYPTIONS, POLARISATIONS, RADIO_ROLES } from '../enums';
 import { channelProblem } from '../radio/channels';
-import { idSchema, listQuerySchema } from './common';
+import { idSchema, listQuerySchema, NO_BIDI } from './common';
 
 const oneOf = (values: readonly string[]) => `must be one of ${values.join(', ')}`;
 
@@ -24,6 +24,7 @@ const radioFields = {
     .max(32, 'must be at most 32 bytes')
     .refine((s) => new TextEncoder().encode(s).length <= 32, 'must be at most 32 bytes')
     .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'must not contain control characters')
+    .refine((s) => !/[\u202a-\u202e\u2066-\u2069]/.test(s), NO_BIDI)
     .optional()
     .nullable(),
   encryption: z.enum(ENCRYPTIONS, { error: oneOf(ENCRYPTIONS) }),

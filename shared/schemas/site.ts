@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { idSchema, listQuerySchema, nameSchema } from './common';
+import { idSchema, listQuerySchema, nameSchema, notesSchema } from './common';
 
 const siteFields = {
   name: nameSchema,
@@ -8,7 +8,7 @@ const siteFields = {
   longitude: z.number({ error: 'must be a number' }).min(-180, 'must be between -180 and 180').max(180, 'must be between -180 and 180'),
   groundElevationM: z.number({ error: 'must be a number' }).min(-450, 'must be at least -450 m').max(9000, 'must be at most 9000 m'),
   antennaHeightM: z.number({ error: 'must be a number' }).min(0, 'must be 0 m or more').max(300, 'must be at most 300 m'),
-  accessNotes: z.string().trim().max(2000, 'must be at most 2000 characters').optional(),
+  accessNotes: notesSchema.optional(),
   hostUserId: idSchema.nullable().optional(),
 };
 export const siteCreateSchema = z.object({

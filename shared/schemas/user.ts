@@ -1,7 +1,7 @@
 import { z } from 'zod';
 import { ROLES } from '../enums';
 import { newPasswordSchema } from '../security/passwordRules';
-import { listQuerySchema, nameSchema } from './common';
+import { lineSchema, listQuerySchema, nameSchema } from './common';
 
 /** A new password: at least 12 characters, not a common password, zxcvbn score 3 or more. */
 export const passwordSchema = newPasswordSchema;
@@ -11,12 +11,12 @@ export const userCreateSchema = z.object({
   name: nameSchema,
   role: z.enum(ROLES, { error: `must be one of ${ROLES.join(', ')}` }),
   password: passwordSchema,
-  phone: z.string().trim().max(40, 'must be at most 40 characters').optional().nullable(),
+  phone: lineSchema(40).optional().nullable(),
 });
 export const userUpdateSchema = z.object({
   name: nameSchema.optional(),
   role: z.enum(ROLES, { error: `must be one of ${ROLES.join(', ')}` }).optional(),
-  phone: z.string().trim().max(40, 'must be at most 40 characters').optional().nullable(),
+  phone: lineSchema(40).optional().nullable(),
   active: z.boolean().optional(),
 });
 export const userListQuerySchema = listQuerySchema.extend({

@@ -20,16 +20,20 @@ export function isTimeZone(timeZone: string): boolean {
   }
 }
 
+// Date.UTC reads years 0–99 as 1900–1999 (ECMA-262 MakeFullYear); setUTCFullYear takes the year as given.
+const utcMs = (year: number, month1: number, day: number, hour = 0, minute = 0, second = 0) =>
+  new Date(Date.UTC(2000, 0, 1, hour, minute, second)).setUTCFullYear(year, month1 - 1, day);
+
 /** The zone's offset from UTC at an instant, in minutes (east positive). */
 export function zoneOffsetMin(instant: Date, timeZone: string): number {
   const parts = Object.fromEntries(formatter(timeZone).formatToParts(instant).map((p) => [p.type, p.value]));
-  const asUtc = Date.UTC(+parts.year, +parts.month - 1, +parts.day, +parts.hour, +parts.minute, +parts.second);
+  const asUtc = utcMs(+parts.year, +parts.month, +parts.day, +parts.hour, +parts.minute, +parts.second);
   return Math.round((asUtc - Math.floor(instant.getTime() / 1000) * 1000) / 60_000);
 }
 
 /** The instant a local wall-clock time happens in the zone (a skipped time resolves forward). */
 export function zonedToUtc(year: number, month1: number, day: number, timeZone: string, hour = 0): Date {
-  const wall = Date.UTC(year, month1 - 1, day, hour);
+  const wall = utcMs(year, month1, day, hour);
   // Two passes settle the offset even when the first guess lands across a change.
   let guess = wall - zoneOffsetMin(new Date(wall), timeZone) * 60_000;
   guess = wall - zoneOffsetMin(new Date(guess), timeZone) * 60_000;

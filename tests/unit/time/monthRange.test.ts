@@ -56,4 +56,11 @@ describe('zone helpers', () => {
     expect(localClock(new Date('2026-06-01T14:20:00Z'), 'Europe/Lisbon', now)).toBe('15:20');
     expect(localClock(new Date('2026-05-31T20:05:00Z'), 'Europe/Lisbon', now)).toBe('31 May, 21:05');
   });
+
+  it('takes years below 100 as written, not as 1900–1999 (ECMA-262 Date.UTC maps 0–99 to 1900+)', () => {
+    expect(zonedToUtc(99, 12, 1, 'UTC').getUTCFullYear()).toBe(99);
+    expect(monthRange('0099-01', 'Europe/Lisbon').start.getUTCFullYear()).toBe(99);
+    expect(monthRange('1000-02', 'UTC').end.toISOString()).toBe('1000-03-01T00:00:00.000Z');
+    expect(zonedToUtc(2026, 11, 1, 'UTC').toISOString()).toBe('2026-11-01T00:00:00.000Z');
+  });
 });
