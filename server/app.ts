@@ -63,6 +63,9 @@ export interface AppContext {
   sequelize: Sequelize;
 }
 
+/** Request ids from a proxy or client: letters, digits and . _ : - only, at most 64 (a UUID fits). */
+export const SAFE_REQUEST_ID = /^[A-Za-z0-9][A-Za-z0-9._:-]{0,63}$/;
+
 /** Signing in needs no CSRF token (API.md); node reports never reach this router. Paths are relative to /api/v1. */
 const csrfExempt = (req: Request) => req.method === 'POST' && req.path === '/session';
 
@@ -79,7 +82,9 @@ export function createApp({ config, sequelize }: AppContext) {
   app.disable('x-powered-by');
 
   app.use((req, res, next) => {
-    res.locals.requestId = req.get('x-request-id') ?? randomUUID();
+    // A caller's id is kept only when it is short and plain, so nothing odd reaches the logs.
+    const given = req.get('x-request-id');
+    res.locals.requestId = given && SAFE_REQUEST_ID.test(given) ? given : randomUUID();
     res.set('X-Request-Id', res.locals.requestId);
     if (config.logRequests) res.on('finish', () => console.log(`[${res.locals.requestId}] ${req.method} ${req.originalUrl} ${res.statusCode}`));
     next();
@@ -92,7 +97,7 @@ export function createApp({ config, sequelize }: AppContext) {
           styleSrc: ["'self'", "'unsafe-inline'"], // the topology graph positions nodes with inline styles
           imgSrc: ["'self'", 'data:', 'blob:'],
           fontSrc: ["'self'", 'data:'],
-          connectSrc: ["'self'", 'ws:', 'wss:'],
+          connectSrc: ["'self'"], // CSP Level 3: 'self' covers ws: and wss: to this same host, and nothing else
           upgradeInsecureRequests: config.cookieSecure ? [] : null,
         },
       },
@@ -117,6 +122,11 @@ export function createApp({ config, sequelize }: AppContext) {
   app.use('/api/v1/public', publicStatusRoutes(config, sequelize));
 
   const api = express.Router();
+  // Answers may carry personal data and tokens: no browser or proxy cache keeps them.
+  api.use((_req, res, next) => {
+    res.set('Cache-Control', 'no-store');
+    next();
+  });
   api.use(express.json({ limit: '64kb' }));
   api.use(session);
   api.use(passport.initialize());

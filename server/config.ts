@@ -13,6 +13,7 @@ const envSchema = z.object({
   DATABASE_POOL_MAX: z.coerce.number().int().min(1).max(100).default(10),
   SESSION_SECRET: z.string().min(16, 'SESSION_SECRET must be at least 16 characters').optional(),
   SESSION_IDLE_MINUTES: z.coerce.number().int().min(1).default(8 * 60),
+  SESSION_ABSOLUTE_HOURS: z.coerce.number().min(0.001).default(7 * 24),
   COOKIE_SECURE: bool.default(false),
   TRUST_PROXY: z.string().default('false'),
   SIGNIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().min(1).default(10),
@@ -68,6 +69,8 @@ export interface Config {
   databasePoolMax: number;
   sessionSecret: string;
   sessionIdleMs: number;
+  /** A session ends this long after sign-in, however busy it is. */
+  sessionAbsoluteMs: number;
   cookieSecure: boolean;
   trustProxy: boolean | number | string;
   signInLimitPerAccount: number;
@@ -144,6 +147,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     databasePoolMax: e.DATABASE_POOL_MAX,
     sessionSecret: e.SESSION_SECRET ?? randomBytes(32).toString('hex'),
     sessionIdleMs: e.SESSION_IDLE_MINUTES * 60_000,
+    sessionAbsoluteMs: Math.round(e.SESSION_ABSOLUTE_HOURS * 3_600_000),
     cookieSecure: e.COOKIE_SECURE,
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
     signInLimitPerAccount: e.SIGNIN_LIMIT_PER_ACCOUNT,

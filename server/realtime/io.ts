@@ -5,21 +5,13 @@ import type passport from 'passport';
 import pg from 'pg';
 import { Server } from 'socket.io';
 import type { Config } from '../config';
-import type { Actor } from '../policies/actor';
-import { domainEvents, type NodeFiguresEvent } from '../services/events';
+import { domainEvents, type AccessChangedEvent, type NodeFiguresEvent } from '../services/events';
+import { admit, refreshRooms, sameOrigin } from './access';
 
 /** Rooms an event about a node goes to: its neighbourhood, the admins, and its site's host. */
 export function roomsFor(e: { neighbourhoodId: number; hostUserId: number | null }): string[] {
   const rooms = ['admins', `hood:${e.neighbourhoodId}`];
   if (e.hostUserId) rooms.push(`host:${e.hostUserId}`);
-  return rooms;
-}
-
-/** Rooms a person may listen in: deny by default, exactly what they may read over the API. */
-export function roomsOf(actor: Actor): string[] {
-  if (actor.role === 'admin') return ['admins'];
-  const rooms = [`host:${actor.id}`];
-  if (actor.role === 'operator') rooms.push(...actor.neighbourhoodIds.map((id) => `hood:${id}`));
   return rooms;
 }
 
@@ -29,7 +21,7 @@ const onlyForHandshake = (mw: RequestHandler): EngineMiddleware => (req, res, ne
 
 /** socket.io on the app's HTTP server, authenticated from the session cookie. */
 export function createRealtime(server: http.Server, config: Config, session: RequestHandler, pp: typeof passport) {
-  const io = new Server(server, { serveClient: false });
+  const io = new Server(server, { serveClient: false, allowRequest: (req, answer) => answer(null, sameOrigin(req, config)) });
   let adapterPool: pg.Pool | null = null;
   if (config.socketAdapter === 'postgres') {
     // Fan-out across instances goes through PostgreSQL NOTIFY, so any instance can serve any browser.
@@ -48,10 +40,10 @@ export function createRealtime(server: http.Server, config: Config, session: Req
     }),
   );
 
-  io.on('connection', (socket) => {
-    const actor = (socket.request as Request).user as Actor;
-    void socket.join(roomsOf(actor));
-  });
+  io.on('connection', (socket) => admit(socket, config));
+  // Assignments, roles and deactivation take effect on open sockets at once, on every instance.
+  const onAccess = (e: AccessChangedEvent) =>
+    void refreshRooms(io, e.userIds).catch((err: Error) => console.error('could not refresh live-update rooms:', err.message));
 
   const onState = (e: Parameters<typeof roomsFor>[0] & object) => io.to(roomsFor(e)).emit('node:state', e);
   const onOutage = (e: Parameters<typeof roomsFor>[0] & object) => io.to(roomsFor(e)).emit('outage', e);
@@ -59,6 +51,7 @@ export function createRealtime(server: http.Server, config: Config, session: Req
   domainEvents.on('node-state', onState);
   domainEvents.on('outage', onOutage);
   domainEvents.on('node-figures', figures.push);
+  domainEvents.on('access-changed', onAccess);
 
   return {
     io,
@@ -66,6 +59,7 @@ export function createRealtime(server: http.Server, config: Config, session: Req
       domainEvents.off('node-state', onState);
       domainEvents.off('outage', onOutage);
       domainEvents.off('node-figures', figures.push);
+      domainEvents.off('access-changed', onAccess);
       figures.stop();
       await new Promise<void>((resolve) => io.close(() => resolve()));
       await adapterPool?.end();

@@ -18,6 +18,7 @@ import { presentNeighbourhood } from '../presenters/neighbourhood';
 import { countOf, InUse, uniquely } from '../services/conflicts';
 import { listPage } from '../services/listing';
 import { recordChange } from '../services/audit';
+import { domainEvents } from '../services/events';
 
 async function countsFor(ids: number[]) {
   const [assignments, sites, nodes] = await Promise.all([
@@ -120,6 +121,8 @@ export function neighbourhoodRoutes() {
       await OperatorAssignment.bulkCreate(userIds.map((userId) => ({ userId, neighbourhoodId: n.id })), { transaction });
       await recordChange(transaction, 'neighbourhoods', n.id, { operatorIds: before }, { operatorIds: [...userIds].sort((a, b) => a - b) }, 'operators assigned');
     });
+    // Removed operators stop hearing this neighbourhood's live updates now, added ones start.
+    domainEvents.emit('access-changed', { userIds: [...before, ...userIds] });
     res.json({ data: await present(n, actor) });
   });
 

@@ -7,6 +7,7 @@ import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
 import { User } from '../models';
 import { authorize } from '../policies/authorize';
+import { domainEvents } from '../services/events';
 import { mayListPeople, userAbilities } from '../policies/user';
 import { presentUser } from '../presenters/user';
 import { erasePerson, exportPerson } from '../services/personalData';
@@ -41,6 +42,7 @@ export function personalDataRoutes(config: Config, sequelize: Sequelize) {
     if (user.erasedAt) throw Conflict(`Person ${user.id}’s data was already erased.`, 'already_erased');
     authorize(userAbilities(actor, user).erase, 'You cannot erase your own account; ask another admin.');
     await erasePerson(sequelize, user, config.now());
+    domainEvents.emit('access-changed', { userIds: [user.id] });
     res.json({ data: presentUser(user, [], actor) });
   });
 

@@ -4,6 +4,7 @@ import type passport from 'passport';
 import { signInSchema } from '../../shared/schemas/session';
 import type { Config } from '../config';
 import { ApiError, TooMany } from '../errors';
+import { markSignedIn } from '../auth/session';
 import { csrfTokenFor } from '../middlewares/csrf';
 import { parseOrThrow } from '../middlewares/validate';
 import type { Actor } from '../policies/actor';
@@ -43,6 +44,7 @@ export function sessionRoutes(config: Config, pp: typeof passport) {
       // passport regenerates the session id here, so a planted id is useless after sign-in.
       req.login(actor, (loginErr) => {
         if (loginErr) return next(loginErr);
+        markSignedIn(req, config);
         res.json({ user: presentSessionUser(actor), csrfToken: csrfTokenFor(req) });
       });
     })(req, res, next);

@@ -10,6 +10,7 @@ import { authorize } from '../policies/authorize';
 import { mayListPeople, userAbilities } from '../policies/user';
 import { presentUser } from '../presenters/user';
 import { uniquely } from '../services/conflicts';
+import { domainEvents } from '../services/events';
 import { filters, listPage } from '../services/listing';
 
 async function assignmentsOf(userIds: number[]) {
@@ -74,6 +75,7 @@ export function userRoutes() {
       // Assignments belong to operators only.
       if (body.role && body.role !== 'operator') await OperatorAssignment.destroy({ where: { userId: user.id }, transaction });
     });
+    if (body.role !== undefined || body.active !== undefined) domainEvents.emit('access-changed', { userIds: [user.id] });
     res.json({ data: presentUser(user, (await assignmentsOf([user.id]))(user.id), actor) });
   });
 
@@ -82,6 +84,7 @@ export function userRoutes() {
     const user = await findUser(res.locals.params.id);
     authorize(userAbilities(actor, user).delete, 'You cannot remove your own account.');
     await user.destroy();
+    domainEvents.emit('access-changed', { userIds: [user.id] });
     res.status(204).end();
   });
 

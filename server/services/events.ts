@@ -3,7 +3,13 @@ import type { NodeFiguresEvent, NodeStateEvent, OutageEvent } from '../../shared
 
 export type { NodeFiguresEvent, NodeStateEvent, OutageEvent };
 
+/** People whose role, assignments or active flag changed; emitted after commit. */
+export interface AccessChangedEvent {
+  userIds: number[];
+}
+
 interface EventMap {
+  'access-changed': [AccessChangedEvent];
   'node-state': [NodeStateEvent];
   'node-figures': [NodeFiguresEvent];
   outage: [OutageEvent];

@@ -21,7 +21,7 @@ export interface ServerProcess {
 }
 
 /** A real Parapet server in its own process (tsx server/index.ts), as start.sh runs it. */
-export async function startServerProcess(env: Record<string, string>): Promise<ServerProcess> {
+export async function startServerProcess(env: Record<string, string>, healthyWithinMs = 30_000): Promise<ServerProcess> {
   const port = await freePort();
   let output = '';
   const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
@@ -31,7 +31,7 @@ export async function startServerProcess(env: Record<string, string>): Promise<S
   child.stdout!.on('data', (d) => (output += d));
   child.stderr!.on('data', (d) => (output += d));
   const url = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + 30_000;
+  const deadline = Date.now() + healthyWithinMs;
   for (;;) {
     if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`);
     try {

@@ -102,7 +102,11 @@ export function useLiveUpdates(userId: number) {
     socket.on('node:state', apply.state);
     socket.on('node:figures', apply.figures);
     socket.on('outage', apply.outage);
+    // Every cached answer was read with the old access (the session's role too): read them all afresh.
+    const onAccessChanged = () => void queryClient.invalidateQueries();
+    socket.on('access:changed', onAccessChanged);
     return () => {
+      socket.off('access:changed', onAccessChanged);
       apply.stop();
       socket.off('connect', onConnect);
       socket.off('node:state', apply.state);

@@ -9,6 +9,8 @@ interface ServerEvents {
   'node:state': (event: NodeStateEvent) => void;
   'node:figures': (event: NodeFiguresEvent) => void;
   outage: (event: OutageEvent) => void;
+  /** The person's role or neighbourhoods changed: what they may read is different now. */
+  'access:changed': (event: { userId: number; role: string; neighbourhoodIds: number[] }) => void;
 }
 
 export type LiveSocket = Socket<ServerEvents, Record<string, never>>;
