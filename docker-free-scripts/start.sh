@@ -11,6 +11,8 @@ take_run_lock "$PARAPET_DATA_DIR/start.lock" "docker-free-scripts/start.sh"
 export HOST=${HOST:-127.0.0.1}
 export PORT=${PORT:-4300}
 export PARAPET_DEMO_PASSWORD=${PARAPET_DEMO_PASSWORD:-parapet-demo}
+# This is the demo: only here may people keep the published demo password as their own.
+export PARAPET_DEMO=${PARAPET_DEMO:-true}
 PG_PORT=${PARAPET_PG_PORT:-5433}
 MAIL_SMTP_PORT=${PARAPET_SMTP_PORT:-1025}
 MAIL_WEB_PORT=${PARAPET_MAIL_WEB_PORT:-1080}

@@ -156,14 +156,14 @@ export function createApp({ config, sequelize }: AppContext) {
   api.use('/outbox', requireUser, outboxRoutes(config));
   api.use('/me/preferences', requireUser, preferenceRoutes());
   api.use('/me/nodes', requireUser, hostPortalRoutes(config, sequelize));
-  api.use('/me', requireUser, meRoutes(sequelize));
+  api.use('/me', requireUser, meRoutes(sequelize, config));
   api.use('/mail-inbox', requireUser, mailInboxRoutes(config));
   api.use('/topology', requireUser, topologyRoutes(sequelize));
   api.use('/radios', requireUser, radioRoutes());
   api.use('/links/:id/health', requireUser, linkHealthRoutes(config, sequelize));
   api.use('/links', requireUser, linkRoutes());
   api.use('/users/:id', requireUser, personalDataRoutes(config, sequelize));
-  api.use('/users', requireUser, userRoutes());
+  api.use('/users', requireUser, userRoutes(config));
   api.use('/overview', requireUser, overviewRoutes());
   // Planning is for operators and admins: others hear 403 before anything about their input.
   api.use('/planning', requireUser, requireRole(mayPlan, 'Planning is for operators and admins.'));

@@ -16,9 +16,15 @@ const envSchema = z.object({
   SESSION_ABSOLUTE_HOURS: z.coerce.number().min(0.001).default(7 * 24),
   COOKIE_SECURE: bool.default(false),
   TRUST_PROXY: z.string().default('false'),
-  SIGNIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().min(1).default(10),
+  SIGNIN_LIMIT_PER_ACCOUNT_ADDRESS: z.coerce.number().int().min(1).default(10),
   SIGNIN_LIMIT_PER_ADDRESS: z.coerce.number().int().min(1).default(100),
   SIGNIN_LIMIT_WINDOW_S: z.coerce.number().int().min(1).default(15 * 60),
+  SIGNIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().min(1).default(100),
+  SIGNIN_ACCOUNT_WINDOW_S: z.coerce.number().int().min(1).default(3600),
+  KNOWN_DEVICE_DAYS: z.coerce.number().int().min(1).max(400).default(90),
+  PASSWORD_CHANGE_LIMIT: z.coerce.number().int().min(1).default(5),
+  PASSWORD_RESET_MIN_MS: z.coerce.number().int().min(0).max(10_000).default(400),
+  PARAPET_DEMO: bool.default(false),
   SMTP_HOST: z.string().default('127.0.0.1'),
   SMTP_PORT: z.coerce.number().int().min(1).max(65535).default(1025),
   MAIL_FROM: z.string().default('Parapet <parapet@parapet.example>'),
@@ -73,9 +79,20 @@ export interface Config {
   sessionAbsoluteMs: number;
   cookieSecure: boolean;
   trustProxy: boolean | number | string;
-  signInLimitPerAccount: number;
+  /** Failed sign-ins per (account, address) within signInLimitWindowMs: a stranger locks out only themself. */
+  signInLimitPerAccountAddress: number;
   signInLimitPerAddress: number;
   signInLimitWindowMs: number;
+  /** Failed sign-ins per account from anywhere within signInAccountWindowMs; browsers that signed in to it before are exempt. */
+  signInLimitPerAccount: number;
+  signInAccountWindowMs: number;
+  knownDeviceMs: number;
+  /** Wrong current passwords per person within signInLimitWindowMs when changing the password. */
+  passwordChangeLimit: number;
+  /** Every reset request takes at least this long, whether or not the address has an account. */
+  passwordResetMinMs: number;
+  /** Set by start.sh for the demo: only then is the published demo password accepted as a new password. */
+  demoMode: boolean;
   smtpHost: string;
   smtpPort: number;
   mailFrom: string;
@@ -150,9 +167,15 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     sessionAbsoluteMs: Math.round(e.SESSION_ABSOLUTE_HOURS * 3_600_000),
     cookieSecure: e.COOKIE_SECURE,
     trustProxy: parseTrustProxy(e.TRUST_PROXY),
-    signInLimitPerAccount: e.SIGNIN_LIMIT_PER_ACCOUNT,
+    signInLimitPerAccountAddress: e.SIGNIN_LIMIT_PER_ACCOUNT_ADDRESS,
     signInLimitPerAddress: e.SIGNIN_LIMIT_PER_ADDRESS,
     signInLimitWindowMs: e.SIGNIN_LIMIT_WINDOW_S * 1000,
+    signInLimitPerAccount: e.SIGNIN_LIMIT_PER_ACCOUNT,
+    signInAccountWindowMs: e.SIGNIN_ACCOUNT_WINDOW_S * 1000,
+    knownDeviceMs: e.KNOWN_DEVICE_DAYS * 86_400_000,
+    passwordChangeLimit: e.PASSWORD_CHANGE_LIMIT,
+    passwordResetMinMs: e.PASSWORD_RESET_MIN_MS,
+    demoMode: e.PARAPET_DEMO,
     smtpHost: e.SMTP_HOST,
     smtpPort: e.SMTP_PORT,
     mailFrom: e.MAIL_FROM,

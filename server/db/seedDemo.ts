@@ -7,12 +7,12 @@ import { createSequelize } from './sequelize';
 /** Loads the Lindenfall demo once; a second run finds the admin and leaves everything as it is. */
 export async function seedDemo(password: string): Promise<'loaded' | 'already-loaded'> {
   if (await User.findOne({ where: { email: PEOPLE[0].email } })) return 'already-loaded';
-  const passwordHash = await hashPassword(password);
   await User.sequelize!.transaction(async (transaction) => {
     const t = { transaction };
     await NetworkSettings.update({ name: TOWN.name, region: TOWN.region, timeZone: TOWN.timeZone, addressPool: TOWN.pool }, { where: { id: 1 }, ...t });
     const people = new Map<string, User>();
-    for (const p of PEOPLE) people.set(p.key, await User.create({ email: p.email, name: p.name, role: p.role, phone: p.phone ?? null, passwordHash }, t));
+    // Each person gets a hash of their own (argon2 draws a fresh salt every time), so one cracked hash opens one account.
+    for (const p of PEOPLE) people.set(p.key, await User.create({ email: p.email, name: p.name, role: p.role, phone: p.phone ?? null, passwordHash: await hashPassword(password) }, t));
     const hoods = new Map<string, Neighbourhood>();
     for (const n of NEIGHBOURHOODS) {
       const hood = await Neighbourhood.create({ name: n.name, description: n.description }, t);

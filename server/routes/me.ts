@@ -1,9 +1,11 @@
 import { Router } from 'express';
+import { rateLimit } from 'express-rate-limit';
 import type { Sequelize } from 'sequelize';
 import { meUpdateSchema, passwordChangeSchema, type MeDto } from '../../shared/schemas/account';
 import { endSessionsOf } from '../auth/accountTokens';
 import { hashPassword, verifyPassword } from '../auth/passwords';
-import { Invalid, NotFound } from '../errors';
+import type { Config } from '../config';
+import { Invalid, NotFound, TooMany } from '../errors';
 import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
 import { User } from '../models';
@@ -18,8 +20,21 @@ async function me(id: number) {
 }
 
 /** Each person's own account: contact details and password. The role is the admins' to change. */
-export function meRoutes(sequelize: Sequelize) {
+export function meRoutes(sequelize: Sequelize, config: Config) {
   const router = Router();
+  // Wrong current passwords per person: a borrowed, signed-in browser cannot guess the password at leisure.
+  const attempts = rateLimit({
+    windowMs: config.signInLimitWindowMs,
+    limit: config.passwordChangeLimit,
+    keyGenerator: (req) => `password-change:${actorOf(req).id}`,
+    skipSuccessfulRequests: true,
+    requestWasSuccessful: (_req, res) => res.locals.wrongCurrentPassword !== true,
+    validate: { keyGeneratorIpFallback: false },
+    handler: (req, _res, next) => {
+      const resetAt = (req as typeof req & { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime?.getTime() ?? Date.now() + config.signInLimitWindowMs;
+      next(TooMany((resetAt - Date.now()) / 1000, 'Too many wrong current passwords. Wait a few minutes, or sign out and use "Forgot password?".'));
+    },
+  });
 
   router.get('/', async (req, res) => {
     res.json({ data: present(await me(actorOf(req).id)) });
@@ -31,10 +46,11 @@ export function meRoutes(sequelize: Sequelize) {
     res.json({ data: present(user) });
   });
 
-  router.post('/password', validate('body', passwordChangeSchema), async (req, res) => {
+  router.post('/password', attempts, validate('body', passwordChangeSchema), async (req, res) => {
     const user = await me(actorOf(req).id);
     const { currentPassword, newPassword } = res.locals.body;
     if (!(await verifyPassword(user.passwordHash, currentPassword))) {
+      res.locals.wrongCurrentPassword = true;
       throw Invalid('The current password is not right. Type it again, or sign out and use "Forgot password?".', [
         { path: 'currentPassword', message: 'currentPassword does not match your current password' },
       ]);
@@ -42,7 +58,7 @@ export function meRoutes(sequelize: Sequelize) {
     if (currentPassword === newPassword) {
       throw Invalid('The new password is the same as the current one. Choose a different one.', [{ path: 'newPassword', message: 'newPassword must differ from the current password' }]);
     }
-    assertPasswordFor(user, newPassword, 'newPassword');
+    assertPasswordFor(config, user, newPassword, 'newPassword');
     await sequelize.transaction(async (transaction) => {
       await user.update({ passwordHash: await hashPassword(newPassword) }, { transaction });
       // Reset links from before the change stop working, and other devices are signed out; this one stays.

@@ -12,7 +12,11 @@ export function passwordResetRoutes(config: Config, sequelize: Sequelize) {
   const minutes = Math.round(config.passwordResetTtlMs / 60_000);
 
   router.post('/', validate('body', passwordResetRequestSchema), accountMailLimit(config, 'password-reset'), async (_req, res) => {
+    const started = performance.now();
     await requestPasswordReset(sequelize, config, res.locals.body.email);
+    // Known and unknown addresses answer after the same minimum time, so the clock does not tell them apart.
+    const left = config.passwordResetMinMs - (performance.now() - started);
+    if (left > 0) await new Promise((resolve) => setTimeout(resolve, left));
     res.status(202).json({
       data: { message: `If that address belongs to an active Parapet account, a link to choose a new password is on its way. It works once, within ${minutes} minutes.` },
     });

@@ -4,21 +4,25 @@ import type passport from 'passport';
 import { signInSchema } from '../../shared/schemas/session';
 import type { Config } from '../config';
 import { ApiError, TooMany } from '../errors';
+import { isKnownDevice, rememberDevice } from '../auth/knownDevice';
 import { markSignedIn } from '../auth/session';
 import { csrfTokenFor } from '../middlewares/csrf';
 import { parseOrThrow } from '../middlewares/validate';
 import type { Actor } from '../policies/actor';
 import { presentSessionUser } from '../presenters/user';
 
-function signInLimiter(config: Config, limit: number, key: (req: Request) => string) {
+const emailOf = (req: Request) => String((req.body as { email?: unknown })?.email ?? '').trim().toLowerCase();
+
+function signInLimiter(windowMs: number, limit: number, key: (req: Request) => string, skip?: (req: Request) => boolean) {
   return rateLimit({
-    windowMs: config.signInLimitWindowMs,
+    windowMs,
     limit,
     skipSuccessfulRequests: true, // only failed attempts count
     keyGenerator: key,
+    skip,
     validate: { keyGeneratorIpFallback: false },
     handler: (req, _res, next) => {
-      const resetAt = (req as typeof req & { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime?.getTime() ?? Date.now() + config.signInLimitWindowMs;
+      const resetAt = (req as typeof req & { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime?.getTime() ?? Date.now() + windowMs;
       next(TooMany((resetAt - Date.now()) / 1000, 'Too many failed sign-ins. Wait a few minutes and try again.'));
     },
   });
@@ -26,16 +30,20 @@ function signInLimiter(config: Config, limit: number, key: (req: Request) => str
 
 export function sessionRoutes(config: Config, pp: typeof passport) {
   const router = Router();
-  const perAddress = signInLimiter(config, config.signInLimitPerAddress, (req) => `addr:${req.ip}`);
-  const perAccount = signInLimiter(config, config.signInLimitPerAccount, (req) =>
-    `acct:${String((req.body as { email?: unknown })?.email ?? '').trim().toLowerCase()}`,
+  // Three counters of failures: one address guessing many accounts; one account guessed from one address
+  // (fast; a stranger locks out only themself); and one account guessed from anywhere (slower), which
+  // a browser that signed in to that account before does not feel, so its owner is never locked out.
+  const perAddress = signInLimiter(config.signInLimitWindowMs, config.signInLimitPerAddress, (req) => `addr:${req.ip}`);
+  const perAccountAddress = signInLimiter(config.signInLimitWindowMs, config.signInLimitPerAccountAddress, (req) => `pair:${emailOf(req)}|${req.ip}`);
+  const perAccount = signInLimiter(config.signInAccountWindowMs, config.signInLimitPerAccount, (req) => `acct:${emailOf(req)}`, (req) =>
+    isKnownDevice(req, config, emailOf(req)),
   );
 
   router.get('/', (req, res) => {
     res.json({ user: req.user ? presentSessionUser(req.user as Actor) : null, csrfToken: csrfTokenFor(req) });
   });
 
-  router.post('/', perAddress, perAccount, (req, res, next) => {
+  router.post('/', perAddress, perAccountAddress, perAccount, (req, res, next) => {
     const input = parseOrThrow(signInSchema, req.body, 'sign-in');
     req.body = input;
     pp.authenticate('local', (err: unknown, actor: Actor | false) => {
@@ -45,6 +53,7 @@ export function sessionRoutes(config: Config, pp: typeof passport) {
       req.login(actor, (loginErr) => {
         if (loginErr) return next(loginErr);
         markSignedIn(req, config);
+        rememberDevice(res, config, actor.email);
         res.json({ user: presentSessionUser(actor), csrfToken: csrfTokenFor(req) });
       });
     })(req, res, next);

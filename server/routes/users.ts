@@ -2,6 +2,7 @@ import { Router } from 'express';
 import { idParamsSchema } from '../../shared/schemas/common';
 import { userCreateSchema, userListQuerySchema, userUpdateSchema } from '../../shared/schemas/user';
 import { hashPassword } from '../auth/passwords';
+import type { Config } from '../config';
 import { Conflict, Invalid, NotFound } from '../errors';
 import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
@@ -9,6 +10,7 @@ import { OperatorAssignment, User } from '../models';
 import { authorize } from '../policies/authorize';
 import { mayListPeople, userAbilities } from '../policies/user';
 import { presentUser } from '../presenters/user';
+import { assertPasswordFor } from '../services/accountLinks';
 import { uniquely } from '../services/conflicts';
 import { domainEvents } from '../services/events';
 import { filters, listPage } from '../services/listing';
@@ -27,7 +29,7 @@ async function findUser(id: number) {
 const DUPLICATE_EMAIL = 'Someone already has that e-mail address.';
 
 /** People are the admins' to manage; other roles only ever see themselves through the session. */
-export function userRoutes() {
+export function userRoutes(config: Config) {
   const router = Router();
 
   router.use((req, _res, next) => {
@@ -51,6 +53,8 @@ export function userRoutes() {
   router.post('/', validate('body', userCreateSchema), async (req, res) => {
     const actor = actorOf(req);
     const { password, ...rest } = res.locals.body;
+    // The same checks as a password people choose themselves: not their own name or address, not the demo's.
+    assertPasswordFor(config, rest, password, 'password');
     if (await User.findOne({ where: { email: rest.email } })) throw Conflict(DUPLICATE_EMAIL, 'duplicate');
     const passwordHash = await hashPassword(password);
     // The unique index settles a race between two admins adding the same address.

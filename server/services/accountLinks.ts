@@ -1,3 +1,4 @@
+import { randomBytes } from 'node:crypto';
 import type { Sequelize, Transaction } from 'sequelize';
 import type { Role } from '../../shared/enums';
 import { passwordProblem } from '../../shared/security/passwordRules';
@@ -13,9 +14,19 @@ import { enqueue } from './outbox';
 const timeZone = async (transaction: Transaction) => (await NetworkSettings.findByPk(1, { transaction }))?.timeZone ?? 'UTC';
 const linkUrl = (config: Config, kind: 'invite' | 'reset', token: string) => `${config.publicUrl.replace(/\/$/, '')}/${kind}/${token}`;
 
-/** Refuses a password that contains the person's own name or address words, beyond the schema's checks. */
-export function assertPasswordFor(user: Pick<User, 'name' | 'email'>, password: string, field: string) {
-  const problem = passwordProblem(password, [user.name, user.email]);
+/** The demo's password is printed in the README and by start.sh, so it is as good as public. */
+export const PUBLISHED_DEMO_PASSWORD = 'parapet-demo';
+
+/**
+ * Refuses, beyond the schema's checks, a password built from the person's own name or address words,
+ * and — outside the demo — the published demo password.
+ */
+export function assertPasswordFor(config: Pick<Config, 'demoMode' | 'demoPassword'>, user: Pick<User, 'name' | 'email'>, password: string, field: string) {
+  const published = [PUBLISHED_DEMO_PASSWORD, config.demoPassword].map((p) => p.toLowerCase());
+  const problem =
+    !config.demoMode && published.includes(password.toLowerCase())
+      ? 'is the published demo password; choose one of your own'
+      : passwordProblem(password, [user.name, user.email]);
   if (problem) throw Invalid(`The request body is invalid: ${field} ${problem}.`, [{ path: field, message: `${field} ${problem}` }]);
 }
 
@@ -43,18 +54,25 @@ export async function acceptInvitation(sequelize: Sequelize, config: Config, tok
     const { userId } = await spendAccountToken(sequelize, config.sessionSecret, token, 'invitation', config.now(), transaction);
     const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!user || user.erasedAt) throw Invalid('This invitation is for an account that no longer exists. Ask an admin to invite you again.');
-    assertPasswordFor(user, password, 'password');
+    assertPasswordFor(config, user, password, 'password');
     await user.update({ passwordHash: await hashPassword(password), active: true }, { transaction });
     return user;
   });
 }
 
-/** Writes a reset mail for an active account; for any other address it does nothing, and says nothing. */
+/**
+ * Writes a reset mail for an active account; for any other address it writes nothing and says nothing,
+ * but still reads the settings and renders a mail, so both paths do about the same work (the route
+ * then pads both to the same minimum time).
+ */
 export async function requestPasswordReset(sequelize: Sequelize, config: Config, email: string) {
   const now = config.now();
   await sequelize.transaction(async (transaction) => {
     const user = await User.findOne({ where: { email, active: true }, transaction });
-    if (!user || user.erasedAt) return;
+    if (!user || user.erasedAt) {
+      passwordResetMail({ name: email, url: linkUrl(config, 'reset', randomBytes(48).toString('base64url')), expiresAt: formatLocal(new Date(now.getTime() + config.passwordResetTtlMs), await timeZone(transaction)) });
+      return;
+    }
     const link = await issueAccountToken(sequelize, config.sessionSecret, { purpose: 'password-reset', userId: user.id, now, ttlMs: config.passwordResetTtlMs }, transaction);
     const rendered = passwordResetMail({ name: user.name, url: linkUrl(config, 'reset', link.token), expiresAt: formatLocal(link.expiresAt, await timeZone(transaction)) });
     await enqueue(sequelize, { kind: 'password-reset', userId: user.id, address: user.email, name: user.name, dedupeKey: `password-reset:${link.id}`, rendered, unsubscribeUrl: null }, now, transaction);
@@ -67,7 +85,7 @@ export async function completePasswordReset(sequelize: Sequelize, config: Config
     const { userId } = await spendAccountToken(sequelize, config.sessionSecret, token, 'password-reset', config.now(), transaction);
     const user = await User.findByPk(userId, { transaction, lock: transaction.LOCK.UPDATE });
     if (!user || !user.active) throw Invalid('This account is not active any more. Ask an admin.');
-    assertPasswordFor(user, password, 'password');
+    assertPasswordFor(config, user, password, 'password');
     await user.update({ passwordHash: await hashPassword(password) }, { transaction });
     await endSessionsOf(sequelize, user.id, undefined, transaction);
   });

@@ -24,6 +24,11 @@ export function passwordProblem(password: string, knownWords: string[] = []): st
   if (passphraseStrength(password, words).score < PASSWORD_MIN_SCORE) {
     return 'is too easy to guess; use a longer phrase of unrelated words, not your name or e-mail';
   }
+  // zxcvbn alone lets "marigold-fenwick-2026" through for Marigold Fenwick. Verifiers should refuse
+  // context-specific words such as the user's name (NIST SP 800-63B §5.1.1.2, from memory); what is left
+  // without them must still be 8 characters (the threshold is common practice, not a standard's).
+  const rest = words.reduce((left, w) => left.split(w).join(''), password.toLowerCase()).replace(/[^a-z0-9]/g, '');
+  if (words.length > 0 && rest.length < 8) return 'is mostly your own name or e-mail address; use words that have nothing to do with you';
   return null;
 }
 

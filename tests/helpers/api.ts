@@ -24,7 +24,7 @@ export function useApi(overrides: Partial<Config> = {}): TestContext {
   let close: () => Promise<void>;
   beforeAll(async () => {
     ctx.config = loadConfig(
-      { ...process.env, NODE_ENV: 'test', SIGNIN_LIMIT_PER_ACCOUNT: '1000', SIGNIN_LIMIT_PER_ADDRESS: '10000' },
+      { ...process.env, NODE_ENV: 'test', SIGNIN_LIMIT_PER_ACCOUNT: '1000', SIGNIN_LIMIT_PER_ACCOUNT_ADDRESS: '1000', SIGNIN_LIMIT_PER_ADDRESS: '10000' },
       overrides,
     );
     ctx.sequelize = createSequelize(ctx.config.databaseUrl, 4);

@@ -25,6 +25,16 @@ describe('password rules', () => {
     expect(passwordProblem('wrenwrenaldous', ['Wren Aldous'])).toMatch(/too easy to guess/);
   });
 
+  it('refuses a password that is mostly the person’s own name or address even when zxcvbn rates it well', () => {
+    // NIST SP 800-63B §5.1.1.2 (from memory): refuse context-specific words such as the user name.
+    const known = ['Marigold Fenwick', 'marigold.fenwick@lindenfall.example'];
+    expect(passwordProblem('marigold-fenwick-2026')).toBeNull();
+    expect(passwordProblem('marigold-fenwick-2026', known)).toBe('is mostly your own name or e-mail address; use words that have nothing to do with you');
+    expect(passwordProblem('Fenwick.Lindenfall!', known)).toMatch(/mostly your own name/);
+    // Enough of the password's own (8 characters beyond the name, a common-practice threshold) passes.
+    expect(passwordProblem('marigold-quartz-lantern-9', known)).toBeNull();
+  });
+
   it('the schema gives the same message', () => {
     const r = newPasswordSchema.safeParse('password1234');
     expect(r.success).toBe(false);
