@@ -10,7 +10,7 @@ import { mayCreateSiteIn, siteAbilities, siteScope } from '../policies/site';
 import { presentSite } from '../presenters/site';
 import { countOf, InUse, uniquely } from '../services/conflicts';
 import { filters, listPage } from '../services/listing';
-import { assertHost, readableNeighbourhood, readableSite } from '../services/references';
+import { assertHost, hostCandidates, readableNeighbourhood, readableSite } from '../services/references';
 
 const duplicateName = (name: string) => `This neighbourhood already has a site named "${name}". Choose another name.`;
 
@@ -39,9 +39,16 @@ export function siteRoutes() {
     const body = res.locals.body;
     await readableNeighbourhood(actor, body.neighbourhoodId);
     authorize(mayCreateSiteIn(actor, body.neighbourhoodId), 'Only admins and the operators of that neighbourhood add sites to it.');
-    await assertHost(body.hostUserId);
+    await assertHost(actor, body.hostUserId);
     const site = await uniquely(() => Site.create(body), duplicateName(body.name));
     res.status(201).json({ data: presentSite(await readableSite(actor, site.id), actor) });
+  });
+
+  // Who the caller may pick as a host: names only, for the site form's picker.
+  router.get('/host-candidates', async (req, res) => {
+    const actor = actorOf(req);
+    authorize(isAdmin(actor) || actor.neighbourhoodIds.length > 0, 'Only admins and operators choose hosts.');
+    res.json({ data: (await hostCandidates(actor)).map((u) => ({ id: u.id, name: u.name })) });
   });
 
   router.get('/:id', validate('params', idParamsSchema), async (req, res) => {
@@ -58,7 +65,7 @@ export function siteRoutes() {
       await readableNeighbourhood(actor, body.neighbourhoodId);
       authorize(mayCreateSiteIn(actor, body.neighbourhoodId), 'You cannot move a site into a neighbourhood you do not operate.');
     }
-    await assertHost(body.hostUserId);
+    await assertHost(actor, body.hostUserId, site.hostUserId ?? null);
     await uniquely(() => site.update(body), duplicateName(body.name ?? site.name));
     res.json({ data: presentSite(await readableSite(actor, site.id), actor) });
   });

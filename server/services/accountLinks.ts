@@ -8,7 +8,7 @@ import type { Config } from '../config';
 import { Conflict, Invalid } from '../errors';
 import { formatLocal } from '../mail/templates/compose';
 import { invitationMail, passwordResetMail } from '../mail/templates/account';
-import { NetworkSettings, User } from '../models';
+import { NetworkSettings, type Site, User } from '../models';
 import { enqueue } from './outbox';
 
 const timeZone = async (transaction: Transaction) => (await NetworkSettings.findByPk(1, { transaction }))?.timeZone ?? 'UTC';
@@ -34,13 +34,22 @@ export function assertPasswordFor(config: Pick<Config, 'demoMode' | 'demoPasswor
  * Creates the invited person (inactive, no password) or refreshes a pending invitation, and writes the
  * mail to the outbox in the same transaction. Someone who already has an account is a conflict.
  */
-export async function invite(sequelize: Sequelize, config: Config, input: { email: string; name: string; role: Role }, invitedBy: string) {
+export async function invite(
+  sequelize: Sequelize,
+  config: Config,
+  input: { email: string; name: string; role: Role },
+  invitedBy: string,
+  hostOf: { site: Site; onlyNewPeople: boolean } | null = null,
+) {
   const now = config.now();
   return sequelize.transaction(async (transaction) => {
     let user = await User.findOne({ where: { email: input.email }, transaction, lock: transaction.LOCK.UPDATE });
     if (user && (user.active || user.passwordHash || user.erasedAt)) throw Conflict('Someone already has that e-mail address.', 'duplicate');
+    // An operator's invitation never touches someone else's pending one (an admin may have invited them with another role).
+    if (user && hostOf?.onlyNewPeople) throw Conflict('Someone already has that e-mail address. Ask an admin to make them the host.', 'duplicate');
     if (user) await user.update({ name: input.name, role: input.role }, { transaction });
-    else user = await User.create({ ...input, active: false, passwordHash: null }, { transaction });
+    else user = await User.create({ email: input.email, name: input.name, role: input.role, active: false, passwordHash: null }, { transaction });
+    if (hostOf) await hostOf.site.update({ hostUserId: user.id }, { transaction });
     const link = await issueAccountToken(sequelize, config.sessionSecret, { purpose: 'invitation', userId: user.id, now, ttlMs: config.invitationTtlMs }, transaction);
     const rendered = invitationMail({ name: user.name, invitedBy, role: user.role, url: linkUrl(config, 'invite', link.token), expiresAt: formatLocal(link.expiresAt, await timeZone(transaction)) });
     await enqueue(sequelize, { kind: 'invitation', userId: user.id, address: user.email, name: user.name, dedupeKey: `invitation:${link.id}`, rendered, unsubscribeUrl: null }, now, transaction);

@@ -1,7 +1,7 @@
 import { Op } from 'sequelize';
 import { Invalid, NotFound } from '../errors';
 import { Neighbourhood, Node, Site, User } from '../models';
-import type { Actor } from '../policies/actor';
+import { type Actor, isAdmin } from '../policies/actor';
 import { neighbourhoodScope } from '../policies/neighbourhood';
 import { nodeScope } from '../policies/node';
 import { siteScope } from '../policies/site';
@@ -25,9 +25,31 @@ export async function readableNode(actor: Actor, id: number) {
   return n;
 }
 
-/** A host must be an active person; hosting is a relation, so any role may host. */
-export async function assertHost(hostUserId: number | null | undefined) {
-  if (hostUserId == null) return;
-  const host = await User.findOne({ where: { id: hostUserId, active: true } });
-  if (!host) throw Invalid(`Person ${hostUserId} is not an active person who can host.`, [{ path: 'hostUserId', message: 'hostUserId must be an active person' }]);
+/**
+ * People the actor may name as a site's host: for admins every active person; for operators only
+ * themselves and the active people who already host a site in their neighbourhoods (whose contact
+ * details they see anyway). Anyone else joins through an invitation.
+ */
+export async function hostCandidates(actor: Actor): Promise<User[]> {
+  if (isAdmin(actor)) return User.findAll({ where: { active: true }, order: [['name', 'ASC'], ['id', 'ASC']] });
+  const hosting = actor.neighbourhoodIds.length
+    ? (await Site.findAll({ where: { neighbourhoodId: actor.neighbourhoodIds, hostUserId: { [Op.ne]: null } }, attributes: ['hostUserId'] })).map((s) => s.hostUserId!)
+    : [];
+  return User.findAll({ where: { active: true, id: [...new Set([actor.id, ...hosting])] }, order: [['name', 'ASC'], ['id', 'ASC']] });
+}
+
+/**
+ * A host must be someone the actor may choose (see hostCandidates); hosting is a relation, so any
+ * role may host. Keeping a site's current host is always allowed. Every refused id gets the same
+ * answer, so the check reveals nothing about who has an account.
+ */
+export async function assertHost(actor: Actor, hostUserId: number | null | undefined, currentHostUserId: number | null = null) {
+  if (hostUserId == null || hostUserId === currentHostUserId) return;
+  if ((await hostCandidates(actor)).some((u) => u.id === hostUserId)) return;
+  if (isAdmin(actor)) {
+    throw Invalid(`Person ${hostUserId} is not an active person who can host.`, [{ path: 'hostUserId', message: 'hostUserId must be an active person' }]);
+  }
+  throw Invalid('Choose the host among the people who already host a site in your neighbourhoods, or invite the new host by e-mail.', [
+    { path: 'hostUserId', message: 'hostUserId must be you or someone who already hosts a site in your neighbourhoods' },
+  ]);
 }

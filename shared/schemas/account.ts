@@ -11,6 +11,8 @@ export const invitationCreateSchema = z.object({
   email: emailSchema,
   name: nameSchema,
   role: z.enum(ROLES, { error: `must be one of ${ROLES.join(', ')}` }),
+  /** Operators invite hosts only, for a site of theirs: the invited person becomes its host. */
+  siteId: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive id').optional(),
 });
 export const invitationAcceptSchema = z.object({ token: tokenSchema, password: newPasswordSchema });
 export const passwordResetRequestSchema = z.object({ email: emailSchema });

@@ -20,10 +20,10 @@ describe('invitations API', () => {
       expect(res.body.error).toEqual({ code: 'not_signed_in', message: 'Sign in to continue.' });
     });
 
-    it.each(['operator', 'host'] as const)('answers 403 to a signed-in %s', async (role) => {
-      const res = await call(await signedIn(role), 'post', '/api/v1/invitations', invitee());
+    it.each(['operator of no neighbourhood', 'host'] as const)('answers 403 to a signed-in %s', async (who) => {
+      const res = await call(await signedIn(who === 'host' ? 'host' : 'operator'), 'post', '/api/v1/invitations', invitee());
       expect(res.status).toBe(403);
-      expect(res.body.error).toEqual({ code: 'forbidden', message: 'Only admins invite people.' });
+      expect(res.body.error).toEqual({ code: 'forbidden', message: 'Only admins invite people, and operators invite hosts for their sites.' });
     });
 
     it.each([
