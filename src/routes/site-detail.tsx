@@ -11,8 +11,7 @@ import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods
 import { useNodes } from '../features/nodes/api/nodes';
 import { NodesTable } from '../features/nodes/components/nodes-table';
 import { SitePhotos } from '../features/photos/components/site-photos';
-import { usePeople } from '../features/people/api/people';
-import { useDeleteSite, useSite } from '../features/sites/api/sites';
+import { useDeleteSite, useHostCandidates, useSite } from '../features/sites/api/sites';
 import { SiteForm } from '../features/sites/components/site-form';
 import { SiteSummary } from '../features/sites/components/site-summary';
 import { ApiError } from '../lib/api';
@@ -33,7 +32,7 @@ function SiteDetail({ siteId }: { siteId: number }) {
   const site = useSite(siteId);
   const neighbourhoods = useNeighbourhoods(ALL_BY_NAME);
   const nodes = useNodes({ siteId, ...ALL_BY_NAME });
-  const people = usePeople(ALL_BY_NAME, { enabled: editing && user?.role === 'admin' });
+  const people = useHostCandidates(editing && (user?.role === 'admin' || user?.role === 'operator'));
   const remove = useDeleteSite(siteId);
 
   if (site.isPending) return <Loading label="Loading the site…" />;
@@ -76,7 +75,7 @@ function SiteDetail({ siteId }: { siteId: number }) {
         <SiteForm
           site={record}
           neighbourhoodOptions={toOptions(neighbourhoods.data?.data)}
-          hostOptions={people.isSuccess ? toOptions(people.data.data) : null}
+          hostOptions={people.isSuccess ? toOptions(withCurrentHost(people.data.data, record.host)) : null}
           onSaved={() => setEditing(false)}
           onCancel={() => setEditing(false)}
         />
@@ -105,4 +104,9 @@ function SiteDetail({ siteId }: { siteId: number }) {
       <HistorySection table="sites" recordId={record.id} />
     </>
   );
+}
+
+/** The picker keeps the site's current host even when the caller could not choose them anew. */
+function withCurrentHost(candidates: { id: number; name: string }[], host: { id: number; name: string } | null | undefined) {
+  return host && !candidates.some((c) => c.id === host.id) ? [...candidates, { id: host.id, name: host.name }] : candidates;
 }

@@ -2,7 +2,7 @@ import { useNavigate } from 'react-router-dom';
 import { PageHeader } from '../components/page-header';
 import { useCurrentUser } from '../features/auth/api/session';
 import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
-import { usePeople } from '../features/people/api/people';
+import { useHostCandidates } from '../features/sites/api/sites';
 import { SiteForm } from '../features/sites/components/site-form';
 import { paths } from '../lib/paths';
 import { ALL_BY_NAME, toOptions } from '../lib/resource';
@@ -11,8 +11,8 @@ export function SiteNewPage() {
   const navigate = useNavigate();
   const user = useCurrentUser();
   const neighbourhoods = useNeighbourhoods(ALL_BY_NAME);
-  // Only admins can list people; for others the host is set later by an admin.
-  const people = usePeople(ALL_BY_NAME, { enabled: user?.role === 'admin' });
+  // Admins pick anyone active; operators the people already hosting in their neighbourhoods, or themselves.
+  const people = useHostCandidates(user?.role === 'admin' || user?.role === 'operator');
 
   return (
     <>
