@@ -12,6 +12,7 @@ import { useNodes } from '../features/nodes/api/nodes';
 import { NodesTable } from '../features/nodes/components/nodes-table';
 import { SitePhotos } from '../features/photos/components/site-photos';
 import { useDeleteSite, useHostCandidates, useSite } from '../features/sites/api/sites';
+import { InviteHostForm } from '../features/sites/components/invite-host-form';
 import { SiteForm } from '../features/sites/components/site-form';
 import { SiteSummary } from '../features/sites/components/site-summary';
 import { ApiError } from '../lib/api';
@@ -29,6 +30,8 @@ function SiteDetail({ siteId }: { siteId: number }) {
   const navigate = useNavigate();
   const user = useCurrentUser();
   const [editing, setEditing] = useState(false);
+  const [inviting, setInviting] = useState(false);
+  const [invited, setInvited] = useState<string | null>(null);
   const site = useSite(siteId);
   const neighbourhoods = useNeighbourhoods(ALL_BY_NAME);
   const nodes = useNodes({ siteId, ...ALL_BY_NAME });
@@ -81,6 +84,16 @@ function SiteDetail({ siteId }: { siteId: number }) {
         />
       ) : (
         <SiteSummary site={record} neighbourhoodName={neighbourhoodName} />
+      )}
+      {record.abilities.update && (
+        <div className="mt-4">
+          {invited && <p role="status" className="mb-2 text-sm">Invitation sent to {invited}; they become this site’s host once they accept it.</p>}
+          {inviting ? (
+            <InviteHostForm siteId={record.id} onSent={(email) => { setInvited(email); setInviting(false); }} onCancel={() => setInviting(false)} />
+          ) : (
+            <Button onClick={() => setInviting(true)}>Invite a new host by e-mail</Button>
+          )}
+        </div>
       )}
       <Section
         title="Nodes at this site"
