@@ -19,8 +19,9 @@ describe('choosing a site’s host in the browser', () => {
     const options = await host.locator('option').allInnerTexts();
     expect(options).toContain('Sami Ferrow'); // hosts Mill Race Terrace (Millbrook)
     expect(options).toContain('Tobias Fenwright'); // the operator themself
-    expect(options).not.toContain('Marta Quillon'); // the admin
+    expect(options).toContain('Marta Quillon'); // the admin hosts Granary Tower in Old Quay, so she is linked
     expect(options).not.toContain('Ada Pennock'); // another neighbourhood's operator
+    expect(options).not.toContain('Jun Aldersey'); // hosts in Saltmarsh Row, not this operator's
     expect(await host.inputValue()).not.toBe(''); // the current host stays chosen
     await screenshot(e2e.page, 'operator-host-picker');
     await e2e.page.getByRole('button', { name: 'Cancel' }).first().click();
