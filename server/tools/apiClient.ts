@@ -1,3 +1,7 @@
+/** The session cookie (name=value) from a sign-in answer; it may carry other cookies beside it. */
+export const sessionCookieOf = (res: Response) =>
+  res.headers.getSetCookie().map((c) => c.split(';')[0]).find((c) => c.startsWith('parapet.sid=')) ?? '';
+
 /** A small signed-in HTTP client for the scripts (simulator, benchmarks): cookie + CSRF, JSON in and out. */
 export class ApiClient {
   private cookie = '';
@@ -7,7 +11,7 @@ export class ApiClient {
   async signIn(email: string, password: string) {
     const res = await fetch(`${this.baseUrl}/api/v1/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password }) });
     if (res.status !== 200) throw new Error(`sign-in as ${email} failed with ${res.status}: ${await res.text()}`);
-    this.cookie = res.headers.get('set-cookie')!.split(';')[0];
+    this.cookie = sessionCookieOf(res);
     this.csrf = (await res.json()).csrfToken;
   }
 

@@ -4,6 +4,7 @@ import { hashPassword } from '../auth/passwords';
 import { createSequelize } from '../db/sequelize';
 import { rotateToken } from '../services/ingestTokens';
 import { Neighbourhood, Node, Site, User, initModels } from '../models';
+import { sessionCookieOf } from './apiClient';
 import { startServerProcess } from './serverProcess';
 
 const databaseUrl = process.env.DATABASE_URL;
@@ -28,7 +29,7 @@ const server = await startServerProcess({ DATABASE_URL: databaseUrl, JOBS_ENABLE
 const sockets: Socket[] = [];
 try {
   const signIn = await fetch(`${server.url}/api/v1/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: watcher.email, password }) });
-  const cookie = signIn.headers.get('set-cookie')!.split(';')[0];
+  const cookie = sessionCookieOf(signIn);
   const sentAt = new Map<number, number>();
   const latencies: number[] = [];
   await Promise.all(

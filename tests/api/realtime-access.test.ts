@@ -2,6 +2,7 @@ import { io as connect, type Socket } from 'socket.io-client';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { PASSWORD, buildUser, useApi } from '../helpers/api';
 import { buildNeighbourhood, buildNode } from '../helpers/factories';
+import { sessionCookieOf } from '../../server/tools/apiClient';
 import { startServerProcess, type ServerProcess } from '../../server/tools/serverProcess';
 
 /*
@@ -16,7 +17,7 @@ interface Listener { socket: Socket; events: Event[]; disconnected: () => string
 async function signInAt(url: string, email: string): Promise<Session> {
   const res = await fetch(`${url}/api/v1/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: PASSWORD }) });
   if (res.status !== 200) throw new Error(`sign-in failed: ${res.status}`);
-  return { cookie: res.headers.get('set-cookie')!.split(';')[0], csrf: (await res.json()).csrfToken };
+  return { cookie: sessionCookieOf(res), csrf: (await res.json()).csrfToken };
 }
 
 function listen(url: string, cookie: string, origin?: string): Promise<Listener> {

@@ -3,13 +3,14 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Node, Site } from '../../server/models';
 import { PASSWORD, buildUser, useApi } from '../helpers/api';
 import { buildNeighbourhood, buildNode } from '../helpers/factories';
+import { sessionCookieOf } from '../../server/tools/apiClient';
 import { startServerProcess, type ServerProcess } from '../../server/tools/serverProcess';
 
 /** Signs in over HTTP and returns the session cookie and CSRF token. */
 async function signInAt(url: string, email: string) {
   const res = await fetch(`${url}/api/v1/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: PASSWORD }) });
   if (res.status !== 200) throw new Error(`sign-in failed: ${res.status}`);
-  const cookie = res.headers.get('set-cookie')!.split(';')[0];
+  const cookie = sessionCookieOf(res);
   return { cookie, csrf: (await res.json()).csrfToken as string };
 }
 
@@ -39,7 +40,7 @@ describe('live updates across two server processes', () => {
   const env = { SESSION_SECRET: 'a-shared-secret-for-both-test-instances', JOBS_ENABLED: 'false', FIGURES_THROTTLE_MS: '0', SOCKET_ADAPTER: 'postgres' };
 
   beforeAll(async () => {
-    [a, b] = await Promise.all([startServerProcess(env), startServerProcess(env)]);
+    [a, b] = await Promise.all([startServerProcess(env, 90_000), startServerProcess(env, 90_000)]);
   }, 90_000);
   afterAll(async () => {
     await Promise.all([a?.stop(), b?.stop()]);
