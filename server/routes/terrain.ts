@@ -4,6 +4,7 @@ import type { Sequelize } from 'sequelize';
 import { z } from 'zod';
 import { parseHgt, parseTileName } from '../../shared/terrain/hgt';
 import { ApiError, Invalid, NotFound } from '../errors';
+import { requireRole } from '../middlewares/requireRole';
 import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
 import { isAdmin } from '../policies/actor';
@@ -49,8 +50,7 @@ export function terrainRoutes(sequelize: Sequelize) {
     res.status(201).json({ data: { name: saved.name, south: saved.south, west: saved.west, samplesPerSide: saved.samplesPerSide, createdAt: saved.createdAt } });
   });
 
-  router.delete('/tiles/:name', validate('params', tileParamsSchema), async (req, res) => {
-    authorize(isAdmin(actorOf(req)), 'Only admins remove terrain tiles.');
+  router.delete('/tiles/:name', requireRole(isAdmin, 'Only admins remove terrain tiles.'), validate('params', tileParamsSchema), async (req, res) => {
     const { name } = parseTileName(`${res.locals.params.name}.hgt`);
     if (!(await deleteTile(sequelize, name))) throw NotFound(`Terrain tile ${name}`);
     res.status(204).end();

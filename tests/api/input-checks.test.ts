@@ -97,6 +97,7 @@ describe('permission before validation on routes that are not the caller’s at 
     ['post', '/api/v1/imports/not-a-kind?dryRun=maybe', 'Only admins and operators import sites and nodes.'],
     ['get', '/api/v1/reports/availability?month=0000-01', 'Reports are for admins and operators.'],
     ['post', '/api/v1/users', 'Only admins manage people.'],
+    ['delete', '/api/v1/terrain/tiles/not-a-tile', 'Only admins remove terrain tiles.'],
   ])('a host sending nothing useful to %s %s hears 403, not 400', async (method, url, message) => {
     const host = await signIn(ctx, await buildUser({ role: 'host' }));
     const res = await call(host, method as 'post', url, method === 'get' ? undefined : {});
