@@ -8,7 +8,8 @@ import type { Sequelize } from 'sequelize';
 import { configurePassport } from './auth/passport';
 import { sessionMiddleware } from './auth/session';
 import type { Config } from './config';
-import { ApiError, NotFound } from './errors';
+import { DatabaseWatch, guardPool, isDatabaseError } from './db/availability';
+import { ApiError, NotFound, Unavailable } from './errors';
 import { requireCsrf } from './middlewares/csrf';
 import { errorHandler } from './middlewares/errorHandler';
 import { requireRole } from './middlewares/requireRole';
@@ -61,20 +62,24 @@ import { mayPlan } from './policies/planning';
 export interface AppContext {
   config: Config;
   sequelize: Sequelize;
+  /** Shared with the jobs and socket.io in a running process; one of its own otherwise. */
+  databaseWatch?: DatabaseWatch;
 }
 
 /** Request ids from a proxy or client: letters, digits and . _ : - only, at most 64 (a UUID fits). */
 export const SAFE_REQUEST_ID = /^[A-Za-z0-9][A-Za-z0-9._:-]{0,63}$/;
 
+const retryAfterS = (config: Config) => Math.max(1, Math.ceil(config.databaseProbeIntervalMs / 1000) * 2);
+
 /** Signing in needs no CSRF token (API.md); node reports never reach this router. Paths are relative to /api/v1. */
 const csrfExempt = (req: Request) => req.method === 'POST' && req.path === '/session';
 
-export function createApp({ config, sequelize }: AppContext) {
+export function createApp({ config, sequelize, databaseWatch }: AppContext) {
   initModels(sequelize);
   installAuditHooks();
   useMailConfig(config);
-  const pool = new pg.Pool({ connectionString: config.databaseUrl, max: 4, connectionTimeoutMillis: 5_000 });
-  pool.on('error', (err) => console.error('session pool error:', err.message));
+  const watch = databaseWatch ?? new DatabaseWatch(() => sequelize.query('SELECT 1'), config.databaseProbeIntervalMs);
+  const pool = guardPool(new pg.Pool({ connectionString: config.databaseUrl, max: 4, connectionTimeoutMillis: 5_000 }), 'session store', watch);
   const passport = configurePassport();
   const session = sessionMiddleware(config, pool);
   const app = express();
@@ -109,10 +114,15 @@ export function createApp({ config, sequelize }: AppContext) {
     try {
       await sequelize.query('SELECT 1');
       res.json({ status: 'ok' });
-    } catch {
-      res.set('Retry-After', '5').status(503).json({ status: 'unavailable', error: { code: 'database_unavailable', message: 'The database is not answering.' } });
+    } catch (err) {
+      watch.reportFailure(err);
+      res.set('Retry-After', String(retryAfterS(config))).status(503).json({ status: 'unavailable', error: { code: 'database_unavailable', message: 'Parapet cannot reach its database. It retries by itself; try again in a few seconds.' } });
     }
   });
+
+  // While the database is known to be away, every API call is answered 503 at once (no waiting on
+  // connection timeouts); the watch's probe lets traffic through again as soon as it answers.
+  app.use('/api', (_req, _res, next) => next(watch.up ? undefined : Unavailable(undefined, retryAfterS(config))));
 
   // Hot path first: node reports skip sessions entirely.
   app.use('/api/v1/heartbeats', heartbeatRoutes(config, sequelize));
@@ -184,6 +194,17 @@ export function createApp({ config, sequelize }: AppContext) {
     app.get('/{*splat}', (_req, res) => res.sendFile(path.join(dist, 'index.html')));
   }
 
+  // A database call that failed because the server went away is the outage, not the request's fault.
+  app.use((err: unknown, _req: Request, _res: express.Response, next: express.NextFunction) => {
+    if (watch.reportFailure(err) || (!watch.up && isDatabaseError(err))) return next(Unavailable(undefined, retryAfterS(config)));
+    next(err);
+  });
   app.use(errorHandler);
-  return { app, session, passport, pool, close: () => pool.end() };
+  return {
+    app, session, passport, pool, databaseWatch: watch,
+    close: async () => {
+      if (!databaseWatch) watch.stop();
+      await pool.end();
+    },
+  };
 }

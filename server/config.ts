@@ -65,6 +65,8 @@ const envSchema = z.object({
   PARTITION_DAYS_AHEAD: z.coerce.number().int().min(1).max(60).default(7),
   SOCKET_ADAPTER: z.enum(['postgres', 'memory']).default('postgres'),
   FIGURES_THROTTLE_MS: z.coerce.number().int().min(0).default(2000),
+  DATABASE_PROBE_INTERVAL_MS: z.coerce.number().int().min(50).max(60_000).default(1000),
+  OUTAGE_MAIL_RETRY_MAX_MS: z.coerce.number().int().min(0).max(60_000).default(30_000),
 });
 
 export interface Config {
@@ -143,6 +145,10 @@ export interface Config {
   partitionDaysAhead: number;
   socketAdapter: 'postgres' | 'memory';
   figuresThrottleMs: number;
+  /** While PostgreSQL is unreachable, how often one probe asks whether it is back. */
+  databaseProbeIntervalMs: number;
+  /** Longest wait between tries of an outage mail (other mail backs off up to six hours). */
+  outageMailRetryMaxMs: number;
   /** The clock every rule reads; tests replace it. */
   now: () => Date;
 }
@@ -216,6 +222,8 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     partitionDaysAhead: e.PARTITION_DAYS_AHEAD,
     socketAdapter: e.SOCKET_ADAPTER,
     figuresThrottleMs: e.FIGURES_THROTTLE_MS,
+    databaseProbeIntervalMs: e.DATABASE_PROBE_INTERVAL_MS,
+    outageMailRetryMaxMs: e.OUTAGE_MAIL_RETRY_MAX_MS,
     now: () => new Date(),
     ...overrides,
   };

@@ -19,5 +19,5 @@ export const NotFound = (what: string) => new ApiError(404, 'not_found', `${what
 export const Conflict = (message: string, code = 'conflict') => new ApiError(409, code, message);
 export const TooMany = (retryAfterS: number, message = 'Too many attempts. Wait a little and try again.') =>
   new ApiError(429, 'rate_limited', message, undefined, { 'Retry-After': String(Math.max(1, Math.ceil(retryAfterS))) });
-export const Unavailable = (message = 'The database is not answering. Try again in a moment.') =>
-  new ApiError(503, 'database_unavailable', message, undefined, { 'Retry-After': '5' });
+export const Unavailable = (message = 'Parapet cannot reach its database right now. It reconnects by itself; try again in a few seconds.', retryAfterS = 5) =>
+  new ApiError(503, 'database_unavailable', message, undefined, { 'Retry-After': String(retryAfterS) });

@@ -1,16 +1,24 @@
 import http from 'node:http';
 import { createApp } from './app';
 import { loadConfig } from './config';
+import { DatabaseWatch } from './db/availability';
 import { createSequelize } from './db/sequelize';
 import { startJobs } from './jobs/scheduler';
 import { createRealtime } from './realtime/io';
 
 const config = loadConfig();
 const sequelize = createSequelize(config.databaseUrl, config.databasePoolMax);
-const { app, session, passport, close } = createApp({ config, sequelize });
+const databaseWatch = new DatabaseWatch(() => sequelize.query('SELECT 1'), config.databaseProbeIntervalMs);
+const { app, session, passport, close } = createApp({ config, sequelize, databaseWatch });
 const server = http.createServer(app);
-const realtime = createRealtime(server, config, session, passport);
-const jobs = config.jobsEnabled ? startJobs(config, sequelize) : null;
+const realtime = createRealtime(server, config, session, passport, databaseWatch);
+const jobs = config.jobsEnabled ? startJobs(config, sequelize, databaseWatch) : null;
+
+// A lost database connection must never end the process: log it, let the watch probe, carry on.
+process.on('unhandledRejection', (reason) => {
+  if (databaseWatch.reportFailure(reason)) return;
+  console.error('unhandled rejection:', reason);
+});
 
 server.listen(config.port, config.host, () => {
   console.log(`Parapet listening on http://${config.host}:${config.port}`);
@@ -22,6 +30,7 @@ async function stop(signal: string) {
   stopping = true;
   console.log(`${signal}: stopping Parapet`);
   jobs?.stop();
+  databaseWatch.stop();
   await realtime.close();
   server.close();
   await Promise.allSettled([close(), sequelize.close()]);

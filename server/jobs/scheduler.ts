@@ -1,5 +1,6 @@
 import type { Sequelize } from 'sequelize';
 import type { Config } from '../config';
+import type { DatabaseWatch, Outage } from '../db/availability';
 import { runAlertSweep } from './alertSweep';
 import { runStorageUpkeep } from './heartbeatStorage';
 import { runOutboxSender } from './outboxSender';
@@ -8,36 +9,52 @@ import { runSilenceCheck } from './silenceCheck';
 /**
  * Every interval: the silence check and the mail rules, then the outbox sender; every minute:
  * storage upkeep. Each runs in one process at a time. The sender has its own loop so a slow mail
- * server never holds up the silence check.
+ * server never holds up the silence check. While the database is unreachable every tick is
+ * skipped; the first check after it returns treats the gap as Parapet's own downtime.
  */
-export function startJobs(config: Config, sequelize: Sequelize) {
+export function startJobs(config: Config, sequelize: Sequelize, watch?: DatabaseWatch) {
   let running = false;
   let sending = false;
   let lastUpkeep = 0;
+  let skipped = 0;
+  let outagesHandled = watch?.outageCount ?? 0;
+  const failed = (what: string, err: unknown) => {
+    if (!watch?.reportFailure(err)) console.error(`${what} failed:`, (err as Error).message);
+  };
   const send = async () => {
-    if (sending) return;
+    if (sending || (watch && !watch.up)) return;
     sending = true;
     try {
       await runOutboxSender(sequelize, config);
     } catch (err) {
-      console.error('outbox sender failed:', (err as Error).message);
+      failed('outbox sender', err);
     } finally {
       sending = false;
     }
   };
   const tick = async () => {
     if (running) return;
+    if (watch && !watch.up) {
+      if (skipped++ === 0) console.log('scheduled jobs paused: the database is unreachable');
+      return;
+    }
     running = true;
     try {
       const now = config.now();
-      await runSilenceCheck(sequelize, now, config.healthCheckIntervalMs, config.rootCauseWindowS);
+      // Outages of the database since the last good check: silence in them is Parapet's, not the nodes'.
+      const seen = watch?.outageCount ?? 0;
+      const ownOutage: Outage | null = seen > outagesHandled ? (watch!.outages.at(-1) ?? null) : null;
+      const check = await runSilenceCheck(sequelize, now, config.healthCheckIntervalMs, config.rootCauseWindowS, ownOutage);
+      outagesHandled = seen;
+      if (skipped) console.log(`scheduled jobs resumed after ${skipped} skipped tick(s)`);
+      skipped = 0;
       await runAlertSweep(sequelize, config, now);
       if (now.getTime() - lastUpkeep >= 60_000) {
         lastUpkeep = now.getTime();
         await runStorageUpkeep(sequelize, now, { daysAhead: config.partitionDaysAhead, rawDays: config.rawRetentionDays, rollupDays: config.rollupRetentionDays });
       }
     } catch (err) {
-      console.error('scheduled job failed:', (err as Error).message);
+      failed('scheduled job', err);
     } finally {
       running = false;
     }

@@ -13,9 +13,10 @@ import { asLeader } from './leader';
  * Finds nodes that missed their reports and marks them offline, opening an outage each, except
  * those whose silence a failure upstream explains (stranded, see silenceAttribution).
  * If the check itself has not run for a while (Parapet was down), it starts watching afresh
- * and gives every node one full offline window of fresh reports before judging it.
+ * and gives every node one full offline window of fresh reports before judging it. An outage of
+ * the database (`ownOutage`, seen by this process) counts the same way: nodes could not report.
  */
-export async function runSilenceCheck(sequelize: Sequelize, now: Date, checkIntervalMs: number, rootCauseWindowS = 120) {
+export async function runSilenceCheck(sequelize: Sequelize, now: Date, checkIntervalMs: number, rootCauseWindowS = 120, ownOutage: { from: Date; to: Date } | null = null) {
   const network = await thresholdsFor(sequelize, null);
   const offlineAfterIntervals = network.offlineAfterIntervals ?? DEFAULT_THRESHOLDS.offlineAfterIntervals;
   const result = await asLeader(sequelize, 'silence-check', async (transaction) => {
@@ -24,7 +25,7 @@ export async function runSilenceCheck(sequelize: Sequelize, now: Date, checkInte
       { type: QueryTypes.SELECT, transaction },
     );
     const gapMs = job?.lastRunAt ? now.getTime() - new Date(job.lastRunAt).getTime() : Infinity;
-    const resumed = gapMs > Math.max(3 * checkIntervalMs, 1000);
+    const resumed = gapMs > Math.max(3 * checkIntervalMs, 1000) || ownOutage !== null;
     const watchingSince = resumed || !job?.watchingSince ? now : new Date(job.watchingSince);
     await sequelize.query(
       `INSERT INTO job_state (name, last_run_at, watching_since) VALUES ('silence-check', $1, $2)
@@ -32,7 +33,8 @@ export async function runSilenceCheck(sequelize: Sequelize, now: Date, checkInte
       { bind: [now, watchingSince], transaction },
     );
     // One admin-only message when the check itself had stopped (not on a database's very first run).
-    if (resumed && job?.lastRunAt) await writeSelfCheck(sequelize, gapMs, now, transaction);
+    const ownGapMs = ownOutage ? Math.max(now.getTime() - ownOutage.from.getTime(), 0) : 0;
+    if (resumed && job?.lastRunAt) await writeSelfCheck(sequelize, Math.max(Number.isFinite(gapMs) ? gapMs : 0, ownGapMs), now, transaction);
     const events = await applyMaintenanceWindows(sequelize, now, transaction);
     const silent = await sequelize.query<SilentNode>(
       `SELECT n.id AS "nodeId", n.neighbourhood_id AS "neighbourhoodId", s.host_user_id AS "hostUserId", n.state,

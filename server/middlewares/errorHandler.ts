@@ -13,6 +13,11 @@ function fromDatabase(err: BaseError): ApiError | null {
   const pgCode = (err as { parent?: { code?: string } }).parent?.code;
   if (pgCode === '23514') return Invalid('A value is outside the range the database allows.');
   if (pgCode === '22P02') return Invalid('A value has the wrong format.');
+  // Input the schemas let through but PostgreSQL cannot hold: a client error, never a 500.
+  if (pgCode === '22003') return Invalid('A number is larger than Parapet can store. Check the value and send a smaller one.');
+  if (pgCode === '22008' || pgCode === '22007') return Invalid('A date or time is outside the range Parapet can store. Check the year.');
+  if (pgCode === '22001' || pgCode === '54000') return Invalid('A text value is too long. Shorten it and try again.');
+  if (pgCode === '22021' || pgCode === '22P05') return Invalid('A text value holds characters that cannot be stored (such as a NUL byte). Remove them and try again.');
   if (pgCode && ['57P01', '57P03', '08006', '08001', '53300'].includes(pgCode)) return Unavailable();
   return null;
 }

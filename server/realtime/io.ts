@@ -7,6 +7,7 @@ import { Server } from 'socket.io';
 import type { Config } from '../config';
 import { domainEvents, type AccessChangedEvent, type NodeFiguresEvent } from '../services/events';
 import { admit, refreshRooms, sameOrigin } from './access';
+import { type DatabaseWatch, guardPool } from '../db/availability';
 
 /** Rooms an event about a node goes to: its neighbourhood, the admins, and its site's host. */
 export function roomsFor(e: { neighbourhoodId: number; hostUserId: number | null }): string[] {
@@ -20,14 +21,21 @@ const onlyForHandshake = (mw: RequestHandler): EngineMiddleware => (req, res, ne
   req._query?.sid === undefined ? (mw(req, res, next) as void) : next();
 
 /** socket.io on the app's HTTP server, authenticated from the session cookie. */
-export function createRealtime(server: http.Server, config: Config, session: RequestHandler, pp: typeof passport) {
+export function createRealtime(server: http.Server, config: Config, session: RequestHandler, pp: typeof passport, watch?: DatabaseWatch) {
   const io = new Server(server, { serveClient: false, allowRequest: (req, answer) => answer(null, sameOrigin(req, config)) });
   let adapterPool: pg.Pool | null = null;
   if (config.socketAdapter === 'postgres') {
     // Fan-out across instances goes through PostgreSQL NOTIFY, so any instance can serve any browser.
-    adapterPool = new pg.Pool({ connectionString: config.databaseUrl, max: 2 });
-    adapterPool.on('error', (err) => console.error('socket adapter pool error:', err.message));
-    io.adapter(createAdapter(adapterPool, { tableName: 'socket_io_attachments', heartbeatInterval: 5_000 }));
+    // Its LISTEN connection stays checked out: guardPool keeps a lost one from ending the process,
+    // and the adapter itself re-listens on a new connection when the old one ends.
+    adapterPool = guardPool(new pg.Pool({ connectionString: config.databaseUrl, max: 2, connectionTimeoutMillis: 5_000 }), 'live updates', watch);
+    io.adapter(createAdapter(adapterPool, {
+      tableName: 'socket_io_attachments',
+      heartbeatInterval: 5_000,
+      errorHandler: (err: Error) => {
+        if (!watch?.reportFailure(err)) console.error('live updates:', err.message);
+      },
+    }));
   }
   io.engine.use(onlyForHandshake(session));
   io.engine.use(onlyForHandshake(pp.initialize() as RequestHandler));

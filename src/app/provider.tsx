@@ -1,7 +1,13 @@
 import { QueryClientProvider } from '@tanstack/react-query';
 import type { ReactNode } from 'react';
+import { DatabaseBanner } from '../components/database-banner';
 import { queryClient } from '../lib/query-client';
 
 export function AppProvider({ children }: { children: ReactNode }) {
-  return <QueryClientProvider client={queryClient}>{children}</QueryClientProvider>;
+  return (
+    <QueryClientProvider client={queryClient}>
+      <DatabaseBanner />
+      {children}
+    </QueryClientProvider>
+  );
 }

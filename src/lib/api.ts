@@ -1,5 +1,6 @@
 import type { ErrorBody } from '../../shared/schemas/common';
 import type { SessionBody } from '../../shared/schemas/session';
+import { markDatabaseUnavailable } from './database-status';
 import { queryClient } from './query-client';
 import { sessionKeys, type ListParams } from './query-keys';
 
@@ -84,7 +85,11 @@ async function request<T>(method: Method, path: string, body?: unknown, query?: 
   } catch {
     throw new ApiError(0, 'network_error', 'Could not reach the Parapet server. Check your connection and try again.');
   }
-  if (!response.ok) throw await errorFrom(response);
+  if (!response.ok) {
+    const error = await errorFrom(response);
+    if (error.code === 'database_unavailable') markDatabaseUnavailable();
+    throw error;
+  }
   if (response.status === 204) return undefined as T;
   return (await response.json()) as T;
 }
