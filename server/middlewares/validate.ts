@@ -1,6 +1,7 @@
 import type { NextFunction, Request, Response } from 'express';
 import type { z } from 'zod';
-import { Invalid } from '../errors';
+import { MAX_ID } from '../../shared/schemas/common';
+import { Invalid, NotFound } from '../errors';
 
 /** Turns zod issues into API.md's `details`, with dotted paths like `radios.0.signalDbm`. */
 export function issuesToDetails(error: z.ZodError, prefix: (string | number)[] = []) {
@@ -31,6 +32,9 @@ type Where = 'body' | 'query' | 'params';
 /** Validates one part of the request; the parsed value is stored on res.locals[where]. */
 export function validate(where: Where, schema: z.ZodType) {
   return (req: Request, res: Response, next: NextFunction) => {
+    // A path id beyond any id that can exist names a record that is not there: 404, like any other.
+    if (where === 'params' && Object.values(req.params).some((v) => typeof v === 'string' && /^\d{10,}$/.test(v) && Number(v) > MAX_ID))
+      throw NotFound('That record');
     const source = where === 'body' ? (req.body ?? {}) : where === 'query' ? req.query : req.params;
     res.locals[where] = parseOrThrow(schema, source, where === 'body' ? 'request body' : where === 'query' ? 'query' : 'address');
     next();

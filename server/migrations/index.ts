@@ -6,6 +6,7 @@ import * as m0005 from './0005-planning';
 import * as m0006 from './0006-photos-reports';
 import * as m0007 from './0007-topology-outages';
 import * as m0008 from './0008-people';
+import * as m0010 from './0010-boot-ids';
 import * as m0013 from './0013-terrain-tiles';
 
 /** Every migration in order. A new migration is a new file here and one line in this list. */
@@ -18,5 +19,6 @@ export const MIGRATIONS = [
   { name: '0006-photos-reports', ...m0006 },
   { name: '0007-topology-outages', ...m0007 },
   { name: '0008-people', ...m0008 },
+  { name: '0010-boot-ids', ...m0010 },
   { name: '0013-terrain-tiles', ...m0013 },
 ];

@@ -30,6 +30,7 @@ export interface TokenNode {
   state: string;
   healthStreak: number;
   lastSeq: string | null;
+  lastBootId: string | null;
   reportIntervalS: number;
   thresholds: Record<string, number> | null;
   firmware: string | null;
@@ -40,7 +41,7 @@ export async function nodeForToken(sequelize: Sequelize, token: string): Promise
   if (!/^ppt_\d+_[A-Za-z0-9_-]{43}$/.test(token)) return null;
   const rows = await sequelize.query<TokenNode>(
     `SELECT n.id AS "nodeId", n.neighbourhood_id AS "neighbourhoodId", s.host_user_id AS "hostUserId", n.state,
-            n.health_streak AS "healthStreak", n.last_seq::text AS "lastSeq", n.report_interval_s AS "reportIntervalS",
+            n.health_streak AS "healthStreak", n.last_seq::text AS "lastSeq", n.last_boot_id AS "lastBootId", n.report_interval_s AS "reportIntervalS",
             n.thresholds, n.firmware
        FROM node_tokens t JOIN nodes n ON n.id = t.node_id JOIN sites s ON s.id = n.site_id
       WHERE t.token_hash = $1 AND t.revoked_at IS NULL`,

@@ -1,7 +1,14 @@
 import { z } from 'zod';
 
+/** Ids are PostgreSQL `integer`s: nothing above this exists. */
+export const MAX_ID = 2_147_483_647;
+
 /** A positive integer id taken from a path or a body. */
-export const idSchema = z.coerce.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive id');
+export const idSchema = z.coerce
+  .number({ error: 'must be a number' })
+  .int('must be a whole number')
+  .positive('must be a positive id')
+  .max(MAX_ID, `must be at most ${MAX_ID}; no record has a larger id`);
 
 export const idParamsSchema = z.object({ id: idSchema });
 

@@ -30,6 +30,12 @@ export const heartbeatRadioSchema = z.object({
 
 export const heartbeatReportSchema = z.object({
   seq: z.number({ error: 'must be a number' }).int('must be a whole number').min(0, 'must be 0 or more').max(2 ** 53 - 1, 'must be at most 2^53 - 1'),
+  /** The kernel's boot id (/proc/sys/kernel/random/boot_id): with it, (bootId, seq) identifies a report. */
+  bootId: z
+    .string({ error: 'must be text' })
+    .regex(/^[A-Za-z0-9._:-]{1,64}$/, 'must be 1 to 64 letters, digits, dots, colons or dashes, like the kernel boot id')
+    .optional(),
+  /** The node's own clock; a plainly wrong one is accepted and shown as clock trouble. */
   sentAt: z.iso.datetime({ offset: true, error: 'must be an ISO 8601 time like 2026-05-01T12:00:00Z' }),
   uptimeS: finite(0, 1e10, 's').optional(),
   load1: finite(0, 1000, '').optional(),

@@ -175,10 +175,10 @@ describe('heartbeat ingest', () => {
     expect((await stored(ctx, node.id)).heartbeats).toBe(2);
   });
 
-  it('uses the server clock for receive time and keeps a 1970 node clock as sent', async () => {
+  it('uses the server clock for receive time and stores a 1970 node clock as unknown (API.md: plainly wrong)', async () => {
     await post(ctx, token, report(1, { sentAt: '1970-01-01T00:00:42Z' }));
-    const [row] = await ctx.sequelize.query<{ received_at: Date; sent_at: Date }>('SELECT received_at, sent_at FROM heartbeats WHERE node_id = $1', { bind: [node.id], type: QueryTypes.SELECT });
-    expect(new Date(row.sent_at).toISOString()).toBe('1970-01-01T00:00:42.000Z');
+    const [row] = await ctx.sequelize.query<{ received_at: Date; sent_at: Date | null }>('SELECT received_at, sent_at FROM heartbeats WHERE node_id = $1', { bind: [node.id], type: QueryTypes.SELECT });
+    expect(row.sent_at).toBeNull();
     expect(new Date(row.received_at).getTime()).toBe(clock.now().getTime());
   });
 
