@@ -1,3 +1,4 @@
+import type { ClockTrouble } from '../../../../shared/health/clock';
 import { keepPreviousData, useMutation, useQuery, type QueryClient } from '@tanstack/react-query';
 import type { NodeDto } from '../../../../shared/schemas/node';
 import { api } from '../../../lib/api';
@@ -44,6 +45,10 @@ export interface LastReport {
   receivedAt: string | null;
   sentAt: string | null;
   seq: number | null;
+  /** The kernel boot the report came from, when the agent sends it. */
+  bootId: string | null;
+  /** Set when the node's clock was plainly wrong; its sentAt was stored as unknown. */
+  clockTrouble: { kind: ClockTrouble; reportedSentAt: string } | null;
 }
 
 export interface ReportedRadio {
@@ -57,6 +62,13 @@ export interface ReportedRadio {
   txRateMbps?: number;
   rxRateMbps?: number;
   clients?: number;
+}
+
+const CLOCK_TROUBLES: ClockTrouble[] = ['unreadable', 'too-early', 'ahead'];
+function clockTroubleOf(value: unknown): LastReport['clockTrouble'] {
+  const v = value as { kind?: unknown; reportedSentAt?: unknown } | null;
+  if (!v || typeof v.reportedSentAt !== 'string' || !CLOCK_TROUBLES.includes(v.kind as ClockTrouble)) return null;
+  return { kind: v.kind as ClockTrouble, reportedSentAt: v.reportedSentAt };
 }
 
 const num = (value: unknown) => (typeof value === 'number' && Number.isFinite(value) ? value : null);
@@ -77,6 +89,8 @@ export function lastReportOf(node: Pick<NodeDto, 'lastReport'>): LastReport | nu
     receivedAt: text(r.receivedAt),
     sentAt: text(r.sentAt),
     seq: num(r.seq),
+    bootId: text(r.bootId),
+    clockTrouble: clockTroubleOf(r.clockTrouble),
   };
 }
 

@@ -2,6 +2,7 @@ import type { NodeDto } from '../../../../shared/schemas/node';
 import { DataTable, type Column } from '../../../components/data-table';
 import { EmptyState } from '../../../components/empty-state';
 import { formatDateTime, formatDuration, formatFigure, formatSince } from '../../../lib/format';
+import { clockTroubleText } from '../../../../shared/health/clock';
 import { lastReportOf, type ReportedRadio } from '../api/telemetry';
 
 function Figure({ label, value }: { label: string; value: string }) {
@@ -32,6 +33,13 @@ export function LatestFigures({ node, compact = false }: { node: NodeDto; compac
         {report.receivedAt && ` (${formatDateTime(report.receivedAt)})`}
         {report.seq !== null && `, report no. ${report.seq}`}
       </p>
+      {report.clockTrouble && (
+        <p role="note" data-testid="clock-trouble" className="mt-2 rounded-md border border-caution/40 bg-caution-soft px-3 py-2 text-sm">
+          <strong className="font-semibold">Clock trouble: </strong>
+          {clockTroubleText(report.clockTrouble.kind, report.clockTrouble.reportedSentAt)} Parapet keeps its reports and uses its own
+          receive time instead. Check that the router sets its clock from a time server (NTP) after it starts.
+        </p>
+      )}
     </div>
   );
 }
