@@ -5,7 +5,8 @@
 # Usage: parapet-agent.sh [--once]     --once sends one cycle and exits:
 #   0 delivered, 1 kept in the buffer for later, 2 refused by the server, 3 misconfigured.
 # Settings come from the environment first, then $PARAPET_CONFIG (PARAPET_X=value
-# lines, default /etc/parapet/agent.conf), then the defaults below.
+# lines, default /etc/parapet/agent.conf), then the defaults below. The counter and the
+# buffer of unsent reports live in RAM (/tmp/parapet), so reporting never writes to flash.
 #
 # Radios, read with `iw`:
 #   access point: clients = associated stations; signalDbm, txRateMbps, rxRateMbps are
@@ -63,16 +64,17 @@ done
 URL="${PARAPET_URL%/}/api/v1/heartbeats"
 
 if [ -z "$PARAPET_STATE_DIR" ]; then
-  # /etc survives reboots, so seq never repeats; /tmp only where /etc is read-only
-  if mkdir -p /etc/parapet 2>/dev/null && [ -w /etc/parapet ]; then
-    PARAPET_STATE_DIR=/etc/parapet
-  else
-    PARAPET_STATE_DIR=/tmp/parapet
-  fi
+  # RAM-backed /tmp, never flash: a counter written every interval would wear a router's flash out
+  # over the years. A reboot clears it; the boot id sent with each report tells the server so.
+  PARAPET_STATE_DIR=/tmp/parapet
 fi
 mkdir -p "$PARAPET_STATE_DIR" 2>/dev/null || die "cannot create PARAPET_STATE_DIR '$PARAPET_STATE_DIR'"
 [ -w "$PARAPET_STATE_DIR" ] || die "cannot write to PARAPET_STATE_DIR '$PARAPET_STATE_DIR'"
 SEQ_FILE="$PARAPET_STATE_DIR/seq"
+# The kernel's boot id: with it, the server tells a rebooted router counting from 1 from a repeat.
+BOOT_ID=$(head -n 1 "$PARAPET_PROC/sys/kernel/random/boot_id" 2>/dev/null) || BOOT_ID=""
+case $BOOT_ID in *[!A-Za-z0-9-]*) BOOT_ID="" ;; esac
+[ "${#BOOT_ID}" -le 64 ] || BOOT_ID=""
 BUFFER="$PARAPET_STATE_DIR/buffer.jsonl"
 # Scratch files live in RAM-backed /tmp so a cycle does not wear the router's flash.
 TMPD=$(mktemp -d "${TMPDIR:-/tmp}/parapet-agent.XXXXXX") || die "cannot create a temporary directory"
@@ -106,7 +108,7 @@ iw_dump() {
 
 # Prints one report as a single JSON line; $1 is its seq.
 build_report() {
-  iw_dump | awk -v seq="$1" -v sentAt="$(date -u +%Y-%m-%dT%H:%M:%SZ)" \
+  iw_dump | awk -v seq="$1" -v bootId="$BOOT_ID" -v sentAt="$(date -u +%Y-%m-%dT%H:%M:%SZ)" \
     -v proc="$PARAPET_PROC" -v release="$PARAPET_RELEASE_FILE" \
     -v kernel="$(uname -r 2>/dev/null)" -v q="'" '
   function isnum(s) { return s ~ /^-?(0|[1-9][0-9]*)(\.[0-9]+)?$/ }
@@ -130,7 +132,7 @@ build_report() {
   BEGIN {
     for (i = 1; i < 32; i++) ctl[sprintf("%c", i)] = i
     ctl[sprintf("%c", 127)] = 127
-    out = "{\"seq\":" seq ",\"sentAt\":\"" sentAt "\""
+    out = "{\"seq\":" seq (bootId != "" ? ",\"bootId\":\"" bootId "\"" : "") ",\"sentAt\":\"" sentAt "\""
     if ((getline line < (proc "/uptime")) > 0 && split(line, f, " ") && f[1] ~ /^[0-9]+(\.[0-9]+)?$/)
       out = out ",\"uptimeS\":" int(f[1])
     if ((getline line < (proc "/loadavg")) > 0 && split(line, f, " ") && isnum(f[1]))
@@ -266,7 +268,7 @@ cycle() {
   # awk 1 restores a final newline a power cut may have cost the buffer
   { [ "$had_buffer" = 1 ] && awk 1 "$BUFFER"; build_report "$seq"; } > "$QUEUE"
   flush
-  # Only touch the flash-backed buffer when there is something to keep or to clear.
+  # Only touch the buffer file when there is something to keep or to clear.
   if [ -s "$QUEUE" ]; then
     tail -n "$PARAPET_BUFFER_MAX" "$QUEUE" > "$BUFFER.new" && mv "$BUFFER.new" "$BUFFER"
   elif [ "$had_buffer" = 1 ]; then

@@ -273,6 +273,7 @@ for (const rt of runtimes) {
       expect(req.headers['user-agent']).toMatch(rt.userAgent);
       expect(bodyOf(req)).toEqual({
         seq: 1,
+        bootId: '5c0ffee1-2d3e-4f50-8a6b-7c8d9e0f1a2b', // proc/sys/kernel/random/boot_id
         sentAt: expect.stringMatching(ISO_UTC),
         uptimeS: 86523, // 86523.41 in uptime, whole seconds
         load1: 0.42,
@@ -293,6 +294,27 @@ for (const rt of runtimes) {
       writeFileSync(join(stateDir, 'seq'), '41\n'); // as a long-running agent left it before a reboot
       expect((await run()).code).toBe(0);
       expect(bodyOf(server.requests[3]).seq).toBe(42);
+    });
+
+    it('after a reboot (counter gone with /tmp, a new boot id) counts from 1 again under the new boot id', async () => {
+      expect((await run()).code).toBe(0);
+      const rebooted = join(stateDir, 'proc-after-reboot');
+      mkdirSync(join(rebooted, 'sys/kernel/random'), { recursive: true });
+      writeFileSync(join(rebooted, 'sys/kernel/random/boot_id'), '9a8b7c6d-1111-4222-8333-444455556666\n');
+      rmSync(join(stateDir, 'seq'));
+      expect((await run({ PARAPET_PROC: rebooted })).code).toBe(0);
+      expect(server.requests.map((r) => [bodyOf(r).bootId, bodyOf(r).seq])).toEqual([
+        ['5c0ffee1-2d3e-4f50-8a6b-7c8d9e0f1a2b', 1],
+        ['9a8b7c6d-1111-4222-8333-444455556666', 1],
+      ]);
+    });
+
+    it('leaves out a boot id that is not one (never sends what the server would refuse)', async () => {
+      const odd = join(stateDir, 'proc-odd');
+      mkdirSync(join(odd, 'sys/kernel/random'), { recursive: true });
+      writeFileSync(join(odd, 'sys/kernel/random/boot_id'), 'not "a" boot id\n');
+      expect((await run({ PARAPET_PROC: odd })).code).toBe(0);
+      expect(bodyOf(server.requests[0])).not.toHaveProperty('bootId');
     });
 
     it('buffers a report the server fails on (500) and sends it with the next one as a batch in seq order', async () => {
