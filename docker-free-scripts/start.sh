@@ -1,6 +1,8 @@
 #!/usr/bin/env bash
 # Runs Parapet on this machine: installs what is missing, starts PostgreSQL on 127.0.0.1,
-# the mail fake and the app, and stays in the foreground. Ctrl-C stops what this run started.
+# the mail fake and the app, and stays in the foreground watching them: whichever stops is
+# started again (with a growing pause when it keeps stopping, each restart logged).
+# Ctrl-C stops what this run started.
 set -euo pipefail
 
 # shellcheck source=lib/init.sh
@@ -88,22 +90,26 @@ run_logged "npm run migrate" "$PARAPET_LOG_DIR/migrate.log" npm run migrate
 run_logged "npm run seed" "$PARAPET_LOG_DIR/seed.log" npm run seed
 grep -v '^>\|^$' "$PARAPET_LOG_DIR/seed.log" | tail -n 5 | sed 's/^/[parapet]   seed: /' >&2 || true
 build_client
+run_logged "npm run build:server" "$PARAPET_LOG_DIR/build-server.log" npm run build:server
 
 # --- mail fake and app ---
 maildev_start "$MAIL_PIDFILE" "$PARAPET_LOG_DIR/maildev.log" "$MAIL_SMTP_PORT" "$MAIL_WEB_PORT"
-MAIL_PID=$SPAWNED_PID
 
 APP_URL="http://$HOST:$PORT"
 if port_busy "$PORT" "$HOST"; then
   die "port $PORT on $HOST is taken by another program; choose another with PORT=..."
 fi
-spawn_service "$APP_PIDFILE" "$PARAPET_LOG_DIR/app.log" npm start
+# The compiled server (npm run build:server): no TypeScript transpiling at start or restart.
+APP_CMD=(node --enable-source-maps dist-server/index.js)
+spawn_service "$APP_PIDFILE" "$PARAPET_LOG_DIR/app.log" "${APP_CMD[@]}"
 APP_PID=$SPAWNED_PID
 say "starting the app (log: $PARAPET_LOG_DIR/app.log)"
 wait_until "the app at $APP_URL/api/health" 120 "$APP_PID" "$PARAPET_LOG_DIR/app.log" health_ok "$APP_URL"
 
+SIM_CMD=()
 if package_has_script simulate; then
-  spawn_service "$SIM_PIDFILE" "$PARAPET_LOG_DIR/simulator.log" env PARAPET_URL="$APP_URL" npm run simulate
+  SIM_CMD=(env PARAPET_URL="$APP_URL" npm run simulate)
+  spawn_service "$SIM_PIDFILE" "$PARAPET_LOG_DIR/simulator.log" "${SIM_CMD[@]}"
   say "node simulator started (log: $PARAPET_LOG_DIR/simulator.log)"
 fi
 
@@ -120,11 +126,98 @@ cat <<EOF
 
 EOF
 
-# Stay in the foreground until Ctrl-C, or until the app or the mail fake stops by itself.
-wait -n "$APP_PID" "$MAIL_PID" || true
-if ! kill -0 "$APP_PID" 2>/dev/null; then
-  show_log_tail "$PARAPET_LOG_DIR/app.log"
-  die "the app stopped unexpectedly (log: $PARAPET_LOG_DIR/app.log)"
-fi
-show_log_tail "$PARAPET_LOG_DIR/maildev.log"
-die "the mail fake stopped unexpectedly (log: $PARAPET_LOG_DIR/maildev.log)"
+# --- supervision: stay in the foreground until Ctrl-C, starting again whatever stops ---
+# A service that stops is started again after a pause that doubles while it keeps stopping
+# (1 s up to 60 s) and resets once it has run for 2 minutes. Restarts append to its log.
+SUPERVISE_LOG="$PARAPET_LOG_DIR/supervisor.log"
+declare -A pause_s=() up_since=() down_since=()
+note() { printf '%s %s\n' "$(date -u +%Y-%m-%dT%H:%M:%SZ)" "$*" >>"$SUPERVISE_LOG"; say "$*"; }
+
+respawn() { # PIDFILE LOG COMMAND...: like spawn_service, but appending to the log
+  local pidfile=$1 log=$2; shift 2
+  setsid "$@" >>"$log" 2>&1 </dev/null 9>&- &
+  pidfile_write "$pidfile" "$!"
+  SPAWNED_PID=$!
+}
+
+# NAME is down: after its pause, run RESTART (a function); true when it was restarted.
+restart_after_pause() {
+  local name=$1 restart=$2 now=$SECONDS
+  if [[ -z ${down_since[$name]:-} ]]; then
+    down_since[$name]=$now
+    note "$name stopped; starting it again in ${pause_s[$name]:-1} s"
+  fi
+  ((now - down_since[$name] >= ${pause_s[$name]:-1})) || return 1
+  if "$restart"; then
+    note "$name started again"
+    up_since[$name]=$SECONDS
+  else
+    note "$name did not start; trying again"
+  fi
+  unset 'down_since[$name]'
+  local next=$((${pause_s[$name]:-1} * 2))
+  pause_s[$name]=$((next > 60 ? 60 : next))
+}
+
+steady() { # NAME has run for 2 minutes: its next failure waits 1 s again
+  local name=$1
+  if [[ -n ${up_since[$name]:-} ]] && ((SECONDS - up_since[$name] >= 120)); then
+    pause_s[$name]=1
+    unset 'up_since[$name]'
+  fi
+}
+
+restart_app() {
+  if port_busy "$PORT" "$HOST"; then return 1; fi
+  respawn "$APP_PIDFILE" "$PARAPET_LOG_DIR/app.log" "${APP_CMD[@]}"
+  APP_PID=$SPAWNED_PID
+}
+restart_mail() {
+  (maildev_start "$MAIL_PIDFILE" "$PARAPET_LOG_DIR/maildev.log" "$MAIL_SMTP_PORT" "$MAIL_WEB_PORT") && pidfile_live_pid "$MAIL_PIDFILE" >/dev/null
+}
+restart_pg() {
+  (pg_start_cluster "$PG_DATA" "$PG_PORT" "$PG_LOG") || return 1
+  if [[ -z $STARTED_PG_DATA ]]; then
+    STARTED_PG_DATA=$PG_DATA
+    pidfile_write "$PG_OWNER_PIDFILE" "$$"
+  fi
+}
+restart_sim() {
+  health_ok "$APP_URL" || return 1 # it signs in at start: wait for the app
+  respawn "$SIM_PIDFILE" "$PARAPET_LOG_DIR/simulator.log" "${SIM_CMD[@]}"
+}
+pg_down_checks=0
+
+while :; do
+  sleep 1 &
+  wait $! || true
+  if kill -0 "$APP_PID" 2>/dev/null; then
+    steady app
+  else
+    if [[ -z ${down_since[app]:-} ]]; then
+      wait "$APP_PID" 2>/dev/null && rc=0 || rc=$?
+      note "the app (pid $APP_PID) exited with status $rc; last lines of $PARAPET_LOG_DIR/app.log:"
+      tail -n 5 "$PARAPET_LOG_DIR/app.log" | sed 's/^/    /' | tee -a "$SUPERVISE_LOG" >&2 || true
+    fi
+    restart_after_pause app restart_app || true
+  fi
+  if pidfile_live_pid "$MAIL_PIDFILE" >/dev/null; then
+    steady mail-fake
+  else
+    restart_after_pause mail-fake restart_mail || true
+  fi
+  if ((${#SIM_CMD[@]})); then
+    if pidfile_live_pid "$SIM_PIDFILE" >/dev/null; then steady simulator; else restart_after_pause simulator restart_sim || true; fi
+  fi
+  # `pg_ctl restart` leaves the cluster down for a moment: only a cluster that has not answered
+  # for 5 checks in a row is started here, so this never races an administrator's own restart.
+  # (pg_isready: 0 accepting, 1 rejecting while it starts or stops, 2 no answer.)
+  pg_ready=0
+  "$PG_BIN/pg_isready" -q -h 127.0.0.1 -p "$PG_PORT" || pg_ready=$?
+  if ((pg_ready <= 1)); then
+    pg_down_checks=0
+    steady PostgreSQL
+  elif ((++pg_down_checks >= 5)); then
+    if restart_after_pause PostgreSQL restart_pg; then pg_down_checks=0; fi
+  fi
+done

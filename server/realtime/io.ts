@@ -9,6 +9,30 @@ import { domainEvents, type AccessChangedEvent, type NodeFiguresEvent } from '..
 import { admit, refreshRooms, sameOrigin } from './access';
 import { type DatabaseWatch, guardPool } from '../db/availability';
 
+/**
+ * The adapter keeps its LISTEN connection checked out and, when that connection ends, takes a new
+ * one without releasing the old: each database restart would leak a pool slot until publishing
+ * starves. Connections taken with `await pool.connect()` are released when they end.
+ */
+export function releaseOnEnd(pool: pg.Pool): pg.Pool {
+  const connect = pool.connect.bind(pool) as (cb?: unknown) => Promise<pg.PoolClient> | void;
+  pool.connect = ((callback?: unknown) => {
+    if (callback) return connect(callback); // pool.query's own path releases its clients itself
+    return (connect() as Promise<pg.PoolClient>).then((client) => {
+      let released = false;
+      const release = client.release.bind(client);
+      client.release = (err?: Error | boolean) => {
+        if (released) return;
+        released = true;
+        release(err);
+      };
+      client.once('end', () => client.release(new Error('connection ended')));
+      return client;
+    });
+  }) as typeof pool.connect;
+  return pool;
+}
+
 /** Rooms an event about a node goes to: its neighbourhood, the admins, and its site's host. */
 export function roomsFor(e: { neighbourhoodId: number; hostUserId: number | null }): string[] {
   const rooms = ['admins', `hood:${e.neighbourhoodId}`];
@@ -28,14 +52,9 @@ export function createRealtime(server: http.Server, config: Config, session: Req
     // Fan-out across instances goes through PostgreSQL NOTIFY, so any instance can serve any browser.
     // Its LISTEN connection stays checked out: guardPool keeps a lost one from ending the process,
     // and the adapter itself re-listens on a new connection when the old one ends.
-    adapterPool = guardPool(new pg.Pool({ connectionString: config.databaseUrl, max: 2, connectionTimeoutMillis: 5_000 }), 'live updates', watch);
-    io.adapter(createAdapter(adapterPool, {
-      tableName: 'socket_io_attachments',
-      heartbeatInterval: 5_000,
-      errorHandler: (err: Error) => {
-        if (!watch?.reportFailure(err)) console.error('live updates:', err.message);
-      },
-    }));
+    adapterPool = releaseOnEnd(guardPool(new pg.Pool({ connectionString: config.databaseUrl, max: 3, connectionTimeoutMillis: 5_000 }), 'live updates', watch));
+    // Its failed publishes are only logged: the watch follows the requests' own database calls.
+    io.adapter(createAdapter(adapterPool, { tableName: 'socket_io_attachments', heartbeatInterval: 5_000, errorHandler: (err: Error) => console.error('live updates:', err.message) }));
   }
   io.engine.use(onlyForHandshake(session));
   io.engine.use(onlyForHandshake(pp.initialize() as RequestHandler));

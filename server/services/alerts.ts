@@ -63,19 +63,20 @@ const hostFacts = (ctx: NodeContext, r: Recipient, since: Date) => ({
 });
 
 /** Writes one outage message (or the flap summary in its place) for one person, honouring quiet hours for hosts. */
-async function writeFor(sequelize: Sequelize, config: Config, kind: OutboxKind, key: string, ctx: MailContext, outage: OutageRow, r: OutageRecipient, now: Date, transaction: Transaction) {
+async function writeFor(sequelize: Sequelize, config: Config, kind: OutboxKind, key: string, ctx: MailContext, outage: OutageRow, r: OutageRecipient, now: Date, transaction: Transaction, missedOffline = false) {
   const footer = footerLinks(config, r.userId, now);
   const flap = await flapDecision(sequelize, config.flapMaxPerHour, ctx.nodeId, r.userId, now, transaction);
   if (flap.verdict === 'suppress') return false;
   const downForS = ((outage.endedAt ?? now).getTime() - new Date(outage.startedAt).getTime()) / 1000;
   const since = new Date(outage.startedAt);
+  const until = missedOffline ? new Date(outage.endedAt ?? now) : undefined;
   const rendered =
     flap.verdict === 'summary'
       ? flapSummary({ nodeName: ctx.nodeName, neighbourhoodName: ctx.neighbourhoodName, nodeUrl: nodeUrl(config, ctx.nodeId), changes: flap.changes, stateNow: kind === 'node-online' ? 'back online' : 'offline' }, footer)
       : r.audience === 'host'
-        ? kind === 'node-online' ? hostOnline({ ...hostFacts(ctx, r, since), downForS }, footer) : hostOffline(hostFacts(ctx, r, since), footer)
+        ? kind === 'node-online' ? hostOnline({ ...hostFacts(ctx, r, since), downForS, until }, footer) : hostOffline(hostFacts(ctx, r, since), footer)
         : kind === 'node-online'
-          ? operatorOnline({ ...operatorFacts(config, ctx, r, since, null), downForS }, footer)
+          ? operatorOnline({ ...operatorFacts(config, ctx, r, since, null), downForS, until }, footer)
           : operatorOffline(operatorFacts(config, ctx, r, since, r.behindOnly ? null : acknowledgeUrl(config, r.userId, outage.id, now)), footer);
   const dedupeKey = flap.verdict === 'summary' ? `flap:${ctx.nodeId}:${r.userId}:${Math.floor(now.getTime() / 3_600_000)}` : key;
   const notBefore = r.audience === 'host' ? quietUntil(now, ctx.timeZone, r.quietStart, r.quietEnd) : now;
@@ -99,7 +100,11 @@ export async function writeOfflineAlerts(sequelize: Sequelize, config: Config, o
   return written;
 }
 
-/** `node-online` with the outage's duration, only to people who were told it was offline; an offline mail still unsent is withdrawn instead. */
+/**
+ * `node-online` with the outage's duration, only to people who were told it was offline. An offline
+ * mail never tried is withdrawn instead (nobody heard of the blip); one still failing (mail trouble)
+ * is withdrawn and replaced by one "was down from … to …" mail, never two stale ones.
+ */
 export async function writeOnlineAlerts(sequelize: Sequelize, config: Config, outageId: number, now: Date, transaction: Transaction) {
   const outage = await loadOutage(sequelize, outageId, transaction);
   const ctx = outage && (await nodeContext(sequelize, outage.nodeId, transaction));
@@ -112,12 +117,11 @@ export async function writeOnlineAlerts(sequelize: Sequelize, config: Config, ou
   const audience = new Map((await outageAudience(sequelize, outageId, ctx.nodeId, transaction)).map((r) => [r.userId, r]));
   let written = 0;
   for (const t of told) {
-    if (t.status === 'pending' && t.attempts === 0) {
-      await sequelize.query('DELETE FROM outbox WHERE id = $1', { bind: [t.id], transaction });
-      continue;
-    }
+    const unsent = t.status === 'pending';
+    if (unsent) await sequelize.query('DELETE FROM outbox WHERE id = $1', { bind: [t.id], transaction });
+    if (unsent && t.attempts === 0) continue;
     const r = audience.get(t.userId);
-    if (r && (await writeFor(sequelize, config, 'node-online', `online:${outageId}:${r.userId}`, ctx, outage, r, now, transaction))) written++;
+    if (r && (await writeFor(sequelize, config, 'node-online', `online:${outageId}:${r.userId}`, ctx, outage, r, now, transaction, unsent))) written++;
   }
   return written;
 }

@@ -1,4 +1,5 @@
 // `npm run simulate`: makes the demo network report through the real HTTP API, as nodes would.
+import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
 import { ApiClient } from './apiClient';
 import type { NodeDto } from '../../shared/schemas/node';
@@ -14,7 +15,9 @@ const FLAKY_EVERY_S = 25 * 60;
 const FLAKY_DOWN_S = 5 * 60;
 
 interface TopologyLink { nodeAId: number; nodeBId: number; predictedSignalDbm: number | null; expectedRateMbps: number | null }
-interface SimNode { node: NodeDto; radios: RadioDto[]; token: string; seq: number; fadeDb: number; predicted: Map<number, number> }
+interface SimNode { node: NodeDto; radios: RadioDto[]; token: string; bootId: string; seq: number; fadeDb: number; predicted: Map<number, number>; unsent: object[] }
+/** Like the agent: reports the server did not take (503, no answer) are kept and sent again, at most this many. */
+const BUFFER_MAX = 500;
 
 const api = new ApiClient(baseUrl);
 const tokens: Record<string, string> = fs.existsSync(tokenFile) ? JSON.parse(fs.readFileSync(tokenFile, 'utf8')) : {};
@@ -42,7 +45,7 @@ async function load(): Promise<SimNode[]> {
       if (l.nodeBId === node.id) predicted.set(l.nodeAId, l.predictedSignalDbm);
       if (l.nodeAId === node.id) predicted.set(l.nodeBId, l.predictedSignalDbm);
     }
-    sims.push({ node, radios: radios.filter((r) => r.nodeId === node.id), token, seq: Date.now(), fadeDb: 0, predicted });
+    sims.push({ node, radios: radios.filter((r) => r.nodeId === node.id), token, bootId: randomUUID(), seq: 0, fadeDb: 0, predicted, unsent: [] });
   }
   return sims;
 }
@@ -67,7 +70,7 @@ function reportFor(sim: SimNode, now: Date) {
     };
   });
   return {
-    seq: ++sim.seq, sentAt: now.toISOString(), uptimeS: Math.round(process.uptime() + 86_400), load1: round1(0.1 + eveningLoad * 0.8),
+    seq: ++sim.seq, bootId: sim.bootId, sentAt: now.toISOString(), uptimeS: Math.round(process.uptime() + 86_400), load1: round1(0.1 + eveningLoad * 0.8),
     memFreeKb: 30_000 + Math.round(Math.random() * 5000), firmware: sim.node.firmware ?? undefined,
     throughputMbps: round1(Math.max(1, 60 * (1 - 0.6 * eveningLoad) + gauss() * 3)), latencyMs: round1(8 + 20 * eveningLoad + Math.abs(gauss()) * 4), radios,
   };
@@ -76,13 +79,24 @@ function reportFor(sim: SimNode, now: Date) {
 async function send(sim: SimNode) {
   const now = new Date();
   if (sim.node.name === FLAKY_NODE && (now.getTime() / 1000) % FLAKY_EVERY_S < FLAKY_DOWN_S) return; // the flaky node is "unplugged"
-  const post = () => fetch(`${baseUrl}/api/v1/heartbeats`, { method: 'POST', headers: { authorization: `Bearer ${sim.token}`, 'content-type': 'application/json' }, body: JSON.stringify(reportFor(sim, now)) });
-  let res = await post();
-  if (res.status === 401) {
-    sim.token = await provision(sim.node.id); // someone rotated it: provision again
+  sim.unsent.push(reportFor(sim, now));
+  sim.unsent.splice(0, Math.max(0, sim.unsent.length - BUFFER_MAX));
+  const batch = sim.unsent.slice();
+  const body = JSON.stringify(batch.length === 1 ? batch[0] : { reports: batch });
+  const post = () => fetch(`${baseUrl}/api/v1/heartbeats`, { method: 'POST', headers: { authorization: `Bearer ${sim.token}`, 'content-type': 'application/json' }, body });
+  let res: Response;
+  try {
     res = await post();
+    if (res.status === 401) {
+      sim.token = await provision(sim.node.id); // someone rotated it: provision again
+      res = await post();
+    }
+  } catch (e) {
+    console.warn(`simulator: ${sim.node.name}: ${(e as Error).message}; keeping ${sim.unsent.length} report(s) to resend`);
+    return;
   }
-  if (res.status !== 202) console.warn(`simulator: ${sim.node.name} got ${res.status}: ${await res.text()}`);
+  if (res.status === 202 || res.status === 400) sim.unsent.splice(0, batch.length); // delivered, or refused for good
+  if (res.status !== 202) console.warn(`simulator: ${sim.node.name} got ${res.status}${res.status === 400 ? '' : `; keeping ${sim.unsent.length} report(s) to resend`}: ${await res.text()}`);
 }
 
 const sims = await load();

@@ -40,10 +40,13 @@ export function hostOffline(f: HostFacts, footer: FooterLinks): Rendered {
   ], footer);
 }
 
-export function hostOnline(f: HostFacts & { downForS: number }, footer: FooterLinks): Rendered {
+/** `until`: the outage mail never got through (mail trouble), so this one tells the whole span instead. */
+export function hostOnline(f: HostFacts & { downForS: number; until?: Date }, footer: FooterLinks): Rendered {
   return compose(`The network box on your roof (${f.nodeName}) is back`, [
     { kind: 'p', text: `Hello ${f.recipientName},` },
-    { kind: 'p', text: `"${f.nodeName}" at ${f.siteName} is answering again. It was out for ${formatDuration(f.downForS)}, from ${formatLocal(f.since, f.timeZone)}.` },
+    f.until
+      ? { kind: 'p', text: `"${f.nodeName}" at ${f.siteName} was down from ${formatLocal(f.since, f.timeZone)} to ${formatLocal(f.until, f.timeZone)} (${formatDuration(f.downForS)}). It is answering again. Our message about the outage could not be delivered while it lasted.` }
+      : { kind: 'p', text: `"${f.nodeName}" at ${f.siteName} is answering again. It was out for ${formatDuration(f.downForS)}, from ${formatLocal(f.since, f.timeZone)}.` },
     { kind: 'p', text: 'There is nothing more you need to do. If you changed something to bring it back, the operators would be glad to hear what:' },
     contactBlock(f),
   ], footer);

@@ -98,9 +98,12 @@ export function operatorReminder(f: OperatorFacts & { downForS: number }, footer
   ], footer);
 }
 
-export function operatorOnline(f: OperatorFacts & { downForS: number }, footer: FooterLinks): Rendered {
+/** `until`: the outage mail never got through (mail trouble), so this one tells the whole span instead. */
+export function operatorOnline(f: OperatorFacts & { downForS: number; until?: Date }, footer: FooterLinks): Rendered {
   return compose(`Back online: ${f.nodeName} (${f.neighbourhoodName}) after ${formatDuration(f.downForS)}`, [
-    { kind: 'p', text: `${f.nodeName} is reporting again. The outage lasted ${formatDuration(f.downForS)}, from ${formatLocal(f.since, f.timeZone)}.` },
+    f.until
+      ? { kind: 'p', text: `${f.nodeName} was down from ${formatLocal(f.since, f.timeZone)} to ${formatLocal(f.until, f.timeZone)} (${formatDuration(f.downForS)}) and is reporting again. The mail about the outage could not be delivered while it lasted.` }
+      : { kind: 'p', text: `${f.nodeName} is reporting again. The outage lasted ${formatDuration(f.downForS)}, from ${formatLocal(f.since, f.timeZone)}.` },
     { kind: 'link', label: 'Open the node in Parapet', url: f.nodeUrl },
   ], footer);
 }
