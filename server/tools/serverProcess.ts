@@ -20,18 +20,23 @@ export interface ServerProcess {
   stop: () => Promise<void>;
 }
 
-/** A real Parapet server in its own process (tsx server/index.ts), as start.sh runs it. */
-export async function startServerProcess(env: Record<string, string>, healthyWithinMs = 30_000): Promise<ServerProcess> {
+/**
+ * A real Parapet server in its own process: `tsx server/index.ts` by default, or `args` for node
+ * (e.g. the compiled `dist-server/index.js`, as start.sh runs it). Waits up to `healthyWithinMs`
+ * (or `timeoutMs`) for health.
+ */
+export async function startServerProcess(env: Record<string, string>, options: number | { args?: string[]; timeoutMs?: number } = {}): Promise<ServerProcess> {
+  const opts = typeof options === 'number' ? { timeoutMs: options } : options;
   const port = await freePort();
   let output = '';
-  const child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], {
+  const child = spawn(process.execPath, opts.args ?? ['--import', 'tsx', 'server/index.ts'], {
     env: { ...process.env, NODE_ENV: 'test', HOST: '127.0.0.1', PORT: String(port), ...env },
     stdio: ['ignore', 'pipe', 'pipe'],
   });
   child.stdout!.on('data', (d) => (output += d));
   child.stderr!.on('data', (d) => (output += d));
   const url = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + healthyWithinMs;
+  const deadline = Date.now() + (opts.timeoutMs ?? 30_000);
   for (;;) {
     if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`);
     try {

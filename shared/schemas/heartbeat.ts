@@ -7,6 +7,9 @@ const finite = (min: number, max: number, unit: string) =>
 
 export const MAX_BATCH_REPORTS = 500;
 
+// PostgreSQL text cannot hold NUL; a router's odd SSID or firmware string is kept, the NUL shown as U+FFFD.
+const storableText = (max: number) => z.string().max(max, `must be at most ${max} characters`).transform((s) => s.replace(/\u0000/g, '\uFFFD'));
+
 export const heartbeatRadioSchema = z.object({
   iface: z.string({ error: 'is required' }).regex(/^[A-Za-z0-9._-]{1,15}$/, 'must be an interface name like wlan0'),
   role: z.enum(RADIO_ROLES, { error: `must be one of ${RADIO_ROLES.join(', ')}` }).optional(),
@@ -16,7 +19,7 @@ export const heartbeatRadioSchema = z.object({
     .number({ error: 'must be a number' })
     .refine((w) => [...CHANNEL_WIDTHS_MHZ, 160].includes(w as 20), 'must be 20, 40, 80 or 160')
     .optional(),
-  ssid: z.string().max(32, 'must be at most 32 characters').optional(),
+  ssid: storableText(32).optional(),
   signalDbm: finite(-120, 0, 'dBm').optional(),
   noiseDbm: finite(-120, 0, 'dBm').optional(),
   txRateMbps: finite(0, 10_000, 'Mbps').optional(),
@@ -40,7 +43,7 @@ export const heartbeatReportSchema = z.object({
   uptimeS: finite(0, 1e10, 's').optional(),
   load1: finite(0, 1000, '').optional(),
   memFreeKb: finite(0, 1e10, 'kB').optional(),
-  firmware: z.string().max(120, 'must be at most 120 characters').optional(),
+  firmware: storableText(120).optional(),
   throughputMbps: finite(0, 100_000, 'Mbps').optional(),
   latencyMs: finite(0, 600_000, 'ms').optional(),
   radios: z.array(heartbeatRadioSchema).max(8, 'must list at most 8 radios').optional(),

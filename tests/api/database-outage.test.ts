@@ -2,10 +2,13 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createApp } from '../../server/app';
 import { loadConfig, type Config } from '../../server/config';
+import { QueryTypes } from 'sequelize';
 import { createSequelize } from '../../server/db/sequelize';
+import { startJobs } from '../../server/jobs/scheduler';
+import { Node } from '../../server/models';
 import { rotateToken } from '../../server/services/ingestTokens';
 import { buildUser, PASSWORD, truncateAll } from '../helpers/api';
-import { buildNode } from '../helpers/factories';
+import { buildNeighbourhood, buildNode, buildSite } from '../helpers/factories';
 import { startTcpProxy } from '../helpers/tcpProxy';
 
 // The app reaches the test database through a proxy the test can cut, as a PostgreSQL restart would.
@@ -78,4 +81,39 @@ describe('while PostgreSQL is unreachable', () => {
     expect((await agent.get('/api/v1/nodes')).status).toBe(200); // the session survived in PostgreSQL
     expect((await request(made.app).get('/api/health')).body).toEqual({ status: 'ok' });
   });
+
+  it('treats the silence its own outage caused like its own downtime: one notice to admins, no outage mail to hosts', async () => {
+    const admin = await buildUser({ role: 'admin' });
+    const host = await buildUser({ role: 'host' });
+    const operator = await buildUser({ role: 'operator' });
+    const hood = await buildNeighbourhood({ operators: [operator] });
+    const node = await buildNode({ siteId: (await buildSite({ neighbourhoodId: hood.id, hostUserId: host.id })).id });
+    await Node.update({ reportIntervalS: 10, thresholds: { offlineAfterIntervals: 1 } }, { where: { id: node.id } });
+    const nodeToken = await rotateToken(sequelize, node.id, new Date());
+    const send = () => request(made.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${nodeToken}`).send({ seq: 1, sentAt: new Date().toISOString() });
+    expect((await send()).status).toBe(202);
+    const jobs = startJobs({ ...config, healthCheckIntervalMs: 200 }, sequelize, made.databaseWatch);
+    try {
+      await new Promise((r) => setTimeout(r, 600));
+      // The database is away for longer than the node's whole offline window (10 s).
+      proxy.set('refuse');
+      const cutAt = Date.now();
+      while (made.databaseWatch.up && Date.now() - cutAt < 5000) await new Promise((r) => setTimeout(r, 50));
+      expect(made.databaseWatch.up).toBe(false);
+      await new Promise((r) => setTimeout(r, 11_000));
+      expect((await send()).status).toBe(503); // the node could not report
+      proxy.set('pass');
+      const backAt = Date.now();
+      while (!made.databaseWatch.up && Date.now() - backAt < 10_000) await new Promise((r) => setTimeout(r, 50));
+      await new Promise((r) => setTimeout(r, 1500)); // several ticks after the return
+    } finally {
+      jobs.stop();
+    }
+    const mail = await sequelize.query<{ kind: string; recipient_user_id: number }>(
+      'SELECT kind, recipient_user_id FROM outbox WHERE recipient_user_id = ANY($1) ORDER BY id',
+      { bind: [[admin.id, host.id, operator.id]], type: QueryTypes.SELECT },
+    );
+    expect((await Node.findByPk(node.id))!.state).toBe('online');
+    expect(mail).toEqual([{ kind: 'self-check', recipient_user_id: admin.id }]);
+  }, 40_000);
 });
