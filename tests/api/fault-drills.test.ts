@@ -185,7 +185,12 @@ describe('fault drills', () => {
       }
     };
     const traffic = Promise.all(nodes.map((n) => sendBatches(n, 30)));
-    await sleep(1500);
+    // Kill once the sender has claimed the mail and hangs on the wedged SMTP server, with batches in flight.
+    const claimDeadline = Date.now() + 30_000;
+    const claimed = async () =>
+      (await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM outbox WHERE dedupe_key = ANY($1) AND attempts > 0', { bind: [dedupeKeys], type: QueryTypes.SELECT }))[0].n;
+    while ((await claimed()) === 0 && Date.now() < claimDeadline) await sleep(100);
+    await sleep(300);
     const killedAt = Date.now();
     current.child.kill('SIGKILL');
     await new Promise((r) => current.child.once('exit', r));
@@ -219,6 +224,7 @@ describe('fault drills', () => {
         `mails ${mails.length} of ${dedupeKeys.length}, arrived ${secs(Date.now() - t0 - 3000)} after the restart, most copies of one message: ${Math.max(...perMessage.values())}`,
     );
     expect(lost).toBe(0);
+    expect(outboxAtKill.some((o) => o.attempts > 0)).toBe(true); // it really died mid-send
     expect(mails).toHaveLength(dedupeKeys.length);
     expect([...perMessage.values()].every((n) => n === 1)).toBe(true);
   }, 180_000);
