@@ -29,7 +29,7 @@ async function stop(signal: string) {
   if (stopping) return;
   stopping = true;
   console.log(`${signal}: stopping Parapet`);
-  jobs?.stop();
+  await jobs?.stop();
   databaseWatch.stop();
   await realtime.close();
   server.close();

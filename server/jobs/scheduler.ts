@@ -17,12 +17,19 @@ export function startJobs(config: Config, sequelize: Sequelize, watch?: Database
   let sending = false;
   let lastUpkeep = 0;
   let skipped = 0;
+  let stopped = false;
+  const inflight = new Set<Promise<void>>();
+  const track = (p: Promise<void>) => {
+    inflight.add(p);
+    void p.finally(() => inflight.delete(p));
+    return p;
+  };
   let outagesHandled = watch?.outageCount ?? 0;
   const failed = (what: string, err: unknown) => {
     if (!watch?.reportFailure(err)) console.error(`${what} failed:`, (err as Error).message);
   };
   const send = async () => {
-    if (sending || (watch && !watch.up)) return;
+    if (stopped || sending || (watch && !watch.up)) return;
     sending = true;
     try {
       await runOutboxSender(sequelize, config);
@@ -33,7 +40,7 @@ export function startJobs(config: Config, sequelize: Sequelize, watch?: Database
     }
   };
   const tick = async () => {
-    if (running) return;
+    if (stopped || running) return;
     if (watch && !watch.up) {
       if (skipped++ === 0) console.log('scheduled jobs paused: the database is unreachable');
       return;
@@ -58,9 +65,15 @@ export function startJobs(config: Config, sequelize: Sequelize, watch?: Database
     } finally {
       running = false;
     }
-    void send();
+    void track(send());
   };
-  const timer = setInterval(() => void tick(), config.healthCheckIntervalMs);
-  void tick();
-  return { stop: () => clearInterval(timer), tick, send };
+  const timer = setInterval(() => void track(tick()), config.healthCheckIntervalMs);
+  void track(tick());
+  /** Stops the timer and resolves once the round in progress (if any) has finished. */
+  const stop = async () => {
+    stopped = true;
+    clearInterval(timer);
+    await Promise.allSettled([...inflight]);
+  };
+  return { stop, tick, send };
 }

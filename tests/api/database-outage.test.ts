@@ -107,7 +107,7 @@ describe('while PostgreSQL is unreachable', () => {
       while (!made.databaseWatch.up && Date.now() - backAt < 10_000) await new Promise((r) => setTimeout(r, 50));
       await new Promise((r) => setTimeout(r, 1500)); // several ticks after the return
     } finally {
-      jobs.stop();
+      await jobs.stop();
     }
     const mail = await sequelize.query<{ kind: string; recipient_user_id: number }>(
       'SELECT kind, recipient_user_id FROM outbox WHERE recipient_user_id = ANY($1) ORDER BY id',

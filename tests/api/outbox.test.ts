@@ -66,29 +66,34 @@ describe('outbox delivery', () => {
     }
   });
 
-  it('backs off exponentially and marks a message failed after the last attempt; an admin can retry it', async () => {
+  it('retries outage mail on a short ceiling, gives it up only after a day, and an admin can retry it', async () => {
     const s = await outageWithMail();
     ctx.config.smtpPort = await freePort();
     ctx.config.outboxMaxAttempts = 3;
     const op = () => outboxRows(ctx, s.node.id).then((rows) => rows.find((r) => r.recipient_user_id === s.operator.id)!);
     const gapsS: number[] = [];
-    for (let i = 0; i < 3; i++) {
+    for (let i = 0; i < 4; i++) {
       const before = clock.now().getTime();
       await sendOutbox(ctx);
       const row = await op();
       if (row.status === 'pending') gapsS.push((new Date(row.next_attempt_at).getTime() - before) / 1000);
       clock.set(new Date(row.next_attempt_at).toISOString());
     }
-    expect(gapsS).toEqual([30, 60]);
+    // 30 s, then capped at OUTAGE_MAIL_RETRY_MAX_MS (30 s) instead of doubling; still pending past the attempt limit.
+    expect(ctx.config.outageMailRetryMaxMs).toBe(30_000);
+    expect(gapsS).toEqual([30, 30, 30, 30]);
+    expect((await op()).status).toBe('pending');
+    clock.advance(24 * 3600);
+    await sendOutbox(ctx);
     const failed = await op();
     expect(failed.status).toBe('failed');
-    expect(failed.attempts).toBe(3);
+    expect(failed.attempts).toBe(5);
 
     const admin = await signIn(ctx, s.admin);
     const list = await call(admin, 'get', '/api/v1/outbox?status=failed&kind=node-offline');
     expect(list.status).toBe(200);
     const item = list.body.data.find((m: { id: number }) => m.id === Number(failed.id));
-    expect(item).toMatchObject({ kind: 'node-offline', status: 'failed', attempts: 3, recipient: { userId: s.operator.id, address: s.operator.email }, abilities: { retry: true } });
+    expect(item).toMatchObject({ kind: 'node-offline', status: 'failed', attempts: 5, recipient: { userId: s.operator.id, address: s.operator.email }, abilities: { retry: true } });
     expect(item.subject).toMatch(/^Offline: /);
     expect(typeof item.createdAt).toBe('string');
     expect(item.sentAt).toBeNull();
@@ -101,6 +106,47 @@ describe('outbox delivery', () => {
     await sendOutbox(ctx);
     expect((await op()).status).toBe('sent');
     expect(await mailTo([s.operator.email])).toHaveLength(1);
+  });
+
+  it('lets other mail back off longer: doubling from 30 s, failed after the attempt limit', async () => {
+    ctx.config.smtpPort = await freePort();
+    ctx.config.outboxMaxAttempts = 3;
+    const key = `other-mail:${clock.now().toISOString()}`;
+    await ctx.sequelize.query(
+      `INSERT INTO outbox (kind, recipient_address, recipient_name, subject, text_body, html_body, dedupe_key, next_attempt_at, created_at, updated_at)
+       VALUES ('invitation', 'someone@example.test', 'Someone', 'Invitation', 'text', '<p>text</p>', $1, $2, $2, $2)`,
+      { bind: [key, clock.now()] },
+    );
+    const row = async () => (await ctx.sequelize.query<{ status: string; attempts: number; next_attempt_at: Date }>('SELECT status, attempts, next_attempt_at FROM outbox WHERE dedupe_key = $1', { bind: [key], type: QueryTypes.SELECT }))[0];
+    const gapsS: number[] = [];
+    for (let i = 0; i < 3; i++) {
+      const before = clock.now().getTime();
+      await sendOutbox(ctx);
+      const r = await row();
+      if (r.status === 'pending') gapsS.push((new Date(r.next_attempt_at).getTime() - before) / 1000);
+      clock.set(new Date(r.next_attempt_at).toISOString());
+    }
+    expect(gapsS).toEqual([30, 60]);
+    expect(await row()).toMatchObject({ status: 'failed', attempts: 3 });
+  });
+
+  it('turns an outage mail still failing when the node is back into one "was down from … to …" mail', async () => {
+    const s = await outageWithMail();
+    ctx.config.smtpPort = await freePort();
+    await sendOutbox(ctx); // tried once, SMTP unreachable: still pending
+    const [tried] = (await outboxRows(ctx, s.node.id)).filter((r) => r.recipient_user_id === s.operator.id);
+    expect(tried).toMatchObject({ kind: 'node-offline', status: 'pending', attempts: 1 });
+    clock.advance(300);
+    expect((await s.report()).status).toBe(202); // back online
+    const rows = (await outboxRows(ctx, s.node.id)).filter((r) => r.recipient_user_id === s.operator.id);
+    expect(rows.map((r) => r.kind)).toEqual(['node-online']);
+    ctx.config.smtpPort = smtpPort();
+    clock.advance(60);
+    await sendOutbox(ctx);
+    const mail = await mailTo([s.operator.email]);
+    expect(mail).toHaveLength(1);
+    expect(mail[0].text).toMatch(/was\s+down\s+from\s[\s\S]+\sto\s[\s\S]+\(/);
+    expect(mail[0].text).toMatch(/could\s+not\s+be\s+delivered/);
   });
 
   it('two server processes on one database send each message once', async () => {
