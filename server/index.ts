@@ -15,9 +15,11 @@ const realtime = createRealtime(server, config, session, passport, databaseWatch
 const jobs = config.jobsEnabled ? startJobs(config, sequelize, databaseWatch) : null;
 
 // A lost database connection must never end the process: log it, let the watch probe, carry on.
+// Anything else unexpected still ends it, as Node would, for the supervisor to start it afresh.
 process.on('unhandledRejection', (reason) => {
   if (databaseWatch.reportFailure(reason)) return;
-  console.error('unhandled rejection:', reason);
+  console.error('unhandled rejection, exiting:', reason);
+  process.exit(1);
 });
 
 server.listen(config.port, config.host, () => {
