@@ -52,7 +52,8 @@ export function createRealtime(server: http.Server, config: Config, session: Req
     // Fan-out across instances goes through PostgreSQL NOTIFY, so any instance can serve any browser.
     // Its LISTEN connection stays checked out: guardPool keeps a lost one from ending the process,
     // and the adapter itself re-listens on a new connection when the old one ends.
-    adapterPool = releaseOnEnd(guardPool(new pg.Pool({ connectionString: config.databaseUrl, max: 3, connectionTimeoutMillis: 5_000 }), 'live updates', watch));
+    // Two connections: the LISTEN one and one for NOTIFY, which keeps events in the order they happened.
+    adapterPool = releaseOnEnd(guardPool(new pg.Pool({ connectionString: config.databaseUrl, max: 2, connectionTimeoutMillis: 5_000 }), 'live updates', watch));
     // Its failed publishes are only logged: the watch follows the requests' own database calls.
     io.adapter(createAdapter(adapterPool, { tableName: 'socket_io_attachments', heartbeatInterval: 5_000, errorHandler: (err: Error) => console.error('live updates:', err.message) }));
   }

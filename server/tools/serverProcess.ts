@@ -36,7 +36,8 @@ export async function startServerProcess(env: Record<string, string>, options: n
   child.stdout!.on('data', (d) => (output += d));
   child.stderr!.on('data', (d) => (output += d));
   const url = `http://127.0.0.1:${port}`;
-  const deadline = Date.now() + (opts.timeoutMs ?? 30_000);
+  // tsx transpiles the whole server at start: on a busy machine that alone can take half a minute.
+  const deadline = Date.now() + (opts.timeoutMs ?? 90_000);
   for (;;) {
     if (child.exitCode !== null) throw new Error(`server exited early:\n${output}`);
     try {
