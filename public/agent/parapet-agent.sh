@@ -42,7 +42,8 @@ PARAPET_INTERVAL_S="${PARAPET_INTERVAL_S:-60}"
 PARAPET_STATE_DIR="${PARAPET_STATE_DIR:-}"
 PARAPET_PROC="${PARAPET_PROC:-/proc}"
 PARAPET_IW="${PARAPET_IW:-iw}"
-PARAPET_RELEASE_FILE="${PARAPET_RELEASE_FILE:-/etc/openwrt_release}"
+PARAPET_OS_RELEASE="${PARAPET_OS_RELEASE:-/etc/os-release}"     # NAME, VERSION, PRETTY_NAME (freedesktop os-release)
+PARAPET_VERSION_FILE="${PARAPET_VERSION_FILE:-/etc/version}"     # first line: the version, when os-release has none
 PARAPET_BUFFER_MAX="${PARAPET_BUFFER_MAX:-500}"
 PARAPET_HTTP="${PARAPET_HTTP:-auto}"     # auto, curl or wget
 PARAPET_TIMEOUT_S="${PARAPET_TIMEOUT_S:-20}"
@@ -109,7 +110,7 @@ iw_dump() {
 # Prints one report as a single JSON line; $1 is its seq.
 build_report() {
   iw_dump | awk -v seq="$1" -v bootId="$BOOT_ID" -v sentAt="$(date -u +%Y-%m-%dT%H:%M:%SZ)" \
-    -v proc="$PARAPET_PROC" -v release="$PARAPET_RELEASE_FILE" \
+    -v proc="$PARAPET_PROC" -v release="$PARAPET_OS_RELEASE" -v versionfile="$PARAPET_VERSION_FILE" \
     -v kernel="$(uname -r 2>/dev/null)" -v q="'" '
   function isnum(s) { return s ~ /^-?(0|[1-9][0-9]*)(\.[0-9]+)?$/ }
   function hexval(h) { h = tolower(h); return (index("0123456789abcdef", substr(h, 1, 1)) - 1) * 16 + index("0123456789abcdef", substr(h, 2, 1)) - 1 }
@@ -144,8 +145,20 @@ build_report() {
     }
     mem = (avail != "") ? avail : free   # MemAvailable is absent before Linux 3.14
     if (mem ~ /^[0-9]+$/) out = out ",\"memFreeKb\":" mem
-    while ((getline line < release) > 0)
-      if (line ~ /^DISTRIB_DESCRIPTION=/) { fw = substr(line, 21); gsub("^[\"" q "]|[\"" q "]$", "", fw) }
+    # Firmware: PRETTY_NAME, else NAME and VERSION (or VERSION_ID); only the version may come from
+    # the version file; with no os-release at all, the kernel release.
+    while ((getline line < release) > 0) {
+      eq = index(line, "="); if (eq < 2) continue
+      k = substr(line, 1, eq - 1); v = substr(line, eq + 1); gsub("^[\"" q "]|[\"" q "]$", "", v)
+      if (k == "PRETTY_NAME") pretty = v
+      if (k == "NAME") osname = v
+      if (k == "VERSION") osver = v
+      if (k == "VERSION_ID") osid = v
+    }
+    if (osver == "") osver = osid
+    if (osname != "" && osver == "" && (getline line < versionfile) > 0) { osver = line; gsub(/^[ \t]+|[ \t\r]+$/, "", osver) }
+    if (pretty != "") fw = pretty
+    else if (osname != "") fw = (osver != "") ? osname " " osver : osname
     if (fw == "") fw = kernel
     if (fw != "") out = out ",\"firmware\":\"" jstr(fw, 0) "\""
   }

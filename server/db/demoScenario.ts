@@ -12,6 +12,9 @@ export interface DemoSite {
 }
 export interface DemoLink { from: [string, string]; to: [string, string]; status: 'planned' | 'live'; name: string }
 
+/** Invented firmware and maker: the demo names no real product. */
+export const DEMO_FIRMWARE = 'Tilecrest 5.1.2';
+
 export const TOWN = { name: 'Lindenfall Community Network', latitude: 47.6012, longitude: -38.4127, region: 'EU' as const, timeZone: 'Atlantic/Azores', pool: '10.64.0.0/16' };
 
 export const PEOPLE: DemoPerson[] = [
@@ -45,7 +48,7 @@ function leaf(key: string, name: string, neighbourhood: string, northM: number, 
   return {
     key, name, neighbourhood, northM, eastM, groundElevationM: 8 + Math.round(Math.abs(northM) / 120), antennaHeightM: 6 + (key.length % 4),
     accessNotes: 'Ring the resident first; ladder access from the back yard.', host,
-    node: { name: `lf-${key}`, hardware: 'TP-4300 outdoor CPE', firmware: 'OpenWrt 24.10.2', isUplink: false,
+    node: { name: `lf-${key}`, hardware: 'Fallwright C5 outdoor CPE', firmware: DEMO_FIRMWARE, isUplink: false,
       radios: [backhaul('wlan0', 'backhaul-client', bhChannel, 16), ap(`Lindenfall-${name.split(' ')[0]}`, apChannel, 'wpa2-ccmp', 'lindenfall-shares-the-sky', radio)] },
   };
 }
@@ -53,7 +56,7 @@ function leaf(key: string, name: string, neighbourhood: string, northM: number, 
 function relay(key: string, name: string, neighbourhood: string, northM: number, eastM: number, host: string | null, upChannel: number, downChannel: number): DemoSite {
   return {
     key, name, neighbourhood, northM, eastM, groundElevationM: 12, antennaHeightM: 14, accessNotes: 'Roof hatch key with the caretaker; harness anchor by the chimney.', host,
-    node: { name: `lf-${key}`, hardware: 'Dual-radio rooftop router', firmware: 'OpenWrt 24.10.2', isUplink: false,
+    node: { name: `lf-${key}`, hardware: 'Fallwright R2 dual-radio rooftop router', firmware: DEMO_FIRMWARE, isUplink: false,
       radios: [backhaul('wlan0', 'backhaul-client', upChannel, 23), backhaul('wlan2', 'backhaul-ap', downChannel, 14), ap(`Lindenfall-${name.split(' ')[0]}`, 6)] },
   };
 }
@@ -61,7 +64,7 @@ function relay(key: string, name: string, neighbourhood: string, northM: number,
 export const SITES: DemoSite[] = [
   { key: 'granary', name: 'Granary Tower', neighbourhood: 'Old Quay', northM: 0, eastM: 0, groundElevationM: 10, antennaHeightM: 28,
     accessNotes: 'Uplink room on floor 6; the mast is on the roof. Two people for any mast work.', host: 'admin',
-    node: { name: 'lf-granary', hardware: 'Rack router with three sector radios', firmware: 'OpenWrt 24.10.2', isUplink: true,
+    node: { name: 'lf-granary', hardware: 'Fallwright H3 rack router, three sector radios', firmware: DEMO_FIRMWARE, isUplink: true,
       radios: [backhaul('wlan0', 'backhaul-ap', 36, 23), backhaul('wlan1', 'backhaul-ap', 100, 23), backhaul('wlan2', 'backhaul-ap', 116, 23)] } },
   relay('quay', 'Quay Chandlery', 'Old Quay', 900, -1200, 'host', 36, 52),
   relay('mill', 'Millbrook Mill', 'Millbrook', 150, 2100, 'h1', 100, 132),

@@ -234,7 +234,8 @@ for (const rt of runtimes) {
         PARAPET_STATE_DIR: stateDir,
         PARAPET_PROC: join(fixtures, 'proc'),
         PARAPET_IW: fakeIw,
-        PARAPET_RELEASE_FILE: join(fixtures, 'openwrt_release'),
+        PARAPET_OS_RELEASE: join(fixtures, 'os-release'),
+        PARAPET_VERSION_FILE: join(fixtures, 'no-version-file'),
         PARAPET_HTTP: rt.http,
         PARAPET_CONFIG: join(stateDir, 'no-such-agent.conf'), // keep this machine's /etc out
         PARAPET_TIMEOUT_S: '5',
@@ -278,7 +279,7 @@ for (const rt of runtimes) {
         uptimeS: 86523, // 86523.41 in uptime, whole seconds
         load1: 0.42,
         memFreeKb: 48212, // MemAvailable, preferred over MemFree (21340)
-        firmware: 'OpenWrt 23.05.3 r23809-234f1a2efa',
+        firmware: 'Tilecrest 5.1.2 (r1042-b7c9)', // PRETTY_NAME of the fixture's os-release
         radios: expectedRadios,
       });
       const sentAtMs = Date.parse(bodyOf(req).sentAt as string);
@@ -431,20 +432,38 @@ for (const rt of runtimes) {
       expect(radios.map((r) => r.ssid)).toEqual(['Café "Roof" \\ north\tend', 'back\\slash"quote']);
     });
 
+    it('names the firmware from os-release NAME and VERSION_ID, and takes only the version from the version file', async () => {
+      const osRelease = join(stateDir, 'os-release');
+      writeFileSync(osRelease, "NAME='Tilecrest'\nID=tilecrest\nVERSION_ID=\"5.0.4\"\n");
+      expect((await run({ PARAPET_OS_RELEASE: osRelease })).code).toBe(0);
+      expect(bodyOf(server.requests[0]).firmware).toBe('Tilecrest 5.0.4');
+
+      writeFileSync(osRelease, 'NAME="Tilecrest"\nID=tilecrest\n');
+      const versionFile = join(stateDir, 'version');
+      writeFileSync(versionFile, '  5.1.0-rc2  \nsecond line is ignored\n');
+      expect((await run({ PARAPET_OS_RELEASE: osRelease, PARAPET_VERSION_FILE: versionFile })).code).toBe(0);
+      expect(bodyOf(server.requests[1]).firmware).toBe('Tilecrest 5.1.0-rc2');
+
+      // A version file alone names nothing: without os-release the agent reports the kernel.
+      expect((await run({ PARAPET_OS_RELEASE: join(stateDir, 'absent'), PARAPET_VERSION_FILE: versionFile })).code).toBe(0);
+      expect(bodyOf(server.requests[2]).firmware).toBe(execFileSync('uname', ['-r'], { encoding: 'utf8' }).trim());
+    });
+
     it('leaves out what it cannot read instead of sending invalid values', async () => {
       const emptyProc = join(stateDir, 'proc');
       mkdirSync(emptyProc);
       const result = await run({
         PARAPET_PROC: emptyProc,
         PARAPET_IW: join(stateDir, 'no-iw-here'),
-        PARAPET_RELEASE_FILE: join(stateDir, 'no-release-file'),
+        PARAPET_OS_RELEASE: join(stateDir, 'no-os-release'),
+        PARAPET_VERSION_FILE: join(stateDir, 'no-version-file'),
       });
       expect(result.code).toBe(0);
       const body = bodyOf(server.requests[0]);
       expect(body).toEqual({
         seq: 1,
         sentAt: expect.stringMatching(ISO_UTC),
-        firmware: execFileSync('uname', ['-r'], { encoding: 'utf8' }).trim(), // no release file: the kernel
+        firmware: execFileSync('uname', ['-r'], { encoding: 'utf8' }).trim(), // no os-release: the kernel
         radios: [],
       });
     });

@@ -120,7 +120,7 @@ describe('CSV import API', () => {
     await buildNode({ name: 'lf-taken' });
     const otherSite = await buildSite({ name: 'Far Tower' }); // in a neighbourhood the operator does not run
     const header = 'name,site,hardware,firmware,managementAddress,reportIntervalS';
-    const bad = [header, 'lf-lantern,Lantern Roof,CPE,OpenWrt 24.10.2,10.9.0.1,60', 'lf-taken,Kite Loft,,,,', 'lf-kite,Kite Loft,,,10.9.0.300,abc', `lf-far,${otherSite.name},,,,`].join('\n');
+    const bad = [header, 'lf-lantern,Lantern Roof,CPE,Tilecrest 5.1.2,10.9.0.1,60', 'lf-taken,Kite Loft,,,,', 'lf-kite,Kite Loft,,,10.9.0.300,abc', `lf-far,${otherSite.name},,,,`].join('\n');
     const res = await send(operator, 'nodes', bad);
     expect(res.status).toBe(400);
     expect(res.body.error.details).toEqual([
@@ -131,7 +131,7 @@ describe('CSV import API', () => {
     ]);
     expect(await Node.count({ where: { name: 'lf-lantern' } })).toBe(0);
 
-    const good = await send(operator, 'nodes', [header, 'lf-lantern,Lantern Roof,CPE,OpenWrt 24.10.2,10.9.0.1,30', 'lf-kite,kite loft,,,,'].join('\n'));
+    const good = await send(operator, 'nodes', [header, 'lf-lantern,Lantern Roof,CPE,Tilecrest 5.1.2,10.9.0.1,30', 'lf-kite,kite loft,,,,'].join('\n'));
     expect(good.status).toBe(201);
     const lantern = await Node.findOne({ where: { name: 'lf-lantern' } });
     expect(lantern).toMatchObject({ neighbourhoodId: hoodId, hardware: 'CPE', reportIntervalS: 30, managementAddress: '10.9.0.1' });

@@ -196,15 +196,15 @@ describe('heartbeat ingest', () => {
 
   it('flags reported settings that differ from the inventory as drift', async () => {
     await buildRadio({ nodeId: node.id, iface: 'wlan0' }); // inventory: channel 36, 40 MHz, ssid test-backhaul
-    await Node.update({ firmware: 'OpenWrt 24.10.2' }, { where: { id: node.id } });
+    await Node.update({ firmware: 'Tilecrest 5.1.2' }, { where: { id: node.id } });
     const freshToken = await tokenFor(ctx, node.id);
-    await post(ctx, freshToken, report(1, { firmware: 'OpenWrt 23.05.5', radios: [{ iface: 'wlan0', channel: 44, channelWidthMHz: 40, ssid: 'someone-else' }] }));
+    await post(ctx, freshToken, report(1, { firmware: 'Tilecrest 5.0.4', radios: [{ iface: 'wlan0', channel: 44, channelWidthMHz: 40, ssid: 'someone-else' }] }));
     const res = await request(ctx.app).get(`/api/v1/nodes/${node.id}`);
     expect(res.status).toBe(401); // drift is shown to signed-in people only
     const admin = await signIn(ctx, await buildUser({ role: 'admin' }));
     const drift = (await admin.get(`/api/v1/nodes/${node.id}`)).body.data.drift;
     expect(drift).toEqual([
-      { field: 'firmware', expected: 'OpenWrt 24.10.2', reported: 'OpenWrt 23.05.5' },
+      { field: 'firmware', expected: 'Tilecrest 5.1.2', reported: 'Tilecrest 5.0.4' },
       { field: 'wlan0.channel', expected: 36, reported: 44 },
       { field: 'wlan0.ssid', expected: 'test-backhaul', reported: 'someone-else' },
     ]);
