@@ -10,6 +10,15 @@ source "$(dirname "${BASH_SOURCE[0]}")/lib/init.sh" .data
 
 take_run_lock "$PARAPET_DATA_DIR/start.lock" "docker-free-scripts/start.sh"
 
+# --reset-demo (or PARAPET_RESET_DEMO=1): drop the demo's data and load it fresh; nothing else is touched.
+RESET_DEMO=${PARAPET_RESET_DEMO:-}
+for arg in "$@"; do
+  case $arg in
+    --reset-demo) RESET_DEMO=1 ;;
+    *) die "unknown option '$arg': the only option is --reset-demo (drop the demo's data and load it fresh)" ;;
+  esac
+done
+
 export HOST=${HOST:-127.0.0.1}
 export PORT=${PORT:-4300}
 export PARAPET_DEMO_PASSWORD=${PARAPET_DEMO_PASSWORD:-parapet-demo}
@@ -87,8 +96,11 @@ export SMTP_HOST=127.0.0.1 SMTP_PORT=$MAIL_SMTP_PORT
 export MAILDEV_WEB_URL="http://127.0.0.1:$MAIL_WEB_PORT"
 
 run_logged "npm run migrate" "$PARAPET_LOG_DIR/migrate.log" npm run migrate
-run_logged "npm run seed" "$PARAPET_LOG_DIR/seed.log" npm run seed
-grep -v '^>\|^$' "$PARAPET_LOG_DIR/seed.log" | tail -n 5 | sed 's/^/[parapet]   seed: /' >&2 || true
+# The demo loads its inventory and about five weeks of history on a first start; progress as it goes.
+say "loading the demo${RESET_DEMO:+ afresh (--reset-demo)} (log: $PARAPET_LOG_DIR/seed.log)"
+if ! PARAPET_RESET_DEMO=${RESET_DEMO:+1} npm run --silent seed 2>&1 | tee "$PARAPET_LOG_DIR/seed.log" | sed -u 's/^/[parapet]   seed: /' >&2; then
+  die "loading the demo failed (full log: $PARAPET_LOG_DIR/seed.log)"
+fi
 build_client
 run_logged "npm run build:server" "$PARAPET_LOG_DIR/build-server.log" npm run build:server
 

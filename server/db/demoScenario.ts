@@ -8,12 +8,20 @@ export interface DemoRadio {
 }
 export interface DemoSite {
   key: string; name: string; neighbourhood: string; northM: number; eastM: number; groundElevationM: number;
-  antennaHeightM: number; accessNotes: string; host: string | null; node: { name: string; hardware: string; firmware: string; isUplink: boolean; radios: DemoRadio[] };
+  antennaHeightM: number; accessNotes: string; host: string | null;
+  node: { name: string; hardware: string; firmware: string; isUplink: boolean; reportIntervalS: number; radios: DemoRadio[] };
 }
 export interface DemoLink { from: [string, string]; to: [string, string]; status: 'planned' | 'live'; name: string }
 
 /** Invented firmware and maker: the demo names no real product. */
 export const DEMO_FIRMWARE = 'Tilecrest 5.1.2';
+
+/**
+ * Lindenfall's routers report every five minutes to spare airtime; two report every minute: the one
+ * that drops now and then, and the one whose loose plug the operators are watching.
+ */
+export const REPORT_INTERVAL_S = 300;
+const MINUTE_REPORTERS = ['tide', 'weir'];
 
 export const TOWN = { name: 'Lindenfall Community Network', latitude: 47.6012, longitude: -38.4127, region: 'EU' as const, timeZone: 'Atlantic/Azores', pool: '10.64.0.0/16' };
 
@@ -48,7 +56,7 @@ function leaf(key: string, name: string, neighbourhood: string, northM: number, 
   return {
     key, name, neighbourhood, northM, eastM, groundElevationM: 8 + Math.round(Math.abs(northM) / 120), antennaHeightM: 6 + (key.length % 4),
     accessNotes: 'Ring the resident first; ladder access from the back yard.', host,
-    node: { name: `lf-${key}`, hardware: 'Fallwright C5 outdoor CPE', firmware: DEMO_FIRMWARE, isUplink: false,
+    node: { name: `lf-${key}`, hardware: 'Fallwright C5 outdoor CPE', firmware: DEMO_FIRMWARE, isUplink: false, reportIntervalS: MINUTE_REPORTERS.includes(key) ? 60 : REPORT_INTERVAL_S,
       radios: [backhaul('wlan0', 'backhaul-client', bhChannel, 16), ap(`Lindenfall-${name.split(' ')[0]}`, apChannel, 'wpa2-ccmp', 'lindenfall-shares-the-sky', radio)] },
   };
 }
@@ -56,7 +64,7 @@ function leaf(key: string, name: string, neighbourhood: string, northM: number, 
 function relay(key: string, name: string, neighbourhood: string, northM: number, eastM: number, host: string | null, upChannel: number, downChannel: number): DemoSite {
   return {
     key, name, neighbourhood, northM, eastM, groundElevationM: 12, antennaHeightM: 14, accessNotes: 'Roof hatch key with the caretaker; harness anchor by the chimney.', host,
-    node: { name: `lf-${key}`, hardware: 'Fallwright R2 dual-radio rooftop router', firmware: DEMO_FIRMWARE, isUplink: false,
+    node: { name: `lf-${key}`, hardware: 'Fallwright R2 dual-radio rooftop router', firmware: DEMO_FIRMWARE, isUplink: false, reportIntervalS: REPORT_INTERVAL_S,
       radios: [backhaul('wlan0', 'backhaul-client', upChannel, 23), backhaul('wlan2', 'backhaul-ap', downChannel, 14), ap(`Lindenfall-${name.split(' ')[0]}`, 6)] },
   };
 }
@@ -64,7 +72,7 @@ function relay(key: string, name: string, neighbourhood: string, northM: number,
 export const SITES: DemoSite[] = [
   { key: 'granary', name: 'Granary Tower', neighbourhood: 'Old Quay', northM: 0, eastM: 0, groundElevationM: 10, antennaHeightM: 28,
     accessNotes: 'Uplink room on floor 6; the mast is on the roof. Two people for any mast work.', host: 'admin',
-    node: { name: 'lf-granary', hardware: 'Fallwright H3 rack router, three sector radios', firmware: DEMO_FIRMWARE, isUplink: true,
+    node: { name: 'lf-granary', hardware: 'Fallwright H3 rack router, three sector radios', firmware: DEMO_FIRMWARE, isUplink: true, reportIntervalS: REPORT_INTERVAL_S,
       radios: [backhaul('wlan0', 'backhaul-ap', 36, 23), backhaul('wlan1', 'backhaul-ap', 100, 23), backhaul('wlan2', 'backhaul-ap', 116, 23)] } },
   relay('quay', 'Quay Chandlery', 'Old Quay', 900, -1200, 'host', 36, 52),
   relay('mill', 'Millbrook Mill', 'Millbrook', 150, 2100, 'h1', 100, 132),
@@ -116,3 +124,18 @@ export function offsetToLatLon(northM: number, eastM: number) {
     longitude: TOWN.longitude + eastM / (metresPerDegLat * Math.cos((TOWN.latitude * Math.PI) / 180)),
   };
 }
+
+/**
+ * What the demo's routers do differently from the inventory, in history and in the simulator alike:
+ * one backhaul antenna knocked slowly off its aim (measured signal well below prediction), one router
+ * still on the previous firmware, and one access point a host moved to another channel by hand.
+ */
+export const DEMO_QUIRKS = {
+  driftingNode: 'lf-heron',
+  /** How far below its prediction the drifting link ends up, in dB. */
+  driftDb: 17,
+  firmware: { 'lf-dyke': 'Tilecrest 5.0.4' } as Record<string, string>,
+  channels: { 'lf-weir': { wlan1: 6 } } as Record<string, Record<string, number>>,
+  /** The simulator's node that drops for a few minutes now and then. */
+  flakyNode: 'lf-tide',
+};

@@ -52,7 +52,21 @@ export async function applyRetention(sequelize: Sequelize, now: Date, rawDays: n
 }
 
 // Availability per bucket = reports received ÷ reports expected (REFERENCES.md: time up ÷ time observed).
+// Set-based: each raw table is read once for the whole span and grouped by bucket, so rolling up a
+// day (or five weeks of a loaded history) costs about as much per row as rolling up two buckets.
 const ROLLUP_SQL = `
+WITH h AS (
+  SELECT node_id, to_timestamp(floor(extract(epoch FROM received_at) / $1::int) * $1::int) AS start, count(*) AS reports,
+         min(throughput_mbps) AS tmin, avg(throughput_mbps) AS tavg, max(throughput_mbps) AS tmax,
+         min(latency_ms) AS lmin, avg(latency_ms) AS lavg, max(latency_ms) AS lmax
+    FROM heartbeats WHERE received_at >= $2::timestamptz AND received_at < $3::timestamptz GROUP BY 1, 2
+), r AS (
+  SELECT node_id, to_timestamp(floor(extract(epoch FROM received_at) / $1::int) * $1::int) AS start,
+         min(signal_dbm) AS smin, avg(signal_dbm) AS savg, max(signal_dbm) AS smax,
+         min(noise_dbm) AS nmin, avg(noise_dbm) AS navg, max(noise_dbm) AS nmax,
+         min(signal_dbm - noise_dbm) AS qmin, avg(signal_dbm - noise_dbm) AS qavg, max(signal_dbm - noise_dbm) AS qmax
+    FROM heartbeat_radios WHERE received_at >= $2::timestamptz AND received_at < $3::timestamptz GROUP BY 1, 2
+)
 INSERT INTO heartbeat_rollups (node_id, bucket_s, bucket_start, reports, expected_reports, availability_pct,
   signal_min_dbm, signal_avg_dbm, signal_max_dbm, noise_min_dbm, noise_avg_dbm, noise_max_dbm,
   snr_min_db, snr_avg_db, snr_max_db, throughput_min_mbps, throughput_avg_mbps, throughput_max_mbps,
@@ -65,17 +79,8 @@ SELECT n.id, $1::int, b.start,
        h.tmin, h.tavg, h.tmax, h.lmin, h.lavg, h.lmax
   FROM generate_series($2::timestamptz, $3::timestamptz - make_interval(secs => $1::int), make_interval(secs => $1::int)) AS b(start)
   JOIN nodes n ON n.created_at < b.start + make_interval(secs => $1::int) AND n.last_seen_at IS NOT NULL
-  LEFT JOIN LATERAL (
-    SELECT count(*) AS reports, min(throughput_mbps) AS tmin, avg(throughput_mbps) AS tavg, max(throughput_mbps) AS tmax,
-           min(latency_ms) AS lmin, avg(latency_ms) AS lavg, max(latency_ms) AS lmax
-      FROM heartbeats WHERE node_id = n.id AND received_at >= b.start AND received_at < b.start + make_interval(secs => $1::int)
-  ) h ON true
-  LEFT JOIN LATERAL (
-    SELECT min(signal_dbm) AS smin, avg(signal_dbm) AS savg, max(signal_dbm) AS smax,
-           min(noise_dbm) AS nmin, avg(noise_dbm) AS navg, max(noise_dbm) AS nmax,
-           min(signal_dbm - noise_dbm) AS qmin, avg(signal_dbm - noise_dbm) AS qavg, max(signal_dbm - noise_dbm) AS qmax
-      FROM heartbeat_radios WHERE node_id = n.id AND received_at >= b.start AND received_at < b.start + make_interval(secs => $1::int)
-  ) r ON true
+  LEFT JOIN h ON h.node_id = n.id AND h.start = b.start
+  LEFT JOIN r ON r.node_id = n.id AND r.start = b.start
 ON CONFLICT (node_id, bucket_s, bucket_start) DO UPDATE SET
   reports = EXCLUDED.reports, expected_reports = EXCLUDED.expected_reports, availability_pct = EXCLUDED.availability_pct,
   signal_min_dbm = EXCLUDED.signal_min_dbm, signal_avg_dbm = EXCLUDED.signal_avg_dbm, signal_max_dbm = EXCLUDED.signal_max_dbm,

@@ -2,6 +2,7 @@
 import { randomUUID } from 'node:crypto';
 import fs from 'node:fs';
 import { ApiClient } from './apiClient';
+import { DEMO_QUIRKS } from '../db/demoScenario';
 import type { NodeDto } from '../../shared/schemas/node';
 import type { RadioDto } from '../../shared/schemas/radio';
 
@@ -10,7 +11,7 @@ const password = process.env.PARAPET_DEMO_PASSWORD ?? 'parapet-demo';
 const tokenFile = process.env.SIMULATOR_TOKENS ?? '.simulator-tokens.json';
 const speedup = Number(process.env.SIMULATOR_SPEEDUP ?? '1'); // >1 sends reports faster than the node's interval
 /** One node drops for a few minutes now and then, so the demo shows outages. */
-const FLAKY_NODE = process.env.SIMULATOR_FLAKY_NODE ?? 'lf-tide';
+const FLAKY_NODE = process.env.SIMULATOR_FLAKY_NODE ?? DEMO_QUIRKS.flakyNode;
 const FLAKY_EVERY_S = 25 * 60;
 const FLAKY_DOWN_S = 5 * 60;
 
@@ -61,9 +62,11 @@ function reportFor(sim: SimNode, now: Date) {
   const backhaulSignal = [...sim.predicted.values()].sort((a, b) => a - b)[0];
   const radios = sim.radios.map((r) => {
     const isBackhaul = r.role !== 'access-point';
-    const signal = isBackhaul && backhaulSignal !== undefined ? backhaulSignal + sim.fadeDb : -55 - Math.random() * 15;
+    // The demo's quirks carry on live: the drifting antenna stays off its aim, the moved channel stays moved.
+    const driftDb = sim.node.name === DEMO_QUIRKS.driftingNode && r.role === 'backhaul-client' ? DEMO_QUIRKS.driftDb : 0;
+    const signal = isBackhaul && backhaulSignal !== undefined ? backhaulSignal + sim.fadeDb - driftDb : -55 - Math.random() * 15;
     return {
-      iface: r.iface, role: r.role, band: r.band, channel: r.channel, channelWidthMHz: r.channelWidthMHz, ssid: r.ssid ?? undefined,
+      iface: r.iface, role: r.role, band: r.band, channel: DEMO_QUIRKS.channels[sim.node.name]?.[r.iface] ?? r.channel, channelWidthMHz: r.channelWidthMHz, ssid: r.ssid ?? undefined,
       signalDbm: round1(Math.max(-119, Math.min(-1, signal))), noiseDbm: round1(-95 + gauss() * 0.8),
       txRateMbps: isBackhaul ? 150 : 72, rxRateMbps: isBackhaul ? 135 : 65,
       clients: r.role === 'access-point' ? Math.round(2 + 10 * eveningLoad * Math.random()) : undefined,
@@ -71,7 +74,7 @@ function reportFor(sim: SimNode, now: Date) {
   });
   return {
     seq: ++sim.seq, bootId: sim.bootId, sentAt: now.toISOString(), uptimeS: Math.round(process.uptime() + 86_400), load1: round1(0.1 + eveningLoad * 0.8),
-    memFreeKb: 30_000 + Math.round(Math.random() * 5000), firmware: sim.node.firmware ?? undefined,
+    memFreeKb: 30_000 + Math.round(Math.random() * 5000), firmware: DEMO_QUIRKS.firmware[sim.node.name] ?? sim.node.firmware ?? undefined,
     throughputMbps: round1(Math.max(1, 60 * (1 - 0.6 * eveningLoad) + gauss() * 3)), latencyMs: round1(8 + 20 * eveningLoad + Math.abs(gauss()) * 4), radios,
   };
 }

@@ -1,0 +1,64 @@
+// Loads about five weeks of Lindenfall's past: raw reports in bulk, the planned events replayed
+// through the live rules, then the live roll-up and retention code over the whole span.
+import { QueryTypes, type Sequelize } from 'sequelize';
+import type { Config } from '../config';
+import { applyRetention, rollUp } from '../jobs/heartbeatStorage';
+import { useMailConfig } from '../mail/settings';
+import { ingestReports } from '../services/heartbeatIngest';
+import { planHistory } from './demoHistoryPlan';
+import { rememberSeqs, reportSpecs, writeDay } from './demoHistoryReports';
+import { deliverDue, replayHistory, reportAt, tokenNode } from './demoHistoryReplay';
+import { TOWN } from './demoScenario';
+
+const DAY_MS = 86_400_000;
+
+export interface HistorySummary { days: number; reportRows: number; steps: number; outages: number; mails: number }
+
+export async function loadDemoHistory(sequelize: Sequelize, config: Config, people: Map<string, number>, progress: (line: string) => void): Promise<HistorySummary> {
+  useMailConfig(config);
+  const plan = planHistory(config.now());
+  const specs = await reportSpecs(sequelize);
+  await sequelize.query(
+    `UPDATE nodes SET created_at = $1::timestamptz - interval '1 day', first_seen_at = $1, last_seen_at = $1, state = 'online', state_since = $1,
+            health_streak = 0, health_reason = NULL WHERE id = ANY($2::int[])`,
+    { bind: [plan.start, [...specs.ids.values()]] },
+  );
+  await sequelize.query(`UPDATE sites SET created_at = $1::timestamptz - interval '1 day' WHERE id IN (SELECT site_id FROM nodes WHERE id = ANY($2::int[]))`, { bind: [plan.start, [...specs.ids.values()]] });
+
+  const days: Date[] = [];
+  for (let t = plan.start.getTime(); t < plan.end.getTime(); t += DAY_MS) days.push(new Date(t));
+  let reportRows = 0;
+  for (const [i, day] of days.entries()) {
+    reportRows += await writeDay(sequelize, plan, specs, day, TOWN.timeZone);
+    if ((i + 1) % 5 === 0 || i === days.length - 1) progress(`history: reports for ${i + 1} of ${days.length} days written (${reportRows} rows)`);
+  }
+  // The duplicate guard only matters for reports an agent can still resend: its buffer holds 500
+  // reports, under two days at five-minute reports. Older history needs no guard.
+  for (const day of days.slice(-2)) await rememberSeqs(sequelize, day);
+
+  progress('history: the duplicate guard knows the last two days of reports');
+  progress('history: replaying outages, acknowledgements, maintenance and mail through the live rules');
+  const steps = await replayHistory(sequelize, config, plan, specs, people);
+
+  for (const [i, day] of days.entries()) {
+    const dayEnd = Math.min(day.getTime() + DAY_MS, plan.end.getTime());
+    await rollUp(sequelize, new Date(dayEnd), 300, Math.floor((dayEnd - day.getTime()) / 300_000));
+    await rollUp(sequelize, new Date(dayEnd), 3600, Math.floor((dayEnd - day.getTime()) / 3_600_000));
+    if ((i + 1) % 7 === 0 || i === days.length - 1) progress(`history: roll-ups for ${i + 1} of ${days.length} days`);
+  }
+  await applyRetention(sequelize, plan.end, config.rawRetentionDays, config.rollupRetentionDays);
+  progress('history: retention applied');
+
+  // Every node reports once now, so the console opens on fresh figures (and the drifting link shows).
+  for (const nodeId of specs.ids.values()) {
+    await ingestReports(sequelize, await tokenNode(sequelize, nodeId), [reportAt(specs, nodeId, plan.end, plan.drift.depthDb)], plan.end);
+  }
+  progress('history: every node reported once now');
+  // Mail of the past went out in its day (see deliverDue); what is due later waits for the live sender.
+  await deliverDue(sequelize, plan.end);
+  const [mails] = await sequelize.query<{ n: string }>('SELECT count(*) AS n FROM outbox WHERE node_id = ANY($1::int[])', { bind: [[...specs.ids.values()]], type: QueryTypes.SELECT });
+  // The live check starts watching afresh, as on a first start (no notice about the replay's clock).
+  await sequelize.query(`UPDATE job_state SET last_run_at = NULL, watching_since = NULL WHERE name = 'silence-check'`);
+  const [counts] = await sequelize.query<{ outages: string }>('SELECT count(*) AS outages FROM outages WHERE node_id = ANY($1::int[])', { bind: [[...specs.ids.values()]], type: QueryTypes.SELECT });
+  return { days: days.length, reportRows, steps, outages: Number(counts.outages), mails: Number(mails.n) };
+}
