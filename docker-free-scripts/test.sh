@@ -84,7 +84,7 @@ run_logged "npm run migrate (parapet_test)" "$PARAPET_LOG_DIR/migrate-test.log" 
 run_logged "npm run migrate (parapet_e2e)" "$PARAPET_LOG_DIR/migrate-e2e.log" \
   env DATABASE_URL="$E2E_DATABASE_URL" npm run migrate
 run_logged "npm run seed (parapet_e2e)" "$PARAPET_LOG_DIR/seed-e2e.log" \
-  env DATABASE_URL="$E2E_DATABASE_URL" npm run seed
+  env DATABASE_URL="$E2E_DATABASE_URL" PARAPET_DEMO_HISTORY=0 npm run seed
 
 # --- throwaway mail fake ---
 SMTP_PORT=$(free_port_from "${PARAPET_TEST_SMTP_PORT:-1125}")

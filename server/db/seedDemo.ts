@@ -48,7 +48,7 @@ async function demoPeople(): Promise<Map<string, number>> {
 }
 
 /** The inventory, then (only when it was loaded just now) its past and what each page shows. */
-export async function loadDemo(config: Config, progress: (line: string) => void = () => {}, options: { reset?: boolean } = {}) {
+export async function loadDemo(config: Config, progress: (line: string) => void = () => {}, options: { reset?: boolean; history?: boolean } = {}) {
   const started = Date.now();
   if (options.reset) {
     const dropped = await dropDemo(User.sequelize!, config);
@@ -58,6 +58,7 @@ export async function loadDemo(config: Config, progress: (line: string) => void 
   if (result === 'already-loaded') return { result, seconds: 0 };
   progress(`inventory loaded: ${SITES.length} sites, ${LINKS.length} links, ${PEOPLE.length} people`);
   const people = await demoPeople();
+  if (options.history === false) return { result, seconds: (Date.now() - started) / 1000 };
   await loadDemoExtras(User.sequelize!, config, people, config.now());
   progress('site surveys, drawn install photos, address plans and an upcoming maintenance window loaded');
   const history = await loadDemoHistory(User.sequelize!, config, people, progress);
@@ -74,7 +75,9 @@ if (import.meta.url === `file://${process.argv[1]}`) {
   try {
     // `npm run seed -- --reset` (or PARAPET_RESET_DEMO=1) drops the demo's data first and loads it fresh.
     const reset = process.argv.includes('--reset') || ['1', 'true', 'yes'].includes(process.env.PARAPET_RESET_DEMO ?? '');
-    const { result, seconds } = await loadDemo(config, say, { reset });
+    // PARAPET_DEMO_HISTORY=0 loads the inventory alone (the browser tests' fixed starting point).
+    const history = !['0', 'false', 'no'].includes(process.env.PARAPET_DEMO_HISTORY ?? '');
+    const { result, seconds } = await loadDemo(config, say, { reset, history });
     console.log(result === 'loaded' ? `demo scenario loaded in ${seconds.toFixed(1)} s` : 'demo scenario already loaded; nothing changed');
   } catch (err) {
     console.error('loading the demo failed:', err instanceof Error ? `${err.message} ${(err as { parent?: Error }).parent?.message ?? ''}\n${err.stack}` : err);
