@@ -116,8 +116,11 @@ async function tableExists(sequelize: Sequelize, name: string) {
  */
 export async function writeDay(sequelize: Sequelize, plan: HistoryPlan, specs: ReportSpecs, day: Date, timeZone: string) {
   const next = new Date(day.getTime() + DAY_MS);
-  const quiet = [...silences(plan)].flatMap(([node, spans]) => spans.map((s) => ({ nodeId: specs.ids.get(node), after: s.after, until: s.until })));
-  const common = [day, next, JSON.stringify(quiet), JSON.stringify(plan.rain), plan.end, timeZone];
+  // Only the silences and rain of this day, so each row is checked against a handful of spans.
+  const quiet = [...silences(plan)].flatMap(([node, spans]) => spans.map((s) => ({ nodeId: specs.ids.get(node), after: s.after, until: s.until })))
+    .filter((q) => q.after < next && q.until >= day);
+  const rain = plan.rain.filter((r) => r.from < next && r.to >= day);
+  const common = [day, next, JSON.stringify(quiet), JSON.stringify(rain), plan.end, timeZone];
   const bindFor = (spec: unknown[]) => {
     const [from, to, q, rain, end, zone] = common;
     // $8 is the history's start (uptime) for heartbeats; $9, $10 the drift for radios.

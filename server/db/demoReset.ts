@@ -23,7 +23,11 @@ export async function dropDemo(sequelize: Sequelize, config: Config) {
   );
   for (const { name } of parts) {
     if (!/^heartbeat(s|_radios)_(p\d{8}|default)$/.test(name)) continue;
-    const [{ others }] = await sequelize.query<{ others: boolean }>(`SELECT EXISTS (SELECT 1 FROM ${name} WHERE NOT (node_id = ANY($1::int[]))) AS others`, { bind: [nodes], type: QueryTypes.SELECT });
+    const [{ others, mine }] = await sequelize.query<{ others: boolean; mine: boolean }>(
+      `SELECT EXISTS (SELECT 1 FROM ${name} WHERE NOT (node_id = ANY($1::int[]))) AS others, EXISTS (SELECT 1 FROM ${name} WHERE node_id = ANY($1::int[])) AS mine`,
+      { bind: [nodes], type: QueryTypes.SELECT },
+    );
+    if (!mine) continue; // empty days ahead stay for the storage job
     if (!others && !name.endsWith('_default')) await sequelize.query(`DROP TABLE ${name}`);
     else await sequelize.query(`DELETE FROM ${name} WHERE node_id = ANY($1::int[])`, { bind: [nodes] });
   }
