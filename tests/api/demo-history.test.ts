@@ -43,8 +43,8 @@ describe('the demo town with a past', () => {
     const res = await call(admin, 'get', '/api/v1/outages?sort=-blastNodeCount&pageSize=5');
     expect(res.status).toBe(200);
     const [widest] = res.body.data;
-    expect(widest.blastNodeCount).toBe(6);
-    expect(widest.blastClients).toBeGreaterThan(0);
+    expect(widest.blastRadius.nodeCount).toBe(6);
+    expect(widest.blastRadius.clients).toBeGreaterThan(0);
     expect(widest.acknowledgedAt).not.toBeNull();
     expect(widest.notes).toMatch(/surge arrester/);
     expect(widest.endedAt).not.toBeNull();
@@ -53,12 +53,12 @@ describe('the demo town with a past', () => {
   it('leaves the mail the history caused in the outbox: offline, back online, a reminder, an upstream notice and one flap summary', async () => {
     const res = await call(admin, 'get', '/api/v1/outbox?pageSize=500');
     expect(res.status).toBe(200);
-    const mails = res.body.data as { kind: string; status: string; subject: string }[];
+    const mails = res.body.data as { kind: string; status: string; subject: string; recipient: { address: string } }[];
     const kinds = new Set(mails.map((m) => m.kind));
     for (const k of ['node-offline', 'node-online', 'node-reminder', 'upstream-notice']) expect(kinds.has(k), k).toBe(true);
     expect(mails.every((m) => m.status === 'sent')).toBe(true);
     // Six flaps would be twelve mails to the operator; the cap (4 an hour) lets four through, then one summary.
-    const weir = mails.filter((m) => m.subject.includes('lf-weir') && (m as unknown as { recipientAddress: string }).recipientAddress === 'operator@parapet.example');
+    const weir = mails.filter((m) => m.subject.includes('lf-weir') && m.recipient.address === 'operator@parapet.example');
     expect(weir).toHaveLength(5);
     expect(weir.filter((m) => /keeps dropping/.test(m.subject))).toHaveLength(1);
   });
