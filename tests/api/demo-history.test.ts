@@ -103,7 +103,7 @@ describe('the demo town with a past', () => {
     }
     const surveyed = await ctx.sequelize.query('SELECT DISTINCT n.neighbourhood_id FROM site_surveys s JOIN nodes n ON n.id = s.node_id');
     expect(surveyed[0]).toHaveLength(4);
-  });
+  }, 180_000); // the whole network's channel plan on a busy shared machine
 
   it('reloads fresh on reset without touching a neighbourhood of its own', async () => {
     const kept = await buildNeighbourhood({ name: 'Not Part Of The Demo' });
