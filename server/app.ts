@@ -158,7 +158,7 @@ export function createApp({ config, sequelize }: AppContext) {
   api.use('/me/nodes', requireUser, hostPortalRoutes(config, sequelize));
   api.use('/me', requireUser, meRoutes(sequelize, config));
   api.use('/mail-inbox', requireUser, mailInboxRoutes(config));
-  api.use('/topology', requireUser, topologyRoutes(sequelize));
+  api.use('/topology', requireUser, topologyRoutes(config, sequelize));
   api.use('/radios', requireUser, radioRoutes());
   api.use('/links/:id/health', requireUser, linkHealthRoutes(config, sequelize));
   api.use('/links', requireUser, linkRoutes());

@@ -65,6 +65,10 @@ const envSchema = z.object({
   PARTITION_DAYS_AHEAD: z.coerce.number().int().min(1).max(60).default(7),
   SOCKET_ADAPTER: z.enum(['postgres', 'memory']).default('postgres'),
   FIGURES_THROTTLE_MS: z.coerce.number().int().min(0).default(2000),
+  LINK_OBSERVED_WINDOW_S: z.coerce.number().int().min(1).max(86_400).default(15 * 60),
+  LINK_SILENT_AFTER_S: z.coerce.number().int().min(60).max(30 * 86_400).default(86_400),
+  RADIO_MOVE_SHOW_DAYS: z.coerce.number().int().min(1).max(365).default(7),
+  RECOVERY_LINK_HOURS: z.coerce.number().int().min(1).max(14 * 24).default(48),
 });
 
 export interface Config {
@@ -143,6 +147,14 @@ export interface Config {
   partitionDaysAhead: number;
   socketAdapter: 'postgres' | 'memory';
   figuresThrottleMs: number;
+  /** A link is observed while a report named its peer within this many seconds. */
+  linkObservedWindowS: number;
+  /** A link whose ends have known MACs and that nobody observed for this long is "planned but silent". */
+  linkSilentAfterS: number;
+  /** How long a radio seen moving between nodes stays on the overview and node pages. */
+  radioMoveShowDays: number;
+  /** How long the host recovery link in outage mail stays valid. */
+  recoveryLinkHours: number;
   /** The clock every rule reads; tests replace it. */
   now: () => Date;
 }
@@ -216,6 +228,10 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     partitionDaysAhead: e.PARTITION_DAYS_AHEAD,
     socketAdapter: e.SOCKET_ADAPTER,
     figuresThrottleMs: e.FIGURES_THROTTLE_MS,
+    linkObservedWindowS: e.LINK_OBSERVED_WINDOW_S,
+    linkSilentAfterS: e.LINK_SILENT_AFTER_S,
+    radioMoveShowDays: e.RADIO_MOVE_SHOW_DAYS,
+    recoveryLinkHours: e.RECOVERY_LINK_HOURS,
     now: () => new Date(),
     ...overrides,
   };

@@ -7,6 +7,7 @@ import * as m0006 from './0006-photos-reports';
 import * as m0007 from './0007-topology-outages';
 import * as m0008 from './0008-people';
 import * as m0013 from './0013-terrain-tiles';
+import * as m0015 from './0015-air-and-host-steps';
 
 /** Every migration in order. A new migration is a new file here and one line in this list. */
 export const MIGRATIONS = [
@@ -19,4 +20,5 @@ export const MIGRATIONS = [
   { name: '0007-topology-outages', ...m0007 },
   { name: '0008-people', ...m0008 },
   { name: '0013-terrain-tiles', ...m0013 },
+  { name: '0015-air-and-host-steps', ...m0015 },
 ];
