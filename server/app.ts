@@ -47,6 +47,7 @@ import { exportRoutes } from './routes/exports';
 import { importRoutes } from './routes/imports';
 import { photoRoutes, sitePhotoRoutes } from './routes/photos';
 import { publicStatusRoutes } from './routes/publicStatus';
+import { recoveryRoutes } from './routes/recovery';
 import { reportRoutes } from './routes/reports';
 import { historyRoutes } from './routes/history';
 import { hostPortalRoutes } from './routes/hostPortal';
@@ -118,6 +119,8 @@ export function createApp({ config, sequelize }: AppContext) {
   app.use('/api/v1/heartbeats', heartbeatRoutes(config, sequelize));
   // Links in mail carry their own signature and need no session (nor its CSRF token).
   app.use('/api/v1/mail-links', mailLinkRoutes(config));
+  // The host's recovery page works from the signed link in the outage mail, without signing in.
+  app.use('/api/v1/recovery', recoveryRoutes(config, sequelize));
   // The public status page needs no session; it is computed once per cache period for everyone.
   app.use('/api/v1/public', publicStatusRoutes(config, sequelize));
 
