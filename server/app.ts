@@ -167,7 +167,7 @@ export function createApp({ config, sequelize }: AppContext) {
   api.use('/links', requireUser, linkRoutes());
   api.use('/users/:id', requireUser, personalDataRoutes(config, sequelize));
   api.use('/users', requireUser, userRoutes(config));
-  api.use('/overview', requireUser, overviewRoutes());
+  api.use('/overview', requireUser, overviewRoutes(config));
   // Planning is for operators and admins: others hear 403 before anything about their input.
   api.use('/planning', requireUser, requireRole(mayPlan, 'Planning is for operators and admins.'));
   api.use('/planning/planned-links', requireUser, plannedLinkRoutes(sequelize));

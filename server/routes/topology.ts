@@ -2,8 +2,8 @@ import { Router } from 'express';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { Config } from '../config';
 import { actorOf } from '../middlewares/requireUser';
-import { type Actor, isAdmin } from '../policies/actor';
-import { airView, radioMoves } from '../services/airObservations';
+import { type Actor, isAdmin, mayManage } from '../policies/actor';
+import { airView, maskMove, radioMoves } from '../services/airObservations';
 import { linksWithPrediction } from '../services/topologyGraph';
 
 interface TopoNode {
@@ -53,17 +53,13 @@ export function topologyRoutes(config: Config, sequelize: Sequelize) {
       const a = air.byLink.get(l.id);
       return { ...l, observed: a?.observed ?? false, observedSignalDbm: a?.observedSignalDbm ?? null, lastObservedAt: a?.lastObservedAt ?? null, plannedButSilent: a?.plannedButSilent ?? false };
     });
-    res.json({ data: { nodes, links, discoveredLinks: air.discoveredLinks, radioMoves: moves.map((m) => maskMove(m, ids)) } });
+    const hoodOf = new Map(nodes.map((n) => [n.id, n.neighbourhoodId]));
+    // The map's "add to the inventory" shows only for those who may add a link between the two radios.
+    const discoveredLinks = air.discoveredLinks.map((d) => ({
+      ...d, abilities: { add: mayManage(actor, hoodOf.get(d.nodeAId)!) || mayManage(actor, hoodOf.get(d.nodeBId)!) },
+    }));
+    res.json({ data: { nodes, links, discoveredLinks, radioMoves: moves.map((m) => maskMove(m, ids)) } });
   });
   return router;
 }
 
-/** A radio that came from or went to a node the caller may not read keeps that node's name to itself. */
-export function maskMove<T extends { fromNodeId: number; fromNodeName: string; toNodeId: number; toNodeName: string }>(m: T, readable: number[]): T {
-  const hidden = 'a node outside your neighbourhoods';
-  return {
-    ...m,
-    fromNodeName: readable.includes(m.fromNodeId) ? m.fromNodeName : hidden,
-    toNodeName: readable.includes(m.toNodeId) ? m.toNodeName : hidden,
-  };
-}

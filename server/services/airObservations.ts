@@ -143,3 +143,13 @@ export async function radioMoves(sequelize: Sequelize, since: Date, nodeIds: num
   );
   return rows.map((r) => ({ ...r, at: new Date(r.at).toISOString() }));
 }
+
+/** A radio that came from or went to a node the caller may not read keeps that node's name to itself. */
+export function maskMove<T extends { fromNodeId: number; fromNodeName: string; toNodeId: number; toNodeName: string }>(m: T, readable: number[]): T {
+  const hidden = 'a node outside your neighbourhoods';
+  return {
+    ...m,
+    fromNodeName: readable.includes(m.fromNodeId) ? m.fromNodeName : hidden,
+    toNodeName: readable.includes(m.toNodeId) ? m.toNodeName : hidden,
+  };
+}

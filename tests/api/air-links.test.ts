@@ -67,7 +67,7 @@ describe('radios learn their MAC and links are discovered from reports', () => {
     const before = await topology(s.agent);
     expect(before.links).toEqual([]);
     expect(before.discoveredLinks).toEqual([
-      { nodeAId: s.a.id, nodeBId: s.b.id, radioAId: s.radioA.id, radioBId: s.radioB.id, signalDbm: -64, lastSeenAt: clock.now().toISOString() },
+      { nodeAId: s.a.id, nodeBId: s.b.id, radioAId: s.radioA.id, radioBId: s.radioB.id, signalDbm: -64, lastSeenAt: clock.now().toISOString(), abilities: { add: true } },
     ]);
 
     // The map's "add to the inventory" posts exactly the pair it shows.
