@@ -106,6 +106,12 @@ describe('radios learn their MAC and links are discovered from reports', () => {
     const silent = (await topology(s.agent)).links[0];
     // The last sighting now lies beyond the day Parapet looks back over.
     expect(silent).toMatchObject({ observed: false, observedSignalDbm: null, lastObservedAt: null, plannedButSilent: true });
+    // The overview flags it too, for the operator who looks after either end.
+    const overview = await call(s.agent, 'get', '/api/v1/overview');
+    expect(overview.status).toBe(200);
+    expect(overview.body.data.silentLinks).toEqual([
+      { id: link.body.data.id, name: null, status: 'live', nodeAId: s.a.id, nodeAName: s.a.name, nodeBId: s.b.id, nodeBName: s.b.name, lastObservedAt: null },
+    ]);
   });
 
   it('a MAC that turns up on another node is shown as a moved radio and the old radio forgets it', async () => {
@@ -127,6 +133,9 @@ describe('radios learn their MAC and links are discovered from reports', () => {
     expect(moves).toEqual([
       expect.objectContaining({ mac: MAC_A, fromNodeId: s.a.id, fromNodeName: s.a.name, fromIface: 'wlan0', toNodeId: c.id, toNodeName: c.name, toIface: 'wlan1', at: clock.now().toISOString() }),
     ]);
+
+    const overview = await call(s.agent, 'get', '/api/v1/overview');
+    expect(overview.body.data.radioMoves.map((m: { mac: string; toNodeId: number }) => [m.mac, m.toNodeId])).toContainEqual([MAC_A, c.id]);
 
     // Reported again by the bakery: the move is recorded once.
     await request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${tokenC}`)

@@ -8,11 +8,12 @@ const name = (names: Map<number, string>, id: number) => names.get(id) ?? `node 
  * What the radios' own reports say that the inventory does not: pairs talking with no link listed
  * (one click adds it), listed links nobody has heard for a day, and radios that moved between nodes.
  */
-export function AirFindings({ topology, names }: { topology: Topology; names: Map<number, string> }) {
+export function AirFindings({ topology, names, nodeId }: { topology: Topology; names: Map<number, string>; /** Only what touches this node. */ nodeId?: number }) {
   const add = useAddDiscoveredLink();
-  const discovered = topology.discoveredLinks ?? [];
-  const silent = topology.links.filter((l) => l.plannedButSilent);
-  const moves = topology.radioMoves ?? [];
+  const touches = (a: number, b: number) => nodeId === undefined || a === nodeId || b === nodeId;
+  const discovered = (topology.discoveredLinks ?? []).filter((d) => touches(d.nodeAId, d.nodeBId));
+  const silent = topology.links.filter((l) => l.plannedButSilent && touches(l.nodeAId, l.nodeBId));
+  const moves = (topology.radioMoves ?? []).filter((m) => touches(m.fromNodeId, m.toNodeId));
   if (!discovered.length && !silent.length && !moves.length) return null;
   return (
     <section aria-labelledby="air-title" data-testid="air-findings" className="mt-4 rounded-lg border border-line bg-surface p-3 text-sm">
@@ -46,7 +47,7 @@ export function AirFindings({ topology, names }: { topology: Topology; names: Ma
           <h3 className="mt-3 font-medium">Planned but silent (nobody has named the other end for a day)</h3>
           <ul className="mt-1 list-disc pl-5">
             {silent.map((l) => (
-              <li key={l.id}>{l.name ?? `${name(names, l.nodeAId)} ↔ ${name(names, l.nodeBId)}`}</li>
+              <li key={l.id} data-testid={`silent-link-${l.id}`}>{l.name ?? `${name(names, l.nodeAId)} ↔ ${name(names, l.nodeBId)}`}</li>
             ))}
           </ul>
         </>
@@ -56,7 +57,7 @@ export function AirFindings({ topology, names }: { topology: Topology; names: Ma
           <h3 className="mt-3 font-medium">Radios that moved</h3>
           <ul className="mt-1 list-disc pl-5">
             {moves.map((m) => (
-              <li key={m.id}>
+              <li key={m.id} data-testid={`radio-move-${m.id}`}>
                 <code>{m.mac}</code> was on {m.fromNodeName} ({m.fromIface}), now reports from {m.toNodeName} ({m.toIface}) since {formatDateTime(m.at)}
               </li>
             ))}
