@@ -36,7 +36,7 @@ export interface TopologyLink {
   observed?: boolean;
   observedSignalDbm?: number | null;
   lastObservedAt?: string | null;
-  /** Both ends' MACs known, yet nobody has named either for a day. */
+  /** At least one end's MAC known, yet nobody has named the other end for a day. */
   plannedButSilent?: boolean;
 }
 
