@@ -10,35 +10,43 @@ export interface PairSighting {
   lastSeenAt: Date;
 }
 
-// The latest report per (node, interface, peer) in the window, resolved to inventory radios: the
-// reporter by its node and interface, the peer by the MAC its radio last reported for itself.
-// The time range prunes heartbeat partitions; nothing is written on the report path for this.
+// Per (node, interface, peer) the last time in the window that a report named the peer (a hash
+// aggregate, no sort over the day), with the latest signal from the short observed window only;
+// resolved to inventory radios: the reporter by node and interface, the peer by the MAC its radio
+// last reported for itself. The time range prunes heartbeat partitions; nothing is written on the
+// report path for this.
 const SIGHTINGS_SQL = `
-WITH s AS (
-  SELECT DISTINCT ON (h.node_id, h.iface, lower(h.peer_mac))
-         h.node_id, h.iface, lower(h.peer_mac) AS peer_mac, h.signal_dbm, h.received_at
+WITH day AS (
+  SELECT h.node_id, h.iface, lower(h.peer_mac) AS peer_mac, max(h.received_at) AS at
     FROM heartbeat_radios h
    WHERE h.received_at > $1 AND h.received_at <= $2 AND h.peer_mac IS NOT NULL
      AND ($3::int[] IS NULL OR h.node_id = ANY($3::int[]))
+   GROUP BY 1, 2, 3
+),
+recent AS (
+  SELECT DISTINCT ON (h.node_id, h.iface, lower(h.peer_mac)) h.node_id, h.iface, lower(h.peer_mac) AS peer_mac, h.signal_dbm
+    FROM heartbeat_radios h
+   WHERE h.received_at > $4 AND h.received_at <= $2 AND h.peer_mac IS NOT NULL
+     AND ($3::int[] IS NULL OR h.node_id = ANY($3::int[]))
    ORDER BY h.node_id, h.iface, lower(h.peer_mac), h.received_at DESC
 )
-SELECT DISTINCT ON (r.id, p.id) r.id AS "radioId", r.node_id AS "nodeId", p.id AS "peerRadioId", p.node_id AS "peerNodeId",
-       s.signal_dbm AS "signalDbm", s.received_at AS at
-  FROM s JOIN radios r ON r.node_id = s.node_id AND r.iface = s.iface
-         JOIN radios p ON p.mac = s.peer_mac AND p.node_id <> r.node_id
- ORDER BY r.id, p.id, s.received_at DESC`;
+SELECT r.id AS "radioId", r.node_id AS "nodeId", p.id AS "peerRadioId", p.node_id AS "peerNodeId", rc.signal_dbm AS "signalDbm", d.at
+  FROM day d LEFT JOIN recent rc USING (node_id, iface, peer_mac)
+       JOIN radios r ON r.node_id = d.node_id AND r.iface = d.iface
+       JOIN radios p ON p.mac = d.peer_mac AND p.node_id <> r.node_id`;
 
 const pairKey = (x: number, y: number) => (x < y ? `${x}:${y}` : `${y}:${x}`);
 
 /**
  * Which radio pairs the air shows talking since `since`, keyed by the unordered pair of radio ids.
  * A pair counts when a report from either end names the other end's radio as its peer; its signal is
- * the latest report's. `nodeIds` limits the reporting nodes (null: all).
+ * the latest report's if that came after `signalSince` (else null). `nodeIds` limits the reporting
+ * nodes (null: all).
  */
-export async function pairSightings(sequelize: Sequelize, since: Date, until: Date, nodeIds: number[] | null): Promise<Map<string, PairSighting>> {
+export async function pairSightings(sequelize: Sequelize, since: Date, until: Date, signalSince: Date, nodeIds: number[] | null): Promise<Map<string, PairSighting>> {
   const rows = await sequelize.query<{ radioId: number; nodeId: number; peerRadioId: number; peerNodeId: number; signalDbm: number | null; at: Date }>(
     SIGHTINGS_SQL,
-    { bind: [since, until, nodeIds], type: QueryTypes.SELECT },
+    { bind: [since, until, nodeIds, signalSince], type: QueryTypes.SELECT },
   );
   const pairs = new Map<string, PairSighting>();
   for (const r of rows) {
@@ -93,8 +101,8 @@ export async function inventoryLinks(sequelize: Sequelize, nodeIds: number[] | n
  */
 export async function airView(sequelize: Sequelize, now: Date, windows: AirWindows, nodeIds: number[] | null) {
   const since = new Date(now.getTime() - Math.max(windows.silentAfterS, windows.observedWindowS) * 1000);
-  const [pairs, links] = await Promise.all([pairSightings(sequelize, since, now, nodeIds), inventoryLinks(sequelize, nodeIds)]);
   const observedSince = now.getTime() - windows.observedWindowS * 1000;
+  const [pairs, links] = await Promise.all([pairSightings(sequelize, since, now, new Date(observedSince), nodeIds), inventoryLinks(sequelize, nodeIds)]);
   const silentBefore = now.getTime() - windows.silentAfterS * 1000;
   const byLink = new Map<number, LinkAir>();
   const inventoryPairs = new Set<string>();
