@@ -3,7 +3,11 @@ import { type HostStep, hostStepText } from '../../shared/health/hostSteps';
 import type { TimelineEntryDto } from '../../shared/schemas/outage';
 import { formatDuration } from '../mail/templates/compose';
 import type { Outage } from '../models';
+import { Conflict } from '../errors';
 import { domainEvents } from './events';
+
+/** Enough for any real attempt; a cap keeps a leaked link from filling the timeline. */
+export const MAX_STEPS_PER_OUTAGE = 100;
 
 interface StepRow { at: Date; step: HostStep; note: string | null; byUserId: number | null; byName: string | null; byHost: boolean }
 
@@ -43,6 +47,8 @@ export async function recordHostStep(
   now: Date,
 ): Promise<TimelineEntryDto> {
   const note = input.note ? input.note : null;
+  const [{ n }] = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM outage_host_steps WHERE outage_id = $1', { bind: [o.id], type: QueryTypes.SELECT });
+  if (n >= MAX_STEPS_PER_OUTAGE) throw Conflict(`This outage already has ${MAX_STEPS_PER_OUTAGE} recorded steps. Add anything more as a note, or write to the operators.`);
   await sequelize.query('INSERT INTO outage_host_steps (outage_id, step, note, by_user_id, at) VALUES ($1, $2, $3, $4, $5)', {
     bind: [o.id, input.step, note, by.id, now],
   });

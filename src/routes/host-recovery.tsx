@@ -17,11 +17,14 @@ function lastHeard(page: RecoveryDto, liveAt: string | null): string | null {
   return loaded;
 }
 
+/** "12 s ago" while it is fresh, then minutes and hours, so a page opened later still reads plainly. */
+const ago = (seconds: number) => (seconds < 120 ? `${seconds} s ago` : seconds < 7200 ? `${Math.round(seconds / 60)} min ago` : `${Math.round(seconds / 3600)} h ago`);
+
 function BackBanner({ at }: { at: string }) {
-  const seconds = useSecondsSince(at);
+  const seconds = useSecondsSince(at) ?? 0;
   return (
     <div role="status" data-testid="recovery-back" className="rounded-lg border-2 border-state-online bg-surface px-4 py-4 text-xl font-semibold">
-      We heard from your node {seconds} s ago: it is back.
+      We heard from your node {ago(seconds)}: it is back.
       <p className="mt-2 text-base font-normal">Thank you. Nothing more is needed; you can close this page.</p>
     </div>
   );

@@ -76,6 +76,13 @@ describe('host recovery steps on an outage', () => {
     const byOperator = await call(await signIn(ctx, s.operator), 'post', url, { step: 'other', note: 'Phoned Ada: the mains breaker had tripped' });
     expect(byOperator.status).toBe(201);
 
+    // A cap keeps a leaked link from filling the timeline.
+    await ctx.sequelize.query(`INSERT INTO outage_host_steps (outage_id, step, by_user_id, at) SELECT $1, 'other', $2, $3 FROM generate_series(1, 98)`, { bind: [s.outage.id, s.host.id, clock.now()] });
+    const capped = await call(host, 'post', url, { step: 'checked-power' });
+    expect(capped.status).toBe(409);
+    expect(capped.body.error.message).toMatch(/already has 100 recorded steps/);
+    await ctx.sequelize.query(`DELETE FROM outage_host_steps WHERE outage_id = $1 AND note IS NULL AND step = 'other'`, { bind: [s.outage.id] });
+
     const detail = await call(await signIn(ctx, s.operator), 'get', `/api/v1/outages/${s.outage.id}`);
     expect(detail.status).toBe(200);
     expect(detail.body.data.abilities.recordHostStep).toBe(true);
