@@ -48,6 +48,7 @@ import { exportRoutes } from './routes/exports';
 import { importRoutes } from './routes/imports';
 import { photoRoutes, sitePhotoRoutes } from './routes/photos';
 import { publicStatusRoutes } from './routes/publicStatus';
+import { recoveryRoutes } from './routes/recovery';
 import { reportRoutes } from './routes/reports';
 import { historyRoutes } from './routes/history';
 import { hostPortalRoutes } from './routes/hostPortal';
@@ -128,6 +129,8 @@ export function createApp({ config, sequelize, databaseWatch }: AppContext) {
   app.use('/api/v1/heartbeats', heartbeatRoutes(config, sequelize));
   // Links in mail carry their own signature and need no session (nor its CSRF token).
   app.use('/api/v1/mail-links', mailLinkRoutes(config));
+  // The host's recovery page works from the signed link in the outage mail, without signing in.
+  app.use('/api/v1/recovery', recoveryRoutes(config, sequelize));
   // The public status page needs no session; it is computed once per cache period for everyone.
   app.use('/api/v1/public', publicStatusRoutes(config, sequelize));
 
@@ -168,13 +171,13 @@ export function createApp({ config, sequelize, databaseWatch }: AppContext) {
   api.use('/me/nodes', requireUser, hostPortalRoutes(config, sequelize));
   api.use('/me', requireUser, meRoutes(sequelize, config));
   api.use('/mail-inbox', requireUser, mailInboxRoutes(config));
-  api.use('/topology', requireUser, topologyRoutes(sequelize));
+  api.use('/topology', requireUser, topologyRoutes(config, sequelize));
   api.use('/radios', requireUser, radioRoutes());
   api.use('/links/:id/health', requireUser, linkHealthRoutes(config, sequelize));
   api.use('/links', requireUser, linkRoutes());
   api.use('/users/:id', requireUser, personalDataRoutes(config, sequelize));
   api.use('/users', requireUser, userRoutes(config));
-  api.use('/overview', requireUser, overviewRoutes());
+  api.use('/overview', requireUser, overviewRoutes(config));
   // Planning is for operators and admins: others hear 403 before anything about their input.
   api.use('/planning', requireUser, requireRole(mayPlan, 'Planning is for operators and admins.'));
   api.use('/planning/planned-links', requireUser, plannedLinkRoutes(sequelize));

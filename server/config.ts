@@ -67,6 +67,10 @@ const envSchema = z.object({
   FIGURES_THROTTLE_MS: z.coerce.number().int().min(0).default(2000),
   DATABASE_PROBE_INTERVAL_MS: z.coerce.number().int().min(50).max(60_000).default(1000),
   OUTAGE_MAIL_RETRY_MAX_MS: z.coerce.number().int().min(0).max(60_000).default(30_000),
+  LINK_OBSERVED_WINDOW_S: z.coerce.number().int().min(1).max(86_400).default(15 * 60),
+  LINK_SILENT_AFTER_S: z.coerce.number().int().min(60).max(30 * 86_400).default(86_400),
+  RADIO_MOVE_SHOW_DAYS: z.coerce.number().int().min(1).max(365).default(7),
+  RECOVERY_LINK_HOURS: z.coerce.number().int().min(1).max(14 * 24).default(48),
 });
 
 export interface Config {
@@ -149,6 +153,14 @@ export interface Config {
   databaseProbeIntervalMs: number;
   /** Longest wait between tries of an outage mail (other mail backs off up to six hours). */
   outageMailRetryMaxMs: number;
+  /** A link is observed while a report named its peer within this many seconds. */
+  linkObservedWindowS: number;
+  /** A link whose ends have known MACs and that nobody observed for this long is "planned but silent". */
+  linkSilentAfterS: number;
+  /** How long a radio seen moving between nodes stays on the overview and node pages. */
+  radioMoveShowDays: number;
+  /** How long the host recovery link in outage mail stays valid. */
+  recoveryLinkHours: number;
   /** The clock every rule reads; tests replace it. */
   now: () => Date;
 }
@@ -224,6 +236,10 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     figuresThrottleMs: e.FIGURES_THROTTLE_MS,
     databaseProbeIntervalMs: e.DATABASE_PROBE_INTERVAL_MS,
     outageMailRetryMaxMs: e.OUTAGE_MAIL_RETRY_MAX_MS,
+    linkObservedWindowS: e.LINK_OBSERVED_WINDOW_S,
+    linkSilentAfterS: e.LINK_SILENT_AFTER_S,
+    radioMoveShowDays: e.RADIO_MOVE_SHOW_DAYS,
+    recoveryLinkHours: e.RECOVERY_LINK_HOURS,
     now: () => new Date(),
     ...overrides,
   };

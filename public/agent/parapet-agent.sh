@@ -12,6 +12,7 @@
 #   access point: clients = associated stations; signalDbm, txRateMbps, rxRateMbps are
 #     those of the WEAKEST station (the one that needs attention); no peerMac.
 #   client (managed) or mesh: peerMac, signal and rates of the peer (weakest if several).
+#   every radio: mac, its own address from `iw dev`, so Parapet can tell which radios talk.
 # A figure that cannot be read is left out, never guessed.
 
 set -u
@@ -168,6 +169,7 @@ build_report() {
   /^@@fail/ { stafail[cur] = 1; next }
   sec == "dev" && $1 == "Interface" { cur = $2; order[++nif] = cur; next }
   sec == "dev" && $1 == "ssid" { s = $0; sub(/^[ \t]*ssid /, "", s); ssid[cur] = s; next }
+  sec == "dev" && $1 == "addr" { addr[cur] = $2; next }
   sec == "dev" && $1 == "type" { s = $0; sub(/^[ \t]*type /, "", s); type[cur] = s; next }
   sec == "dev" && $1 == "channel" {
     chan[cur] = $2
@@ -189,6 +191,7 @@ build_report() {
       if (chan[i] ~ /^[0-9]+$/) o = o ",\"channel\":" chan[i]
       if (width[i] ~ /^[0-9]+$/) o = o ",\"channelWidthMHz\":" width[i]
       if (i in ssid) o = o ",\"ssid\":\"" jstr(ssid[i], 1) "\""
+      if (length(addr[i]) == 17 && addr[i] ~ /^[0-9a-fA-F:]+$/) o = o ",\"mac\":\"" tolower(addr[i]) "\""
       w = (nsta[i] > 0) ? 1 : 0          # the station to report: the weakest signal
       for (k = 2; k <= nsta[i]; k++)
         if (isnum(sig[i, k]) && (!isnum(sig[i, w]) || sig[i, k] + 0 < sig[i, w] + 0)) w = k

@@ -1,17 +1,17 @@
 import { createHmac, hkdfSync, timingSafeEqual } from 'node:crypto';
 import { ApiError } from '../errors';
 
-export type LinkPurpose = 'acknowledge' | 'preferences' | 'unsubscribe';
+export type LinkPurpose = 'acknowledge' | 'preferences' | 'unsubscribe' | 'recover';
 export interface LinkClaims {
   purpose: LinkPurpose;
   userId: number;
-  /** The outage an acknowledge link is for; 0 when the purpose needs none. */
+  /** The outage an acknowledge or recover link is for; 0 when the purpose needs none. */
   outageId: number;
   expiresAtS: number;
 }
 
-const PURPOSES: readonly LinkPurpose[] = ['acknowledge', 'preferences', 'unsubscribe'];
-const TOKEN = /^(acknowledge|preferences|unsubscribe)\.(\d{1,10})\.(\d{1,10})\.(\d{1,12})\.([A-Za-z0-9_-]{43})$/;
+const PURPOSES: readonly LinkPurpose[] = ['acknowledge', 'preferences', 'unsubscribe', 'recover'];
+const TOKEN = /^(acknowledge|preferences|unsubscribe|recover)\.(\d{1,10})\.(\d{1,10})\.(\d{1,12})\.([A-Za-z0-9_-]{43})$/;
 
 // A key of its own, derived from the session secret, so a leaked link key never signs sessions (RFC 5869).
 const keyFor = (secret: string) => Buffer.from(hkdfSync('sha256', secret, 'parapet-mail-links', 'signed-link-v1', 32));
@@ -40,3 +40,13 @@ export function verifyLink(secret: string, token: unknown, purpose: LinkPurpose,
 
 const badLink = () =>
   new ApiError(400, 'bad_link', 'This link is damaged or was changed, so Parapet cannot trust it. Copy the whole link from the e-mail, or sign in to Parapet instead.');
+
+/** Whether `token` is a genuine, unexpired link for `purpose` (for checks that answer yes or no, like a socket handshake). */
+export function isGenuineLink(secret: string, token: unknown, purpose: LinkPurpose, now: Date): boolean {
+  const m = typeof token === 'string' ? TOKEN.exec(token) : null;
+  if (!m || m[1] !== purpose) return false;
+  const claims: LinkClaims = { purpose, userId: Number(m[2]), outageId: Number(m[3]), expiresAtS: Number(m[4]) };
+  const given = Buffer.from(m[5]);
+  const expected = Buffer.from(mac(secret, claims));
+  return given.length === expected.length && timingSafeEqual(given, expected) && claims.expiresAtS * 1000 > now.getTime();
+}

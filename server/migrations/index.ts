@@ -8,6 +8,7 @@ import * as m0007 from './0007-topology-outages';
 import * as m0008 from './0008-people';
 import * as m0010 from './0010-boot-ids';
 import * as m0013 from './0013-terrain-tiles';
+import * as m0015 from './0015-air-and-host-steps';
 
 /** Every migration in order. A new migration is a new file here and one line in this list. */
 export const MIGRATIONS = [
@@ -21,4 +22,5 @@ export const MIGRATIONS = [
   { name: '0008-people', ...m0008 },
   { name: '0010-boot-ids', ...m0010 },
   { name: '0013-terrain-tiles', ...m0013 },
+  { name: '0015-air-and-host-steps', ...m0015 },
 ];

@@ -18,6 +18,9 @@ export class Radio extends Model<InferAttributes<Radio>, InferCreationAttributes
   declare encryption: Encryption;
   declare preSharedKey: CreationOptional<string | null>;
   declare groupRekeyS: CreationOptional<number>;
+  /** The radio's own MAC as its node last reported it; learned from reports, never typed in. */
+  declare mac: CreationOptional<string | null>;
+  declare macReportedAt: CreationOptional<Date | null>;
   declare createdAt: CreationOptional<Date>;
   declare updatedAt: CreationOptional<Date>;
   declare node?: NonAttribute<Node>;
@@ -40,6 +43,8 @@ export class Radio extends Model<InferAttributes<Radio>, InferCreationAttributes
         encryption: { type: DataTypes.TEXT, allowNull: false },
         preSharedKey: { type: DataTypes.TEXT },
         groupRekeyS: { type: DataTypes.INTEGER, allowNull: false, defaultValue: 600 },
+        mac: { type: DataTypes.TEXT },
+        macReportedAt: { type: DataTypes.DATE, field: 'mac_reported_at' },
         createdAt: DataTypes.DATE,
         updatedAt: DataTypes.DATE,
       },

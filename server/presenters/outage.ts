@@ -1,6 +1,6 @@
 import type { BlastRadiusDto, OutageDto } from '../../shared/schemas/outage';
 import type { Outage } from '../models';
-import { type Actor, mayManage } from '../policies/actor';
+import { type Actor, isHostOfNode, mayManage } from '../policies/actor';
 import { iso } from './common';
 
 const NO_BLAST: BlastRadiusDto = { nodeCount: 0, neighbourhoodIds: [], clients: 0, nodeIds: [] };
@@ -20,6 +20,6 @@ export function presentOutage(o: Outage, actor: Actor, now: Date, blast?: BlastR
     acknowledgedBy: o.acknowledger ? { id: o.acknowledger.id, name: o.acknowledger.name } : null,
     notes: o.notes ?? null,
     blastRadius: blast ?? { ...NO_BLAST, nodeCount: o.blastNodeCount ?? 0, clients: o.blastClients ?? 0 },
-    abilities: { acknowledge: manage && !o.acknowledgedAt && !o.endedAt, annotate: manage },
+    abilities: { acknowledge: manage && !o.acknowledgedAt && !o.endedAt, annotate: manage, recordHostStep: manage || isHostOfNode(actor, node) },
   };
 }

@@ -22,6 +22,8 @@ export function presentRadio(r: Radio, neighbourhoodId: number, actor: Actor): R
     encryption: r.encryption,
     hasPreSharedKey: Boolean(r.preSharedKey),
     groupRekeyS: r.groupRekeyS,
+    mac: r.mac ?? null,
+    macReportedAt: iso(r.macReportedAt ?? null),
     createdAt: iso(r.createdAt)!,
     updatedAt: iso(r.updatedAt)!,
     abilities: { update: manage, delete: manage },

@@ -5,7 +5,11 @@ import type passport from 'passport';
 import pg from 'pg';
 import { Server } from 'socket.io';
 import type { Config } from '../config';
-import { domainEvents, type AccessChangedEvent, type NodeFiguresEvent } from '../services/events';
+import { isGenuineLink } from '../mail/signedLinks';
+import { Node } from '../models';
+import type { Actor } from '../policies/actor';
+import { domainEvents, type AccessChangedEvent, type NodeFiguresEvent, type OutageTimelineEvent } from '../services/events';
+import { recoveryContext } from '../services/hostRecovery';
 import { admit, refreshRooms, sameOrigin } from './access';
 import { type DatabaseWatch, guardPool } from '../db/availability';
 
@@ -40,6 +44,9 @@ export function roomsFor(e: { neighbourhoodId: number; hostUserId: number | null
   return rooms;
 }
 
+/** The rooms of an event about a node, plus the room of recovery pages open for that node. */
+const withRecovery = (e: { nodeId: number; neighbourhoodId: number; hostUserId: number | null }) => [...roomsFor(e), `recovery:${e.nodeId}`];
+
 type EngineMiddleware = (req: Request & { _query?: Record<string, string> }, res: Response, next: NextFunction) => void;
 const onlyForHandshake = (mw: RequestHandler): EngineMiddleware => (req, res, next) =>
   req._query?.sid === undefined ? (mw(req, res, next) as void) : next();
@@ -63,21 +70,37 @@ export function createRealtime(server: http.Server, config: Config, session: Req
   io.engine.use(
     onlyForHandshake((req, res, next) => {
       if (req.user) return next();
+      // The host's recovery page has no session: its signed link admits it to one node's room.
+      if (isGenuineLink(config.sessionSecret, (req as { _query?: Record<string, string> })._query?.recovery, 'recover', config.now())) return next();
       res.writeHead(401, { 'content-type': 'application/json' });
       res.end(JSON.stringify({ error: { code: 'not_signed_in', message: 'Sign in to receive live updates.' } }));
     }),
   );
 
-  io.on('connection', (socket) => admit(socket, config));
+  io.on('connection', (socket) => {
+    const actor = (socket.request as Request).user as Actor | undefined;
+    if (actor) admit(socket, config);
+    const recovery = socket.handshake.query.recovery;
+    if (typeof recovery === 'string') {
+      // The host's recovery page: checked again in full (person active, still the host, outage recorded) before joining.
+      recoveryContext(Node.sequelize!, config, recovery)
+        .then((ctx) => socket.join(`recovery:${ctx.nodeId}`))
+        .catch(() => socket.disconnect(true));
+    } else if (!actor) {
+      socket.disconnect(true);
+    }
+  });
   // Assignments, roles and deactivation take effect on open sockets at once, on every instance.
   const onAccess = (e: AccessChangedEvent) =>
     void refreshRooms(io, e.userIds).catch((err: Error) => console.error('could not refresh live-update rooms:', err.message));
 
-  const onState = (e: Parameters<typeof roomsFor>[0] & object) => io.to(roomsFor(e)).emit('node:state', e);
-  const onOutage = (e: Parameters<typeof roomsFor>[0] & object) => io.to(roomsFor(e)).emit('outage', e);
-  const figures = throttledFigures(config.figuresThrottleMs, (e) => io.to(roomsFor(e)).emit('node:figures', e));
+  const onState = (e: Parameters<typeof roomsFor>[0] & { nodeId: number }) => io.to(withRecovery(e)).emit('node:state', e);
+  const onOutage = (e: Parameters<typeof roomsFor>[0] & { nodeId: number }) => io.to(withRecovery(e)).emit('outage', e);
+  const onTimeline = (e: OutageTimelineEvent) => io.to(withRecovery(e)).emit('outage:timeline', e);
+  const figures = throttledFigures(config.figuresThrottleMs, (e) => io.to(withRecovery(e)).emit('node:figures', e));
   domainEvents.on('node-state', onState);
   domainEvents.on('outage', onOutage);
+  domainEvents.on('outage-timeline', onTimeline);
   domainEvents.on('node-figures', figures.push);
   domainEvents.on('access-changed', onAccess);
 
@@ -86,6 +109,7 @@ export function createRealtime(server: http.Server, config: Config, session: Req
     close: async () => {
       domainEvents.off('node-state', onState);
       domainEvents.off('outage', onOutage);
+      domainEvents.off('outage-timeline', onTimeline);
       domainEvents.off('node-figures', figures.push);
       domainEvents.off('access-changed', onAccess);
       figures.stop();

@@ -1,19 +1,20 @@
 import { Router } from 'express';
 import { Op, type WhereOptions } from 'sequelize';
 import { idParamsSchema } from '../../shared/schemas/common';
-import { outageListQuerySchema, outageNotesSchema } from '../../shared/schemas/outage';
+import { hostStepSchema, outageListQuerySchema, outageNotesSchema } from '../../shared/schemas/outage';
 import type { Sequelize } from 'sequelize';
 import type { Config } from '../config';
 import { NotFound } from '../errors';
 import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
-import { Node, Outage, User } from '../models';
-import { type Actor, mayManage } from '../policies/actor';
+import { Node, Outage, Site, User } from '../models';
+import { type Actor, isHostOfNode, mayManage } from '../policies/actor';
 import { authorize } from '../policies/authorize';
 import { nodeScope } from '../policies/node';
 import { presentOutage } from '../presenters/outage';
 import { blastRadii } from '../services/blastRadius';
 import { listPage } from '../services/listing';
+import { recordHostStep, timelineOf } from '../services/outageTimeline';
 
 const include = (actor: Actor, nodeWhere: WhereOptions = {}) => [
   { model: Node, as: 'node', required: true, where: { [Op.and]: [nodeScope(actor), nodeWhere] } },
@@ -52,7 +53,19 @@ export function outageRoutes(config: Config, sequelize: Sequelize) {
 
   router.get('/:id', validate('params', idParamsSchema), async (req, res) => {
     const actor = actorOf(req);
-    res.json({ data: await present(await readableOutage(actor, res.locals.params.id), actor) });
+    const outage = await readableOutage(actor, res.locals.params.id);
+    res.json({ data: { ...(await present(outage, actor)), timeline: await timelineOf(sequelize, outage) } });
+  });
+
+  // The site's host (and the operators in scope) record what they did; operators see it at once.
+  router.post('/:id/host-steps', validate('params', idParamsSchema), validate('body', hostStepSchema), async (req, res) => {
+    const actor = actorOf(req);
+    const outage = await readableOutage(actor, res.locals.params.id);
+    const node = outage.node!;
+    authorize(mayManage(actor, node.neighbourhoodId) || isHostOfNode(actor, node), 'Only the host of this node’s site and its operators record steps taken during this outage.');
+    const hostUserId = (await Site.findByPk(node.siteId, { attributes: ['hostUserId'] }))?.hostUserId ?? null;
+    const entry = await recordHostStep(sequelize, outage, actor, res.locals.body, hostUserId, config.now());
+    res.status(201).json({ data: entry });
   });
 
   router.post('/:id/acknowledge', validate('params', idParamsSchema), async (req, res) => {

@@ -6,6 +6,9 @@ import { Neighbourhood, Node, Outage, Site } from '../models';
 import { neighbourhoodScope } from '../policies/neighbourhood';
 import { nodeScope } from '../policies/node';
 import { siteScope } from '../policies/site';
+import type { Config } from '../config';
+import { isAdmin } from '../policies/actor';
+import { airView, maskMove, radioMoves } from '../services/airObservations';
 import { linksWithPrediction } from '../services/topologyGraph';
 
 const sequelizeJsonNotEmpty = () => literal("jsonb_array_length(coalesce(\"Node\".\"drift\", '[]'::jsonb)) > 0");
@@ -25,8 +28,26 @@ async function weakest(actor: Parameters<typeof nodeScope>[0]) {
     }));
 }
 
+/** What the air says for the overview: links listed but unheard for a day, pairs heard but unlisted, radios that moved. */
+async function airFindings(config: Config, actor: Parameters<typeof nodeScope>[0]) {
+  const nodes = await Node.findAll({ where: nodeScope(actor), attributes: ['id', 'name'] });
+  const ids = nodes.map((n) => n.id);
+  const names = new Map(nodes.map((n) => [n.id, n.name]));
+  const now = config.now();
+  const scope = isAdmin(actor) ? null : ids;
+  const [air, moves, links] = await Promise.all([
+    airView(Node.sequelize!, now, { observedWindowS: config.linkObservedWindowS, silentAfterS: config.linkSilentAfterS }, scope),
+    radioMoves(Node.sequelize!, new Date(now.getTime() - config.radioMoveShowDays * 86_400_000), scope, 20),
+    linksWithPrediction(Node.sequelize!, ids),
+  ]);
+  const silentLinks = links
+    .filter((l) => air.byLink.get(l.id)?.plannedButSilent)
+    .map((l) => ({ id: l.id, name: l.name, status: l.status, nodeAId: l.nodeAId, nodeAName: names.get(l.nodeAId)!, nodeBId: l.nodeBId, nodeBName: names.get(l.nodeBId)!, lastObservedAt: air.byLink.get(l.id)!.lastObservedAt }));
+  return { silentLinks, discoveredLinkCount: air.discoveredLinks.length, radioMoves: moves.map((m) => maskMove(m, ids)) };
+}
+
 /** Counts by state, open outages (widest blast radius first) and drifting nodes, over what the caller may read. */
-export function overviewRoutes() {
+export function overviewRoutes(config: Config) {
   const router = Router();
   router.get('/', async (req, res) => {
     const actor = actorOf(req);
@@ -45,7 +66,8 @@ export function overviewRoutes() {
     const openOutages = open.map((o) => ({ id: o.id, nodeId: o.nodeId, nodeName: o.node!.name, neighbourhoodId: o.node!.neighbourhoodId, startedAt: o.startedAt.toISOString(), acknowledged: Boolean(o.acknowledgedAt), blastNodeCount: o.blastNodeCount, blastClients: o.blastClients }));
     const driftNodes = drifting.map((n) => ({ id: n.id, name: n.name, drift: n.drift ?? [] }));
     const weakestLinks = actor.role === 'host' ? [] : await weakest(actor);
-    res.json({ data: { countsByState, nodeCount, siteCount, neighbourhoodCount, openOutages, driftNodes, weakestLinks } });
+    const air = actor.role === 'host' ? { silentLinks: [], discoveredLinkCount: 0, radioMoves: [] } : await airFindings(config, actor);
+    res.json({ data: { countsByState, nodeCount, siteCount, neighbourhoodCount, openOutages, driftNodes, weakestLinks, ...air } });
   });
   return router;
 }

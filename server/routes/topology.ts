@@ -1,7 +1,9 @@
 import { Router } from 'express';
 import { QueryTypes, type Sequelize } from 'sequelize';
+import type { Config } from '../config';
 import { actorOf } from '../middlewares/requireUser';
-import { type Actor, isAdmin } from '../policies/actor';
+import { type Actor, isAdmin, mayManage } from '../policies/actor';
+import { airView, maskMove, radioMoves } from '../services/airObservations';
 import { linksWithPrediction } from '../services/topologyGraph';
 
 interface TopoNode {
@@ -19,8 +21,12 @@ function scopeSql(actor: Actor) {
   return { sql: '(n.neighbourhood_id = ANY($1::int[]) OR n.site_id = ANY($2::int[]))', bind: [actor.role === 'operator' ? actor.neighbourhoodIds : [], actor.hostedSiteIds] };
 }
 
-/** The graph: nodes at their sites' coordinates, links with predicted margin and capacity, both ends readable. */
-export function topologyRoutes(sequelize: Sequelize) {
+/**
+ * The graph: nodes at their sites' coordinates, links with predicted margin and capacity and what
+ * the air says about them, both ends readable; pairs the air shows but the inventory lacks; radios
+ * seen moving between nodes.
+ */
+export function topologyRoutes(config: Config, sequelize: Sequelize) {
   const router = Router();
   router.get('/', async (req, res) => {
     const actor = actorOf(req);
@@ -35,8 +41,25 @@ export function topologyRoutes(sequelize: Sequelize) {
         WHERE ${scope.sql} ORDER BY n.id`,
       { bind: scope.bind, type: QueryTypes.SELECT },
     );
-    const links = await linksWithPrediction(sequelize, nodes.map((n) => n.id));
-    res.json({ data: { nodes, links } });
+    const ids = nodes.map((n) => n.id);
+    const now = config.now();
+    const windows = { observedWindowS: config.linkObservedWindowS, silentAfterS: config.linkSilentAfterS };
+    const [predicted, air, moves] = await Promise.all([
+      linksWithPrediction(sequelize, ids),
+      airView(sequelize, now, windows, isAdmin(actor) ? null : ids),
+      radioMoves(sequelize, new Date(now.getTime() - config.radioMoveShowDays * 86_400_000), isAdmin(actor) ? null : ids),
+    ]);
+    const links = predicted.map((l) => {
+      const a = air.byLink.get(l.id);
+      return { ...l, observed: a?.observed ?? false, observedSignalDbm: a?.observedSignalDbm ?? null, lastObservedAt: a?.lastObservedAt ?? null, plannedButSilent: a?.plannedButSilent ?? false };
+    });
+    const hoodOf = new Map(nodes.map((n) => [n.id, n.neighbourhoodId]));
+    // The map's "add to the inventory" shows only for those who may add a link between the two radios.
+    const discoveredLinks = air.discoveredLinks.map((d) => ({
+      ...d, abilities: { add: mayManage(actor, hoodOf.get(d.nodeAId)!) || mayManage(actor, hoodOf.get(d.nodeBId)!) },
+    }));
+    res.json({ data: { nodes, links, discoveredLinks, radioMoves: moves.map((m) => maskMove(m, ids)) } });
   });
   return router;
 }
+

@@ -110,3 +110,10 @@ export const footerLinks = (config: Config, userId: number, now: Date): FooterLi
 export const acknowledgeUrl = (config: Config, userId: number, outageId: number, now: Date) => signedUrl(config, 'acknowledge', userId, outageId, now);
 export const nodeUrl = (config: Config, nodeId: number) => `${config.publicUrl.replace(/\/$/, '')}/nodes/${nodeId}`;
 export const consoleUrl = (config: Config) => `${config.publicUrl.replace(/\/$/, '')}/`;
+
+/** The host's phone page for one outage: a short-lived link that works without a password. */
+export function recoveryUrl(config: Config, userId: number, outageId: number, now: Date) {
+  const expiresAtS = Math.floor(now.getTime() / 1000) + config.recoveryLinkHours * 3600;
+  const token = signLink(config.sessionSecret, { purpose: 'recover', userId, outageId, expiresAtS });
+  return `${config.publicUrl.replace(/\/$/, '')}/recover?t=${token}`;
+}

@@ -5,7 +5,7 @@ import { quietUntil } from '../mail/quietHours';
 import { mailConfig } from '../mail/settings';
 import { hostOffline, hostOnline } from '../mail/templates/host';
 import { type BehindFacts, flapSummary, operatorOffline, operatorOnline, operatorReminder, type OperatorFacts } from '../mail/templates/operator';
-import { acknowledgeUrl, footerLinks, type NodeContext, nodeAudience, nodeContext, nodeUrl, type Recipient } from './alertAudience';
+import { acknowledgeUrl, footerLinks, type NodeContext, nodeAudience, nodeContext, nodeUrl, type Recipient, recoveryUrl } from './alertAudience';
 import { behindForMail } from './blastRadius';
 import { enqueue, type OutboxKind } from './outbox';
 import { writeUpstreamNotices } from './upstreamNotices';
@@ -74,7 +74,9 @@ async function writeFor(sequelize: Sequelize, config: Config, kind: OutboxKind, 
     flap.verdict === 'summary'
       ? flapSummary({ nodeName: ctx.nodeName, neighbourhoodName: ctx.neighbourhoodName, nodeUrl: nodeUrl(config, ctx.nodeId), changes: flap.changes, stateNow: kind === 'node-online' ? 'back online' : 'offline' }, footer)
       : r.audience === 'host'
-        ? kind === 'node-online' ? hostOnline({ ...hostFacts(ctx, r, since), downForS, until }, footer) : hostOffline(hostFacts(ctx, r, since), footer)
+        ? kind === 'node-online'
+          ? hostOnline({ ...hostFacts(ctx, r, since), downForS, until }, footer)
+          : hostOffline({ ...hostFacts(ctx, r, since), recoveryUrl: recoveryUrl(config, r.userId, outage.id, now) }, footer)
         : kind === 'node-online'
           ? operatorOnline({ ...operatorFacts(config, ctx, r, since, null), downForS, until }, footer)
           : operatorOffline(operatorFacts(config, ctx, r, since, r.behindOnly ? null : acknowledgeUrl(config, r.userId, outage.id, now)), footer);

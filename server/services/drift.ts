@@ -7,15 +7,15 @@ export interface DriftItem {
   reported: string | number | null;
 }
 
-interface InventoryRadio { iface: string; channel: number; channelWidthMHz: number; ssid: string | null }
+export interface InventoryRadio { id: number; iface: string; channel: number; channelWidthMHz: number; ssid: string | null; mac: string | null }
 const cache = new Map<number, { at: number; radios: InventoryRadio[] }>();
 const CACHE_MS = 30_000;
 
-async function inventoryRadios(sequelize: Sequelize, nodeId: number): Promise<InventoryRadio[]> {
+export async function inventoryRadios(sequelize: Sequelize, nodeId: number): Promise<InventoryRadio[]> {
   const hit = cache.get(nodeId);
   if (hit && Date.now() - hit.at < CACHE_MS) return hit.radios;
   const radios = await sequelize.query<InventoryRadio>(
-    'SELECT iface, channel, channel_width_mhz AS "channelWidthMHz", ssid FROM radios WHERE node_id = $1',
+    'SELECT id, iface, channel, channel_width_mhz AS "channelWidthMHz", ssid, mac FROM radios WHERE node_id = $1',
     { bind: [nodeId], type: QueryTypes.SELECT },
   );
   cache.set(nodeId, { at: Date.now(), radios });

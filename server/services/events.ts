@@ -1,7 +1,7 @@
 import { EventEmitter } from 'node:events';
-import type { NodeFiguresEvent, NodeStateEvent, OutageEvent } from '../../shared/schemas/realtime';
+import type { NodeFiguresEvent, NodeStateEvent, OutageEvent, OutageTimelineEvent } from '../../shared/schemas/realtime';
 
-export type { NodeFiguresEvent, NodeStateEvent, OutageEvent };
+export type { NodeFiguresEvent, NodeStateEvent, OutageEvent, OutageTimelineEvent };
 
 /** People whose role, assignments or active flag changed; emitted after commit. */
 export interface AccessChangedEvent {
@@ -13,6 +13,7 @@ interface EventMap {
   'node-state': [NodeStateEvent];
   'node-figures': [NodeFiguresEvent];
   outage: [OutageEvent];
+  'outage-timeline': [OutageTimelineEvent];
 }
 
 /** In-process bus, emitted after commit; every instance's realtime layer listens to its own bus. */

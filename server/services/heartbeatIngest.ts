@@ -7,6 +7,7 @@ import { driftOf } from './drift';
 import { domainEvents } from './events';
 import type { TokenNode } from './ingestTokens';
 import { emitTransition, recordTransition } from './nodeHealth';
+import { rememberMacs } from './radioMacs';
 import { thresholdsFor } from './thresholds';
 
 // One statement stores the batch and moves the node: new (node, boot id, seq) triples claim a row
@@ -159,6 +160,8 @@ export async function ingestReports(sequelize: Sequelize, node: TokenNode, repor
   }
 
   if (outcome.events) emitTransition(outcome.events);
+  // Only the newest report says which MAC a radio has now; cached, so it writes only on a change.
+  if (outcome.advances) await rememberMacs(sequelize, node.nodeId, newest, now);
   if (outcome.advances) {
     domainEvents.emit('node-figures', {
       nodeId: node.nodeId, neighbourhoodId: node.neighbourhoodId, hostUserId: node.hostUserId, at: now.toISOString(),

@@ -3,7 +3,7 @@ import type { Config } from '../config';
 import { quietUntil } from '../mail/quietHours';
 import { mailConfig } from '../mail/settings';
 import { hostUpstream, partitionNotice } from '../mail/templates/upstream';
-import { consoleUrl, footerLinks, nodeAudience } from './alertAudience';
+import { consoleUrl, footerLinks, nodeAudience, recoveryUrl } from './alertAudience';
 import { enqueue } from './outbox';
 
 interface HostRow { userId: number; name: string; email: string; nodeName: string; siteName: string; quietStart: string | null; quietEnd: string | null; timeZone: string | null }
@@ -34,7 +34,7 @@ export async function writeUpstreamNotices(sequelize: Sequelize, config: Config,
     if (told.has(h.userId)) continue;
     const timeZone = h.timeZone ?? 'UTC';
     const footer = footerLinks(config, h.userId, now);
-    const rendered = hostUpstream({ recipientName: h.name, nodeName: h.nodeName, siteName: h.siteName, since: new Date(outage.startedAt), timeZone }, footer);
+    const rendered = hostUpstream({ recipientName: h.name, nodeName: h.nodeName, siteName: h.siteName, since: new Date(outage.startedAt), timeZone, recoveryUrl: recoveryUrl(config, h.userId, outageId, now) }, footer);
     if (await enqueue(sequelize, {
       kind: 'upstream-notice', userId: h.userId, address: h.email, name: h.name, outageId, dedupeKey: `upstream:${outageId}:${h.userId}`,
       rendered, unsubscribeUrl: footer.unsubscribeUrl, notBefore: quietUntil(now, timeZone, h.quietStart, h.quietEnd),

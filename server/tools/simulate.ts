@@ -16,9 +16,16 @@ const FLAKY_EVERY_S = 25 * 60;
 const FLAKY_DOWN_S = 5 * 60;
 
 interface TopologyLink { nodeAId: number; nodeBId: number; predictedSignalDbm: number | null; expectedRateMbps: number | null }
-interface SimNode { node: NodeDto; radios: RadioDto[]; token: string; bootId: string; seq: number; fadeDb: number; predicted: Map<number, number>; unsent: object[] }
+interface SimNode {
+  node: NodeDto; radios: RadioDto[]; token: string; bootId: string; seq: number; fadeDb: number;
+  predicted: Map<number, number>; peerOf: Map<number, number>; unsent: object[];
+}
 /** Like the agent: reports the server did not take (503, no answer) are kept and sent again, at most this many. */
 const BUFFER_MAX = 500;
+interface InventoryLink { radioAId: number; radioBId: number; status: string }
+
+/** A made-up, locally administered MAC per radio (the 02: prefix), so reports name their peers as real radios do. */
+const simulatedMac = (radioId: number) => `02:50:61:${[(radioId >> 16) & 255, (radioId >> 8) & 255, radioId & 255].map((b) => b.toString(16).padStart(2, '0')).join(':')}`;
 
 const api = new ApiClient(baseUrl);
 const tokens: Record<string, string> = fs.existsSync(tokenFile) ? JSON.parse(fs.readFileSync(tokenFile, 'utf8')) : {};
@@ -36,6 +43,13 @@ async function load(): Promise<SimNode[]> {
   const nodes = (await api.call<{ data: NodeDto[] }>('GET', '/api/v1/nodes?pageSize=500')).data;
   const radios = (await api.call<{ data: RadioDto[] }>('GET', '/api/v1/radios?pageSize=500')).data;
   const links = (await api.call<{ data: { links: TopologyLink[] } }>('GET', '/api/v1/topology')).data.links;
+  // Only live links carry traffic: a planned link's radios name no peer, so Parapet sees it silent.
+  const inventory = (await api.call<{ data: InventoryLink[] }>('GET', '/api/v1/links?pageSize=500')).data.filter((l) => l.status === 'live');
+  const peerOf = new Map<number, number>();
+  for (const l of inventory) {
+    if (!peerOf.has(l.radioAId)) peerOf.set(l.radioAId, l.radioBId);
+    if (!peerOf.has(l.radioBId)) peerOf.set(l.radioBId, l.radioAId);
+  }
   const sims: SimNode[] = [];
   for (const node of nodes) {
     // Tokens are rotated at every start, so a stale file never matters.
@@ -46,7 +60,7 @@ async function load(): Promise<SimNode[]> {
       if (l.nodeBId === node.id) predicted.set(l.nodeAId, l.predictedSignalDbm);
       if (l.nodeAId === node.id) predicted.set(l.nodeBId, l.predictedSignalDbm);
     }
-    sims.push({ node, radios: radios.filter((r) => r.nodeId === node.id), token, bootId: randomUUID(), seq: 0, fadeDb: 0, predicted, unsent: [] });
+    sims.push({ node, radios: radios.filter((r) => r.nodeId === node.id), token, bootId: randomUUID(), seq: 0, fadeDb: 0, predicted, peerOf, unsent: [] });
   }
   return sims;
 }
@@ -70,6 +84,8 @@ function reportFor(sim: SimNode, now: Date) {
       signalDbm: round1(Math.max(-119, Math.min(-1, signal))), noiseDbm: round1(-95 + gauss() * 0.8),
       txRateMbps: isBackhaul ? 150 : 72, rxRateMbps: isBackhaul ? 135 : 65,
       clients: r.role === 'access-point' ? Math.round(2 + 10 * eveningLoad * Math.random()) : undefined,
+      mac: simulatedMac(r.id),
+      peerMac: isBackhaul && sim.peerOf.has(r.id) ? simulatedMac(sim.peerOf.get(r.id)!) : undefined,
     };
   });
   return {

@@ -10,6 +10,10 @@ export const MAX_BATCH_REPORTS = 500;
 // PostgreSQL text cannot hold NUL; a router's odd SSID or firmware string is kept, the NUL shown as U+FFFD.
 const storableText = (max: number) => z.string().max(max, `must be at most ${max} characters`).transform((s) => s.replace(/\u0000/g, '\uFFFD'));
 
+const macSchema = z
+  .string({ error: 'must be a MAC address like 02:00:5e:10:00:01' })
+  .regex(/^[0-9A-Fa-f]{2}(:[0-9A-Fa-f]{2}){5}$/, 'must be a MAC address like 02:00:5e:10:00:01');
+
 export const heartbeatRadioSchema = z.object({
   iface: z.string({ error: 'is required' }).regex(/^[A-Za-z0-9._-]{1,15}$/, 'must be an interface name like wlan0'),
   role: z.enum(RADIO_ROLES, { error: `must be one of ${RADIO_ROLES.join(', ')}` }).optional(),
@@ -25,10 +29,9 @@ export const heartbeatRadioSchema = z.object({
   txRateMbps: finite(0, 10_000, 'Mbps').optional(),
   rxRateMbps: finite(0, 10_000, 'Mbps').optional(),
   clients: z.number({ error: 'must be a number' }).int('must be a whole number').min(0, 'must be 0 or more').max(10_000, 'must be at most 10000').optional(),
-  peerMac: z
-    .string()
-    .regex(/^[0-9A-Fa-f]{2}(:[0-9A-Fa-f]{2}){5}$/, 'must be a MAC address like 02:00:5e:10:00:01')
-    .optional(),
+  peerMac: macSchema.optional(),
+  /** The radio's own MAC, so Parapet can tell which inventory radio a peer's report names. */
+  mac: macSchema.optional(),
 });
 
 export const heartbeatReportSchema = z.object({

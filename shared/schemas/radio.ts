@@ -88,6 +88,9 @@ export interface RadioDto {
   encryption: (typeof ENCRYPTIONS)[number];
   hasPreSharedKey: boolean;
   groupRekeyS: number;
+  /** The radio's own MAC from its node's reports; null until one is reported. */
+  mac: string | null;
+  macReportedAt: string | null;
   createdAt: string;
   updatedAt: string;
   abilities: { update: boolean; delete: boolean };

@@ -31,3 +31,13 @@ export interface OutageEvent {
   kind: 'opened' | 'closed';
   at: string;
 }
+
+/** Something was added to an outage's timeline (a host's step); pages showing it read it again. */
+export interface OutageTimelineEvent {
+  outageId: number;
+  nodeId: number;
+  neighbourhoodId: number;
+  hostUserId: number | null;
+  at: string;
+  kind: 'host-step';
+}

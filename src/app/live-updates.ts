@@ -4,7 +4,7 @@ import type { NodeDto } from '../../shared/schemas/node';
 import { patchNodeRecord } from '../features/nodes/api/telemetry';
 import { patchTopologyNodes, type TopologyNodePatch } from '../features/topology/api/topology';
 import { neighbourhoodKeys, nodeKeys, nodeTelemetryKeys, outageKeys, overviewKeys, topologyKeys } from '../lib/query-keys';
-import { closeSocket, openSocket, type NodeFiguresEvent, type NodeStateEvent, type OutageEvent } from '../lib/socket';
+import { closeSocket, openSocket, type NodeFiguresEvent, type NodeStateEvent, type OutageEvent, type OutageTimelineEvent } from '../lib/socket';
 
 // Events are gathered for a moment and applied together: a burst of reports then costs one
 // pass over the graph and one refetch per list, and still shows well within a second.
@@ -75,6 +75,10 @@ function collector(queryClient: QueryClient) {
       invalidate(nodeTelemetryKeys.availability(e.nodeId));
       schedule();
     },
+    timeline(e: OutageTimelineEvent) {
+      invalidate(outageKeys.detail(e.outageId));
+      schedule();
+    },
     stop() {
       if (timer !== null) window.clearTimeout(timer);
     },
@@ -105,6 +109,7 @@ export function useLiveUpdates(userId: number) {
     // Every cached answer was read with the old access (the session's role too): read them all afresh.
     const onAccessChanged = () => void queryClient.invalidateQueries();
     socket.on('access:changed', onAccessChanged);
+    socket.on('outage:timeline', apply.timeline);
     return () => {
       socket.off('access:changed', onAccessChanged);
       apply.stop();
@@ -112,6 +117,7 @@ export function useLiveUpdates(userId: number) {
       socket.off('node:state', apply.state);
       socket.off('node:figures', apply.figures);
       socket.off('outage', apply.outage);
+      socket.off('outage:timeline', apply.timeline);
     };
   }, [userId, queryClient]);
 

@@ -14,6 +14,13 @@ const router = createBrowserRouter([
     lazy: () => import('../routes/public-status').then((m) => ({ Component: m.PublicStatusPage })),
   },
   {
+    // The host's phone page from the outage mail: the signed link is the permission, no sign-in.
+    path: paths.hostRecovery.pattern,
+    errorElement: <RouteError />,
+    hydrateFallbackElement: <Loading />,
+    lazy: () => import('../routes/host-recovery').then((m) => ({ Component: m.HostRecoveryPage })),
+  },
+  {
     path: paths.signIn.pattern,
     errorElement: <RouteError />,
     hydrateFallbackElement: <Loading />,
@@ -35,6 +42,7 @@ const router = createBrowserRouter([
       { path: paths.siteDetail.pattern, lazy: () => import('../routes/site-detail').then((m) => ({ Component: m.SiteDetailPage })) },
       { path: paths.topology.pattern, lazy: () => import('../routes/topology').then((m) => ({ Component: m.TopologyPage })) },
       { path: paths.outages.pattern, lazy: () => import('../routes/outages').then((m) => ({ Component: m.OutagesPage })) },
+      { path: paths.outageDetail.pattern, lazy: () => import('../routes/outage-detail').then((m) => ({ Component: m.OutageDetailPage })) },
       { path: paths.nodes.pattern, lazy: () => import('../routes/nodes').then((m) => ({ Component: m.NodesPage })) },
       { path: paths.nodeDetail.pattern, lazy: () => import('../routes/node-detail').then((m) => ({ Component: m.NodeDetailPage })) },
       { path: paths.neighbourhoods.pattern, lazy: () => import('../routes/neighbourhoods').then((m) => ({ Component: m.NeighbourhoodsPage })) },

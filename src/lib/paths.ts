@@ -20,6 +20,8 @@ export const paths = {
   neighbourhoodDetail: { pattern: '/neighbourhoods/:neighbourhoodId', to: (id: number) => `/neighbourhoods/${id}` },
   people: { pattern: '/people', to: () => '/people' },
   publicStatus: { pattern: '/status', to: () => '/status' },
+  hostRecovery: { pattern: '/recover', to: (token: string) => `/recover?t=${encodeURIComponent(token)}` },
+  outageDetail: { pattern: '/outages/:outageId', to: (id: number) => `/outages/${id}` },
   imports: { pattern: '/imports', to: (kind?: 'sites' | 'nodes') => (kind ? `/imports?kind=${kind}` : '/imports') },
   reports: { pattern: '/reports', to: (month?: string) => (month ? `/reports?month=${month}` : '/reports') },
   planning: { pattern: '/planning', to: () => '/planning' },

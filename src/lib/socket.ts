@@ -1,9 +1,9 @@
 import { useSyncExternalStore } from 'react';
 import { io, type Socket } from 'socket.io-client';
 
-import type { NodeFiguresEvent, NodeStateEvent, OutageEvent } from '../../shared/schemas/realtime';
+import type { NodeFiguresEvent, NodeStateEvent, OutageEvent, OutageTimelineEvent } from '../../shared/schemas/realtime';
 
-export type { NodeFiguresEvent, NodeStateEvent, OutageEvent };
+export type { NodeFiguresEvent, NodeStateEvent, OutageEvent, OutageTimelineEvent };
 
 interface ServerEvents {
   'node:state': (event: NodeStateEvent) => void;
@@ -11,6 +11,7 @@ interface ServerEvents {
   outage: (event: OutageEvent) => void;
   /** The person's role or neighbourhoods changed: what they may read is different now. */
   'access:changed': (event: { userId: number; role: string; neighbourhoodIds: number[] }) => void;
+  'outage:timeline': (event: OutageTimelineEvent) => void;
 }
 
 export type LiveSocket = Socket<ServerEvents, Record<string, never>>;
@@ -63,4 +64,12 @@ function subscribe(listener: () => void) {
 
 export function useLiveStatus(): LiveStatus {
   return useSyncExternalStore(subscribe, () => status);
+}
+
+/**
+ * A connection of its own for the host's recovery page: no session, the signed link from the mail
+ * admits it to the events of that one node. Closed by the caller when the page goes away.
+ */
+export function openRecoverySocket(token: string): LiveSocket {
+  return io({ query: { recovery: token }, reconnectionDelayMax: 10_000 });
 }

@@ -25,6 +25,8 @@ import { NodeRadios } from '../features/radios/components/node-radios';
 import { channelRegionOf } from '../features/radios/components/radio-form';
 import { useNetworkSettings } from '../features/planning/api/planning';
 import { useSites } from '../features/sites/api/sites';
+import { useTopology } from '../features/topology/api/topology';
+import { AirFindings } from '../features/topology/components/air-findings';
 import { ApiError } from '../lib/api';
 import { paths } from '../lib/paths';
 import { ALL_BY_NAME, ALL_ROWS, idFromParam, nameLookup, toOptions } from '../lib/resource';
@@ -48,6 +50,7 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
   const allNodes = useNodes(ALL_BY_NAME);
   const remove = useDeleteNode(nodeId);
   const outages = useOutages({ nodeId, page: 1, pageSize: 10, sort: '-startedAt' });
+  const topology = useTopology();
 
   if (node.isPending) return <Loading label="Loading the node…" />;
   if (node.error instanceof ApiError && node.error.status === 404) return <NotFoundPage what="node" />;
@@ -184,6 +187,7 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
             )
           }
         </LinkEditor>
+        {topology.data && <AirFindings topology={topology.data} names={nameLookup(allNodes.data?.data)} nodeId={record.id} />}
       </Section>
 
       {record.abilities.update && (

@@ -2,6 +2,7 @@ import { Link } from 'react-router-dom';
 import { PageHeader, Section } from '../components/page-header';
 import { LoadError, Loading } from '../components/query-state';
 import { useOverview } from '../features/overview/api/overview';
+import { AirSummary } from '../features/overview/components/air-summary';
 import { DriftNodes } from '../features/overview/components/drift-nodes';
 import { WeakestLinks } from '../features/overview/components/weakest-links';
 import { OpenOutages } from '../features/overview/components/open-outages';
@@ -52,6 +53,11 @@ export function OverviewPage() {
             <Section title="Nodes that drift from the inventory">
               <DriftNodes nodes={overview.data.driftNodes} />
             </Section>
+            {((overview.data.silentLinks?.length ?? 0) > 0 || (overview.data.radioMoves?.length ?? 0) > 0 || (overview.data.discoveredLinkCount ?? 0) > 0) && (
+              <Section title="The air and the inventory disagree">
+                <AirSummary overview={overview.data} />
+              </Section>
+            )}
             {overview.data.weakestLinks.length > 0 && (
               <Section title="Weakest links">
                 <WeakestLinks links={overview.data.weakestLinks} />

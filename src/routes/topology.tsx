@@ -9,6 +9,7 @@ import { useNode } from '../features/nodes/api/nodes';
 import { NodeQuickLook } from '../features/nodes/components/node-quick-look';
 import { LinkEditor } from '../features/links/components/link-editor';
 import { useTopology } from '../features/topology/api/topology';
+import { AirFindings } from '../features/topology/components/air-findings';
 import { NodeLinks } from '../features/topology/components/node-links';
 import { TopologyLegend } from '../features/topology/components/topology-legend';
 import { TopologyView } from '../features/topology/components/topology-view';
@@ -92,6 +93,7 @@ export function TopologyPage() {
               )
             }
           />
+          <AirFindings topology={topology.data} names={nodeNames} />
           <div className="mt-4">
             <TopologyLegend />
           </div>

@@ -32,6 +32,7 @@ const expectedRadios = [
     channel: 6,
     channelWidthMHz: 20,
     ssid: 'Larkhollow Free',
+    mac: '0a:6b:21:4c:80:13', // "addr" of wlan1 in `iw dev`
     signalDbm: -71, // weakest of the three stations (-48, -71, -59); not its "signal avg" -45
     noiseDbm: -91, // the survey entry marked [in use] (2437 MHz), not its neighbours' -89 / -90
     txRateMbps: 43.3, // rates of that weakest station
@@ -43,6 +44,7 @@ const expectedRadios = [
     channel: 36,
     channelWidthMHz: 40,
     ssid: 'larkhollow-backhaul',
+    mac: '0a:6b:21:4c:80:12', // "addr" of wlan0 in `iw dev`
     signalDbm: -61, // "signal:" line; "signal avg:" says -58 and must be ignored
     noiseDbm: -95,
     txRateMbps: 300,

@@ -6,6 +6,9 @@ import { buildLink, buildNeighbourhood, buildNode, buildRadio, buildSite } from 
 
 const NO_NODES: Record<NodeState, number> = { online: 0, degraded: 0, offline: 0, maintenance: 0, unknown: 0, stranded: 0 };
 
+// No radio reported a MAC in these tests: nothing heard, nothing silent, nothing moved.
+const NOTHING_ON_THE_AIR = { silentLinks: [], discoveredLinkCount: 0, radioMoves: [] };
+
 describe('overview API', () => {
   const ctx = useApi();
 
@@ -46,6 +49,7 @@ describe('overview API', () => {
         openOutages: [],
         driftNodes: [{ id: drifting.id, name: 'ridge-b', drift: [{ field: 'channel', expected: 36, reported: 40 }] }],
         weakestLinks: [],
+        ...NOTHING_ON_THE_AIR,
       },
     });
   });
@@ -61,20 +65,21 @@ describe('overview API', () => {
       openOutages: [],
       driftNodes: [],
       weakestLinks: [],
+      ...NOTHING_ON_THE_AIR,
     });
   });
 
   it('counts only what a host hosts', async () => {
     const { host } = await twoNeighbourhoods();
     const res = await (await signIn(ctx, host)).get('/api/v1/overview');
-    expect(res.body.data).toEqual({ countsByState: { ...NO_NODES, online: 1 }, nodeCount: 1, siteCount: 1, neighbourhoodCount: 1, openOutages: [], driftNodes: [], weakestLinks: [] });
+    expect(res.body.data).toEqual({ countsByState: { ...NO_NODES, online: 1 }, nodeCount: 1, siteCount: 1, neighbourhoodCount: 1, openOutages: [], driftNodes: [], weakestLinks: [], ...NOTHING_ON_THE_AIR });
   });
 
   it('shows all zeros to a host who hosts nothing, and ignores stray query parameters', async () => {
     await twoNeighbourhoods();
     const res = await (await signIn(ctx, await buildUser({ role: 'host' }))).get('/api/v1/overview?neighbourhoodId=1');
     expect(res.status).toBe(200);
-    expect(res.body.data).toEqual({ countsByState: NO_NODES, nodeCount: 0, siteCount: 0, neighbourhoodCount: 0, openOutages: [], driftNodes: [], weakestLinks: [] });
+    expect(res.body.data).toEqual({ countsByState: NO_NODES, nodeCount: 0, siteCount: 0, neighbourhoodCount: 0, openOutages: [], driftNodes: [], weakestLinks: [], ...NOTHING_ON_THE_AIR });
   });
 
   it('ranks live links by predicted fade margin, thinnest first, only among readable nodes', async () => {

@@ -204,6 +204,8 @@ describe('radios API', () => {
           encryption: 'wpa2-ccmp',
           hasPreSharedKey: true,
           groupRekeyS: 600,
+          mac: null, // learned from the node's reports, never typed in
+          macReportedAt: null,
           createdAt: expect.stringMatching(/Z$/),
           updatedAt: expect.stringMatching(/Z$/),
           abilities: { update: true, delete: true },

@@ -8,6 +8,8 @@ export interface HostFacts {
   since: Date;
   timeZone: string;
   operators: { name: string; email: string }[];
+  /** The step-by-step page for the host's phone (outage mail only). */
+  recoveryUrl?: string | null;
 }
 
 const contactBlock = (f: HostFacts): Block =>
@@ -20,6 +22,9 @@ export function hostOffline(f: HostFacts, footer: FooterLinks): Rendered {
   return compose(`The network box on your roof (${f.nodeName}) has stopped answering`, [
     { kind: 'p', text: `Hello ${f.recipientName},` },
     { kind: 'p', text: `The community network's box "${f.nodeName}" at ${f.siteName} stopped answering at ${formatLocal(f.since, f.timeZone)}. The volunteers who look after ${f.neighbourhoodName} have been told too.` },
+    ...(f.recoveryUrl
+      ? [{ kind: 'link', label: 'Open the step-by-step help on your phone (no password needed; tells the volunteers what you tried)', url: f.recoveryUrl } as Block]
+      : []),
     { kind: 'p', text: 'If you can do so safely, please check these, in this order:' },
     {
       kind: 'ol',

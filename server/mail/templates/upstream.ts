@@ -1,11 +1,12 @@
 import { compose, type FooterLinks, formatLocal, type Rendered } from './compose';
 
 /** To an opted-in host whose node is cut off by a failure further up: short, and nothing to do. */
-export function hostUpstream(f: { recipientName: string; nodeName: string; siteName: string; since: Date; timeZone: string }, footer: FooterLinks): Rendered {
+export function hostUpstream(f: { recipientName: string; nodeName: string; siteName: string; since: Date; timeZone: string; recoveryUrl?: string | null }, footer: FooterLinks): Rendered {
   return compose(`The network upstream of your node (${f.nodeName}) is down; nothing is needed from you`, [
     { kind: 'p', text: `Hello ${f.recipientName},` },
     { kind: 'p', text: `Since ${formatLocal(f.since, f.timeZone)} a part of the community network further up than "${f.nodeName}" at ${f.siteName} is down, so your node cannot reach the internet. Your own box is not the problem as far as we can tell.` },
     { kind: 'p', text: 'Nothing is needed from you: please leave it plugged in. The volunteers already know and are on it; it will come back by itself once the upstream part is fixed.' },
+    ...(f.recoveryUrl ? [{ kind: 'link' as const, label: 'See on your phone when it is back (no password needed)', url: f.recoveryUrl }] : []),
   ], footer);
 }
 

@@ -13,6 +13,14 @@ export function useOutages(params: ListParams, options: { enabled?: boolean } = 
   });
 }
 
+/** One outage with its timeline (opened, acknowledged, notes, the host's steps, closed); socket events refresh it. */
+export function useOutage(outageId: number) {
+  return useQuery({
+    queryKey: outageKeys.detail(outageId),
+    queryFn: () => api.get<{ data: OutageDto }>(`/outages/${outageId}`).then((body) => body.data),
+  });
+}
+
 // Acknowledging moves the overview's open-outage list too.
 function useInvalidateOutages() {
   const queryClient = useQueryClient();

@@ -66,6 +66,8 @@ interface OutagesTableProps {
   testId?: string;
 }
 
+export { Acknowledgement, BlastRadius };
+
 export function OutagesTable({ outages, neighbourhoodNames, showNode = true, sort, onSort, testId = 'outages-table' }: OutagesTableProps) {
   const now = Date.now();
   const columns: Column<OutageDto>[] = [
@@ -90,7 +92,11 @@ export function OutagesTable({ outages, neighbourhoodNames, showNode = true, sor
       key: 'startedAt',
       header: 'Started',
       sortKey: 'startedAt',
-      render: (o) => <time dateTime={o.startedAt}>{formatDateTime(o.startedAt)}</time>,
+      render: (o) => (
+        <Link to={paths.outageDetail.to(o.id)} className="text-accent hover:underline" data-testid={`outage-link-${o.id}`}>
+          <time dateTime={o.startedAt}>{formatDateTime(o.startedAt)}</time>
+        </Link>
+      ),
     },
     {
       key: 'endedAt',

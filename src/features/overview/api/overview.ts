@@ -11,6 +11,22 @@ export interface Overview {
   openOutages: OpenOutage[];
   driftNodes: DriftNode[];
   weakestLinks: WeakLink[];
+  /** Listed links whose ends' MACs are known but that nobody has heard for a day. */
+  silentLinks?: SilentLink[];
+  /** Pairs the reports show talking that the inventory does not list (drawn on the map). */
+  discoveredLinkCount?: number;
+  radioMoves?: { id: number; mac: string; fromNodeId: number; fromNodeName: string; fromIface: string; toNodeId: number; toNodeName: string; toIface: string; at: string }[];
+}
+
+export interface SilentLink {
+  id: number;
+  name: string | null;
+  status: 'planned' | 'live';
+  nodeAId: number;
+  nodeAName: string;
+  nodeBId: number;
+  nodeBName: string;
+  lastObservedAt: string | null;
 }
 
 export interface WeakLink {

@@ -1,7 +1,7 @@
-import { useQuery, type QueryClient } from '@tanstack/react-query';
+import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
 import type { LinkStatus, NodeState } from '../../../../shared/enums';
 import { api } from '../../../lib/api';
-import { topologyKeys } from '../../../lib/query-keys';
+import { linkKeys, overviewKeys, topologyKeys } from '../../../lib/query-keys';
 
 export interface TopologyNode {
   id: number;
@@ -32,11 +32,52 @@ export interface TopologyLink {
   fadeMarginDb: number | null;
   expectedRateMbps: number | null;
   measuredSignalDbm: number | null;
+  /** A report named the other end as its peer within the last 15 minutes. */
+  observed?: boolean;
+  observedSignalDbm?: number | null;
+  lastObservedAt?: string | null;
+  /** At least one end's MAC known, yet nobody has named the other end for a day. */
+  plannedButSilent?: boolean;
+}
+
+/** Two radios the reports show talking to each other, with no link in the inventory. */
+export interface DiscoveredLink {
+  nodeAId: number;
+  nodeBId: number;
+  radioAId: number;
+  radioBId: number;
+  signalDbm: number | null;
+  lastSeenAt: string;
+  abilities?: { add: boolean };
+}
+
+/** A radio's MAC that turned up on another node: a radio swapped between roofs. */
+export interface RadioMove {
+  id: number;
+  mac: string;
+  fromNodeId: number;
+  fromNodeName: string;
+  fromIface: string;
+  toNodeId: number;
+  toNodeName: string;
+  toIface: string;
+  at: string;
 }
 
 export interface Topology {
   nodes: TopologyNode[];
   links: TopologyLink[];
+  discoveredLinks?: DiscoveredLink[];
+  radioMoves?: RadioMove[];
+}
+
+/** "Add to the inventory": a live link between the two radios the air shows talking. */
+export function useAddDiscoveredLink() {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (d: DiscoveredLink) => api.post<{ data: { id: number } }>('/links', { radioAId: d.radioAId, radioBId: d.radioBId, status: 'live' }),
+    onSuccess: () => Promise.all([topologyKeys.all, linkKeys.all, overviewKeys.all].map((queryKey) => queryClient.invalidateQueries({ queryKey: [...queryKey] }))),
+  });
 }
 
 export function useTopology() {

@@ -1,6 +1,6 @@
 import { useStore, useStoreApi, ViewportPortal } from '@xyflow/react';
 import { memo, useMemo } from 'react';
-import { marginColour, plannedDash } from '../utils/link-look';
+import { DISCOVERED_COLOUR, DISCOVERED_DASH, marginColour, plannedDash } from '../utils/link-look';
 import type { LinkLine } from '../utils/flow-elements';
 
 interface Rect {
@@ -45,16 +45,16 @@ export const LinkLayer = memo(function LinkLayer({ lines }: { lines: LinkLine[] 
         {shown.map((line) => (
           <line
             key={line.id}
-            data-testid={`topology-link-${line.id}`}
-            data-margin={line.band}
+            data-testid={line.testId ?? `topology-link-${line.id}`}
+            data-margin={line.discovered ? undefined : line.band}
             x1={line.x1}
             y1={line.y1}
             x2={line.x2}
             y2={line.y2}
-            stroke={marginColour(line.band)}
+            stroke={line.discovered ? DISCOVERED_COLOUR : marginColour(line.band)}
             strokeWidth={line.widthPx}
             strokeLinecap="round"
-            strokeDasharray={line.planned ? plannedDash(line.widthPx) : undefined}
+            strokeDasharray={line.discovered ? DISCOVERED_DASH : line.planned ? plannedDash(line.widthPx) : undefined}
             vectorEffect="non-scaling-stroke"
           />
         ))}

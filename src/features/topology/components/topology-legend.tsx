@@ -1,6 +1,6 @@
 import { NODE_STATES } from '../../../../shared/enums';
 import { StateShape, stateWord } from '../../../components/state-badge';
-import { linkWidthPx, MARGIN_BANDS, marginColour, plannedDash } from '../utils/link-look';
+import { DISCOVERED_COLOUR, DISCOVERED_DASH, linkWidthPx, MARGIN_BANDS, marginColour, plannedDash } from '../utils/link-look';
 
 function LineSwatch({ colour, widthPx, dash }: { colour: string; widthPx: number; dash?: string }) {
   return (
@@ -67,6 +67,9 @@ export function TopologyLegend() {
           </li>
           <li className="flex items-center gap-2">
             <LineSwatch colour="var(--pp-muted)" widthPx={3} dash={plannedDash(3)} /> Planned
+          </li>
+          <li className="flex items-center gap-2">
+            <LineSwatch colour={DISCOVERED_COLOUR} widthPx={2.5} dash={DISCOVERED_DASH} /> Heard on the air, not in the inventory
           </li>
         </ul>
         <p className="mt-2 text-xs text-muted">Fade margin bands are Parapet's rule of thumb. Select a node to see its links' figures.</p>

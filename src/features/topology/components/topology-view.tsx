@@ -5,7 +5,7 @@ import { NODE_STATES, type NodeState } from '../../../../shared/enums';
 import { FilterSelect } from '../../../components/list-toolbar';
 import { stateWord } from '../../../components/state-badge';
 import type { Topology, TopologyNode } from '../api/topology';
-import { buildFlowNodes, buildLinkLines, isShown, type GraphFilters } from '../utils/flow-elements';
+import { buildDiscoveredLines, buildFlowNodes, buildLinkLines, isShown, type GraphFilters } from '../utils/flow-elements';
 import { layoutByCoordinates } from '../utils/layout';
 import { LinkLayer } from './link-layer';
 import { nodeScaleFor, SiteNode, type SiteFlowNode } from './site-node';
@@ -71,6 +71,11 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
   const nodes = useMemo(() => buildFlowNodes(shown, positions, { selectedId, highlightedId }, cache.current), [shown, positions, selectedId, highlightedId]);
   // eslint-disable-next-line react-hooks/exhaustive-deps -- keyed on which nodes are shown, not on their states
   const lines = useMemo(() => buildLinkLines(topology.links, new Set(shown.map((n) => n.id)), positions), [topology.links, shownKey, positions]);
+  const discovered = useMemo(
+    () => buildDiscoveredLines(topology.discoveredLinks ?? [], new Set(shownKey.split(',').map(Number)), positions),
+    [topology.discoveredLinks, shownKey, positions],
+  );
+  const allLines = useMemo(() => (discovered.length ? [...lines, ...discovered] : lines), [lines, discovered]);
 
   const onNodeClick = useCallback<NodeMouseHandler<SiteFlowNode>>((_event, node) => onSelect(node.data.nodeId), [onSelect]);
 
@@ -136,7 +141,7 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
             maxZoom={3}
           >
             <Background gap={40} size={1} />
-            <LinkLayer lines={lines} />
+            <LinkLayer lines={allLines} />
             <NodeScale target={canvas} />
             <Controls showInteractive={false} />
             <MiniMap<SiteFlowNode> className="max-lg:hidden" nodeColor={minimapColour} pannable zoomable ariaLabel="Overview of the whole graph" />

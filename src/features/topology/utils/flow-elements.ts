@@ -1,5 +1,5 @@
 import type { NodeState } from '../../../../shared/enums';
-import type { TopologyLink, TopologyNode } from '../api/topology';
+import type { DiscoveredLink, TopologyLink, TopologyNode } from '../api/topology';
 import { SHAPE_PX, type SiteFlowNode } from '../components/site-node';
 import type { XY } from './layout';
 import { linkWidthPx, marginBand, type MarginBand } from './link-look';
@@ -81,6 +81,9 @@ export interface LinkLine {
   band: MarginBand;
   widthPx: number;
   planned: boolean;
+  /** Heard on the air but not in the inventory: drawn dotted in ink, never in a margin colour. */
+  discovered?: boolean;
+  testId?: string;
 }
 
 /** Straight lines, centre to centre, for links whose both ends are shown. */
@@ -106,5 +109,20 @@ export function buildLinkLines(links: TopologyLink[], shownIds: Set<number>, pos
       planned: link.status === 'planned',
     });
   }
+  return out;
+}
+
+/** Dotted lines for pairs the air shows talking that the inventory lacks (synthetic negative ids). */
+export function buildDiscoveredLines(found: DiscoveredLink[], shownIds: Set<number>, positions: Map<number, XY>): LinkLine[] {
+  const out: LinkLine[] = [];
+  found.forEach((d, i) => {
+    const a = positions.get(d.nodeAId);
+    const b = positions.get(d.nodeBId);
+    if (!a || !b || !shownIds.has(d.nodeAId) || !shownIds.has(d.nodeBId)) return;
+    out.push({
+      id: -(i + 1), x1: a.x, y1: a.y, x2: b.x, y2: b.y, minX: Math.min(a.x, b.x), minY: Math.min(a.y, b.y), maxX: Math.max(a.x, b.x), maxY: Math.max(a.y, b.y),
+      band: 'unknown', widthPx: 2.5, planned: false, discovered: true, testId: `topology-discovered-${d.radioAId}-${d.radioBId}`,
+    });
+  });
   return out;
 }

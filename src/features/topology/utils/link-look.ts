@@ -21,3 +21,7 @@ export function linkWidthPx(expectedRateMbps: number | null): number {
 export function plannedDash(widthPx: number): string {
   return `${(widthPx * 3).toFixed(1)} ${(widthPx * 2.5).toFixed(1)}`;
 }
+
+/** Round dots, spaced wide: a pair heard on the air that the inventory does not list. */
+export const DISCOVERED_DASH = '0.1 7';
+export const DISCOVERED_COLOUR = 'var(--pp-ink)';
