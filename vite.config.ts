@@ -15,5 +15,6 @@ export default defineConfig({
       '/socket.io': { target: `http://127.0.0.1:${apiPort}`, ws: true },
     },
   },
-  build: { outDir: 'dist', sourcemap: true, chunkSizeWarningLimit: 1500 },
+  // Maps stay beside the build for reading a stack trace, but scripts do not point to them and the server never sends them.
+  build: { outDir: 'dist', sourcemap: 'hidden', chunkSizeWarningLimit: 1500 },
 });
