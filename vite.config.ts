@@ -2,11 +2,22 @@
 import { defineConfig } from 'vite';
 import react from '@vitejs/plugin-react';
 import tailwindcss from '@tailwindcss/vite';
+import { compression, defineAlgorithm } from 'vite-plugin-compression2';
+import { constants } from 'node:zlib';
 
 const apiPort = process.env.PORT ?? '4300';
 
 export default defineConfig({
-  plugins: [react(), tailwindcss()],
+  plugins: [
+    react(),
+    tailwindcss(),
+    // Pre-compressed copies at the highest levels, so the server sends them without compressing per request.
+    compression({
+      include: /\.(js|css|svg)$/,
+      threshold: 1024,
+      algorithms: [defineAlgorithm('brotliCompress', { params: { [constants.BROTLI_PARAM_QUALITY]: 11 } }), defineAlgorithm('gzip', { level: 9 })],
+    }),
+  ],
   server: {
     host: '127.0.0.1',
     port: 5173,

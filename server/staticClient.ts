@@ -1,5 +1,7 @@
 import fs from 'node:fs';
+import type http from 'node:http';
 import path from 'node:path';
+import expressStaticGzip from 'express-static-gzip';
 import express, { type NextFunction, type Request, type Response } from 'express';
 import { ApiError } from './errors';
 
@@ -23,9 +25,12 @@ export function staticClient(clientDist: string) {
   router.use((req, res, next) => (req.path.endsWith('.map') ? missing(req, res, next) : next()));
   router.use(
     HASHED_ASSETS,
-    express.static(path.join(dist, 'assets'), {
+    // The build writes a brotli and a gzip copy beside each script and style (at the highest level, once).
+    expressStaticGzip(path.join(dist, 'assets'), {
       index: false,
-      setHeaders: (res: Response) => res.set('Cache-Control', `public, max-age=${YEAR_S}, immutable`),
+      enableBrotli: true,
+      orderPreference: ['br', 'gzip'],
+      serveStatic: { index: false, setHeaders: (res: http.ServerResponse) => res.setHeader('Cache-Control', `public, max-age=${YEAR_S}, immutable`) },
     }),
     missing,
   );

@@ -3,7 +3,6 @@ import { Loading } from '../components/query-state';
 import { paths } from '../lib/paths';
 import { NotFoundPage } from '../routes/not-found';
 import { RouteError } from './route-error';
-import { SignedInLayout } from './signed-in-layout';
 
 // Pages load on first visit, so the sign-in page does not carry the whole console.
 const router = createBrowserRouter([
@@ -25,7 +24,8 @@ const router = createBrowserRouter([
     { path: paths.acceptInvitation.pattern, load: () => import('../routes/accept-invitation').then((m) => ({ Component: m.AcceptInvitationPage })) },
   ].map(({ path, load }) => ({ path, errorElement: <RouteError />, hydrateFallbackElement: <Loading />, lazy: load })),
   {
-    element: <SignedInLayout />,
+    // The console's shell (and its live connection) loads only once someone is signed in.
+    lazy: () => import('./signed-in-layout').then((m) => ({ Component: m.SignedInLayout })),
     errorElement: <RouteError />,
     hydrateFallbackElement: <Loading />,
     children: [

@@ -16,6 +16,11 @@ const shell = `<!doctype html><html lang="en"><head><title>Parapet</title><scrip
 fs.mkdirSync(path.join(dist, 'assets'));
 fs.writeFileSync(path.join(dist, 'index.html'), shell);
 fs.writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js'), script);
+// As the build leaves them: a brotli and a gzip copy beside the main script; the chunk has none.
+const scriptBr = zlib.brotliCompressSync(script, { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: 11 } });
+fs.writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js.br'), scriptBr);
+fs.writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js.gz'), zlib.gzipSync(script, { level: 9 }));
+fs.writeFileSync(path.join(dist, 'assets', 'chunk-Zz99Yy88.js'), script.replaceAll('map page', 'chart'));
 fs.writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js.map'), '{"version":3,"sources":["src/secret.ts"],"mappings":""}');
 fs.writeFileSync(path.join(dist, 'favicon.svg'), '<svg xmlns="http://www.w3.org/2000/svg"/>');
 afterAll(() => fs.rmSync(dist, { recursive: true, force: true }));
@@ -39,25 +44,34 @@ function raw(app: http.RequestListener, url: string, acceptEncoding: string) {
 describe('serving the built client', () => {
   const ctx = useApi({ clientDist: dist });
 
-  it('sends hashed assets brotli-compressed when the browser offers it, cached for a year as immutable', async () => {
+  it('sends the pre-compressed brotli copy of a hashed asset when the browser offers it, cached for a year as immutable', async () => {
     const res = await raw(ctx.app, '/assets/index-Ab12Cd34.js', 'gzip, deflate, br');
     expect(res.status).toBe(200);
     expect(res.headers['content-encoding']).toBe('br');
+    expect(res.headers['content-type']).toMatch(/^text\/javascript|^application\/javascript/);
     expect(res.headers['cache-control']).toBe('public, max-age=31536000, immutable');
     expect(res.headers['vary']).toMatch(/accept-encoding/i);
-    const body = res.body;
-    expect(body.length).toBeLessThan(script.length / 3);
-    expect(zlib.brotliDecompressSync(body).toString()).toBe(script);
+    expect(res.body.equals(scriptBr)).toBe(true);
+    expect(zlib.brotliDecompressSync(res.body).toString()).toBe(script);
   });
 
-  it('falls back to gzip, and to plain bytes for a client that offers no encoding', async () => {
+  it('falls back to the gzip copy, and to plain bytes for a client that offers no encoding', async () => {
     const gz = await raw(ctx.app, '/assets/index-Ab12Cd34.js', 'gzip');
     expect(gz.headers['content-encoding']).toBe('gzip');
+    expect(gz.headers['cache-control']).toBe('public, max-age=31536000, immutable');
     expect(zlib.gunzipSync(gz.body).toString()).toBe(script);
 
     const plain = await raw(ctx.app, '/assets/index-Ab12Cd34.js', 'identity');
     expect(plain.headers['content-encoding']).toBeUndefined();
     expect(plain.body.toString()).toBe(script);
+  });
+
+  it('compresses an asset that has no pre-compressed copy as it is sent', async () => {
+    const res = await raw(ctx.app, '/assets/chunk-Zz99Yy88.js', 'br');
+    expect(res.headers['content-encoding']).toBe('br');
+    expect(res.headers['cache-control']).toBe('public, max-age=31536000, immutable');
+    expect(res.body.length).toBeLessThan(script.length / 3);
+    expect(zlib.brotliDecompressSync(res.body).toString()).toBe(script.replaceAll('map page', 'chart'));
   });
 
   it('never serves source maps, in the assets folder or anywhere else', async () => {
