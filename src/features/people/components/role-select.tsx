@@ -34,7 +34,7 @@ export function RoleSelect({ person }: { person: UserDto }) {
         disabled={update.isPending}
         onChange={(event) => change(event.target.value)}
         aria-describedby={`${id}-error`}
-        className="rounded-md border border-line bg-surface px-2 py-1 text-sm"
+        className="rounded-md border border-line-strong bg-surface px-2 py-1 text-sm"
       >
         {ROLES.map((role: Role) => (
           <option key={role} value={role}>
