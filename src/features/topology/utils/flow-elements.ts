@@ -60,7 +60,9 @@ export function buildFlowNodes(
         blastNodeCount: node.openOutageId !== null ? (node.blastNodeCount ?? 0) : 0,
         highlighted,
       },
-      ariaLabel: `${node.name}, ${node.state}`,
+      // A button to assistive technology: Enter or Space shows the node's details beside the graph.
+      ariaRole: 'button',
+      ariaLabel: `${node.name} at ${node.siteName}, ${node.state}${node.isUplink ? ', uplink' : ''}`,
     };
     cache.set(node, { key, flow });
     out.push(flow);
