@@ -6,6 +6,7 @@ import { screenshot, signInAs, useE2E } from './helpers/browser';
 
 // axe-core's own build, evaluated in the page (the app's content security policy would refuse it as a <script>).
 const axeSource = fs.readFileSync(createRequire(import.meta.url).resolve('axe-core/axe.min.js'), 'utf8');
+// Whole-site walks take minutes on a loaded machine; each has its own budget below.
 const WCAG_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'];
 
 /** The page has drawn its heading and finished its first reads (no "Loading…" left). */
@@ -99,7 +100,7 @@ describe('every page with a keyboard and a screen reader', () => {
       const heading = await cards.nth(i).locator('h2').innerText();
       await expect(page.getByRole('article', { name: heading, exact: true }).count()).resolves.toBe(1);
     }
-  });
+  }, 600_000);
 
   it('finds no WCAG 2.0–2.2 A/AA violation on any signed-in page, in either theme', async () => {
     const page = await e2e.fresh({ width: 1280, height: 900 });
@@ -119,7 +120,7 @@ describe('every page with a keyboard and a screen reader', () => {
     }
     await setTheme(page, 'light');
     expect(found).toEqual([]);
-  });
+  }, 600_000);
 
   it('walks every signed-in page by Tab: each stop is on screen, uncovered and ringed', async () => {
     const page = await e2e.fresh({ width: 1280, height: 900 });
@@ -141,7 +142,7 @@ describe('every page with a keyboard and a screen reader', () => {
       expect(stops, path).toBeGreaterThan(5);
     }
     expect(problems).toEqual([]);
-  });
+  }, 600_000);
 
   it('opens the phone menu by keyboard, tabs into its links, and closes it with Escape back on the button', async () => {
     const page = await e2e.fresh({ width: 375, height: 740 });
