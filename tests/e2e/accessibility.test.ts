@@ -11,8 +11,12 @@ const WCAG_TAGS = ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa', 'wcag22aa'];
 
 /** The page has drawn its heading and finished its first reads (no "Loading…" left). */
 async function settled(page: Page) {
-  await page.locator('h1').first().waitFor({ timeout: 30_000 });
-  await page.waitForFunction(() => ![...document.querySelectorAll('[role=status]')].some((el) => /^Loading|^Checking/.test(el.textContent ?? '')), undefined, { timeout: 30_000 });
+  try {
+    await page.locator('h1').first().waitFor({ timeout: 30_000 });
+    await page.waitForFunction(() => ![...document.querySelectorAll('[role=status]')].some((el) => /^Loading|^Checking/.test(el.textContent ?? '')), undefined, { timeout: 30_000 });
+  } catch (error) {
+    throw new Error(`${page.url()} did not finish loading: ${(error as Error).message.split('\n')[0]}`);
+  }
 }
 
 async function axeViolations(page: Page): Promise<string[]> {
