@@ -244,7 +244,8 @@ describe('every page with a keyboard and a screen reader', () => {
     expect(onNode).toBe(true);
     const ring = await focused(page);
     expect(ring!.ringPx).toBeGreaterThanOrEqual(3);
-    const name = (await page.evaluate(() => document.activeElement?.getAttribute('aria-label')))!.split(' at ')[0];
+    // The node's own title reads "<name> at <site>: <state>…".
+    const name = (await page.evaluate(() => document.activeElement?.querySelector('[title]')?.getAttribute('title')))!.split(' at ')[0];
     await page.keyboard.press('Enter');
     await page.waitForURL(/node=\d+/, { timeout: 15_000 });
     await page.getByTestId('node-quick-look').waitFor({ timeout: 15_000 });
