@@ -187,9 +187,9 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
             {panel}
           </aside>
         )}
-        <p role="status" className="sr-only">
+        <div role="status" className="sr-only">
           {announcement}
-        </p>
+        </div>
       </div>
     </>
   );
