@@ -1,6 +1,5 @@
 import { randomUUID } from 'node:crypto';
-import fs from 'node:fs';
-import path from 'node:path';
+import compression from 'compression';
 import express, { type Request } from 'express';
 import helmet from 'helmet';
 import pg from 'pg';
@@ -59,6 +58,7 @@ import { passwordResetRoutes } from './routes/passwordResets';
 import { personalDataRoutes } from './routes/personalData';
 import { auditContext, installAuditHooks } from './services/audit';
 import { mayPlan } from './policies/planning';
+import { staticClient } from './staticClient';
 
 export interface AppContext {
   config: Config;
@@ -110,6 +110,9 @@ export function createApp({ config, sequelize, databaseWatch }: AppContext) {
       hsts: config.cookieSecure,
     }),
   );
+
+  // Every text answer (pages, scripts, styles, JSON) compressed for phones on weak mobile data; brotli when offered.
+  app.use(compression());
 
   app.get('/api/health', async (_req, res) => {
     try {
@@ -191,11 +194,7 @@ export function createApp({ config, sequelize, databaseWatch }: AppContext) {
   app.use('/api/v1', api);
   app.use('/api', (req, _res, next) => next(NotFound(`The API address ${req.originalUrl}`)));
 
-  const dist = path.resolve(config.clientDist);
-  if (fs.existsSync(path.join(dist, 'index.html'))) {
-    app.use(express.static(dist, { index: false, maxAge: '1h' }));
-    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(dist, 'index.html')));
-  }
+  app.use(staticClient(config.clientDist));
 
   // A database call that failed because the server went away is the outage, not the request's fault.
   app.use((err: unknown, _req: Request, _res: express.Response, next: express.NextFunction) => {

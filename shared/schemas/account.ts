@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { type NodeState, ROLES } from '../enums';
 import { newPasswordSchema } from '../security/passwordRules';
 import { lineSchema, listQuerySchema, nameSchema } from './common';
+import { AUDITED_TABLE_NAMES } from './auditTables';
 
 const emailSchema = z.string({ error: 'is required' }).trim().toLowerCase().email('must be an e-mail address').max(254, 'must be at most 254 characters');
 const tokenSchema = z.string({ error: 'is required' }).min(1, 'is required').max(200, 'is too long');
@@ -25,7 +26,7 @@ export const meUpdateSchema = z
   .object({ name: nameSchema.optional(), phone: phoneSchema.optional() })
   .refine((v) => v.name !== undefined || v.phone !== undefined, { message: 'give a name or a phone number to change' });
 
-export const AUDITED_TABLE_NAMES = ['sites', 'nodes', 'radios', 'links', 'neighbourhoods', 'users'] as const;
+export { AUDITED_TABLE_NAMES };
 export const historyQuerySchema = listQuerySchema.pick({ page: true, pageSize: true }).extend({
   table: z.enum(AUDITED_TABLE_NAMES, { error: `must be one of ${AUDITED_TABLE_NAMES.join(', ')}` }).optional(),
   recordId: z.coerce.number({ error: 'must be a number' }).int('must be a whole number').positive('must be a positive id').optional(),

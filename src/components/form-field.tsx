@@ -1,7 +1,7 @@
 import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
 
 const CONTROL =
-  'block w-full rounded-md border bg-surface px-2.5 py-1.5 text-sm text-ink placeholder:text-muted/70 aria-[invalid=true]:border-danger border-line';
+  'block w-full rounded-md border bg-surface px-2.5 py-1.5 text-sm text-ink placeholder:text-muted aria-[invalid=true]:border-danger border-line-strong';
 
 interface Frame {
   label: string;

@@ -11,7 +11,7 @@ interface ListToolbarProps {
   children?: ReactNode;
 }
 
-const CONTROL = 'rounded-md border border-line bg-surface px-2.5 py-1.5 text-sm text-ink';
+const CONTROL = 'rounded-md border border-line-strong bg-surface px-2.5 py-1.5 text-sm text-ink';
 
 export function ListToolbar({ q, onSearch, searchLabel, sortOptions, sort, onSort, children }: ListToolbarProps) {
   const searchId = useId();

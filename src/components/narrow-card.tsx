@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { ParapetMark } from './layout/app-shell';
+import { ParapetMark } from './layout/parapet-mark';
 
 /** The narrow, centred card of the signed-out pages: sign-in, password reset, invitation. */
 export function NarrowCard({ title, subtitle, children, footer }: { title: string; subtitle?: ReactNode; children: ReactNode; footer?: ReactNode }) {

@@ -23,7 +23,7 @@ export function Pagination({ pagination, onPage, onPageSize, noun }: PaginationP
         <label className="flex items-center gap-1.5">
           <span>Per page</span>
           <select
-            className="rounded-md border border-line bg-surface px-1.5 py-1 text-ink"
+            className="rounded-md border border-line-strong bg-surface px-1.5 py-1 text-ink"
             value={pageSize}
             onChange={(event) => onPageSize(Number(event.target.value))}
           >

@@ -4,6 +4,19 @@ import { ApiError } from './api';
 
 export type FieldErrors = Record<string, string[]>;
 
+/**
+ * A shared schema fetched on first use (when the form gets focus), so a page does not carry it, or
+ * what it needs (the password dictionary, the validation library), before anyone starts typing.
+ */
+export function lazySchema<S extends z.ZodType>(load: () => Promise<S>): () => Promise<S> {
+  let pending: Promise<S> | null = null;
+  return () =>
+    (pending ??= load().catch((error: unknown) => {
+      pending = null; // a dropped connection may come back: try again next time
+      throw error;
+    }));
+}
+
 /** Text from an input as a number: blank is "not given", a decimal comma is accepted. */
 export function toNumber(text: string): number | undefined {
   const trimmed = text.trim();
@@ -70,6 +83,18 @@ export function useForm<V extends Record<string, string | boolean>>(initial: V) 
     return null;
   }
 
+  /** `check` with a schema that may still be on its way (see `lazySchema`). */
+  async function checkWith<S extends z.ZodType>(load: () => Promise<S>, input: unknown): Promise<z.output<S> | null> {
+    let schema: S;
+    try {
+      schema = await load();
+    } catch {
+      setFormError('This form could not load its checks. Check your connection and try again.');
+      return null;
+    }
+    return check(schema, input);
+  }
+
   const showServerError = useCallback(
     (error: unknown) => {
       if (error instanceof ApiError) {
@@ -91,7 +116,7 @@ export function useForm<V extends Record<string, string | boolean>>(initial: V) 
     setFormError(null);
   }, []);
 
-  return { values, set, errors, formError, check, showServerError, reset };
+  return { values, set, errors, formError, check, checkWith, showServerError, reset };
 }
 
 export type FormApi<V extends Record<string, string | boolean>> = ReturnType<typeof useForm<V>>;

@@ -1,10 +1,12 @@
 import { z } from 'zod';
-import { passwordResetRequestSchema } from '../../shared/schemas/account';
 import { Button } from '../components/button';
 import { FormMessage, TextField } from '../components/form-field';
 import { useRequestPasswordReset } from '../features/people/api/account';
 import { AccountCard } from '../features/people/components/account-card';
-import { useForm } from '../lib/form';
+import { lazySchema, useForm } from '../lib/form';
+
+// Its module also holds the password rules and their dictionary: fetched when the form is first used.
+const loadSchema = lazySchema(() => import('../../shared/schemas/account').then((m) => m.passwordResetRequestSchema as z.ZodType<{ email: string }>));
 
 export function ForgotPasswordPage() {
   const form = useForm({ email: '' });
@@ -17,10 +19,12 @@ export function ForgotPasswordPage() {
         <form
           noValidate
           className="space-y-4"
+          onFocus={() => void loadSchema().catch(() => undefined)}
           onSubmit={(event) => {
             event.preventDefault();
-            const input = form.check(passwordResetRequestSchema as z.ZodType<{ email: string }>, form.values);
-            if (input) request.mutate(input.email, { onError: form.showServerError });
+            void form.checkWith(loadSchema, form.values).then((input) => {
+              if (input) request.mutate(input.email, { onError: form.showServerError });
+            });
           }}
         >
           <p className="text-sm text-muted">Give the e-mail address you sign in with. If it has an account, we mail it a link to choose a new password.</p>

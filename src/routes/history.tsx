@@ -1,4 +1,4 @@
-import { AUDITED_TABLE_NAMES } from '../../shared/schemas/account';
+import { AUDITED_TABLE_NAMES } from '../../shared/schemas/auditTables';
 import { ListBody } from '../components/list-body';
 import { FilterSelect } from '../components/list-toolbar';
 import { PageHeader } from '../components/page-header';

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import type { RecoveryDto } from '../../shared/schemas/recovery';
 import { Button } from '../components/button';
-import { ParapetMark } from '../components/layout/app-shell';
+import { ParapetMark } from '../components/layout/parapet-mark';
 import { LoadError, Loading } from '../components/query-state';
 import { useRecordStep, useRecovery } from '../features/host-recovery/api/recovery';
 import { useNodeHeard, useSecondsSince } from '../features/host-recovery/api/use-node-heard';

@@ -19,6 +19,7 @@ import { SitesTable } from '../features/sites/components/sites-table';
 import { ApiError } from '../lib/api';
 import { formatDateTime } from '../lib/format';
 import { paths } from '../lib/paths';
+import { useInlineForm } from '../lib/use-inline-form';
 import { ALL_BY_NAME, idFromParam, nameLookup } from '../lib/resource';
 import { NotFoundPage } from './not-found';
 
@@ -31,7 +32,7 @@ export function NeighbourhoodDetailPage() {
 function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
   const navigate = useNavigate();
   const user = useCurrentUser();
-  const [editing, setEditing] = useState(false);
+  const editing = useInlineForm();
   const neighbourhood = useNeighbourhood(neighbourhoodId);
   const sites = useSites({ neighbourhoodId, ...ALL_BY_NAME });
   // Names of people come from the people list, which only admins may read.
@@ -67,10 +68,10 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
         title={record.name}
         subtitle="Neighbourhood"
         actions={
-          !editing && (
+          !editing.open && (
             <>
               {record.abilities.update && (
-                <Button variant="primary" onClick={() => setEditing(true)}>
+                <Button ref={editing.triggerRef} variant="primary" onClick={editing.show}>
                   Edit neighbourhood
                 </Button>
               )}
@@ -89,8 +90,10 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
         }
       />
       <FormMessage message={remove.error instanceof ApiError ? remove.error.message : remove.error ? 'Could not remove the neighbourhood.' : null} />
-      {editing ? (
-        <NeighbourhoodForm neighbourhood={record} onSaved={() => setEditing(false)} onCancel={() => setEditing(false)} />
+      {editing.open ? (
+        <div ref={editing.regionRef}>
+          <NeighbourhoodForm neighbourhood={record} onSaved={editing.hide} onCancel={editing.hide} />
+        </div>
       ) : (
         <Details
           items={[

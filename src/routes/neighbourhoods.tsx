@@ -1,4 +1,3 @@
-import { useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { Button } from '../components/button';
 import { ListBody } from '../components/list-body';
@@ -9,13 +8,14 @@ import { NeighbourhoodForm } from '../features/neighbourhoods/components/neighbo
 import { NEIGHBOURHOOD_SORT_FIELDS, NeighbourhoodsTable } from '../features/neighbourhoods/components/neighbourhoods-table';
 import { useListParams } from '../lib/list-params';
 import { paths } from '../lib/paths';
+import { useInlineForm } from '../lib/use-inline-form';
 
 export function NeighbourhoodsPage() {
   const navigate = useNavigate();
   const list = useListParams(['retired'], 'name');
   // This page shows retired neighbourhoods too unless asked not to; pickers elsewhere get only active ones.
   const neighbourhoods = useNeighbourhoods({ ...list.apiParams, retired: list.filters.retired ?? 'all' });
-  const [adding, setAdding] = useState(false);
+  const adding = useInlineForm();
 
   return (
     <>
@@ -24,17 +24,17 @@ export function NeighbourhoodsPage() {
         subtitle="Parts of the network, each with its sites, nodes and operators on the rota."
         actions={
           neighbourhoods.data?.abilities?.create &&
-          !adding && (
-            <Button variant="primary" onClick={() => setAdding(true)}>
+          !adding.open && (
+            <Button ref={adding.triggerRef} variant="primary" onClick={adding.show}>
               Add neighbourhood
             </Button>
           )
         }
       />
-      {adding && (
-        <div className="mb-6">
+      {adding.open && (
+        <div ref={adding.regionRef} className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">New neighbourhood</h2>
-          <NeighbourhoodForm onSaved={(n) => navigate(paths.neighbourhoodDetail.to(n.id))} onCancel={() => setAdding(false)} />
+          <NeighbourhoodForm onSaved={(n) => navigate(paths.neighbourhoodDetail.to(n.id))} onCancel={adding.hide} />
         </div>
       )}
       <ListToolbar

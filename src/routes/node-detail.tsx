@@ -1,4 +1,3 @@
-import { useState } from 'react';
 import { Link, useNavigate, useParams } from 'react-router-dom';
 import { Button, ButtonLink } from '../components/button';
 import { EmptyState } from '../components/empty-state';
@@ -29,6 +28,7 @@ import { useTopology } from '../features/topology/api/topology';
 import { AirFindings } from '../features/topology/components/air-findings';
 import { ApiError } from '../lib/api';
 import { paths } from '../lib/paths';
+import { useInlineForm } from '../lib/use-inline-form';
 import { ALL_BY_NAME, ALL_ROWS, idFromParam, nameLookup, toOptions } from '../lib/resource';
 import { NotFoundPage } from './not-found';
 
@@ -40,7 +40,7 @@ export function NodeDetailPage() {
 
 function NodeDetail({ nodeId }: { nodeId: number }) {
   const navigate = useNavigate();
-  const [editing, setEditing] = useState(false);
+  const editing = useInlineForm();
   const node = useNode(nodeId);
   const sites = useSites(ALL_BY_NAME);
   const neighbourhoods = useNeighbourhoods(ALL_BY_NAME);
@@ -83,12 +83,12 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
           </>
         }
         actions={
-          !editing && (
+          !editing.open && (
             <>
               <ButtonLink to={paths.topology.to(record.id)}>Show on the map</ButtonLink>
               {record.abilities.update && <ButtonLink to={paths.provisioningSheet.to(record.id)}>Provisioning sheet</ButtonLink>}
               {record.abilities.update && (
-                <Button variant="primary" onClick={() => setEditing(true)}>
+                <Button ref={editing.triggerRef} variant="primary" onClick={editing.show}>
                   Edit node
                 </Button>
               )}
@@ -102,14 +102,16 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
         }
       />
       <FormMessage message={remove.error instanceof ApiError ? remove.error.message : remove.error ? 'Could not remove the node.' : null} />
-      {editing ? (
-        <NodeForm
-          node={record}
-          siteOptions={toOptions(sites.data?.data)}
-          neighbourhoodOptions={toOptions(neighbourhoods.data?.data)}
-          onSaved={() => setEditing(false)}
-          onCancel={() => setEditing(false)}
-        />
+      {editing.open ? (
+        <div ref={editing.regionRef}>
+          <NodeForm
+            node={record}
+            siteOptions={toOptions(sites.data?.data)}
+            neighbourhoodOptions={toOptions(neighbourhoods.data?.data)}
+            onSaved={editing.hide}
+            onCancel={editing.hide}
+          />
+        </div>
       ) : (
         <NodeSummary node={record} siteName={siteName} neighbourhoodName={neighbourhoodName} />
       )}

@@ -1,4 +1,3 @@
-import { useState } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { NODE_STATES } from '../../shared/enums';
 import { Button, ButtonLink } from '../components/button';
@@ -14,6 +13,7 @@ import { NODE_SORT_FIELDS, NodesTable } from '../features/nodes/components/nodes
 import { useSites } from '../features/sites/api/sites';
 import { useListParams } from '../lib/list-params';
 import { paths } from '../lib/paths';
+import { useInlineForm } from '../lib/use-inline-form';
 import { ALL_BY_NAME, nameLookup, toOptions } from '../lib/resource';
 
 export function NodesPage() {
@@ -22,7 +22,7 @@ export function NodesPage() {
   const nodes = useNodes(list.apiParams);
   const sites = useSites(ALL_BY_NAME);
   const neighbourhoods = useNeighbourhoods(ALL_BY_NAME);
-  const [adding, setAdding] = useState(false);
+  const adding = useInlineForm();
   const filtered = Boolean(list.q || list.filters.state || list.filters.neighbourhoodId || list.filters.siteId);
 
   return (
@@ -33,10 +33,10 @@ export function NodesPage() {
         actions={
           <>
             <ExportButton table="nodes" />
-            {nodes.data?.abilities?.create && !adding && (
+            {nodes.data?.abilities?.create && !adding.open && (
               <>
                 <ButtonLink to={paths.imports.to('nodes')}>Import CSV</ButtonLink>
-                <Button variant="primary" onClick={() => setAdding(true)}>
+                <Button ref={adding.triggerRef} variant="primary" onClick={adding.show}>
                   Add node
                 </Button>
               </>
@@ -44,14 +44,14 @@ export function NodesPage() {
           </>
         }
       />
-      {adding && (
-        <div className="mb-6">
+      {adding.open && (
+        <div ref={adding.regionRef} className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">New node</h2>
           <NodeForm
             siteOptions={toOptions(sites.data?.data)}
             neighbourhoodOptions={toOptions(neighbourhoods.data?.data)}
             onSaved={(node) => navigate(paths.nodeDetail.to(node.id))}
-            onCancel={() => setAdding(false)}
+            onCancel={adding.hide}
           />
         </div>
       )}

@@ -10,12 +10,13 @@ import { InviteForm } from '../features/people/components/invite-form';
 import { PersonForm } from '../features/people/components/person-form';
 import { capitalise } from '../lib/format';
 import { useListParams } from '../lib/list-params';
+import { useInlineForm } from '../lib/use-inline-form';
 
 export function PeoplePage() {
   const list = useListParams(['role'], 'name');
   const people = usePeople(list.apiParams);
-  const [adding, setAdding] = useState(false);
-  const [inviting, setInviting] = useState(false);
+  const adding = useInlineForm();
+  const inviting = useInlineForm();
   const [added, setAdded] = useState<string | null>(null);
   const filtered = Boolean(list.q || list.filters.role);
 
@@ -26,22 +27,24 @@ export function PeoplePage() {
         subtitle="Everyone with a sign-in, and what they may do."
         actions={
           people.data?.abilities?.create &&
-          !adding &&
-          !inviting && (
+          !adding.open &&
+          !inviting.open && (
             <>
               <Button
+                ref={inviting.triggerRef}
                 variant="primary"
                 onClick={() => {
                   setAdded(null);
-                  setInviting(true);
+                  inviting.show();
                 }}
               >
                 Invite by e-mail
               </Button>
               <Button
+                ref={adding.triggerRef}
                 onClick={() => {
                   setAdded(null);
-                  setAdding(true);
+                  adding.show();
                 }}
               >
                 Add with a password
@@ -53,27 +56,27 @@ export function PeoplePage() {
       <p aria-live="polite" className="empty:hidden mb-4 rounded-md border border-line bg-accent-soft px-3 py-2 text-sm">
         {added ?? ''}
       </p>
-      {inviting && (
-        <div className="mb-6">
+      {inviting.open && (
+        <div ref={inviting.regionRef} className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">Invite someone</h2>
           <InviteForm
             onSent={(person) => {
-              setInviting(false);
+              inviting.hide();
               setAdded(`Invitation sent to ${person.email}. The link works once, until ${new Date(person.invitationExpiresAt).toLocaleString()}.`);
             }}
-            onCancel={() => setInviting(false)}
+            onCancel={inviting.hide}
           />
         </div>
       )}
-      {adding && (
-        <div className="mb-6">
+      {adding.open && (
+        <div ref={adding.regionRef} className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">New person</h2>
           <PersonForm
             onSaved={(person) => {
-              setAdding(false);
+              adding.hide();
               setAdded(`${person.name} can now sign in as ${person.role}.`);
             }}
-            onCancel={() => setAdding(false)}
+            onCancel={adding.hide}
           />
         </div>
       )}

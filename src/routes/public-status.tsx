@@ -1,5 +1,5 @@
 import { LoadError, Loading } from '../components/query-state';
-import { ParapetMark } from '../components/layout/app-shell';
+import { ParapetMark } from '../components/layout/parapet-mark';
 import { usePublicStatus } from '../features/public-status/api/public-status';
 import { NeighbourhoodStatus } from '../features/public-status/components/neighbourhood-status';
 

@@ -33,7 +33,7 @@ export function ReportsPage() {
       />
       <label className="mb-4 inline-block text-sm font-medium">
         Month
-        <input type="month" value={month} max={thisMonth()} onChange={(e) => e.target.value && setSearch({ month: e.target.value })} className="mt-1 block rounded-md border border-line bg-surface px-2 py-1" />
+        <input type="month" value={month} max={thisMonth()} onChange={(e) => e.target.value && setSearch({ month: e.target.value })} className="mt-1 block rounded-md border border-line-strong bg-surface px-2 py-1" />
       </label>
       {report.isPending ? (
         <Loading label="Working out the month…" />

@@ -17,6 +17,7 @@ import { SiteForm } from '../features/sites/components/site-form';
 import { SiteSummary } from '../features/sites/components/site-summary';
 import { ApiError } from '../lib/api';
 import { paths } from '../lib/paths';
+import { useInlineForm } from '../lib/use-inline-form';
 import { ALL_BY_NAME, idFromParam, nameLookup, toOptions } from '../lib/resource';
 import { NotFoundPage } from './not-found';
 
@@ -29,7 +30,7 @@ export function SiteDetailPage() {
 function SiteDetail({ siteId }: { siteId: number }) {
   const navigate = useNavigate();
   const user = useCurrentUser();
-  const [editing, setEditing] = useState(false);
+  const editing = useInlineForm();
   const [inviting, setInviting] = useState(false);
   const [invited, setInvited] = useState<string | null>(null);
   const site = useSite(siteId);
@@ -57,10 +58,10 @@ function SiteDetail({ siteId }: { siteId: number }) {
         title={record.name}
         subtitle="Site"
         actions={
-          !editing && (
+          !editing.open && (
             <>
               {record.abilities.update && (
-                <Button variant="primary" onClick={() => setEditing(true)}>
+                <Button ref={editing.triggerRef} variant="primary" onClick={editing.show}>
                   Edit site
                 </Button>
               )}
@@ -74,14 +75,16 @@ function SiteDetail({ siteId }: { siteId: number }) {
         }
       />
       <FormMessage message={remove.error instanceof ApiError ? remove.error.message : remove.error ? 'Could not remove the site.' : null} />
-      {editing ? (
-        <SiteForm
-          site={record}
-          neighbourhoodOptions={toOptions(neighbourhoods.data?.data)}
-          hostOptions={people.isSuccess ? toOptions(withCurrentHost(people.data.data, record.host)) : null}
-          onSaved={() => setEditing(false)}
-          onCancel={() => setEditing(false)}
-        />
+      {editing.open ? (
+        <div ref={editing.regionRef}>
+          <SiteForm
+            site={record}
+            neighbourhoodOptions={toOptions(neighbourhoods.data?.data)}
+            hostOptions={people.isSuccess ? toOptions(withCurrentHost(people.data.data, record.host)) : null}
+            onSaved={editing.hide}
+            onCancel={editing.hide}
+          />
+        </div>
       ) : (
         <SiteSummary site={record} neighbourhoodName={neighbourhoodName} />
       )}

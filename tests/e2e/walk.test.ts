@@ -33,7 +33,11 @@ describe('a walk through the console in one session', () => {
   }
 
   const nav = (page: Page, label: string) => page.getByTestId('nav').getByRole('link', { name: label, exact: true }).click();
-  const userMenu = (page: Page, label: string) => page.getByTestId('user-menu').getByRole('link', { name: label, exact: true }).click();
+  // The person's own pages sit behind their name, in a drop-down that closes on each page change.
+  const userMenu = async (page: Page, label: string) => {
+    await page.getByTestId('user-menu').getByRole('button', { name: /your pages/ }).click();
+    await page.getByTestId('user-menu').getByRole('link', { name: label, exact: true }).click();
+  };
   const planningTo = async (page: Page, title: string, problems: string[]) => {
     await nav(page, 'Planning');
     await settled(page, 'Planning', 'planning index', problems);
@@ -79,7 +83,7 @@ describe('a walk through the console in one session', () => {
     await page.getByRole('link', { name: 'Millbrook', exact: true }).click();
     await settled(page, 'Millbrook', 'neighbourhood page', problems);
 
-    for (const [label, title] of [['Account', 'Your account'], ['Mail', 'Mail preferences'], ['Outbox', 'Outbox'], ['History', 'History']] as const) {
+    for (const [label, title] of [['Account', 'Your account'], ['Mail settings', 'Mail preferences'], ['Outbox', 'Outbox'], ['History', 'History']] as const) {
       await userMenu(page, label);
       await settled(page, title, label, problems);
     }

@@ -1,9 +1,11 @@
-import { useEffect, useState, type ReactNode } from 'react';
-import { Link, NavLink, useLocation } from 'react-router-dom';
+import type { ReactNode } from 'react';
+import { Link, NavLink } from 'react-router-dom';
 import { capitalise } from '../../lib/format';
 import { paths } from '../../lib/paths';
 import { useTheme } from '../../lib/theme';
+import { useDisclosure } from '../../lib/use-disclosure';
 import { LiveIndicator } from './live-indicator';
+import { ParapetMark } from './parapet-mark';
 
 export interface NavItem {
   to: string;
@@ -17,18 +19,6 @@ interface AppShellProps {
   onSignOut: () => void;
   signingOut: boolean;
   children: ReactNode;
-}
-
-export function ParapetMark({ size = 28 }: { size?: number }) {
-  return (
-    <svg width={size} height={size} viewBox="0 0 32 32" aria-hidden="true">
-      <rect width="32" height="32" rx="7" className="fill-accent" />
-      <path d="M6 27V17h4v3h3v-3h6v3h3v-3h4v10z" className="fill-accent-ink" />
-      <path d="M11.5 11.5a6.4 6.4 0 0 1 9 0" fill="none" strokeWidth="2.2" strokeLinecap="round" className="stroke-accent-ink" />
-      <path d="M8.4 8.4a10.8 10.8 0 0 1 15.2 0" fill="none" strokeWidth="2.2" strokeLinecap="round" opacity=".7" className="stroke-accent-ink" />
-      <circle cx="16" cy="14.6" r="1.7" className="fill-accent-ink" />
-    </svg>
-  );
 }
 
 function ThemeToggle({ className = '' }: { className?: string }) {
@@ -53,10 +43,72 @@ function ThemeToggle({ className = '' }: { className?: string }) {
 const linkClass = ({ isActive }: { isActive: boolean }) =>
   `block rounded-md px-3 py-2 text-sm font-medium lg:py-1.5 ${isActive ? 'bg-accent-soft text-ink' : 'text-muted hover:bg-sunken hover:text-ink'}`;
 
+const menuLinkClass = ({ isActive }: { isActive: boolean }) =>
+  `block rounded-md px-3 py-2 text-sm ${isActive ? 'bg-accent-soft font-medium text-ink' : 'text-ink hover:bg-sunken'}`;
+
+/** The signed-in person's own pages, behind their name: a drop-down that never has to squeeze into the header. */
+function PersonMenu({ user, onSignOut, signingOut }: Pick<AppShellProps, 'user' | 'onSignOut' | 'signingOut'>) {
+  const menu = useDisclosure<HTMLButtonElement, HTMLDivElement>();
+  const items = [
+    { to: paths.account.to(), label: 'Account' },
+    { to: paths.preferences.to(), label: 'Mail settings' },
+    ...(user.role === 'admin'
+      ? [
+          { to: paths.outbox.to(), label: 'Outbox' },
+          { to: paths.history.to(), label: 'History' },
+        ]
+      : []),
+  ];
+  return (
+    <div data-testid="user-menu" className="relative flex min-w-0 items-center gap-2">
+      <button
+        type="button"
+        {...menu.buttonProps}
+        onClick={menu.toggle}
+        className="flex min-w-0 items-center gap-1.5 rounded-md px-2 py-1 text-left leading-tight hover:bg-sunken"
+      >
+        <span className="min-w-0">
+          <span className="block max-w-[9rem] truncate text-sm font-medium sm:max-w-[14rem]">{user.name}</span>
+          <span className="block truncate text-xs text-muted">{capitalise(user.role)}</span>
+        </span>
+        <span className="sr-only">: your pages</span>
+        <svg width="12" height="12" viewBox="0 0 12 12" aria-hidden="true" className={`shrink-0 transition-transform ${menu.open ? 'rotate-180' : ''}`}>
+          <path d="M2.5 4.5L6 8l3.5-3.5" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" strokeLinejoin="round" />
+        </svg>
+      </button>
+      <div
+        {...menu.panelProps}
+        hidden={!menu.open}
+        className="absolute top-full right-0 z-50 mt-2 w-48 rounded-md border border-line bg-surface p-1.5 shadow-lg"
+      >
+        <ul className="flex flex-col gap-0.5">
+          {items.map((item) => (
+            <li key={item.to}>
+              <NavLink to={item.to} className={menuLinkClass} onClick={() => menu.close(false)}>
+                {item.label}
+              </NavLink>
+            </li>
+          ))}
+        </ul>
+      </div>
+      <button
+        type="button"
+        onClick={onSignOut}
+        disabled={signingOut}
+        title="Sign out"
+        className="inline-flex shrink-0 items-center rounded-md border border-line-strong px-2 py-1.5 text-sm hover:bg-sunken md:px-2.5 md:py-1"
+      >
+        <svg width="16" height="16" viewBox="0 0 16 16" aria-hidden="true" className="md:hidden">
+          <path d="M6 2.5H3v11h3M10 5l3 3-3 3M13 8H6" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" strokeLinejoin="round" />
+        </svg>
+        <span className="max-md:sr-only">{signingOut ? 'Signing out…' : 'Sign out'}</span>
+      </button>
+    </div>
+  );
+}
+
 export function AppShell({ user, navItems, onSignOut, signingOut, children }: AppShellProps) {
-  const [menuOpen, setMenuOpen] = useState(false);
-  const location = useLocation();
-  useEffect(() => setMenuOpen(false), [location.pathname]);
+  const menu = useDisclosure<HTMLButtonElement, HTMLElement>();
 
   return (
     <div className="flex min-h-screen flex-col">
@@ -69,11 +121,23 @@ export function AppShell({ user, navItems, onSignOut, signingOut, children }: Ap
             <ParapetMark />
             <span className="text-lg">Parapet</span>
           </Link>
+          {/* The menu button comes right before the links it shows, so Tab goes from it into them; on a phone it sits at the end of the bar. */}
+          <button
+            type="button"
+            className="shrink-0 rounded-md border border-line-strong p-2 max-lg:order-last lg:hidden"
+            {...menu.buttonProps}
+            onClick={menu.toggle}
+          >
+            <span className="sr-only">Menu</span>
+            <svg width="18" height="18" viewBox="0 0 16 16" aria-hidden="true">
+              <path d={menu.open ? 'M3.5 3.5l9 9M12.5 3.5l-9 9' : 'M2 4h12M2 8h12M2 12h12'} stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" />
+            </svg>
+          </button>
           <nav
-            id="main-nav"
+            {...menu.panelProps}
             data-testid="nav"
             aria-label="Main"
-            className={`${menuOpen ? 'max-lg:block' : 'max-lg:hidden'} z-40 max-lg:absolute max-lg:inset-x-0 max-lg:top-14 max-lg:border-b max-lg:border-line max-lg:bg-surface max-lg:p-3 max-lg:shadow-md lg:ml-4`}
+            className={`${menu.open ? 'max-lg:block' : 'max-lg:hidden'} z-40 max-lg:absolute max-lg:inset-x-0 max-lg:top-14 max-lg:border-b max-lg:border-line max-lg:bg-surface max-lg:p-3 max-lg:shadow-md lg:ml-4`}
           >
             <ul className="flex flex-col gap-1 lg:flex-row">
               {navItems.map((item) => (
@@ -87,62 +151,12 @@ export function AppShell({ user, navItems, onSignOut, signingOut, children }: Ap
           </nav>
           <div className="ml-auto flex min-w-0 items-center gap-2">
             <LiveIndicator />
-            <div data-testid="user-menu" className="flex min-w-0 items-center gap-2 md:gap-3">
-              <div className="min-w-0 text-right leading-tight">
-                <p className="truncate text-sm font-medium">{user.name}</p>
-                <p className="truncate text-xs text-muted">
-                  {capitalise(user.role)} ·{' '}
-                  <Link to={paths.account.to()} className="hover:text-ink hover:underline">
-                    Account
-                  </Link>{' '}
-                  ·{' '}
-                  <Link to={paths.preferences.to()} className="hover:text-ink hover:underline">
-                    Mail
-                  </Link>
-                  {user.role === 'admin' && (
-                    <>
-                      {' '}·{' '}
-                      <Link to={paths.outbox.to()} className="hover:text-ink hover:underline">
-                        Outbox
-                      </Link>{' '}
-                      ·{' '}
-                      <Link to={paths.history.to()} className="hover:text-ink hover:underline">
-                        History
-                      </Link>
-                    </>
-                  )}
-                </p>
-              </div>
-              <button
-                type="button"
-                onClick={onSignOut}
-                disabled={signingOut}
-                title="Sign out"
-                className="inline-flex shrink-0 items-center rounded-md border border-line px-2 py-1.5 text-sm hover:bg-sunken md:px-2.5 md:py-1"
-              >
-                <svg width="16" height="16" viewBox="0 0 16 16" aria-hidden="true" className="md:hidden">
-                  <path d="M6 2.5H3v11h3M10 5l3 3-3 3M13 8H6" fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round" strokeLinejoin="round" />
-                </svg>
-                <span className="max-md:sr-only">{signingOut ? 'Signing out…' : 'Sign out'}</span>
-              </button>
-            </div>
+            <PersonMenu user={user} onSignOut={onSignOut} signingOut={signingOut} />
             <ThemeToggle />
-            <button
-              type="button"
-              className="shrink-0 rounded-md border border-line p-2 lg:hidden"
-              aria-expanded={menuOpen}
-              aria-controls="main-nav"
-              onClick={() => setMenuOpen((open) => !open)}
-            >
-              <span className="sr-only">Menu</span>
-              <svg width="18" height="18" viewBox="0 0 16 16" aria-hidden="true">
-                <path d={menuOpen ? 'M3.5 3.5l9 9M12.5 3.5l-9 9' : 'M2 4h12M2 8h12M2 12h12'} stroke="currentColor" strokeWidth="1.6" strokeLinecap="round" />
-              </svg>
-            </button>
           </div>
         </div>
       </header>
-      <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-4 py-6">
+      <main id="main" tabIndex={-1} className="mx-auto w-full max-w-6xl flex-1 px-4 py-6 focus:outline-none">
         {children}
       </main>
     </div>

@@ -1,8 +1,11 @@
-import { signInSchema } from '../../../../shared/schemas/session';
 import { Button } from '../../../components/button';
 import { FormMessage, TextField } from '../../../components/form-field';
-import { useForm } from '../../../lib/form';
+import { lazySchema, useForm } from '../../../lib/form';
 import { useSignIn } from '../api/session';
+
+// The shared schema (and the validation library under it) is fetched once someone starts typing,
+// not with the page: the sign-in page is often opened on a phone on weak mobile data.
+const loadSchema = lazySchema(() => import('../../../../shared/schemas/session').then((m) => m.signInSchema));
 
 export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
   const form = useForm({ email: '', password: '' });
@@ -13,11 +16,12 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
       data-testid="sign-in-form"
       noValidate
       className="space-y-4"
+      onFocus={() => void loadSchema().catch(() => undefined)}
       onSubmit={(event) => {
         event.preventDefault();
-        const input = form.check(signInSchema, form.values);
-        if (!input) return;
-        signIn.mutate(input, { onSuccess: onSignedIn, onError: form.showServerError });
+        void form.checkWith(loadSchema, form.values).then((input) => {
+          if (input) signIn.mutate(input, { onSuccess: onSignedIn, onError: form.showServerError });
+        });
       }}
     >
       <FormMessage message={form.formError} />

@@ -46,7 +46,7 @@ export function BulkNodeAssign({ neighbourhoodId, neighbourhoodNames }: { neighb
       <div className="flex flex-wrap items-end gap-3">
         <label className="block max-w-sm text-sm font-medium">
           Find nodes
-          <input type="search" value={q} onChange={(e) => { setQ(e.target.value); setPage(1); }} className="mt-1 block w-full rounded-md border border-line bg-surface px-2.5 py-1.5 text-sm" />
+          <input type="search" value={q} onChange={(e) => { setQ(e.target.value); setPage(1); }} className="mt-1 block w-full rounded-md border border-line-strong bg-surface px-2.5 py-1.5 text-sm" />
         </label>
         <FilterSelect label="Now in" value={from} onChange={(v) => { setFrom(v); setPage(1); }} options={[...neighbourhoodNames].map(([id, name]) => ({ value: String(id), label: name }))} />
         <FilterSelect label="State" value={state} onChange={(v) => { setState(v); setPage(1); }} options={NODE_STATES.map((s) => ({ value: s, label: s }))} />

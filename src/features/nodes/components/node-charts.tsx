@@ -37,7 +37,7 @@ function describe(spec: ChartSpec, points: SeriesPoint[], range: SeriesRange): s
 
 export function RangeSwitch({ range, onChange }: { range: SeriesRange; onChange: (range: SeriesRange) => void }) {
   return (
-    <div role="group" aria-label="Time range" className="inline-flex rounded-md border border-line bg-surface p-0.5">
+    <div role="group" aria-label="Time range" className="inline-flex rounded-md border border-line-strong bg-surface p-0.5">
       {SERIES_RANGES.map((option) => (
         <button
           key={option}

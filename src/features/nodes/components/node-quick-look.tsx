@@ -1,3 +1,4 @@
+import { lazy, Suspense } from 'react';
 import { Link } from 'react-router-dom';
 import { LoadError, Loading } from '../../../components/query-state';
 import { StateBadge } from '../../../components/state-badge';
@@ -5,7 +6,9 @@ import { capitalise, formatDateTime } from '../../../lib/format';
 import { paths } from '../../../lib/paths';
 import { useNode } from '../api/nodes';
 import { DriftList, LatestFigures } from './node-figures';
-import { NodeSparklines } from './node-sparklines';
+
+// The chart library loads when a node is first chosen, not with the map.
+const NodeSparklines = lazy(() => import('./node-sparklines').then((m) => ({ default: m.NodeSparklines })));
 
 interface NodeQuickLookProps {
   nodeId: number;
@@ -52,7 +55,9 @@ export function NodeQuickLook({ nodeId, openOutageId, onClose }: NodeQuickLookPr
             <h3 className="mb-1 text-xs font-medium tracking-wide text-muted uppercase">Drift</h3>
             <DriftList node={node.data} />
           </div>
-          <NodeSparklines nodeId={nodeId} />
+          <Suspense fallback={<Loading label="Loading the charts…" />}>
+            <NodeSparklines nodeId={nodeId} />
+          </Suspense>
           <Link to={paths.nodeDetail.to(nodeId)} className="inline-block text-sm font-medium text-accent hover:underline">
             Open the node's page
           </Link>

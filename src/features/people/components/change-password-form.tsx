@@ -1,13 +1,17 @@
 import { useState } from 'react';
 import { z } from 'zod';
-import { passwordChangeSchema } from '../../../../shared/schemas/account';
 import { Button } from '../../../components/button';
 import { FormMessage, TextField } from '../../../components/form-field';
-import { useForm } from '../../../lib/form';
+import { lazySchema, useForm } from '../../../lib/form';
 import { useChangePassword } from '../api/account';
 import { PASSWORD_HINT } from './new-password-form';
 
-const schema = passwordChangeSchema.extend({ repeat: z.string() }).refine((v) => v.newPassword === v.repeat, { path: ['repeat'], message: 'does not match the new password' });
+// The password rules carry a 460 KB dictionary: fetched when the form is first used, not with the page.
+const loadSchema = lazySchema(() =>
+  import('../../../../shared/schemas/account').then(({ passwordChangeSchema }) =>
+    passwordChangeSchema.extend({ repeat: z.string() }).refine((v) => v.newPassword === v.repeat, { path: ['repeat'], message: 'does not match the new password' }),
+  ),
+);
 const EMPTY = { currentPassword: '', newPassword: '', repeat: '' };
 
 export function ChangePasswordForm() {
@@ -19,16 +23,17 @@ export function ChangePasswordForm() {
       noValidate
       data-testid="change-password-form"
       className="max-w-md space-y-4"
+      onFocus={() => void loadSchema().catch(() => undefined)}
       onSubmit={(event) => {
         event.preventDefault();
         setDone(false);
-        const input = form.check(schema, form.values);
-        if (input) {
+        void form.checkWith(loadSchema, form.values).then((input) => {
+          if (!input) return;
           change.mutate(
             { currentPassword: input.currentPassword, newPassword: input.newPassword },
             { onSuccess: () => { form.reset(EMPTY); setDone(true); }, onError: form.showServerError },
           );
-        }
+        });
       }}
     >
       <FormMessage message={form.formError} />

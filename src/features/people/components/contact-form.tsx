@@ -1,9 +1,11 @@
 import { useEffect, useState } from 'react';
 import type { MeDto } from '../../../../shared/schemas/account';
-import { meUpdateSchema } from '../../../../shared/schemas/account';
 import { Button } from '../../../components/button';
 import { FormMessage, TextField } from '../../../components/form-field';
-import { useForm } from '../../../lib/form';
+import { lazySchema, useForm } from '../../../lib/form';
+
+// Its module also holds the password rules and their dictionary: fetched when the form is first used.
+const loadSchema = lazySchema(() => import('../../../../shared/schemas/account').then((m) => m.meUpdateSchema));
 import { useUpdateMe } from '../api/account';
 
 export function ContactForm({ me }: { me: MeDto }) {
@@ -16,10 +18,12 @@ export function ContactForm({ me }: { me: MeDto }) {
       noValidate
       data-testid="contact-form"
       className="max-w-md space-y-4"
+      onFocus={() => void loadSchema().catch(() => undefined)}
       onSubmit={(event) => {
         event.preventDefault();
-        const input = form.check(meUpdateSchema, { name: form.values.name, phone: form.values.phone.trim() === '' ? null : form.values.phone });
-        if (input) update.mutate(input, { onSuccess: () => setSaved(true), onError: form.showServerError });
+        void form.checkWith(loadSchema, { name: form.values.name, phone: form.values.phone.trim() === '' ? null : form.values.phone }).then((input) => {
+          if (input) update.mutate(input, { onSuccess: () => setSaved(true), onError: form.showServerError });
+        });
       }}
     >
       <FormMessage message={form.formError} />

@@ -1,10 +1,12 @@
 import { ROLES } from '../../../../shared/enums';
-import { invitationCreateSchema } from '../../../../shared/schemas/account';
 import type { UserDto } from '../../../../shared/schemas/user';
 import { Button } from '../../../components/button';
 import { FormMessage, SelectField, TextField } from '../../../components/form-field';
 import { capitalise } from '../../../lib/format';
-import { useForm } from '../../../lib/form';
+import { lazySchema, useForm } from '../../../lib/form';
+
+// Its module also holds the password rules and their dictionary: fetched when the form is first used.
+const loadSchema = lazySchema(() => import('../../../../shared/schemas/account').then((m) => m.invitationCreateSchema));
 import { useInvite } from '../api/account';
 
 /** An admin invites someone by e-mail; they choose their own password from the link. */
@@ -16,10 +18,12 @@ export function InviteForm({ onSent, onCancel }: { onSent: (person: UserDto & { 
       noValidate
       data-testid="invite-form"
       className="grid max-w-2xl gap-4 sm:grid-cols-3"
+      onFocus={() => void loadSchema().catch(() => undefined)}
       onSubmit={(event) => {
         event.preventDefault();
-        const input = form.check(invitationCreateSchema, form.values);
-        if (input) invite.mutate(input, { onSuccess: onSent, onError: form.showServerError });
+        void form.checkWith(loadSchema, form.values).then((input) => {
+          if (input) invite.mutate(input, { onSuccess: onSent, onError: form.showServerError });
+        });
       }}
     >
       <div className="sm:col-span-3"><FormMessage message={form.formError} /></div>

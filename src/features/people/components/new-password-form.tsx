@@ -1,13 +1,15 @@
 import { useState } from 'react';
 import { z } from 'zod';
-import { newPasswordSchema } from '../../../../shared/security/passwordRules';
 import { Button } from '../../../components/button';
 import { FormMessage, TextField } from '../../../components/form-field';
-import { useForm } from '../../../lib/form';
+import { lazySchema, useForm } from '../../../lib/form';
 
-const schema = z
-  .object({ password: newPasswordSchema, repeat: z.string() })
-  .refine((v) => v.password === v.repeat, { path: ['repeat'], message: 'does not match the password above' });
+// The password rules carry a 460 KB dictionary: fetched when the form is first used, not with the page.
+const loadSchema = lazySchema(() =>
+  import('../../../../shared/security/passwordRules').then(({ newPasswordSchema }) =>
+    z.object({ password: newPasswordSchema, repeat: z.string() }).refine((v) => v.password === v.repeat, { path: ['repeat'], message: 'does not match the password above' }),
+  ),
+);
 
 export const PASSWORD_HINT = 'At least 12 characters. A few unrelated words work well; common passwords and your own name are refused.';
 
@@ -20,10 +22,12 @@ export function NewPasswordForm({ submitLabel, pending, onSubmit }: { submitLabe
       noValidate
       data-testid="new-password-form"
       className="space-y-4"
+      onFocus={() => void loadSchema().catch(() => undefined)}
       onSubmit={(event) => {
         event.preventDefault();
-        const input = form.check(schema, form.values);
-        if (input) onSubmit(input.password, form.showServerError);
+        void form.checkWith(loadSchema, form.values).then((input) => {
+          if (input) onSubmit(input.password, form.showServerError);
+        });
       }}
     >
       <FormMessage message={form.formError} />

@@ -1,9 +1,12 @@
 import { ROLES } from '../../../../shared/enums';
-import { userCreateSchema, type UserDto } from '../../../../shared/schemas/user';
+import type { UserDto } from '../../../../shared/schemas/user';
 import { Button } from '../../../components/button';
 import { FormMessage, SelectField, TextField } from '../../../components/form-field';
 import { capitalise } from '../../../lib/format';
-import { useForm } from '../../../lib/form';
+import { lazySchema, useForm } from '../../../lib/form';
+
+// The password rules carry a 460 KB dictionary: fetched when the form is first used, not with the page.
+const loadSchema = lazySchema(() => import('../../../../shared/schemas/user').then((m) => m.userCreateSchema));
 import { useCreatePerson } from '../api/people';
 
 const ROLE_HINT = 'Admins coordinate the whole network; operators look after their neighbourhoods; hosts see the sites they host.';
@@ -15,8 +18,9 @@ export function PersonForm({ onSaved, onCancel }: { onSaved: (person: UserDto) =
 
   function submit() {
     const input = { ...values, phone: values.phone.trim() === '' ? null : values.phone };
-    const parsed = form.check(userCreateSchema, input);
-    if (parsed) create.mutate(parsed, { onSuccess: onSaved, onError: form.showServerError });
+    void form.checkWith(loadSchema, input).then((parsed) => {
+      if (parsed) create.mutate(parsed, { onSuccess: onSaved, onError: form.showServerError });
+    });
   }
 
   return (
@@ -24,6 +28,7 @@ export function PersonForm({ onSaved, onCancel }: { onSaved: (person: UserDto) =
       noValidate
       aria-label="New person"
       className="space-y-4 rounded-lg border border-line bg-surface p-4"
+      onFocus={() => void loadSchema().catch(() => undefined)}
       onSubmit={(event) => {
         event.preventDefault();
         submit();

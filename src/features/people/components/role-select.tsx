@@ -1,9 +1,13 @@
 import { useId, useState } from 'react';
 import { ROLES, type Role } from '../../../../shared/enums';
-import { userUpdateSchema, type UserDto } from '../../../../shared/schemas/user';
+import type { UserDto } from '../../../../shared/schemas/user';
 import { ApiError } from '../../../lib/api';
 import { capitalise } from '../../../lib/format';
+import { lazySchema } from '../../../lib/form';
 import { useUpdatePerson } from '../api/people';
+
+// Its module also holds the password rules and their dictionary: fetched on the first change, not with the page.
+const loadSchema = lazySchema(() => import('../../../../shared/schemas/user').then((m) => m.userUpdateSchema));
 
 /** Change one person's role in place; the server decides whether this caller may. */
 export function RoleSelect({ person }: { person: UserDto }) {
@@ -11,8 +15,15 @@ export function RoleSelect({ person }: { person: UserDto }) {
   const update = useUpdatePerson(person.id);
   const [message, setMessage] = useState<string | null>(null);
 
-  function change(role: string) {
-    const parsed = userUpdateSchema.safeParse({ role });
+  async function change(role: string) {
+    let schema;
+    try {
+      schema = await loadSchema();
+    } catch {
+      setMessage('Could not load the role check. Check your connection and try again.');
+      return;
+    }
+    const parsed = schema.safeParse({ role });
     if (!parsed.success) {
       setMessage(parsed.error.issues.map((issue) => issue.message).join(' '));
       return;
@@ -32,9 +43,9 @@ export function RoleSelect({ person }: { person: UserDto }) {
         id={id}
         value={update.isPending && update.variables?.role ? update.variables.role : person.role}
         disabled={update.isPending}
-        onChange={(event) => change(event.target.value)}
+        onChange={(event) => void change(event.target.value)}
         aria-describedby={`${id}-error`}
-        className="rounded-md border border-line bg-surface px-2 py-1 text-sm"
+        className="rounded-md border border-line-strong bg-surface px-2 py-1 text-sm"
       >
         {ROLES.map((role: Role) => (
           <option key={role} value={role}>

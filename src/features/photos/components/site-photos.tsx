@@ -56,7 +56,7 @@ export function SitePhotos({ siteId }: { siteId: number }) {
             <div className="mt-3 flex flex-wrap items-end gap-2">
               <label className="text-sm">
                 Caption (optional)
-                <input value={caption} onChange={(e) => setCaption(e.target.value)} maxLength={200} className="mt-1 block w-64 rounded-md border border-line bg-surface px-2 py-1" />
+                <input value={caption} onChange={(e) => setCaption(e.target.value)} maxLength={200} className="mt-1 block w-64 rounded-md border border-line-strong bg-surface px-2 py-1" />
               </label>
               <input ref={fileInput} type="file" accept="image/jpeg,image/png,image/webp" className="hidden" onChange={(e) => send(e.target.files?.[0])} data-testid="photo-file" />
               <Button onClick={() => fileInput.current?.click()} disabled={upload.isPending}>

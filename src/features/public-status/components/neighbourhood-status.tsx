@@ -1,3 +1,4 @@
+import { useId } from 'react';
 import type { PublicNeighbourhoodStatus } from '../../../../shared/schemas/publicStatus';
 import { StateShape } from '../../../components/state-badge';
 import { formatPercent } from '../../../lib/format';
@@ -11,10 +12,12 @@ function overall(s: PublicNeighbourhoodStatus) {
 
 export function NeighbourhoodStatus({ status }: { status: PublicNeighbourhoodStatus }) {
   const look = overall(status);
+  // An id from useId, never from the name: "Old Quay" has a space, and aria-labelledby reads ids split at spaces.
+  const headingId = useId();
   return (
-    <article className="rounded-lg border border-line bg-surface p-4" aria-labelledby={`hood-${status.name}`} data-testid="public-neighbourhood">
+    <article className="rounded-lg border border-line bg-surface p-4" aria-labelledby={headingId} data-testid="public-neighbourhood">
       <div className="flex items-start justify-between gap-3">
-        <h2 id={`hood-${status.name}`} className="text-lg font-semibold">
+        <h2 id={headingId} className="text-lg font-semibold">
           {status.name}
         </h2>
         <span className="inline-flex shrink-0 items-center gap-1.5 text-sm text-muted">

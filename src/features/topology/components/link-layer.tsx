@@ -1,6 +1,6 @@
 import { useStore, useStoreApi, ViewportPortal } from '@xyflow/react';
 import { memo, useMemo } from 'react';
-import { DISCOVERED_COLOUR, DISCOVERED_DASH, marginColour, plannedDash } from '../utils/link-look';
+import { DISCOVERED_COLOUR, DISCOVERED_DASH, MARGIN_MARK, marginColour, plannedDash } from '../utils/link-look';
 import type { LinkLine } from '../utils/flow-elements';
 
 interface Rect {
@@ -30,6 +30,22 @@ function visibleRect(s: { transform: [number, number, number]; width: number; he
 
 const crosses = (line: LinkLine, r: Rect) => line.maxX >= r.minX && line.minX <= r.maxX && line.maxY >= r.minY && line.minY <= r.maxY;
 
+// Scaled like the nodes, so the mark stays readable when the graph is zoomed out.
+const MARK_R = 6.5;
+
+/** The band's sign in a disc at the middle of the line. */
+function MarginMark({ line }: { line: LinkLine }) {
+  const colour = marginColour(line.band);
+  return (
+    <g data-testid={`topology-link-mark-${line.id}`} style={{ transform: `translate(${(line.x1 + line.x2) / 2}px, ${(line.y1 + line.y2) / 2}px) scale(var(--pp-node-scale, 1))` }}>
+      <circle r={MARK_R} fill="var(--pp-surface)" stroke={colour} strokeWidth={1.5} />
+      <text textAnchor="middle" dominantBaseline="central" fontSize={10} fontWeight={700} fill={colour}>
+        {MARGIN_MARK[line.band]}
+      </text>
+    </g>
+  );
+}
+
 /**
  * Links as plain lines under the nodes, drawn from the layout's own coordinates: no per-link
  * handles to measure, and only the lines near the view are in the page.
@@ -58,6 +74,7 @@ export const LinkLayer = memo(function LinkLayer({ lines }: { lines: LinkLine[] 
             vectorEffect="non-scaling-stroke"
           />
         ))}
+        {shown.map((line) => (MARGIN_MARK[line.band] ? <MarginMark key={`mark-${line.id}`} line={line} /> : null))}
       </svg>
     </ViewportPortal>
   );

@@ -54,13 +54,18 @@ export const SiteNode = memo(function SiteNode({ data, selected }: NodeProps<Sit
         {/* The root of an outage with nodes stranded behind it: a double vermillion ring, so the cause stands out from what it cut off. */}
         {cutOff > 0 && <span aria-hidden="true" className="absolute -inset-2 rounded-full border-[3px] border-double border-[#D55E00]" />}
         <StateShape state={data.state} size={SHAPE_PX} />
+        {/* The node's name for assistive technology is its aria-label, which starts with these words. */}
         {labelled && (
-          <span className="pointer-events-none absolute top-full left-1/2 mt-1 -translate-x-1/2 text-center leading-tight whitespace-nowrap">
+          <span aria-hidden="true" className="pointer-events-none absolute top-full left-1/2 mt-1 -translate-x-1/2 text-center leading-tight whitespace-nowrap">
             <span className="block rounded bg-surface/85 px-1 text-[11px] font-medium text-ink">
               {data.name}
+              {/* Real spaces between the words, so the text reads as the node's name does. */}
+              {data.isUplink && ' '}
               {data.isUplink && <span className="ml-1 rounded bg-accent px-1 text-[9px] font-semibold tracking-wide text-accent-ink uppercase">uplink</span>}
             </span>
+            {' '}
             <span className="block text-[10px] text-muted">{word}</span>
+            {cutOff > 0 && ' '}
             {cutOff > 0 && <span className="block text-[10px] font-semibold text-danger">{cutOff} cut off behind it</span>}
           </span>
         )}

@@ -1,11 +1,19 @@
 import { NODE_STATES } from '../../../../shared/enums';
 import { StateShape, stateWord } from '../../../components/state-badge';
-import { DISCOVERED_COLOUR, DISCOVERED_DASH, linkWidthPx, MARGIN_BANDS, marginColour, plannedDash } from '../utils/link-look';
+import { DISCOVERED_COLOUR, DISCOVERED_DASH, linkWidthPx, MARGIN_BANDS, MARGIN_MARK, marginColour, plannedDash } from '../utils/link-look';
 
-function LineSwatch({ colour, widthPx, dash }: { colour: string; widthPx: number; dash?: string }) {
+function LineSwatch({ colour, widthPx, dash, mark }: { colour: string; widthPx: number; dash?: string; mark?: string | null }) {
   return (
-    <svg width="36" height="12" aria-hidden="true" className="shrink-0">
-      <line x1="2" y1="6" x2="34" y2="6" stroke={colour} strokeWidth={widthPx} strokeLinecap="round" strokeDasharray={dash} />
+    <svg width="36" height="16" aria-hidden="true" className="shrink-0">
+      <line x1="2" y1="8" x2="34" y2="8" stroke={colour} strokeWidth={widthPx} strokeLinecap="round" strokeDasharray={dash} />
+      {mark && (
+        <g transform="translate(18 8)">
+          <circle r="6.5" fill="var(--pp-surface)" stroke={colour} strokeWidth="1.5" />
+          <text textAnchor="middle" dominantBaseline="central" fontSize="10" fontWeight="700" fill={colour}>
+            {mark}
+          </text>
+        </g>
+      )}
     </svg>
   );
 }
@@ -36,11 +44,11 @@ export function TopologyLegend() {
         </p>
       </div>
       <div>
-        <h3 className="mb-1.5 text-xs font-medium tracking-wide text-muted uppercase">Link colour: predicted fade margin</h3>
+        <h3 className="mb-1.5 text-xs font-medium tracking-wide text-muted uppercase">Link colour and sign: predicted fade margin</h3>
         <ul className="space-y-1">
           {MARGIN_BANDS.map((band) => (
             <li key={band.band} className="flex items-center gap-2">
-              <LineSwatch colour={marginColour(band.band)} widthPx={3} />
+              <LineSwatch colour={marginColour(band.band)} widthPx={3} mark={MARGIN_MARK[band.band]} />
               <span>
                 {band.label} <span className="text-muted">({band.range})</span>
               </span>

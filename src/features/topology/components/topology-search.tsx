@@ -44,7 +44,7 @@ export function TopologySearch({ nodes, onFind }: { nodes: TopologyNode[]; onFin
           placeholder="Name or site"
           onChange={(event) => setText(event.target.value)}
           aria-describedby={message ? `${inputId}-message` : undefined}
-          className="w-full min-w-0 rounded-md border border-line bg-surface px-2.5 py-1.5 text-sm text-ink"
+          className="w-full min-w-0 rounded-md border border-line-strong bg-surface px-2.5 py-1.5 text-sm text-ink"
         />
         <Button type="submit">Find</Button>
       </div>

@@ -1,6 +1,6 @@
 import { Background, Controls, MiniMap, ReactFlow, ReactFlowProvider, useReactFlow, useStore, type NodeMouseHandler } from '@xyflow/react';
 import '@xyflow/react/dist/style.css';
-import { useCallback, useEffect, useMemo, useRef, useState, type ReactNode, type RefObject } from 'react';
+import { useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent, type ReactNode, type RefObject } from 'react';
 import { NODE_STATES, type NodeState } from '../../../../shared/enums';
 import { FilterSelect } from '../../../components/list-toolbar';
 import { stateWord } from '../../../components/state-badge';
@@ -79,15 +79,54 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
 
   const onNodeClick = useCallback<NodeMouseHandler<SiteFlowNode>>((_event, node) => onSelect(node.data.nodeId), [onSelect]);
 
+  // Keyboard: Enter or Space on a focused node opens its panel, and focus moves there and is announced;
+  // closing the panel puts focus back on the node in the graph.
+  const aside = useRef<HTMLElement>(null);
+  const [panelFocusWanted, setPanelFocusWanted] = useState(false);
+  const [announcement, setAnnouncement] = useState('');
+  const selectByKeyboard = useCallback(
+    (nodeId: number) => {
+      onSelect(nodeId);
+      setPanelFocusWanted(true);
+      const node = topology.nodes.find((n) => n.id === nodeId);
+      if (node) setAnnouncement(`Showing ${node.name} at ${node.siteName}: ${stateWord(node.state)}.`);
+    },
+    [onSelect, topology.nodes],
+  );
+  const onCanvasKeyDown = (event: KeyboardEvent<HTMLDivElement>) => {
+    if (event.key !== 'Enter' && event.key !== ' ') return;
+    const id = (event.target as HTMLElement).closest<HTMLElement>('.react-flow__node')?.dataset.id;
+    if (!id) return;
+    event.preventDefault();
+    selectByKeyboard(Number(id));
+  };
+  useEffect(() => {
+    if (panelFocusWanted && panel && aside.current) {
+      aside.current.focus();
+      setPanelFocusWanted(false);
+    }
+  }, [panelFocusWanted, panel]);
+  const previousSelected = useRef(selectedId);
+  useEffect(() => {
+    const before = previousSelected.current;
+    previousSelected.current = selectedId;
+    if (before === null || selectedId !== null) return;
+    // The panel closed with focus inside it (now gone): return to the node it was about.
+    const active = document.activeElement;
+    if (active && active !== document.body && active.isConnected) return;
+    const nodeEl = canvas.current?.querySelector<HTMLElement>(`.react-flow__node[data-id="${before}"]`);
+    (nodeEl ?? canvas.current?.querySelector<HTMLElement>('.react-flow__node'))?.focus();
+  }, [selectedId]);
+
   const focusNode = useCallback(
     (node: TopologyNode) => {
       if (!isShown(node, filters)) onFilters({});
       const position = positions.get(node.id);
       if (position) void flow.setCenter(position.x, position.y, { zoom: Math.max(flow.getZoom(), 1.4), duration: 500 });
       setHighlightedId(node.id);
-      onSelect(node.id);
+      selectByKeyboard(node.id);
     },
-    [filters, onFilters, positions, flow, onSelect],
+    [filters, onFilters, positions, flow, selectByKeyboard],
   );
 
   // Decided once, on the first render: later filter changes must not move the view.
@@ -122,7 +161,8 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
         </p>
       </div>
       <div className="flex flex-col gap-3 lg:flex-row">
-        <div ref={canvas} data-testid="topology" className="h-[60vh] min-h-[360px] min-w-0 overflow-hidden rounded-lg border border-line lg:h-[70vh] lg:flex-1">
+        {/* Keys bubble up here from the graph's own focusable nodes. */}
+        <div ref={canvas} data-testid="topology" onKeyDown={onCanvasKeyDown} className="h-[60vh] min-h-[360px] min-w-0 overflow-hidden rounded-lg border border-line lg:h-[70vh] lg:flex-1">
           <ReactFlow
             className="parapet-graph"
             nodes={nodes}
@@ -147,7 +187,14 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
             <MiniMap<SiteFlowNode> className="max-lg:hidden" nodeColor={minimapColour} pannable zoomable ariaLabel="Overview of the whole graph" />
           </ReactFlow>
         </div>
-        {panel && <aside className="w-full shrink-0 lg:w-80">{panel}</aside>}
+        {panel && (
+          <aside ref={aside} tabIndex={-1} aria-label="Details of the selected node" className="w-full shrink-0 lg:w-80">
+            {panel}
+          </aside>
+        )}
+        <div role="status" className="sr-only">
+          {announcement}
+        </div>
       </div>
     </>
   );

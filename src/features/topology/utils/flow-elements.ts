@@ -1,5 +1,6 @@
 import type { NodeState } from '../../../../shared/enums';
 import type { DiscoveredLink, TopologyLink, TopologyNode } from '../api/topology';
+import { stateWord } from '../../../components/state-badge';
 import { SHAPE_PX, type SiteFlowNode } from '../components/site-node';
 import type { XY } from './layout';
 import { linkWidthPx, marginBand, type MarginBand } from './link-look';
@@ -40,6 +41,7 @@ export function buildFlowNodes(
       out.push(cached.flow);
       continue;
     }
+    const blastNodeCount = node.openOutageId !== null ? (node.blastNodeCount ?? 0) : 0;
     const flow: SiteFlowNode = {
       id: String(node.id),
       type: 'site',
@@ -57,10 +59,13 @@ export function buildFlowNodes(
         state: node.state,
         isUplink: node.isUplink,
         hasOpenOutage: node.openOutageId !== null,
-        blastNodeCount: node.openOutageId !== null ? (node.blastNodeCount ?? 0) : 0,
+        blastNodeCount,
         highlighted,
       },
-      ariaLabel: `${node.name}, ${node.state}`,
+      // A button to assistive technology: Enter or Space shows the node's details beside the graph.
+      // Its name starts with the words drawn under the node, in their order, so speech input finds it.
+      ariaRole: 'button',
+      ariaLabel: `${node.name}${node.isUplink ? ' uplink' : ''} ${stateWord(node.state)}${blastNodeCount > 0 ? ` ${blastNodeCount} cut off behind it` : ''}, at ${node.siteName}`,
     };
     cache.set(node, { key, flow });
     out.push(flow);

@@ -4,6 +4,9 @@ import type { MarginBand } from '../../../../shared/radio/linkVerdict';
 // One scale with the planning page: the bands live in shared/radio/linkVerdict.ts.
 export { MARGIN_BANDS, marginBand, type MarginBand } from '../../../../shared/radio/linkVerdict';
 
+/** The sign drawn in a small disc at a link's middle, so the band does not rest on colour alone. */
+export const MARGIN_MARK: Record<MarginBand, string | null> = { comfortable: null, thin: '−', 'at-risk': '!', unknown: '?' };
+
 /** CSS colour of a band; the variables are set per theme in styles.css. */
 export function marginColour(band: MarginBand): string {
   return `var(--pp-link-${band})`;

@@ -1,0 +1,114 @@
+import fs from 'node:fs';
+import http from 'node:http';
+import type { AddressInfo } from 'node:net';
+import os from 'node:os';
+import path from 'node:path';
+import zlib from 'node:zlib';
+import request from 'supertest';
+import { afterAll, describe, expect, it } from 'vitest';
+import { useApi } from '../helpers/api';
+import { buildNeighbourhood } from '../helpers/factories';
+
+// A small built client of our own, so these checks do not depend on what the real build contains.
+const dist = fs.mkdtempSync(path.join(os.tmpdir(), 'parapet-dist-'));
+const script = `export const lines = [${Array.from({ length: 400 }, (_, i) => `"line ${i} of the map page"`).join(',')}];\n`;
+const shell = `<!doctype html><html lang="en"><head><title>Parapet</title><script type="module" src="/assets/index-Ab12Cd34.js"></script></head><body><div id="root"></div></body></html>`;
+fs.mkdirSync(path.join(dist, 'assets'));
+fs.writeFileSync(path.join(dist, 'index.html'), shell);
+fs.writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js'), script);
+// As the build leaves them: a brotli and a gzip copy beside the main script; the chunk has none.
+const scriptBr = zlib.brotliCompressSync(script, { params: { [zlib.constants.BROTLI_PARAM_QUALITY]: 11 } });
+fs.writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js.br'), scriptBr);
+fs.writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js.gz'), zlib.gzipSync(script, { level: 9 }));
+fs.writeFileSync(path.join(dist, 'assets', 'chunk-Zz99Yy88.js'), script.replaceAll('map page', 'chart'));
+fs.writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js.map'), '{"version":3,"sources":["src/secret.ts"],"mappings":""}');
+fs.writeFileSync(path.join(dist, 'favicon.svg'), '<svg xmlns="http://www.w3.org/2000/svg"/>');
+afterAll(() => fs.rmSync(dist, { recursive: true, force: true }));
+
+/** The bytes exactly as they travel (supertest would decode them), with the answer's headers. */
+function raw(app: http.RequestListener, url: string, acceptEncoding: string) {
+  return new Promise<{ status: number; headers: http.IncomingHttpHeaders; body: Buffer }>((resolve, reject) => {
+    const server = http.createServer(app).listen(0, '127.0.0.1', () => {
+      const { port } = server.address() as AddressInfo;
+      http
+        .get({ host: '127.0.0.1', port, path: url, headers: { 'Accept-Encoding': acceptEncoding } }, (res) => {
+          const chunks: Buffer[] = [];
+          res.on('data', (c: Buffer) => chunks.push(c));
+          res.on('end', () => server.close(() => resolve({ status: res.statusCode ?? 0, headers: res.headers, body: Buffer.concat(chunks) })));
+        })
+        .on('error', (err) => server.close(() => reject(err)));
+    });
+  });
+}
+
+describe('serving the built client', () => {
+  const ctx = useApi({ clientDist: dist });
+
+  it('sends the pre-compressed brotli copy of a hashed asset when the browser offers it, cached for a year as immutable', async () => {
+    const res = await raw(ctx.app, '/assets/index-Ab12Cd34.js', 'gzip, deflate, br');
+    expect(res.status).toBe(200);
+    expect(res.headers['content-encoding']).toBe('br');
+    expect(res.headers['content-type']).toMatch(/^text\/javascript|^application\/javascript/);
+    expect(res.headers['cache-control']).toBe('public, max-age=31536000, immutable');
+    expect(res.headers['vary']).toMatch(/accept-encoding/i);
+    expect(res.body.equals(scriptBr)).toBe(true);
+    expect(zlib.brotliDecompressSync(res.body).toString()).toBe(script);
+  });
+
+  it('falls back to the gzip copy, and to plain bytes for a client that offers no encoding', async () => {
+    const gz = await raw(ctx.app, '/assets/index-Ab12Cd34.js', 'gzip');
+    expect(gz.headers['content-encoding']).toBe('gzip');
+    expect(gz.headers['cache-control']).toBe('public, max-age=31536000, immutable');
+    expect(zlib.gunzipSync(gz.body).toString()).toBe(script);
+
+    const plain = await raw(ctx.app, '/assets/index-Ab12Cd34.js', 'identity');
+    expect(plain.headers['content-encoding']).toBeUndefined();
+    expect(plain.body.toString()).toBe(script);
+  });
+
+  it('compresses an asset that has no pre-compressed copy as it is sent', async () => {
+    const res = await raw(ctx.app, '/assets/chunk-Zz99Yy88.js', 'br');
+    expect(res.headers['content-encoding']).toBe('br');
+    expect(res.headers['cache-control']).toBe('public, max-age=31536000, immutable');
+    expect(res.body.length).toBeLessThan(script.length / 3);
+    expect(zlib.brotliDecompressSync(res.body).toString()).toBe(script.replaceAll('map page', 'chart'));
+  });
+
+  it('never serves source maps, in the assets folder or anywhere else', async () => {
+    for (const url of ['/assets/index-Ab12Cd34.js.map', '/index.js.map', '/nodes/3/radio.map']) {
+      const res = await request(ctx.app).get(url);
+      expect(res.status, url).toBe(404);
+      expect(res.headers['content-type'], url).toMatch(/json/);
+      expect(res.body.error.message, url).toContain('Reload the page');
+      expect(res.text, url).not.toContain('secret.ts');
+    }
+  });
+
+  it('answers a missing hashed asset with 404, not with the page shell under a script name', async () => {
+    const res = await request(ctx.app).get('/assets/index-OldHash9.js');
+    expect(res.status).toBe(404);
+    expect(res.body.error).toEqual({ code: 'not_found', message: 'There is no file /assets/index-OldHash9.js in this release. Reload the page to get the current version.' });
+  });
+
+  it('sends the page shell for every client route, revalidated on each use so a release shows at once', async () => {
+    for (const url of ['/', '/topology', '/nodes/12']) {
+      const res = await request(ctx.app).get(url).set('Accept-Encoding', 'gzip');
+      expect(res.status, url).toBe(200);
+      expect(res.headers['content-type'], url).toMatch(/text\/html/);
+      expect(res.headers['cache-control'], url).toBe('no-cache');
+      expect(res.text, url).toBe(shell);
+    }
+    const icon = await request(ctx.app).get('/favicon.svg');
+    expect(icon.status).toBe(200);
+    expect(icon.headers['cache-control']).toBe('no-cache');
+  });
+
+  it('compresses JSON answers from the API as well', async () => {
+    for (let i = 0; i < 30; i++) await buildNeighbourhood({ name: `Lindenfall ward ${i}` });
+    const res = await raw(ctx.app, '/api/v1/public/status', 'br');
+    expect(res.status).toBe(200);
+    expect(res.headers['content-encoding']).toBe('br');
+    const body = JSON.parse(zlib.brotliDecompressSync(res.body).toString());
+    expect(body.data.neighbourhoods).toHaveLength(30);
+  });
+});
