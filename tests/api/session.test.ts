@@ -159,10 +159,11 @@ describe('database down', () => {
     try {
       const health = await request(app).get('/api/health');
       expect(health.status).toBe(503);
-      expect(health.headers['retry-after']).toBe('5');
+      expect(Number(health.headers['retry-after'])).toBeGreaterThanOrEqual(1);
       const api = await request(app).post('/api/v1/session').send({ email: 'a@example.test', password: 'whatever-password' });
       expect(api.status).toBe(503);
       expect(api.body.error.code).toBe('database_unavailable');
+      expect(Number(api.headers['retry-after'])).toBeGreaterThanOrEqual(1);
     } finally {
       await close();
       await sequelize.close();
