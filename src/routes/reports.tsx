@@ -8,10 +8,15 @@ import { buttonClass } from '../components/button';
 import { formatPercent } from '../lib/format';
 
 const thisMonth = () => new Date().toISOString().slice(0, 7);
+// A monthly report is read for a finished month, so the page opens on the last whole one.
+const lastMonth = () => {
+  const d = new Date();
+  return new Date(Date.UTC(d.getUTCFullYear(), d.getUTCMonth() - 1, 1)).toISOString().slice(0, 7);
+};
 
 export function ReportsPage() {
   const [search, setSearch] = useSearchParams();
-  const month = /^\d{4}-\d{2}$/.test(search.get('month') ?? '') ? search.get('month')! : thisMonth();
+  const month = /^\d{4}-\d{2}$/.test(search.get('month') ?? '') ? search.get('month')! : lastMonth();
   const report = useAvailabilityReport(month);
   const r = report.data;
 
