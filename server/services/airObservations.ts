@@ -1,4 +1,5 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
+import type { RadioMove } from '../../shared/schemas/radio';
 
 /** One radio naming another as its peer: the latest such report in the window, either direction. */
 export interface PairSighting {
@@ -127,17 +128,6 @@ export async function airView(sequelize: Sequelize, now: Date, windows: AirWindo
   return { byLink, discoveredLinks };
 }
 
-export interface RadioMove {
-  id: number;
-  mac: string;
-  fromNodeId: number;
-  fromNodeName: string;
-  fromIface: string;
-  toNodeId: number;
-  toNodeName: string;
-  toIface: string;
-  at: string;
-}
 
 /** MACs seen moving between nodes since `since`, touching any of the given nodes (all when null), newest first. */
 export async function radioMoves(sequelize: Sequelize, since: Date, nodeIds: number[] | null, limit = 50): Promise<RadioMove[]> {

@@ -1,5 +1,6 @@
 import { earthBulgeM, fresnelRadiusM, FRESNEL_CLEARANCE_FRACTION } from './fresnel';
 import { SPEED_OF_LIGHT_M_PER_S, wavelengthM } from './pathLoss';
+import type { PathProfileInput } from './pathProfile';
 
 /** Worst-case effective-earth factor for temperate climates (ITU-R P.530 clearance planning). */
 export const WORST_CASE_K = 2 / 3;
@@ -14,19 +15,11 @@ export interface GroundPoint {
   distanceKm: number;
   groundM: number;
 }
-export interface PathInput {
-  distanceKm: number;
-  freqMHz: number;
-  /** Ground elevation at each end and antenna height above it, m. */
-  aGroundM: number;
-  aHeightM: number;
-  bGroundM: number;
-  bHeightM: number;
+export interface PathInput extends PathProfileInput {
   kFactor: number;
   obstacles?: Obstacle[];
   /** Ground from elevation tiles; without it the ground runs straight between the two ends. */
   terrain?: GroundPoint[];
-  samples?: number;
 }
 export interface LineOfSight {
   clear: boolean;

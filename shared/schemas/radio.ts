@@ -95,3 +95,16 @@ export interface RadioDto {
   updatedAt: string;
   abilities: { update: boolean; delete: boolean };
 }
+
+/** A radio's MAC that turned up on another node: a radio swapped between roofs. */
+export interface RadioMove {
+  id: number;
+  mac: string;
+  fromNodeId: number;
+  fromNodeName: string;
+  fromIface: string;
+  toNodeId: number;
+  toNodeName: string;
+  toIface: string;
+  at: string;
+}

@@ -3,21 +3,15 @@ import { QueryTypes } from 'sequelize';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { Node, Site } from '../../server/models';
 import { runSilenceCheck } from '../../server/jobs/silenceCheck';
-import { buildUser, call, signIn, useApi, type TestContext } from '../helpers/api';
+import { buildUser, call, signIn, useApi, type TestContext, ingestTokenFor, postReports } from '../helpers/api';
 import { manualClock } from '../helpers/clock';
 import { buildNeighbourhood, buildNode, buildRadio } from '../helpers/factories';
 
 const clock = manualClock();
 const report = (seq: number, extra: object = {}) => ({ seq, sentAt: '2026-06-01T12:00:00Z', ...extra });
 
-async function tokenFor(ctx: TestContext, nodeId: number) {
-  const admin = await signIn(ctx, await buildUser({ role: 'admin' }));
-  const res = await call(admin, 'post', `/api/v1/nodes/${nodeId}/ingest-token`);
-  expect(res.status).toBe(201);
-  return res.body.token as string;
-}
-const post = (ctx: TestContext, token: string, body: unknown) =>
-  request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${token}`).send(body as object);
+const tokenFor = ingestTokenFor;
+const post = postReports;
 
 async function stored(ctx: TestContext, nodeId: number) {
   const [row] = await ctx.sequelize.query<{ hb: string; radios: string; seqs: string }>(

@@ -1,9 +1,8 @@
-import request from 'supertest';
 import { QueryTypes } from 'sequelize';
 import { describe, expect, it } from 'vitest';
 import { runSilenceCheck } from '../../server/jobs/silenceCheck';
 import { Node } from '../../server/models';
-import { buildUser, call, signIn, useApi, type TestContext } from '../helpers/api';
+import { buildUser, call, signIn, useApi, type TestContext, ingestTokenFor, postReports } from '../helpers/api';
 import { manualClock } from '../helpers/clock';
 import { buildNode } from '../helpers/factories';
 
@@ -12,14 +11,8 @@ const BOOT_A = '0f6c2d4e-1a2b-4c3d-8e9f-a1b2c3d4e5f6';
 const BOOT_B = '7d1e9a30-5b6c-4d7e-9f80-112233445566';
 const report = (seq: number, extra: object = {}) => ({ seq, sentAt: '2026-06-01T12:00:00Z', ...extra });
 
-async function tokenFor(ctx: TestContext, nodeId: number) {
-  const admin = await signIn(ctx, await buildUser({ role: 'admin' }));
-  const res = await call(admin, 'post', `/api/v1/nodes/${nodeId}/ingest-token`);
-  expect(res.status).toBe(201);
-  return res.body.token as string;
-}
-const post = (ctx: TestContext, token: string, body: unknown) =>
-  request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${token}`).send(body as object);
+const tokenFor = ingestTokenFor;
+const post = postReports;
 const seqRows = (ctx: TestContext, nodeId: number) =>
   ctx.sequelize.query<{ boot_id: string; seq: string }>('SELECT boot_id, seq::text FROM heartbeat_seqs WHERE node_id = $1 ORDER BY received_at, boot_id, seq', { bind: [nodeId], type: QueryTypes.SELECT });
 

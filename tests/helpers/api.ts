@@ -1,7 +1,7 @@
 import { randomUUID } from 'node:crypto';
 import request from 'supertest';
 import type { Sequelize } from 'sequelize';
-import { afterAll, beforeAll } from 'vitest';
+import { afterAll, beforeAll, expect } from 'vitest';
 import type { Role } from '../../shared/enums';
 import { createApp } from '../../server/app';
 import { loadConfig, type Config } from '../../server/config';
@@ -86,3 +86,15 @@ export const SIGNED_OUT = { code: 'not_signed_in', message: 'Sign in to continue
 
 /** The ids of a list answer, in order. */
 export const ids = (body: { data: { id: number }[] }) => body.data.map((r) => r.id);
+
+/** Issues a node's ingest token as an admin would, for tests that post heartbeats. */
+export async function ingestTokenFor(ctx: TestContext, nodeId: number) {
+  const admin = await signIn(ctx, await buildUser({ role: 'admin' }));
+  const res = await call(admin, 'post', `/api/v1/nodes/${nodeId}/ingest-token`);
+  expect(res.status).toBe(201);
+  return res.body.token as string;
+}
+
+/** Posts a report or a batch with a node's bearer token. */
+export const postReports = (ctx: TestContext, token: string, body: unknown) =>
+  request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${token}`).send(body as object);

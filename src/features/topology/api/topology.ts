@@ -2,6 +2,9 @@ import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tansta
 import type { LinkStatus, NodeState } from '../../../../shared/enums';
 import { api } from '../../../lib/api';
 import { linkKeys, overviewKeys, topologyKeys } from '../../../lib/query-keys';
+import type { RadioMove } from '../../../../shared/schemas/radio';
+
+export type { RadioMove };
 
 export interface TopologyNode {
   id: number;
@@ -51,18 +54,6 @@ export interface DiscoveredLink {
   abilities?: { add: boolean };
 }
 
-/** A radio's MAC that turned up on another node: a radio swapped between roofs. */
-export interface RadioMove {
-  id: number;
-  mac: string;
-  fromNodeId: number;
-  fromNodeName: string;
-  fromIface: string;
-  toNodeId: number;
-  toNodeName: string;
-  toIface: string;
-  at: string;
-}
 
 export interface Topology {
   nodes: TopologyNode[];
