@@ -41,7 +41,7 @@ trap 'exit 143' TERM
 require_node
 ensure_postgres_server
 if [[ ! -x /usr/bin/chromium ]]; then apt_install chromium; fi
-apt_install curl wget busybox
+apt_install curl wget busybox shellcheck
 (apt_install fonts-liberation) || say "fonts-liberation could not be installed; screenshots will use fallback fonts"
 ensure_node_modules
 
@@ -100,6 +100,12 @@ export SESSION_SECRET
 export PARAPET_DEMO_PASSWORD=${PARAPET_DEMO_PASSWORD:-parapet-demo}
 
 build_client
+
+# Static checks first: a type error or a shell-script warning fails the run like a failing test.
+run_logged "tsc --noEmit (type check)" "$PARAPET_LOG_DIR/typecheck.log" npx tsc --noEmit -p tsconfig.json
+run_logged "shellcheck (every shell script)" "$PARAPET_LOG_DIR/shellcheck.log" \
+  shellcheck -x -P SCRIPTDIR -P SCRIPTDIR/lib -S style \
+  "$PARAPET_ROOT"/docker-free-scripts/*.sh "$PARAPET_ROOT"/docker-free-scripts/lib/*.sh "$PARAPET_ROOT"/.ci/run
 
 mkdir -p "$ARTIFACTS_DIR"
 rm -f "$RESULTS_JSON"

@@ -47,7 +47,12 @@ describe('live updates across two server processes', () => {
   });
 
   it('refuses a socket without a session', async () => {
-    await expect(listen(b.url, 'parapet.sid=nothing')).rejects.toBeTruthy();
+    // The websocket upgrade is refused, so the client sees its transport fail, not a connection.
+    await expect(listen(b.url, 'parapet.sid=nothing')).rejects.toThrow('websocket error');
+    // The same handshake over HTTP says why, in the API's error shape.
+    const res = await fetch(`${b.url}/socket.io/?EIO=4&transport=polling`, { headers: { cookie: 'parapet.sid=nothing' } });
+    expect(res.status).toBe(401);
+    expect(await res.json()).toEqual({ error: { code: 'not_signed_in', message: 'Sign in to receive live updates.' } });
   });
 
   it('delivers a report posted to one process to a browser on the other, and only to rooms that may read it', async () => {

@@ -68,7 +68,11 @@ describe('planning in the browser', () => {
     await e2e.page.getByTestId(`topology-node-${nodeB}`).waitFor();
     const line = e2e.page.getByTestId(`topology-link-${link.id}`);
     await line.waitFor({ state: 'attached' });
-    expect(await line.getAttribute('stroke-dasharray')).toBeTruthy();
+    // A planned link is drawn dashed, 3 parts line to 2.5 parts gap (not solid, not the dotted "heard on the air" line).
+    const dash = (await line.getAttribute('stroke-dasharray')) ?? '';
+    expect(dash).toMatch(/^\d+(\.\d+)? \d+(\.\d+)?$/);
+    const [on, off] = dash.split(' ').map(Number);
+    expect(off / on).toBeCloseTo(2.5 / 3, 1);
     await screenshot(e2e.page, 'link-budget-saved-on-topology');
   }, 180_000);
 
