@@ -57,6 +57,9 @@ const envSchema = z.object({
   CSV_IMPORT_MAX_ROWS: z.coerce.number().int().min(1).default(5000),
   INGEST_RATE_LIMIT_PER_MIN: z.coerce.number().int().min(1).default(120),
   INGEST_BODY_LIMIT: z.string().default('64kb'),
+  INGEST_GROUP_WINDOW_MS: z.coerce.number().int().min(0).max(1000).default(4),
+  INGEST_GROUP_MAX_REPORTS: z.coerce.number().int().min(1).max(10_000).default(300),
+  INGEST_CACHE_MS: z.coerce.number().int().min(0).max(60_000).default(3000),
   HEALTH_CHECK_INTERVAL_MS: z.coerce.number().int().min(50).default(10_000),
   ROOT_CAUSE_WINDOW_S: z.coerce.number().int().min(0).max(3600).default(120),
   JOBS_ENABLED: bool.default(true),
@@ -139,6 +142,11 @@ export interface Config {
   csvImportMaxRows: number;
   ingestRateLimitPerMin: number;
   ingestBodyLimit: string;
+  /** Group commit: concurrent reports wait at most this long, or until this many are queued, and are stored in one statement. */
+  ingestGroupWindowMs: number;
+  ingestGroupMaxReports: number;
+  /** How long ingest trusts its cached token, threshold and inventory lookups (a revoked token stops within this on every instance). */
+  ingestCacheMs: number;
   /** How often the silence check, roll-ups and partition upkeep run. */
   healthCheckIntervalMs: number;
   /** Nodes whose last reports lie this close together are judged as one silence (root cause and stranded behind it). */
@@ -226,6 +234,9 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     csvImportMaxRows: e.CSV_IMPORT_MAX_ROWS,
     ingestRateLimitPerMin: e.INGEST_RATE_LIMIT_PER_MIN,
     ingestBodyLimit: e.INGEST_BODY_LIMIT,
+    ingestGroupWindowMs: e.INGEST_GROUP_WINDOW_MS,
+    ingestGroupMaxReports: e.INGEST_GROUP_MAX_REPORTS,
+    ingestCacheMs: e.INGEST_CACHE_MS,
     healthCheckIntervalMs: e.HEALTH_CHECK_INTERVAL_MS,
     rootCauseWindowS: e.ROOT_CAUSE_WINDOW_S,
     jobsEnabled: e.JOBS_ENABLED,

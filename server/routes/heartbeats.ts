@@ -6,7 +6,9 @@ import { heartbeatBatchSchema, heartbeatReportSchema } from '../../shared/schema
 import type { Config } from '../config';
 import { ApiError, TooMany } from '../errors';
 import { parseOrThrow } from '../middlewares/validate';
-import { ingestReports } from '../services/heartbeatIngest';
+import { configureGroupCommit, ingestReports } from '../services/heartbeatIngest';
+import { setIngestCacheMs } from '../services/ingestCacheMs';
+import { installIngestCacheHooks } from '../services/ingestCaches';
 import { nodeForToken } from '../services/ingestTokens';
 
 const bearer = (req: Request) => /^Bearer\s+(\S+)$/i.exec(req.get('authorization') ?? '')?.[1] ?? null;
@@ -15,6 +17,9 @@ const badToken = () => new ApiError(401, 'bad_token', 'The node token is missing
 /** Nodes post reports here with their own bearer token; no session, no CSRF. */
 export function heartbeatRoutes(config: Config, sequelize: Sequelize) {
   const router = Router();
+  configureGroupCommit({ windowMs: config.ingestGroupWindowMs, maxReports: config.ingestGroupMaxReports });
+  setIngestCacheMs(config.ingestCacheMs);
+  installIngestCacheHooks();
   // Many nodes share one gateway address, so the limit is per token, never per address.
   const perToken = rateLimit({
     windowMs: 60_000,

@@ -1,5 +1,6 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { HeartbeatReport } from '../../shared/schemas/heartbeat';
+import { ingestCacheMs } from './ingestCacheMs';
 
 export interface DriftItem {
   field: string;
@@ -9,11 +10,10 @@ export interface DriftItem {
 
 export interface InventoryRadio { id: number; iface: string; channel: number; channelWidthMHz: number; ssid: string | null; mac: string | null }
 const cache = new Map<number, { at: number; radios: InventoryRadio[] }>();
-const CACHE_MS = 30_000;
 
 export async function inventoryRadios(sequelize: Sequelize, nodeId: number): Promise<InventoryRadio[]> {
   const hit = cache.get(nodeId);
-  if (hit && Date.now() - hit.at < CACHE_MS) return hit.radios;
+  if (hit && Date.now() - hit.at < ingestCacheMs()) return hit.radios;
   const radios = await sequelize.query<InventoryRadio>(
     'SELECT id, iface, channel, channel_width_mhz AS "channelWidthMHz", ssid, mac FROM radios WHERE node_id = $1',
     { bind: [nodeId], type: QueryTypes.SELECT },

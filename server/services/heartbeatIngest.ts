@@ -3,64 +3,199 @@ import type { NodeState } from '../../shared/enums';
 import { afterReport, snrDb } from '../../shared/health/state';
 import { judgeSentAt } from '../../shared/health/clock';
 import type { HeartbeatReport } from '../../shared/schemas/heartbeat';
-import { driftOf } from './drift';
+import { isDatabaseUnreachable } from '../db/availability';
+import { ApiError } from '../errors';
+import { driftOf, type DriftItem } from './drift';
 import { domainEvents } from './events';
 import type { TokenNode } from './ingestTokens';
 import { emitTransition, recordTransition } from './nodeHealth';
 import { rememberMacs } from './radioMacs';
 import { thresholdsFor } from './thresholds';
 
-// One statement stores the batch and moves the node: new (node, boot id, seq) triples claim a row
-// in heartbeat_seqs, and only those reach the partitioned tables, so a resent report is stored once.
-// Reports arrive with their boot id ('' when the node sent none) and a sentAt that is null when the
-// node's clock was plainly wrong. $4 says whether the newest report is newer than the node's last
-// one. With $11 the node is only moved if it is still as it was read ($12–$14, $16); otherwise
-// nothing about the node changes.
+// One statement stores the reports of many requests (group commit) and moves their nodes. Each item
+// is one request: its node, receive time, reports (boot id '' when the node sent none, sentAt null
+// when the node's clock was plainly wrong) and what the newest report does to the node. New (node,
+// boot id, seq) triples claim a row in heartbeat_seqs, and only those reach the partitioned tables,
+// so a resent report is stored once. A guarded item moves its node only if the node is still as it
+// was judged (seen_*); otherwise nothing about that node changes. An item whose report is not newer
+// (advances false) only touches last_seen_at. A node appears in at most one item of a statement.
 const STORE_SQL = `
-WITH input AS (
-  SELECT DISTINCT ON (r->>'bootId', (r->>'seq')::bigint) r->>'bootId' AS boot_id, (r->>'seq')::bigint AS seq, r
-    FROM jsonb_array_elements($1::jsonb) AS r
+WITH items AS (
+  SELECT * FROM jsonb_to_recordset($items::jsonb) AS i(k int, node_id int, received_at timestamptz, reports jsonb, advances boolean,
+    newest_seq bigint, boot_id text, last_report jsonb, streak int, reason text, drift jsonb, state text, guarded boolean,
+    seen_seq bigint, seen_state text, seen_streak int, seen_boot_id text)
+),
+input AS (
+  SELECT DISTINCT ON (i.node_id, r->>'bootId', (r->>'seq')::bigint)
+         i.k, i.node_id, i.received_at, r->>'bootId' AS boot_id, (r->>'seq')::bigint AS seq, r
+    FROM items i CROSS JOIN LATERAL jsonb_array_elements(i.reports) AS r
+   WHERE EXISTS (SELECT 1 FROM nodes n WHERE n.id = i.node_id)
+   ORDER BY i.node_id, r->>'bootId', (r->>'seq')::bigint, i.k
 ),
 fresh AS (
   INSERT INTO heartbeat_seqs (node_id, boot_id, seq, received_at)
-  SELECT $2, boot_id, seq, $3 FROM input
+  SELECT node_id, boot_id, seq, received_at FROM input
   ON CONFLICT DO NOTHING
-  RETURNING boot_id, seq
+  RETURNING node_id, boot_id, seq
 ),
+kept AS (SELECT i.* FROM input i JOIN fresh f USING (node_id, boot_id, seq)),
 hb AS (
   INSERT INTO heartbeats (node_id, seq, boot_id, received_at, sent_at, uptime_s, load1, mem_free_kb, firmware, throughput_mbps, latency_ms)
-  SELECT $2, i.seq, nullif(i.boot_id, ''), $3, (i.r->>'sentAt')::timestamptz, (i.r->>'uptimeS')::float8, (i.r->>'load1')::float8,
-         (i.r->>'memFreeKb')::float8, i.r->>'firmware', (i.r->>'throughputMbps')::float8, (i.r->>'latencyMs')::float8
-    FROM input i JOIN fresh f USING (boot_id, seq)
+  SELECT i.node_id, i.seq, nullif(i.boot_id, ''), i.received_at, (i.r->>'sentAt')::timestamptz, (i.r->>'uptimeS')::float8,
+         (i.r->>'load1')::float8, (i.r->>'memFreeKb')::float8, i.r->>'firmware', (i.r->>'throughputMbps')::float8, (i.r->>'latencyMs')::float8
+    FROM kept i
 ),
 rad AS (
   INSERT INTO heartbeat_radios (node_id, seq, boot_id, received_at, iface, role, band, channel, channel_width_mhz, ssid,
                                 signal_dbm, noise_dbm, tx_rate_mbps, rx_rate_mbps, clients, peer_mac)
-  SELECT $2, i.seq, nullif(i.boot_id, ''), $3, x.iface, x.role, x.band, x.channel, x."channelWidthMHz", x.ssid,
+  SELECT i.node_id, i.seq, nullif(i.boot_id, ''), i.received_at, x.iface, x.role, x.band, x.channel, x."channelWidthMHz", x.ssid,
          x."signalDbm", x."noiseDbm", x."txRateMbps", x."rxRateMbps", x.clients, x."peerMac"
-    FROM input i JOIN fresh f USING (boot_id, seq),
+    FROM kept i,
          jsonb_to_recordset(coalesce(i.r->'radios', '[]'::jsonb)) AS x(iface text, role text, band text, channel int,
            "channelWidthMHz" int, ssid text, "signalDbm" float8, "noiseDbm" float8, "txRateMbps" float8,
            "rxRateMbps" float8, clients int, "peerMac" text)
 ),
 node AS (
-  UPDATE nodes SET
-    last_seen_at = greatest(last_seen_at, $3),
-    first_seen_at = CASE WHEN $4 THEN coalesce(first_seen_at, $3) ELSE first_seen_at END,
-    last_seq = CASE WHEN $4 THEN $5::bigint ELSE last_seq END,
-    last_boot_id = CASE WHEN $4 THEN nullif($15, '') ELSE last_boot_id END,
-    last_report = CASE WHEN $4 THEN $6::jsonb ELSE last_report END,
-    health_streak = CASE WHEN $4 THEN $7::int ELSE health_streak END,
-    health_reason = CASE WHEN $4 THEN $8 ELSE health_reason END,
-    drift = CASE WHEN $4 THEN $9::jsonb ELSE drift END,
-    state_since = CASE WHEN $4 AND state <> $10 THEN $3 ELSE state_since END,
-    state = CASE WHEN $4 THEN $10 ELSE state END
-  WHERE id = $2
-    AND (NOT $11 OR (last_seq IS NOT DISTINCT FROM $12::bigint AND state = $13 AND health_streak = $14
-                     AND last_boot_id IS NOT DISTINCT FROM nullif($16, '')))
-  RETURNING id
+  UPDATE nodes n SET
+    last_seen_at = greatest(n.last_seen_at, i.received_at),
+    first_seen_at = CASE WHEN i.advances THEN coalesce(n.first_seen_at, i.received_at) ELSE n.first_seen_at END,
+    last_seq = CASE WHEN i.advances THEN i.newest_seq ELSE n.last_seq END,
+    last_boot_id = CASE WHEN i.advances THEN nullif(i.boot_id, '') ELSE n.last_boot_id END,
+    last_report = CASE WHEN i.advances THEN i.last_report ELSE n.last_report END,
+    health_streak = CASE WHEN i.advances THEN i.streak ELSE n.health_streak END,
+    health_reason = CASE WHEN i.advances THEN i.reason ELSE n.health_reason END,
+    drift = CASE WHEN i.advances THEN i.drift ELSE n.drift END,
+    state_since = CASE WHEN i.advances AND n.state <> i.state THEN i.received_at ELSE n.state_since END,
+    state = CASE WHEN i.advances THEN i.state ELSE n.state END
+  FROM items i
+  WHERE n.id = i.node_id
+    AND (NOT i.guarded OR (n.last_seq IS NOT DISTINCT FROM i.seen_seq AND n.state = i.seen_state AND n.health_streak = i.seen_streak
+                           AND n.last_boot_id IS NOT DISTINCT FROM nullif(i.seen_boot_id, '')))
+  RETURNING i.k
 )
-SELECT coalesce((SELECT array_agg(seq::text) FROM fresh), '{}') AS seqs, (SELECT count(*) FROM node)::int AS updated`;
+SELECT i.k, (SELECT count(*) FROM kept x WHERE x.k = i.k)::int AS stored, EXISTS (SELECT 1 FROM node WHERE node.k = i.k) AS updated
+  FROM items i ORDER BY i.k`;
+
+/** One request's share of a store statement (snake_case: the statement reads it with jsonb_to_recordset). */
+interface StoreItem {
+  node_id: number;
+  received_at: string;
+  reports: unknown[];
+  advances: boolean;
+  newest_seq: number;
+  boot_id: string;
+  last_report: unknown;
+  streak: number;
+  reason: string | null;
+  drift: DriftItem[];
+  state: string;
+  guarded: boolean;
+  seen_seq: string | null;
+  seen_state: string;
+  seen_streak: number;
+  seen_boot_id: string;
+}
+interface StoreOutcome {
+  stored: number;
+  updated: boolean;
+}
+
+const DEADLOCK = '40P01';
+const isDeadlock = (err: unknown) => (err as { parent?: { code?: string } })?.parent?.code === DEADLOCK;
+
+/** Stores items in one statement (retried when PostgreSQL breaks a deadlock with another instance's statement). */
+async function storeItems(sequelize: Sequelize, items: StoreItem[], transaction?: Transaction): Promise<StoreOutcome[]> {
+  const json = JSON.stringify(items.map((item, k) => ({ ...item, k })));
+  for (let attempt = 1; ; attempt++) {
+    try {
+      const rows = await sequelize.query<{ k: number; stored: number; updated: boolean }>(STORE_SQL, {
+        bind: { items: json },
+        type: QueryTypes.SELECT,
+        transaction,
+      });
+      return rows.map((r) => ({ stored: r.stored, updated: r.updated }));
+    } catch (err) {
+      if (transaction || attempt >= 3 || !isDeadlock(err)) throw err;
+    }
+  }
+}
+
+export interface GroupCommitOptions {
+  /** The longest a request waits for others to share its statement. */
+  windowMs: number;
+  /** A statement is sent at once when this many reports are queued. */
+  maxReports: number;
+}
+let groupOptions: GroupCommitOptions = { windowMs: 4, maxReports: 300 };
+
+/** Ingest's group commit window (from config; the routes set it at start). */
+export function configureGroupCommit(options: GroupCommitOptions) {
+  groupOptions = { ...options };
+}
+
+interface Pending {
+  item: StoreItem;
+  resolve: (o: StoreOutcome) => void;
+  reject: (err: unknown) => void;
+}
+
+/**
+ * Group commit: requests that arrive within a few milliseconds of each other (or until a few hundred
+ * reports are queued) are stored by one statement and one commit; each request is answered only
+ * after that commit. A statement that fails for a reason other than a lost database is retried item
+ * by item, so one bad request never costs the others their reports.
+ */
+class GroupCommit {
+  private queue: Pending[] = [];
+  private queuedReports = 0;
+  private timer: NodeJS.Timeout | null = null;
+
+  constructor(private readonly sequelize: Sequelize) {}
+
+  store(item: StoreItem): Promise<StoreOutcome> {
+    return new Promise((resolve, reject) => {
+      this.queue.push({ item, resolve, reject });
+      this.queuedReports += item.reports.length;
+      if (this.queuedReports >= groupOptions.maxReports) this.flush();
+      else this.timer ??= setTimeout(() => this.flush(), groupOptions.windowMs);
+    });
+  }
+
+  private flush() {
+    if (this.timer) clearTimeout(this.timer);
+    this.timer = null;
+    const batch = this.queue;
+    this.queue = [];
+    this.queuedReports = 0;
+    if (batch.length) void this.run(batch);
+  }
+
+  private async run(batch: Pending[]) {
+    try {
+      const outcomes = await storeItems(this.sequelize, batch.map((p) => p.item));
+      batch.forEach((p, i) => p.resolve(outcomes[i]));
+    } catch (err) {
+      if (batch.length === 1 || isDatabaseUnreachable(err)) {
+        batch.forEach((p) => p.reject(err));
+        return;
+      }
+      for (const p of batch) {
+        try {
+          p.resolve((await storeItems(this.sequelize, [p.item]))[0]);
+        } catch (one) {
+          p.reject(one);
+        }
+      }
+    }
+  }
+}
+
+const groups = new WeakMap<Sequelize, GroupCommit>();
+function groupOf(sequelize: Sequelize) {
+  let g = groups.get(sequelize);
+  if (!g) groups.set(sequelize, (g = new GroupCommit(sequelize)));
+  return g;
+}
 
 /** The figures health looks at: the weakest radio link the node reports, and its own measurements. */
 export function keyFigures(r: HeartbeatReport) {
@@ -95,15 +230,31 @@ export function newestOf(reports: HeartbeatReport[]): HeartbeatReport {
   return reports.filter((r) => (r.bootId ?? '') === boot).reduce((a, b) => (b.seq > a.seq ? b : a));
 }
 
+// Requests of one node are handled one after another in this process, so each is judged against
+// what the one before it wrote (per-node order) and a node is in at most one item of a statement.
+const nodeChains = new Map<number, Promise<unknown>>();
+
 /**
  * Stores reports once each. The newest report (by the node's own seq) moves the node's current
  * state only if it is newer than what the node last said, so late and repeated reports are kept
  * without moving it backwards. Receive time is the server's.
- * Most reports change no state: one guarded statement (one round trip, one commit) stores them
- * and moves the node if nobody moved it since the token lookup. A state change, or a guard that
- * finds the node changed meanwhile, takes the locked path that also records the transition.
+ * Most reports change no state: they join the group commit as a guarded item that moves the node
+ * only if nobody moved it since this process last saw it. A state change, or a guard that finds
+ * the node changed meanwhile (another instance, the silence check), takes the locked path that
+ * also records the transition. `node` carries what this process last saw of the node; it is
+ * updated in place after each store, so a cached token lookup stays current.
  */
-export async function ingestReports(sequelize: Sequelize, node: TokenNode, reports: HeartbeatReport[], now: Date): Promise<IngestResult> {
+export function ingestReports(sequelize: Sequelize, node: TokenNode, reports: HeartbeatReport[], now: Date): Promise<IngestResult> {
+  const before = nodeChains.get(node.nodeId) ?? Promise.resolve();
+  const run = before.catch(() => undefined).then(() => ingestInOrder(sequelize, node, reports, now));
+  nodeChains.set(node.nodeId, run);
+  void run.catch(() => undefined).finally(() => {
+    if (nodeChains.get(node.nodeId) === run) nodeChains.delete(node.nodeId);
+  });
+  return run;
+}
+
+async function ingestInOrder(sequelize: Sequelize, node: TokenNode, reports: HeartbeatReport[], now: Date): Promise<IngestResult> {
   const newest = newestOf(reports);
   const newestBoot = newest.bootId ?? '';
   const [thresholds, drift, bootSeenBefore] = await Promise.all([
@@ -124,23 +275,31 @@ export async function ingestReports(sequelize: Sequelize, node: TokenNode, repor
     const advances = reportAdvances(m, newestBoot, newest.seq, bootSeenBefore);
     return { advances, verdict: advances ? afterReport({ state: m.state, streak: m.healthStreak }, figures, thresholds) : null };
   };
-  const store = (m: NodeMemory, j: ReturnType<typeof judge>, guarded: boolean, transaction?: Transaction) =>
-    sequelize.query<{ seqs: string[]; updated: number }>(STORE_SQL, {
-      bind: [JSON.stringify(rows), node.nodeId, now, j.advances, newest.seq, JSON.stringify(lastReport), j.verdict?.streak ?? 0,
-        j.verdict?.reason ?? null, JSON.stringify(drift), j.verdict?.state ?? m.state, guarded, m.lastSeq, m.state, m.healthStreak,
-        newestBoot, m.lastBootId ?? ''],
-      type: QueryTypes.SELECT,
-      transaction,
-    }).then(([row]) => row);
+  const itemFor = (m: NodeMemory, j: ReturnType<typeof judge>, guarded: boolean): StoreItem => ({
+    node_id: node.nodeId, received_at: now.toISOString(), reports: rows, advances: j.advances, newest_seq: newest.seq,
+    boot_id: newestBoot, last_report: lastReport, streak: j.verdict?.streak ?? 0, reason: j.verdict?.reason ?? null, drift,
+    state: j.verdict?.state ?? m.state, guarded, seen_seq: m.lastSeq, seen_state: m.state, seen_streak: m.healthStreak,
+    seen_boot_id: m.lastBootId ?? '',
+  });
+  // What the node is after a store that moved it.
+  const remember = (m: NodeMemory, j: ReturnType<typeof judge>) => {
+    const after = j.advances && j.verdict
+      ? { state: j.verdict.state, healthStreak: j.verdict.streak, lastSeq: String(newest.seq), lastBootId: newestBoot || null }
+      : m;
+    Object.assign(node, after);
+  };
 
   const seen: NodeMemory = { state: node.state as NodeState, healthStreak: node.healthStreak, lastSeq: node.lastSeq, lastBootId: node.lastBootId };
   const quick = judge(seen);
   let stored: number | null = null;
   let outcome: { advances: boolean; events: Awaited<ReturnType<typeof recordTransition>> | null } | null = null;
   if (!quick.verdict || quick.verdict.state === seen.state) {
-    const row = await store(seen, quick, true);
-    stored = row.seqs.length;
-    if (row.updated) outcome = { advances: quick.advances, events: null };
+    const row = await groupOf(sequelize).store(itemFor(seen, quick, true));
+    stored = row.stored;
+    if (row.updated) {
+      remember(seen, quick);
+      outcome = { advances: quick.advances, events: null };
+    }
   }
   if (!outcome) {
     outcome = await sequelize.transaction(async (transaction) => {
@@ -149,12 +308,14 @@ export async function ingestReports(sequelize: Sequelize, node: TokenNode, repor
         'SELECT state, health_streak AS "healthStreak", last_seq::text AS "lastSeq", last_boot_id AS "lastBootId" FROM nodes WHERE id = $1 FOR UPDATE',
         { bind: [node.nodeId], type: QueryTypes.SELECT, transaction },
       );
+      if (!current) throw new ApiError(401, 'bad_token', 'The node this token belonged to was removed. Add the node again and issue a new token.');
       const j = judge(current);
-      const row = await store(current, j, false, transaction);
-      stored ??= row.seqs.length;
+      const [row] = await storeItems(sequelize, [itemFor(current, j, false)], transaction);
+      stored ??= row.stored;
       const events = j.verdict && j.verdict.state !== current.state
         ? await recordTransition(sequelize, { ...node, from: current.state, to: j.verdict.state, reason: j.verdict.reason, at: now }, transaction)
         : null;
+      remember(current, j);
       return { advances: j.advances, events };
     });
   }

@@ -1,12 +1,12 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { DEFAULT_THRESHOLDS, type HealthThresholds } from '../../shared/health/state';
+import { ingestCacheMs } from './ingestCacheMs';
 
 let cached: { at: number; value: Partial<HealthThresholds> } | null = null;
-const CACHE_MS = 15_000;
 
 /** Network thresholds (admin setting) over the defaults; a node's own overrides on top. */
 export async function thresholdsFor(sequelize: Sequelize, nodeOverrides: Partial<HealthThresholds> | null): Promise<HealthThresholds> {
-  if (!cached || Date.now() - cached.at > CACHE_MS) {
+  if (!cached || Date.now() - cached.at >= ingestCacheMs()) {
     const rows = await sequelize.query<{ thresholds: Partial<HealthThresholds> }>('SELECT thresholds FROM network_settings WHERE id = 1', { type: QueryTypes.SELECT });
     cached = { at: Date.now(), value: rows[0]?.thresholds ?? {} };
   }
