@@ -14,6 +14,8 @@ interface HookOptions {
   transaction?: Transaction | null;
 }
 const nodeIdOf = (i: Model) => Number(i.get('nodeId') ?? i.get('id'));
+/** A radio moved to another node changes both nodes' inventories. */
+const radioNodes = (i: Model) => [nodeIdOf(i), Number(i.previous('nodeId') ?? nodeIdOf(i))];
 
 let installed = false;
 /**
@@ -32,7 +34,7 @@ export function installIngestCacheHooks() {
   on(NetworkSettings, () => forgetThresholds());
   on(Node, (i) => (i ? forgetTokens(nodeIdOf(i)) : forgetTokens()));
   on(Site, () => forgetTokens());
-  on(Radio, (i) => (i ? forgetInventory(nodeIdOf(i)) : forgetInventory()));
+  on(Radio, (i) => (i ? radioNodes(i).forEach((id) => forgetInventory(id)) : forgetInventory()));
   // A link joins two radios; which nodes is cheap to forget wholesale, and link edits are rare.
   on(Link, () => forgetInventory());
 }
