@@ -65,7 +65,10 @@ async function phase(name: string, url: string, perRequest: number, connections:
       },
       onResponse: (status, _body, context) => {
         const sent = (context as { sent?: Sent }).sent;
-        if (status === 202 && sent && url === server.url) answered.set(nodes[sent.i].id, [...(answered.get(nodes[sent.i].id) ?? []), ...sent.seqs]);
+        if (status !== 202 || !sent || url !== server.url) return;
+        const id = nodes[sent.i].id;
+        if (!answered.has(id)) answered.set(id, []);
+        answered.get(id)!.push(...sent.seqs);
       },
     }],
   });
