@@ -1,24 +1,18 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import type { ImportKind, ImportPreviewDto, ImportResultDto } from '../../../../shared/schemas/csvImport';
-import { postForm } from '../../../lib/form-upload';
+import { api, formWith } from '../../../lib/api';
 import { nodeKeys, siteKeys } from '../../../lib/query-keys';
-
-const formOf = (file: File) => {
-  const form = new FormData();
-  form.append('file', file);
-  return form;
-};
 
 export function usePreviewImport(kind: ImportKind) {
   return useMutation({
-    mutationFn: (file: File) => postForm<{ data: ImportPreviewDto }>(`/imports/${kind}?dryRun=true`, formOf(file)).then((r) => r.data),
+    mutationFn: (file: File) => api.upload<{ data: ImportPreviewDto }>(`/imports/${kind}?dryRun=true`, formWith('file', file)).then((r) => r.data),
   });
 }
 
 export function useCommitImport(kind: ImportKind) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (file: File) => postForm<{ data: ImportResultDto }>(`/imports/${kind}`, formOf(file)).then((r) => r.data),
+    mutationFn: (file: File) => api.upload<{ data: ImportResultDto }>(`/imports/${kind}`, formWith('file', file)).then((r) => r.data),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: kind === 'sites' ? siteKeys.all : nodeKeys.all }),
   });
 }

@@ -1,7 +1,6 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { PhotoDto } from '../../../../shared/schemas/photo';
-import { api } from '../../../lib/api';
-import { postForm } from '../../../lib/form-upload';
+import { api, formWith } from '../../../lib/api';
 
 export const photoKeys = { site: (siteId: number) => ['sites', 'photos', siteId] as const };
 
@@ -15,12 +14,8 @@ export function useSitePhotos(siteId: number) {
 export function useUploadPhoto(siteId: number) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: ({ file, caption }: { file: File; caption: string }) => {
-      const form = new FormData();
-      form.append('photo', file);
-      if (caption.trim()) form.append('caption', caption.trim());
-      return postForm<{ data: PhotoDto }>(`/sites/${siteId}/photos`, form);
-    },
+    mutationFn: ({ file, caption }: { file: File; caption: string }) =>
+      api.upload<{ data: PhotoDto }>(`/sites/${siteId}/photos`, formWith('photo', file, { caption: caption.trim() || undefined })),
     onSuccess: () => queryClient.invalidateQueries({ queryKey: photoKeys.site(siteId) }),
   });
 }

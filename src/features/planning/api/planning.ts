@@ -1,9 +1,8 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { LinkBudgetBody, RegulatoryBody } from '../../../../shared/schemas/planning';
 import type { AddressAllocateBody, ChannelApplyBody, NetworkSettingsUpdate, NodeAddressPlanBody, PlannedLinkBody } from '../../../../shared/schemas/planningRecords';
-import type { SessionBody } from '../../../../shared/schemas/session';
 import type { LinkDto } from '../../../../shared/schemas/link';
-import { api, ApiError } from '../../../lib/api';
+import { api, formWith, type UploadProgress } from '../../../lib/api';
 import { linkKeys, radioKeys, topologyKeys } from '../../../lib/query-keys';
 import { planningKeys } from './keys';
 import type { AddressPlans, ChannelPlan, LinkBudgetAnswer, LinkHealthDto, NetworkSettingsDto, ProvisioningSheet, RegulatoryAnswer, SecurityReview, SurveyUpload } from './types';
@@ -55,34 +54,17 @@ export function useApplyChannelPlan() {
   });
 }
 
-/** Multipart upload: the JSON client cannot carry a file, so these calls use fetch directly. */
-async function postFile<T>(url: string, field: string, file: File): Promise<T> {
-  const session = await api.get<SessionBody>('/session');
-  const form = new FormData();
-  form.append(field, file);
-  let response: Response;
-  try {
-    response = await fetch(url, { method: 'POST', body: form, credentials: 'same-origin', headers: { 'X-CSRF-Token': session.csrfToken ?? '', Accept: 'application/json' } });
-  } catch {
-    throw new ApiError(0, 'network_error', 'Could not reach the Parapet server. Check your connection and try again.');
-  }
-  const body = await response.json().catch(() => null);
-  if (!response.ok) {
-    const e = body?.error;
-    throw new ApiError(response.status, e?.code ?? `http_${response.status}`, e?.message ?? `The upload failed (${response.status}). Try again.`, e?.details ?? []);
-  }
-  return body as T;
-}
-const uploadSurvey = (nodeId: number, file: File) => postFile<SurveyUpload>(`/api/v1/nodes/${nodeId}/site-surveys`, 'file', file);
+const uploadSurvey = (nodeId: number, file: File) => api.upload<SurveyUpload>(`/nodes/${nodeId}/site-surveys`, formWith('file', file));
 
 export interface TerrainTile { name: string; south: number; west: number; samplesPerSide: number; createdAt: string }
 export function useTerrainTiles() {
   return useQuery({ queryKey: planningKeys.terrainTiles(), queryFn: () => api.get<{ data: TerrainTile[]; abilities: { upload: boolean } }>('/terrain/tiles') });
 }
-export function useUploadTerrainTile() {
+/** A 1″ tile is about 25 MB, so the upload reports its progress (bytes sent) to `onProgress`. */
+export function useUploadTerrainTile(onProgress?: (progress: UploadProgress) => void) {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (file: File) => postFile<{ data: TerrainTile }>('/api/v1/terrain/tiles', 'tile', file).then((b) => b.data),
+    mutationFn: (file: File) => api.upload<{ data: TerrainTile }>('/terrain/tiles', formWith('tile', file), onProgress).then((b) => b.data),
     onSuccess: () => qc.invalidateQueries({ queryKey: planningKeys.terrainTiles() }),
   });
 }

@@ -1,22 +1,26 @@
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/button';
 import { FormMessage } from '../../../components/form-field';
-import { ApiError } from '../../../lib/api';
+import { errorMessage, type UploadProgress } from '../../../lib/api';
 import { useDeleteTerrainTile, useTerrainTiles, useUploadTerrainTile } from '../api/planning';
 
-const say = (e: unknown) => (e instanceof ApiError ? e.message : e ? 'Something went wrong. Try again.' : null);
+const say = (e: unknown) => (e ? errorMessage(e) : null);
+const percent = (p: UploadProgress | null) => (p?.total ? Math.round((100 * p.loaded) / p.total) : null);
 
 /** The elevation tiles link budgets read their ground from; admins add and remove them. */
 export function TerrainTiles() {
   const tiles = useTerrainTiles();
-  const upload = useUploadTerrainTile();
+  const [progress, setProgress] = useState<UploadProgress | null>(null);
+  const upload = useUploadTerrainTile(setProgress);
   const remove = useDeleteTerrainTile();
   const [file, setFile] = useState<File | null>(null);
   const mayUpload = tiles.data?.abilities.upload ?? false;
 
   function submit(e: FormEvent) {
     e.preventDefault();
-    if (file) upload.mutate(file);
+    if (!file) return;
+    setProgress(null);
+    upload.mutate(file);
   }
   return (
     <div className="space-y-3 rounded-lg border border-line bg-surface p-4" data-testid="terrain-tiles">
@@ -35,7 +39,7 @@ export function TerrainTiles() {
             <label htmlFor="terrain-file" className="mb-1 block text-sm font-medium">SRTM tile (.hgt, unzipped, named like N47W039.hgt)</label>
             <input id="terrain-file" type="file" accept=".hgt" className="block text-sm" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
           </div>
-          <Button type="submit" variant="primary" disabled={!file || upload.isPending}>{upload.isPending ? 'Uploading…' : 'Upload tile'}</Button>
+          <Button type="submit" variant="primary" disabled={!file || upload.isPending}>{upload.isPending ? `Uploading…${percent(progress) === null ? '' : ` ${percent(progress)} %`}` : 'Upload tile'}</Button>
         </form>
       )}
       {upload.isSuccess && <p role="status" className="text-sm">Added {upload.data.name}.</p>}
