@@ -20,22 +20,22 @@ export function StateShape({ state, size = 14 }: { state: NodeState; size?: numb
   const label = `${LOOK[state].word} (${LOOK[state].shape})`;
   return (
     <svg width={size} height={size} viewBox="0 0 16 16" role="img" aria-label={label} className="shrink-0">
-      {state === 'online' && <circle cx="8" cy="8" r="6.5" fill="#009E73" />}
-      {state === 'degraded' && <path d="M8 1.5 15 14.5H1z" fill="#E69F00" stroke="#7a5200" strokeWidth="0.8" strokeLinejoin="round" />}
-      {state === 'offline' && <rect x="2" y="2" width="12" height="12" rx="1" fill="#D55E00" />}
+      {state === 'online' && <circle cx="8" cy="8" r="6.5" className="fill-state-online" />}
+      {state === 'degraded' && <path d="M8 1.5 15 14.5H1z" className="fill-state-degraded stroke-state-degraded-edge" strokeWidth="0.8" strokeLinejoin="round" />}
+      {state === 'offline' && <rect x="2" y="2" width="12" height="12" rx="1" className="fill-state-offline" />}
       {state === 'maintenance' && (
         <>
           <defs>
             <pattern id={hatchId} width="3" height="3" patternUnits="userSpaceOnUse" patternTransform="rotate(45)">
-              <rect width="3" height="3" fill="#F0E442" />
-              <line x1="0" y1="0" x2="0" y2="3" stroke="#3b3a10" strokeWidth="1.2" />
+              <rect width="3" height="3" className="fill-state-maintenance" />
+              <line x1="0" y1="0" x2="0" y2="3" className="stroke-state-maintenance-hatch" strokeWidth="1.2" />
             </pattern>
           </defs>
-          <circle cx="8" cy="8" r="6.3" fill={`url(#${hatchId})`} stroke="#2b2a0c" strokeWidth="1.4" />
+          <circle cx="8" cy="8" r="6.3" fill={`url(#${hatchId})`} className="stroke-state-maintenance-edge" strokeWidth="1.4" />
         </>
       )}
-      {state === 'stranded' && <path d="M8 1.6 14.4 8 8 14.4 1.6 8z" fill="none" stroke="#CC79A7" strokeWidth="2.2" strokeLinejoin="round" />}
-      {state === 'unknown' && <circle cx="8" cy="8" r="5.8" fill="none" stroke="#8a8f93" strokeWidth="2" />}
+      {state === 'stranded' && <path d="M8 1.6 14.4 8 8 14.4 1.6 8z" fill="none" className="stroke-state-stranded" strokeWidth="2.2" strokeLinejoin="round" />}
+      {state === 'unknown' && <circle cx="8" cy="8" r="5.8" fill="none" className="stroke-state-unknown" strokeWidth="2" />}
     </svg>
   );
 }

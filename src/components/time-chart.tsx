@@ -1,10 +1,12 @@
 import { useEffect, useMemo, useRef } from 'react';
 import uPlot from 'uplot';
 import 'uplot/dist/uPlot.min.css';
+import { useIsDark } from '../lib/theme';
 
 export interface ChartLine {
   label: string;
-  colour: string;
+  /** A colour token from src/styles.css (`--pp-series-signal`), read in the current theme. */
+  colour: `--pp-${string}`;
   values: (number | null)[];
   dashed?: boolean;
 }
@@ -22,9 +24,9 @@ interface TimeChartProps {
   label: string;
 }
 
-function themeColour(name: string, fallback: string): string {
-  const value = getComputedStyle(document.documentElement).getPropertyValue(name).trim();
-  return value || fallback;
+// A canvas cannot use var(): the raw token's value in the current theme (src/styles.css, :root and .dark).
+function themeColour(name: `--pp-${string}`): string {
+  return getComputedStyle(document.documentElement).getPropertyValue(name).trim() || 'gray';
 }
 
 // With only a few buckets a line is a dot or two: draw the points so a new node's first figures show.
@@ -33,8 +35,8 @@ const FEW_POINTS = 24;
 function optionsFor(props: TimeChartProps, widthPx: number): uPlot.Options {
   const { lines, unit, heightPx = 180, sparkline = false } = props;
   const fewPoints = props.times.length < FEW_POINTS;
-  const muted = themeColour('--pp-muted', '#5a6670');
-  const grid = themeColour('--pp-line', '#d9d4ca');
+  const muted = themeColour('--pp-muted');
+  const grid = themeColour('--pp-line');
   const format = (_u: uPlot, value: number | null) => (value === null || value === undefined ? '—' : `${Number(value.toFixed(1))} ${unit}`);
   return {
     width: widthPx,
@@ -54,12 +56,12 @@ function optionsFor(props: TimeChartProps, widthPx: number): uPlot.Options {
       {},
       ...lines.map((line) => ({
         label: line.label,
-        stroke: line.colour,
+        stroke: themeColour(line.colour),
         width: sparkline ? 1.5 : 2,
         dash: line.dashed ? [5, 4] : undefined,
         value: format,
         spanGaps: false,
-        points: { show: fewPoints, size: sparkline ? 4 : 6, fill: line.colour },
+        points: { show: fewPoints, size: sparkline ? 4 : 6, fill: themeColour(line.colour) },
       })),
     ],
   };
@@ -75,7 +77,8 @@ export function TimeChart(props: TimeChartProps) {
   const plot = useRef<uPlot | null>(null);
   const data = useMemo<uPlot.AlignedData>(() => [times, ...lines.map((line) => line.values)], [times, lines]);
   // The chart is rebuilt only when its shape changes (lines, unit, size); new figures go through setData.
-  const shape = `${lines.map((l) => `${l.label}|${l.colour}|${l.dashed}`).join(',')}|${props.unit}|${heightPx}|${props.sparkline}|${times.length < FEW_POINTS}`;
+  const dark = useIsDark();
+  const shape = `${dark}|${lines.map((l) => `${l.label}|${l.colour}|${l.dashed}`).join(',')}|${props.unit}|${heightPx}|${props.sparkline}|${times.length < FEW_POINTS}`;
 
   useEffect(() => {
     const element = box.current;

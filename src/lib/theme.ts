@@ -1,4 +1,4 @@
-import { useCallback, useState } from 'react';
+import { useCallback, useState, useSyncExternalStore } from 'react';
 
 export type Theme = 'light' | 'dark';
 const STORAGE_KEY = 'parapet-theme';
@@ -30,4 +30,16 @@ export function useTheme() {
     });
   }, []);
   return { theme, toggle };
+}
+
+/** Whether the page shows the dark theme now: for drawings (canvas charts) that read the colour tokens once. */
+export function useIsDark(): boolean {
+  return useSyncExternalStore(
+    (listener) => {
+      const observer = new MutationObserver(listener);
+      observer.observe(document.documentElement, { attributes: true, attributeFilter: ['class'] });
+      return () => observer.disconnect();
+    },
+    () => document.documentElement.classList.contains('dark'),
+  );
 }

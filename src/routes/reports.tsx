@@ -55,7 +55,7 @@ export function ReportsPage() {
                 label={`Availability per day in ${month}`}
                 unit="%"
                 times={r.days.map((d) => Date.parse(`${d.date}T12:00:00Z`) / 1000)}
-                lines={[{ label: 'Availability', colour: '#009E73', values: r.days.map((d) => d.availabilityPct) }]}
+                lines={[{ label: 'Availability', colour: '--pp-state-online', values: r.days.map((d) => d.availabilityPct) }]}
               />
             </Section>
             <Section title="By neighbourhood">

@@ -9,7 +9,7 @@ const RANGE_WORDS: Record<SeriesRange, string> = { '24h': '24 hours', '7d': '7 d
 interface ChartSpec {
   title: string;
   unit: string;
-  lines: { label: string; colour: string; field: keyof Omit<SeriesPoint, 't'>; dashed?: boolean }[];
+  lines: { label: string; colour: ChartLine['colour']; field: keyof Omit<SeriesPoint, 't'>; dashed?: boolean }[];
 }
 
 // Calm colours of their own, so a chart line is never read as a node state.
@@ -18,14 +18,14 @@ const CHARTS: ChartSpec[] = [
     title: 'Signal and noise',
     unit: 'dBm',
     lines: [
-      { label: 'Signal (average)', colour: '#3b7bb5', field: 'signalAvgDbm' },
-      { label: 'Signal (weakest)', colour: '#93c1e0', field: 'signalMinDbm', dashed: true },
-      { label: 'Noise (average)', colour: '#7b7f83', field: 'noiseAvgDbm' },
+      { label: 'Signal (average)', colour: '--pp-series-signal', field: 'signalAvgDbm' },
+      { label: 'Signal (weakest)', colour: '--pp-series-signal-weak', field: 'signalMinDbm', dashed: true },
+      { label: 'Noise (average)', colour: '--pp-series-noise', field: 'noiseAvgDbm' },
     ],
   },
-  { title: 'Signal-to-noise ratio', unit: 'dB', lines: [{ label: 'SNR (average)', colour: '#4a5aa8', field: 'snrAvgDb' }] },
-  { title: 'Throughput', unit: 'Mbps', lines: [{ label: 'Throughput (average)', colour: '#2f6f8f', field: 'throughputAvgMbps' }] },
-  { title: 'Latency', unit: 'ms', lines: [{ label: 'Latency (average)', colour: '#8a5a3c', field: 'latencyAvgMs' }] },
+  { title: 'Signal-to-noise ratio', unit: 'dB', lines: [{ label: 'SNR (average)', colour: '--pp-series-snr', field: 'snrAvgDb' }] },
+  { title: 'Throughput', unit: 'Mbps', lines: [{ label: 'Throughput (average)', colour: '--pp-series-throughput', field: 'throughputAvgMbps' }] },
+  { title: 'Latency', unit: 'ms', lines: [{ label: 'Latency (average)', colour: '--pp-series-latency', field: 'latencyAvgMs' }] },
 ];
 
 function describe(spec: ChartSpec, points: SeriesPoint[], range: SeriesRange): string {

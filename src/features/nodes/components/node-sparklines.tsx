@@ -4,10 +4,10 @@ import { TimeChart } from '../../../components/time-chart';
 import { formatFigure } from '../../../lib/format';
 import { useNodeSeries, type SeriesPoint } from '../api/telemetry';
 
-const LINES: { title: string; unit: string; field: keyof Omit<SeriesPoint, 't'>; colour: string }[] = [
-  { title: 'Signal', unit: 'dBm', field: 'signalAvgDbm', colour: '#3b7bb5' },
-  { title: 'Throughput', unit: 'Mbps', field: 'throughputAvgMbps', colour: '#2f6f8f' },
-  { title: 'Latency', unit: 'ms', field: 'latencyAvgMs', colour: '#8a5a3c' },
+const LINES: { title: string; unit: string; field: keyof Omit<SeriesPoint, 't'>; colour: `--pp-${string}` }[] = [
+  { title: 'Signal', unit: 'dBm', field: 'signalAvgDbm', colour: '--pp-series-signal' },
+  { title: 'Throughput', unit: 'Mbps', field: 'throughputAvgMbps', colour: '--pp-series-throughput' },
+  { title: 'Latency', unit: 'ms', field: 'latencyAvgMs', colour: '--pp-series-latency' },
 ];
 
 /** The last 24 hours at a glance, small enough for a side panel. */

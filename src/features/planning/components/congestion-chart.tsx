@@ -27,7 +27,7 @@ export function CongestionChart({ title, rows }: { title: string; rows: Congesti
             return (
               <g key={r.channel}>
                 <title>{`Channel ${r.channel}: ${r.congestionDbm === null ? 'nothing heard' : `${r.congestionDbm} dBm`}, ${r.networks} network(s) on it`}</title>
-                <rect x={x} y={base - h} width={20} height={h} fill={loud ? '#D55E00' : '#0072B2'} fillOpacity={0.8} />
+                <rect x={x} y={base - h} width={20} height={h} className={loud ? 'fill-state-offline' : 'fill-info'} fillOpacity={0.8} />
                 <text x={x + 10} y={H - 8} fontSize={10} textAnchor="middle" fill="currentColor">{r.channel}</text>
               </g>
             );

@@ -16,7 +16,7 @@ export function LinkHealthCard({ linkId }: { linkId: number }) {
   return (
     <div data-testid="link-health" className="space-y-2">
       {h.flagged && (
-        <p role="alert" className="rounded-md border-2 border-[#D55E00] bg-surface px-3 py-2 text-sm">
+        <p role="alert" className="rounded-md border-2 border-danger bg-surface px-3 py-2 text-sm">
           <span aria-hidden="true">■ </span><strong>Check this link:</strong> its signal is more than 10 dB below the prediction and more than 6 dB below its own
           {` ${h.baselineDays}`}-day median — an antenna knocked off aim or water in a connector are common causes.
         </p>

@@ -56,16 +56,16 @@ export function PathProfile({ distanceKm, freqMHz, kFactor, a, b, obstacles, ter
     <figure className="rounded-lg border border-line bg-surface p-3" data-testid="path-profile">
       <svg viewBox={`0 0 ${W} ${H}`} role="img" aria-label={`Side view of the ${distanceKm.toFixed(2)} km path${obstacles.length ? ` with ${obstacles.length} obstacle(s)` : ''}`} className="h-auto w-full text-ink">
         <path d={ground} className="fill-sunken" stroke="currentColor" strokeOpacity={0.5} data-testid="profile-ground" />
-        <polygon points={[...upper, ...lower].join(' ')} fill="#56B4E9" fillOpacity={0.22} stroke="#0072B2" strokeOpacity={0.7} />
-        <path d={line((p) => p.sightM)} fill="none" stroke="#0072B2" strokeWidth={1.8} />
+        <polygon points={[...upper, ...lower].join(' ')} className="fill-info stroke-info" fillOpacity={0.18} strokeOpacity={0.7} />
+        <path d={line((p) => p.sightM)} fill="none" className="stroke-info" strokeWidth={1.8} />
         {posts.map((p, i) => (
           <g key={i} data-testid="profile-obstacle">
-            <rect x={x(p.distanceKm) - 3} width={6} y={y(Math.max(p.topM, p.baseM))} height={Math.max(1, y(p.baseM) - y(Math.max(p.topM, p.baseM)))} fill="#6b4f1d" fillOpacity={0.8} />
+            <rect x={x(p.distanceKm) - 3} width={6} y={y(Math.max(p.topM, p.baseM))} height={Math.max(1, y(p.baseM) - y(Math.max(p.topM, p.baseM)))} className="fill-ground" fillOpacity={0.8} />
             <title>{`Obstacle ${i + 1}: top ${p.heightM} m at ${p.distanceKm} km from ${a.label}`}</title>
           </g>
         ))}
         {worst && !worst.clear && (
-          <line x1={x(worst.atDistanceKm)} x2={x(worst.atDistanceKm)} y1={PAD.top} y2={H - PAD.bottom} stroke="#D55E00" strokeDasharray="4 3" strokeWidth={1.5} />
+          <line x1={x(worst.atDistanceKm)} x2={x(worst.atDistanceKm)} y1={PAD.top} y2={H - PAD.bottom} className="stroke-state-offline" strokeDasharray="4 3" strokeWidth={1.5} />
         )}
         {mast(0, a)}
         {mast(distanceKm, b)}

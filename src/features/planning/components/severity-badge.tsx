@@ -1,11 +1,11 @@
 import type { Severity } from '../../../../shared/security/review';
 
-// Colour-blind-safe colours, always with a shape and the word.
+// Colour tokens that keep 4.5:1 on the surface in both themes (src/styles.css), always with a shape and the word.
 const LOOK: Record<Severity, { colour: string; shape: string }> = {
-  critical: { colour: '#D55E00', shape: '■' },
-  high: { colour: '#E69F00', shape: '▲' },
-  medium: { colour: '#0072B2', shape: '◆' },
-  low: { colour: '#8a8f93', shape: '○' },
+  critical: { colour: 'var(--pp-danger)', shape: '■' },
+  high: { colour: 'var(--pp-caution)', shape: '▲' },
+  medium: { colour: 'var(--pp-info)', shape: '◆' },
+  low: { colour: 'var(--pp-muted)', shape: '○' },
 };
 
 export function SeverityBadge({ severity }: { severity: Severity }) {
