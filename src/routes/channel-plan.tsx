@@ -8,6 +8,7 @@ import { CongestionChart } from '../features/planning/components/congestion-char
 import { SurveyUpload } from '../features/planning/components/survey-upload';
 import { ApiError } from '../lib/api';
 import { formatDateTime } from '../lib/format';
+import { bandOptions, isBand } from '../lib/channel-options';
 import { PlanningCaution } from '../features/planning/components/planning-caution';
 
 export function ChannelPlanPage() {
@@ -21,7 +22,7 @@ export function ChannelPlanPage() {
     <>
       <PageHeader title="Channel plan" subtitle="A channel for every radio: apart from its own node’s radios, away from near neighbours and from what the surveys heard." />
       <div className="max-w-xs">
-        <SelectField label="Band" value={band} onChange={(e) => setBand(e.target.value as '2.4' | '5')} options={[{ value: '2.4', label: '2.4 GHz' }, { value: '5', label: '5 GHz' }]} />
+        <SelectField label="Band" value={band} onChange={(e) => isBand(e.target.value) && setBand(e.target.value)} options={bandOptions} />
       </div>
 
       <Section title="Recommended channels">

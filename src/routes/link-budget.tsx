@@ -5,6 +5,7 @@ import { Caution } from '../components/caution';
 import { CheckboxField, FormMessage, SelectField, TextField } from '../components/form-field';
 import { PageHeader, Section } from '../components/page-header';
 import { channelCenterMHz, channelProblem } from '../../shared/radio/channels';
+import { bandOptions, channelRegionOf, isBand, widthOptions } from '../lib/channel-options';
 import type { PlannedLinkEnd } from '../../shared/schemas/planningRecords';
 import { useLinkBudget, useNetworkSettings, useRegulatory, useSavePlannedLink } from '../features/planning/api/planning';
 import type { LinkBudgetAnswer, RegulatoryAnswer } from '../features/planning/api/types';
@@ -106,9 +107,9 @@ export function LinkBudgetPage() {
         </div>
         <fieldset className="grid grid-cols-2 gap-3 rounded-lg border border-line bg-surface p-4 lg:grid-cols-4">
           <legend className="px-1 text-sm font-semibold">Radio {radioA ? '(from radio A)' : ''}</legend>
-          <SelectField label="Band" value={band} disabled={!!radioA} onChange={(e) => setRadio({ ...radio, band: e.target.value as '2.4' | '5' })} options={[{ value: '2.4', label: '2.4 GHz' }, { value: '5', label: '5 GHz' }]} />
+          <SelectField label="Band" value={band} disabled={!!radioA} onChange={(e) => isBand(e.target.value) && setRadio({ ...radio, band: e.target.value, channelWidthMHz: e.target.value === '2.4' && radio.channelWidthMHz === '80' ? '20' : radio.channelWidthMHz })} options={bandOptions} />
           <TextField label="Channel" inputMode="numeric" value={radioA ? String(radioA.channel) : radio.channel} readOnly={!!radioA} onChange={(e) => setRadio({ ...radio, channel: e.target.value })} />
-          <SelectField label="Channel width" value={String(width)} disabled={!!radioA} onChange={(e) => setRadio({ ...radio, channelWidthMHz: e.target.value })} options={[20, 40, 80].map((w) => ({ value: String(w), label: `${w} MHz` }))} />
+          <SelectField label="Channel width" value={String(width)} disabled={!!radioA} onChange={(e) => setRadio({ ...radio, channelWidthMHz: e.target.value })} options={widthOptions(channelRegionOf(region) ?? 'EU', band)} />
           <TextField label="Receiver noise figure (dB)" inputMode="decimal" value={radio.noiseFigureDb} onChange={(e) => setRadio({ ...radio, noiseFigureDb: e.target.value })} />
           <SelectField label="Spatial streams" value={adv.streams} onChange={(e) => setAdv({ ...adv, streams: e.target.value })} options={[{ value: '1', label: '1 stream' }, { value: '2', label: '2 streams' }]} />
           <SelectField label="Guard interval" value={adv.guardInterval} onChange={(e) => setAdv({ ...adv, guardInterval: e.target.value })} options={[{ value: 'long', label: 'Long (0.8 µs)' }, { value: 'short', label: 'Short (0.4 µs)' }]} />

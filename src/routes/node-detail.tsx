@@ -21,7 +21,7 @@ import { useOutages } from '../features/outages/api/outages';
 import { OutagesTable } from '../features/outages/components/outages-table';
 import { LinkHealthCard } from '../features/planning/components/link-health-panel';
 import { NodeRadios } from '../features/radios/components/node-radios';
-import { channelRegionOf } from '../features/radios/components/radio-form';
+import { channelRegionOf } from '../lib/channel-options';
 import { useNetworkSettings } from '../features/planning/api/planning';
 import { useSites } from '../features/sites/api/sites';
 import { useTopology } from '../features/topology/api/topology';

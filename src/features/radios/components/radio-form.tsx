@@ -1,10 +1,11 @@
-import { BANDS, CHANNEL_WIDTHS_MHZ, ENCRYPTIONS, POLARISATIONS, RADIO_ROLES, type Band, type ChannelWidthMHz } from '../../../../shared/enums';
-import { CHANNEL_REGIONS, channelCenterMHz, listChannels, validChannels, type ChannelRegion } from '../../../../shared/radio/channels';
+import { ENCRYPTIONS, POLARISATIONS, RADIO_ROLES, type Band, type ChannelWidthMHz } from '../../../../shared/enums';
+import { validChannels, type ChannelRegion } from '../../../../shared/radio/channels';
 import { radioCreateSchema, type RadioDto } from '../../../../shared/schemas/radio';
 import { Button } from '../../../components/button';
 import { Caution } from '../../../components/caution';
 import { FormMessage, SelectField, TextField, type Option } from '../../../components/form-field';
 import { toNumber, useForm } from '../../../lib/form';
+import { asWidth, bandOptions, channelOptions, isBand, widthOptions } from '../../../lib/channel-options';
 import { useCreateRadio, useUpdateRadio } from '../api/radios';
 import { ENCRYPTION_WORDS, ROLE_WORDS } from './radio-words';
 
@@ -33,37 +34,6 @@ function initialValues(radio?: RadioDto) {
     preSharedKey: '',
     groupRekeyS: radio ? String(radio.groupRekeyS) : '600',
   };
-}
-
-/** The network's region as a channel table's region, or undefined while it loads (or if it has none). */
-export function channelRegionOf(region: string | undefined): ChannelRegion | undefined {
-  return CHANNEL_REGIONS.find((r) => r === region);
-}
-
-const isBand = (text: string): text is Band => (BANDS as readonly string[]).includes(text);
-const asWidth = (text: string): ChannelWidthMHz => (Number(text) === 40 ? 40 : Number(text) === 80 ? 80 : 20);
-
-/** Widths with at least one usable channel in the region and band (no 80 MHz on 2.4 GHz). */
-export function widthOptions(region: ChannelRegion, band: Band): Option[] {
-  return CHANNEL_WIDTHS_MHZ.filter((w) => validChannels(band, w, region).length > 0).map((w) => ({ value: String(w), label: `${w} MHz` }));
-}
-
-/**
- * Primary channels usable at the band and width in the region (shared/radio/channels.ts validChannels), with their
- * centre frequency and any condition (DFS, indoor only). A stored channel outside the list stays visible, marked,
- * so an edit never changes it silently.
- */
-export function channelOptions(region: ChannelRegion, band: Band, widthMHz: ChannelWidthMHz, current?: string): Option[] {
-  const notes = new Map(listChannels(region, band).channels.map((c) => [c.channel, c.note]));
-  const options: Option[] = validChannels(band, widthMHz, region).map((channel) => {
-    const note = notes.get(channel);
-    return { value: String(channel), label: `${channel} (${channelCenterMHz(band, channel)} MHz)${note ? ` · ${note}` : ''}` };
-  });
-  const kept = current ? Number(current) : NaN;
-  if (Number.isInteger(kept) && !options.some((o) => o.value === current)) {
-    options.unshift({ value: current!, label: `${kept} · not usable at ${widthMHz} MHz in ${region}: choose another` });
-  }
-  return options;
 }
 
 const choices = (values: readonly string[], words?: Record<string, string>): Option[] => values.map((v) => ({ value: v, label: words?.[v] ?? v }));
@@ -132,7 +102,7 @@ export function RadioForm({ nodeId, region, radio, onSaved, onCancel }: RadioFor
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
         <TextField label="Interface" value={values.iface} onChange={(e) => set('iface', e.target.value)} errors={errors.iface} hint="The router's name for the radio, e.g. wlan0" />
         <SelectField label="Role" value={values.role} onChange={(e) => set('role', e.target.value as typeof values.role)} options={choices(RADIO_ROLES, ROLE_WORDS)} errors={errors.role} />
-        <SelectField label="Band" value={values.band} onChange={(e) => isBand(e.target.value) && changeBandOrWidth(e.target.value, width)} options={BANDS.map((b) => ({ value: b, label: `${b} GHz` }))} errors={errors.band} />
+        <SelectField label="Band" value={values.band} onChange={(e) => isBand(e.target.value) && changeBandOrWidth(e.target.value, width)} options={bandOptions} errors={errors.band} />
         <SelectField label="Channel width" value={values.channelWidthMHz} onChange={(e) => changeBandOrWidth(band, asWidth(e.target.value))} options={widths} errors={errors.channelWidthMHz} />
         <SelectField
           label="Channel"
