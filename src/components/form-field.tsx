@@ -1,4 +1,5 @@
 import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
+import { Button } from './button';
 
 const CONTROL =
   'block w-full rounded-md border bg-surface px-2.5 py-1.5 text-sm text-ink placeholder:text-muted aria-[invalid=true]:border-danger border-line-strong';
@@ -99,6 +100,37 @@ export function FormMessage({ message }: { message: string | null }) {
   return (
     <div aria-live="assertive" className="empty:hidden">
       {message && <p className="rounded-md border border-danger/40 bg-danger-soft px-3 py-2 text-sm text-ink">{message}</p>}
+    </div>
+  );
+}
+
+interface FormActionsProps {
+  /** The submit button's words, e.g. "Add node". */
+  label: string;
+  /** While the form is being sent: the submit button is disabled and says `busyLabel`. */
+  busy?: boolean;
+  busyLabel?: string;
+  /** Without it the row has no Cancel button. */
+  onCancel?: () => void;
+  cancelLabel?: string;
+  /** Words beside the buttons that a screen reader hears when they change ("Saved."); blank renders nothing visible. */
+  status?: string;
+  className?: string;
+}
+
+/** The row under every form: submit (disabled while sending) and, where the form can be closed, Cancel. */
+export function FormActions({ label, busy = false, busyLabel = 'Saving…', onCancel, cancelLabel = 'Cancel', status, className = '' }: FormActionsProps) {
+  return (
+    <div className={`flex flex-wrap items-center gap-2 ${className}`}>
+      <Button type="submit" variant="primary" disabled={busy}>
+        {busy ? busyLabel : label}
+      </Button>
+      {onCancel && <Button onClick={onCancel}>{cancelLabel}</Button>}
+      {status !== undefined && (
+        <span role="status" className="ml-1 text-sm text-muted">
+          {status}
+        </span>
+      )}
     </div>
   );
 }

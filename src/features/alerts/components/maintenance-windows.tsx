@@ -2,7 +2,7 @@ import type { FormEvent } from 'react';
 import { maintenanceWindowCreateSchema, type MaintenanceWindowDto } from '../../../../shared/schemas/alerts';
 import { Button } from '../../../components/button';
 import { Caution } from '../../../components/caution';
-import { FormMessage, TextField } from '../../../components/form-field';
+import { FormMessage, TextField, FormActions } from '../../../components/form-field';
 import { LoadError, Loading } from '../../../components/query-state';
 import { formatDateTime } from '../../../lib/format';
 import { useForm } from '../../../lib/form';
@@ -72,9 +72,7 @@ export function MaintenanceWindows({ nodeId }: { nodeId: number }) {
           <div className="sm:col-span-2 space-y-2">
             <Caution>Switching off roof equipment can mean ladders, roofs and mains power. Follow local rules and leave that work to people trained or licensed for it.</Caution>
             <FormMessage message={form.formError} />
-            <Button type="submit" variant="primary" disabled={announce.isPending}>
-              {announce.isPending ? 'Announcing…' : 'Announce maintenance'}
-            </Button>
+            <FormActions label="Announce maintenance" busy={announce.isPending} busyLabel="Announcing…" />
           </div>
         </form>
       )}

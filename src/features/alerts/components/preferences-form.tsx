@@ -1,7 +1,6 @@
 import { useState, type FormEvent } from 'react';
 import { OPERATOR_MAIL_MODES, preferencesUpdateSchema, type PreferencesDto, type PreferencesUpdate } from '../../../../shared/schemas/alerts';
-import { Button } from '../../../components/button';
-import { CheckboxField, FormMessage, SelectField, TextField } from '../../../components/form-field';
+import { CheckboxField, FormMessage, SelectField, TextField, FormActions } from '../../../components/form-field';
 import { useForm } from '../../../lib/form';
 import { useUpdatePreferences } from '../api/alerts';
 
@@ -73,10 +72,7 @@ export function PreferencesForm({ preferences }: { preferences: PreferencesDto }
       )}
       {!applies.operator && !applies.host && !applies.admin && <p className="text-sm text-muted">Parapet has no outage mail for you in your current role.</p>}
       <FormMessage message={form.formError} />
-      <div className="flex items-center gap-3">
-        <Button type="submit" variant="primary" disabled={update.isPending}>{update.isPending ? 'Saving…' : 'Save'}</Button>
-        <span role="status" className="text-sm text-muted">{saved ? 'Saved.' : ''}</span>
-      </div>
+      <FormActions label="Save" busy={update.isPending} status={saved ? 'Saved.' : ''} />
     </form>
   );
 }

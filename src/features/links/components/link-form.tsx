@@ -4,7 +4,7 @@ import { LINK_STATUSES } from '../../../../shared/enums';
 import { linkCreateSchema, linkUpdateSchema, type LinkDto } from '../../../../shared/schemas/link';
 import type { RadioDto } from '../../../../shared/schemas/radio';
 import { Button } from '../../../components/button';
-import { FormMessage, SelectField, TextField, type Option } from '../../../components/form-field';
+import { FormMessage, SelectField, TextField, type Option, FormActions } from '../../../components/form-field';
 import { optionalText, toNumber, useForm } from '../../../lib/form';
 import { useNodeChoices, useRadioChoices, useSiteChoices } from '../../../lib/inventory-choices';
 import { paths } from '../../../lib/paths';
@@ -122,12 +122,7 @@ function NewLink({ nodeId, onSaved, onCancel }: Omit<LinkFormProps, 'link'>) {
         <TextField label="Name (optional)" value={values.name} onChange={(e) => set('name', e.target.value)} errors={errors.name} hint="e.g. Granary to Mill backhaul" />
         <SelectField label="Status" value={values.status} onChange={(e) => set('status', e.target.value)} options={STATUS_OPTIONS} errors={errors.status} />
       </div>
-      <div className="flex flex-wrap gap-2">
-        <Button type="submit" variant="primary" disabled={create.isPending}>
-          {create.isPending ? 'Saving…' : 'Add link'}
-        </Button>
-        <Button onClick={onCancel}>Cancel</Button>
-      </div>
+      <FormActions label="Add link" busy={create.isPending} onCancel={onCancel} />
     </FormFrame>
   );
 }
@@ -150,12 +145,7 @@ function EditLink({ link, onSaved, onCancel }: { link: LinkDto; onSaved: (link: 
         <TextField label="Name (optional)" value={values.name} onChange={(e) => set('name', e.target.value)} errors={errors.name} />
         <SelectField label="Status" value={values.status} onChange={(e) => set('status', e.target.value)} options={STATUS_OPTIONS} errors={errors.status} />
       </div>
-      <div className="flex flex-wrap gap-2">
-        <Button type="submit" variant="primary" disabled={update.isPending}>
-          {update.isPending ? 'Saving…' : 'Save link'}
-        </Button>
-        <Button onClick={onCancel}>Cancel</Button>
-      </div>
+      <FormActions label="Save link" busy={update.isPending} onCancel={onCancel} />
     </FormFrame>
   );
 }

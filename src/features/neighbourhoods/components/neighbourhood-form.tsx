@@ -1,6 +1,5 @@
 import { neighbourhoodCreateSchema, neighbourhoodUpdateSchema, type NeighbourhoodDto } from '../../../../shared/schemas/neighbourhood';
-import { Button } from '../../../components/button';
-import { FormMessage, TextAreaField, TextField } from '../../../components/form-field';
+import { FormMessage, TextAreaField, TextField, FormActions } from '../../../components/form-field';
 import { optionalText, useForm } from '../../../lib/form';
 import { useCreateNeighbourhood, useUpdateNeighbourhood } from '../api/neighbourhoods';
 
@@ -42,12 +41,7 @@ export function NeighbourhoodForm({ neighbourhood, onSaved, onCancel }: Neighbou
       <FormMessage message={form.formError} />
       <TextField label="Name" value={values.name} onChange={(e) => set('name', e.target.value)} errors={errors.name} />
       <TextAreaField label="Description" value={values.description} onChange={(e) => set('description', e.target.value)} errors={errors.description} hint="Streets it covers, where the uplink is." />
-      <div className="flex flex-wrap gap-2">
-        <Button type="submit" variant="primary" disabled={saving}>
-          {saving ? 'Saving…' : neighbourhood ? 'Save changes' : 'Add neighbourhood'}
-        </Button>
-        <Button onClick={onCancel}>Cancel</Button>
-      </div>
+      <FormActions label={neighbourhood ? 'Save changes' : 'Add neighbourhood'} busy={saving} onCancel={onCancel} />
     </form>
   );
 }

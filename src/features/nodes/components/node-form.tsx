@@ -1,6 +1,5 @@
 import { nodeCreateSchema, nodeUpdateSchema, type NodeDto } from '../../../../shared/schemas/node';
-import { Button } from '../../../components/button';
-import { CheckboxField, FormMessage, SelectField, TextField, type Option } from '../../../components/form-field';
+import { CheckboxField, FormMessage, SelectField, TextField, type Option, FormActions } from '../../../components/form-field';
 import { optionalText, toNumber, useForm } from '../../../lib/form';
 import { useCreateNode, useUpdateNode } from '../api/nodes';
 
@@ -83,12 +82,7 @@ export function NodeForm({ node, siteOptions, neighbourhoodOptions, onSaved, onC
           <CheckboxField label="Uplink node (carries the shared internet connection)" checked={values.isUplink} onChange={(e) => set('isUplink', e.target.checked)} errors={errors.isUplink} />
         </div>
       </div>
-      <div className="flex flex-wrap gap-2">
-        <Button type="submit" variant="primary" disabled={saving}>
-          {saving ? 'Saving…' : node ? 'Save changes' : 'Add node'}
-        </Button>
-        <Button onClick={onCancel}>Cancel</Button>
-      </div>
+      <FormActions label={node ? 'Save changes' : 'Add node'} busy={saving} onCancel={onCancel} />
     </form>
   );
 }

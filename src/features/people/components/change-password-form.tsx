@@ -1,7 +1,6 @@
 import { useState } from 'react';
 import { z } from 'zod';
-import { Button } from '../../../components/button';
-import { FormMessage, TextField } from '../../../components/form-field';
+import { FormMessage, TextField, FormActions } from '../../../components/form-field';
 import { lazySchema, useForm } from '../../../lib/form';
 import { useChangePassword } from '../api/account';
 import { PASSWORD_HINT } from './new-password-form';
@@ -40,10 +39,7 @@ export function ChangePasswordForm() {
       <TextField label="Current password" name="currentPassword" type="password" autoComplete="current-password" value={form.values.currentPassword} onChange={(e) => form.set('currentPassword', e.target.value)} errors={form.errors.currentPassword} />
       <TextField label="New password" name="newPassword" type="password" autoComplete="new-password" value={form.values.newPassword} onChange={(e) => form.set('newPassword', e.target.value)} errors={form.errors.newPassword} hint={PASSWORD_HINT} />
       <TextField label="The new password again" name="repeat" type="password" autoComplete="new-password" value={form.values.repeat} onChange={(e) => form.set('repeat', e.target.value)} errors={form.errors.repeat} />
-      <div className="flex items-center gap-3">
-        <Button type="submit" variant="primary" disabled={change.isPending}>{change.isPending ? 'Changing…' : 'Change password'}</Button>
-        <span role="status" className="text-sm text-muted">{done ? 'Changed. Your other devices are signed out.' : ''}</span>
-      </div>
+      <FormActions label="Change password" busy={change.isPending} busyLabel="Changing…" status={done ? 'Changed. Your other devices are signed out.' : ''} />
     </form>
   );
 }

@@ -1,7 +1,6 @@
 import { useEffect, useState } from 'react';
 import type { MeDto } from '../../../../shared/schemas/account';
-import { Button } from '../../../components/button';
-import { FormMessage, TextField } from '../../../components/form-field';
+import { FormMessage, TextField, FormActions } from '../../../components/form-field';
 import { lazySchema, useForm } from '../../../lib/form';
 
 // Its module also holds the password rules and their dictionary: fetched when the form is first used.
@@ -30,10 +29,7 @@ export function ContactForm({ me }: { me: MeDto }) {
       <p className="text-sm text-muted">E-mail: {me.email} (an admin can change it)</p>
       <TextField label="Name" name="name" autoComplete="name" value={form.values.name} onChange={(e) => form.set('name', e.target.value)} errors={form.errors.name} />
       <TextField label="Phone" name="phone" type="tel" autoComplete="tel" value={form.values.phone} onChange={(e) => form.set('phone', e.target.value)} errors={form.errors.phone} hint="The operators of your neighbourhood see it, so they can reach you when your node needs a hand." />
-      <div className="flex items-center gap-3">
-        <Button type="submit" variant="primary" disabled={update.isPending}>{update.isPending ? 'Saving…' : 'Save contact details'}</Button>
-        <span role="status" className="text-sm text-muted">{saved ? 'Saved.' : ''}</span>
-      </div>
+      <FormActions label="Save contact details" busy={update.isPending} status={saved ? 'Saved.' : ''} />
     </form>
   );
 }

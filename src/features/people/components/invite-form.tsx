@@ -1,7 +1,6 @@
 import { ROLES } from '../../../../shared/enums';
 import type { UserDto } from '../../../../shared/schemas/user';
-import { Button } from '../../../components/button';
-import { FormMessage, SelectField, TextField } from '../../../components/form-field';
+import { FormMessage, SelectField, TextField, FormActions } from '../../../components/form-field';
 import { capitalise } from '../../../lib/format';
 import { lazySchema, useForm } from '../../../lib/form';
 
@@ -30,10 +29,7 @@ export function InviteForm({ onSent, onCancel }: { onSent: (person: UserDto & { 
       <TextField label="E-mail" name="email" type="email" value={form.values.email} onChange={(e) => form.set('email', e.target.value)} errors={form.errors.email} />
       <TextField label="Name" name="name" value={form.values.name} onChange={(e) => form.set('name', e.target.value)} errors={form.errors.name} />
       <SelectField label="Role" name="role" value={form.values.role} onChange={(e) => form.set('role', e.target.value)} errors={form.errors.role} options={ROLES.map((r) => ({ value: r, label: capitalise(r) }))} />
-      <div className="flex gap-2 sm:col-span-3">
-        <Button type="submit" variant="primary" disabled={invite.isPending}>{invite.isPending ? 'Sending…' : 'Send invitation'}</Button>
-        <Button onClick={onCancel}>Cancel</Button>
-      </div>
+      <FormActions className="sm:col-span-3" label="Send invitation" busy={invite.isPending} busyLabel="Sending…" onCancel={onCancel} />
     </form>
   );
 }

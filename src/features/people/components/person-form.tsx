@@ -1,7 +1,6 @@
 import { ROLES } from '../../../../shared/enums';
 import type { UserDto } from '../../../../shared/schemas/user';
-import { Button } from '../../../components/button';
-import { FormMessage, SelectField, TextField } from '../../../components/form-field';
+import { FormMessage, SelectField, TextField, FormActions } from '../../../components/form-field';
 import { capitalise } from '../../../lib/format';
 import { lazySchema, useForm } from '../../../lib/form';
 
@@ -42,12 +41,7 @@ export function PersonForm({ onSaved, onCancel }: { onSaved: (person: UserDto) =
         <TextField label="Phone" type="tel" autoComplete="off" value={values.phone} onChange={(e) => set('phone', e.target.value)} errors={errors.phone} hint="Optional; used when a node they host goes down." />
         <TextField label="Starting password" type="password" autoComplete="new-password" value={values.password} onChange={(e) => set('password', e.target.value)} errors={errors.password} hint="At least 12 characters. Hand it over in person, not by e-mail." />
       </div>
-      <div className="flex flex-wrap gap-2">
-        <Button type="submit" variant="primary" disabled={create.isPending}>
-          {create.isPending ? 'Adding…' : 'Add person'}
-        </Button>
-        <Button onClick={onCancel}>Cancel</Button>
-      </div>
+      <FormActions label="Add person" busy={create.isPending} busyLabel="Adding…" onCancel={onCancel} />
     </form>
   );
 }

@@ -1,7 +1,6 @@
 import { useState, type FormEvent } from 'react';
 import { nodeAddressPlanSchema } from '../../../../shared/schemas/planningRecords';
-import { Button } from '../../../components/button';
-import { FormMessage, TextField } from '../../../components/form-field';
+import { FormMessage, TextField, FormActions } from '../../../components/form-field';
 import { ApiError } from '../../../lib/api';
 import { useSaveAddressPlan } from '../api/planning';
 import type { AddressPlanRow } from '../api/types';
@@ -38,10 +37,7 @@ export function AddressPlanEditor({ plan, onDone }: { plan: AddressPlanRow; onDo
         {field('staticAddresses', 'Static addresses', 'Separated by commas.')}
       </div>
       <FormMessage message={message} />
-      <div className="flex gap-2">
-        <Button type="submit" variant="primary" disabled={save.isPending}>Save</Button>
-        <Button onClick={onDone}>Cancel</Button>
-      </div>
+      <FormActions label="Save" busy={save.isPending} onCancel={onDone} />
     </form>
   );
 }

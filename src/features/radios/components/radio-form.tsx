@@ -1,9 +1,8 @@
 import { ENCRYPTIONS, POLARISATIONS, RADIO_ROLES, type Band, type ChannelWidthMHz } from '../../../../shared/enums';
 import { validChannels, type ChannelRegion } from '../../../../shared/radio/channels';
 import { radioCreateSchema, type RadioDto } from '../../../../shared/schemas/radio';
-import { Button } from '../../../components/button';
 import { Caution } from '../../../components/caution';
-import { FormMessage, SelectField, TextField, type Option } from '../../../components/form-field';
+import { FormMessage, SelectField, TextField, type Option, FormActions } from '../../../components/form-field';
 import { toNumber, useForm } from '../../../lib/form';
 import { asWidth, bandOptions, channelOptions, isBand, widthOptions } from '../../../lib/channel-options';
 import { useCreateRadio, useUpdateRadio } from '../api/radios';
@@ -137,12 +136,7 @@ export function RadioForm({ nodeId, region, radio, onSaved, onCancel }: RadioFor
         />
         <TextField label="Group key rekey interval (s)" inputMode="numeric" value={values.groupRekeyS} onChange={(e) => set('groupRekeyS', e.target.value)} errors={errors.groupRekeyS} hint="0 turns rekeying off (not advised)" />
       </div>
-      <div className="flex flex-wrap gap-2">
-        <Button type="submit" variant="primary" disabled={saving}>
-          {saving ? 'Saving…' : radio ? 'Save radio' : 'Add radio'}
-        </Button>
-        <Button onClick={onCancel}>Cancel</Button>
-      </div>
+      <FormActions label={radio ? 'Save radio' : 'Add radio'} busy={saving} onCancel={onCancel} />
     </form>
   );
 }

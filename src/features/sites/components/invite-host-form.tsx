@@ -1,7 +1,6 @@
 import { useMutation, useQueryClient } from '@tanstack/react-query';
 import { invitationCreateSchema } from '../../../../shared/schemas/account';
-import { Button } from '../../../components/button';
-import { FormMessage, TextField } from '../../../components/form-field';
+import { FormMessage, TextField, FormActions } from '../../../components/form-field';
 import { api } from '../../../lib/api';
 import { useForm } from '../../../lib/form';
 import { siteKeys } from '../../../lib/query-keys';
@@ -32,10 +31,7 @@ export function InviteHostForm({ siteId, onSent, onCancel }: { siteId: number; o
       <div className="sm:col-span-2"><FormMessage message={form.formError} /></div>
       <TextField label="Host's e-mail" name="email" type="email" value={form.values.email} onChange={(e) => form.set('email', e.target.value)} errors={form.errors.email} />
       <TextField label="Host's name" name="name" value={form.values.name} onChange={(e) => form.set('name', e.target.value)} errors={form.errors.name} />
-      <div className="flex gap-2 sm:col-span-2">
-        <Button type="submit" variant="primary" disabled={invite.isPending}>{invite.isPending ? 'Sending…' : 'Send invitation'}</Button>
-        <Button onClick={onCancel}>Cancel</Button>
-      </div>
+      <FormActions className="sm:col-span-2" label="Send invitation" busy={invite.isPending} busyLabel="Sending…" onCancel={onCancel} />
     </form>
   );
 }

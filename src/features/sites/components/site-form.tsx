@@ -1,7 +1,6 @@
 import { siteCreateSchema, siteUpdateSchema, type SiteDto } from '../../../../shared/schemas/site';
-import { Button } from '../../../components/button';
 import { Caution } from '../../../components/caution';
-import { FormMessage, SelectField, TextAreaField, TextField, type Option } from '../../../components/form-field';
+import { FormMessage, SelectField, TextAreaField, TextField, type Option, FormActions } from '../../../components/form-field';
 import { toIdOrNull, toNumber, useForm } from '../../../lib/form';
 import { useCreateSite, useUpdateSite } from '../api/sites';
 
@@ -87,12 +86,7 @@ export function SiteForm({ site, neighbourhoodOptions, hostOptions, onSaved, onC
         )}
       </div>
       <TextAreaField label="Access notes" value={values.accessNotes} onChange={(e) => set('accessNotes', e.target.value)} errors={errors.accessNotes} hint="How to reach the roof or window: keys, ladders, who to call first." />
-      <div className="flex flex-wrap gap-2">
-        <Button type="submit" variant="primary" disabled={saving}>
-          {saving ? 'Saving…' : site ? 'Save changes' : 'Add site'}
-        </Button>
-        <Button onClick={onCancel}>Cancel</Button>
-      </div>
+      <FormActions label={site ? 'Save changes' : 'Add site'} busy={saving} onCancel={onCancel} />
     </form>
   );
 }
