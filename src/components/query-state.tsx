@@ -1,5 +1,5 @@
 import type { ReactNode } from 'react';
-import { ApiError } from '../lib/api';
+import { errorMessage } from '../lib/api';
 
 export function Loading({ label = 'Loading…' }: { label?: string }) {
   return (
@@ -11,7 +11,7 @@ export function Loading({ label = 'Loading…' }: { label?: string }) {
 
 /** A failed read, in the server's own words when it gave them. */
 export function LoadError({ error, children }: { error: unknown; children?: ReactNode }) {
-  const message = error instanceof ApiError ? error.message : 'Something went wrong while loading. Try again.';
+  const message = errorMessage(error, 'Something went wrong while loading. Try again.');
   return (
     <div role="alert" className="rounded-md border border-danger/40 bg-danger-soft px-3 py-2 text-sm text-ink">
       <p>{message}</p>

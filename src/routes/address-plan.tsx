@@ -7,11 +7,11 @@ import { LoadError, Loading } from '../components/query-state';
 import { useAddressPlans, useAllocateAddresses, useDeleteAddressPlan, useNetworkSettings, useUpdateNetworkSettings } from '../features/planning/api/planning';
 import type { AddressPlanRow } from '../features/planning/api/types';
 import { AddressPlanEditor } from '../features/planning/components/address-plan-editor';
-import { ApiError } from '../lib/api';
+import { errorMessage } from '../lib/api';
 import { paths } from '../lib/paths';
 import { PlanningCaution } from '../features/planning/components/planning-caution';
 
-const say = (e: unknown) => (e instanceof ApiError ? e.message : 'Something went wrong. Try again.');
+const say = (e: unknown) => errorMessage(e);
 
 function PoolForm({ pool }: { pool: string | null }) {
   const settings = useNetworkSettings();

@@ -6,7 +6,7 @@ import { LoadError, Loading } from '../components/query-state';
 import { useApplyChannelPlan, useChannelHistory, useChannelPlan } from '../features/planning/api/planning';
 import { CongestionChart } from '../features/planning/components/congestion-chart';
 import { SurveyUpload } from '../features/planning/components/survey-upload';
-import { ApiError } from '../lib/api';
+import { errorMessage } from '../lib/api';
 import { formatDateTime } from '../lib/format';
 import { bandOptions, isBand } from '../lib/channel-options';
 import { PlanningCaution } from '../features/planning/components/planning-caution';
@@ -56,7 +56,7 @@ export function ChannelPlanPage() {
                 {apply.isPending ? 'Applying…' : `Apply ${changed.length} change${changed.length === 1 ? '' : 's'}`}
               </Button>
               {apply.isSuccess && <p role="status" className="text-sm">Updated {apply.data.updated} radio(s); the change is in the history below.</p>}
-              {apply.isError && <FormMessage message={apply.error instanceof ApiError ? apply.error.message : 'The plan could not be applied. Try again.'} />}
+              {apply.isError && <FormMessage message={errorMessage(apply.error, 'The plan could not be applied. Try again.')} />}
             </div>
           </div>
         )}

@@ -6,11 +6,11 @@ import { FormMessage } from '../components/form-field';
 import { PageHeader, Section } from '../components/page-header';
 import { useCommitImport, usePreviewImport } from '../features/csv/api/csv';
 import { ImportPreview } from '../features/csv/components/import-preview';
-import { ApiError } from '../lib/api';
+import { errorMessage } from '../lib/api';
 import { paths } from '../lib/paths';
 
 const LAYOUT = { sites: SITE_CSV_COLUMNS, nodes: NODE_CSV_COLUMNS };
-const message = (e: unknown) => (e instanceof ApiError ? e.message : e ? 'Something went wrong. Try again.' : null);
+const message = (e: unknown) => (e ? errorMessage(e) : null);
 
 export function ImportsPage() {
   const [search, setSearch] = useSearchParams();

@@ -2,7 +2,7 @@ import { useState, type ReactNode } from 'react';
 import type { LinkDto } from '../../../../shared/schemas/link';
 import { Button } from '../../../components/button';
 import { FormMessage } from '../../../components/form-field';
-import { ApiError } from '../../../lib/api';
+import { errorMessage } from '../../../lib/api';
 import { ALL_ROWS } from '../../../lib/resource';
 import { useDeleteLink, useLinks } from '../api/links';
 import { LinkForm } from './link-form';
@@ -21,7 +21,7 @@ function RemoveLink({ link, onError }: { link: LinkDto; onError: (message: strin
       onClick={() => {
         if (!window.confirm(`Remove ${linkName(link)}? Its radios stay; only the link between them goes.`)) return;
         onError(null);
-        remove.mutate(undefined, { onError: (e) => onError(e instanceof ApiError ? e.message : 'Could not remove the link. Try again.') });
+        remove.mutate(undefined, { onError: (e) => onError(errorMessage(e, 'Could not remove the link. Try again.')) });
       }}
     >
       Remove

@@ -6,7 +6,7 @@ import { FilterSelect } from '../../../components/list-toolbar';
 import { DataTable, type Column } from '../../../components/data-table';
 import { FormMessage } from '../../../components/form-field';
 import { StateBadge } from '../../../components/state-badge';
-import { ApiError } from '../../../lib/api';
+import { errorMessage } from '../../../lib/api';
 import { useAssignNodes, useNodeCandidates } from '../api/neighbourhoods';
 
 /** Admins: find nodes (server-side search), tick them, move them all into this neighbourhood at once. */
@@ -65,7 +65,7 @@ export function BulkNodeAssign({ neighbourhoodId, neighbourhoodNames }: { neighb
         </Button>
         <span role="status" className="text-muted">{done ?? ''}</span>
       </div>
-      <FormMessage message={assign.error ? (assign.error instanceof ApiError ? assign.error.message : 'Could not move the nodes.') : null} />
+      <FormMessage message={assign.error ? errorMessage(assign.error, 'Could not move the nodes.') : null} />
     </div>
   );
 }

@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { operatorAssignmentSchema, type NeighbourhoodDto } from '../../../../shared/schemas/neighbourhood';
 import { Button } from '../../../components/button';
 import { FormMessage } from '../../../components/form-field';
-import { ApiError } from '../../../lib/api';
+import { errorMessage } from '../../../lib/api';
 import { useAssignOperators } from '../api/neighbourhoods';
 
 interface OperatorAssignmentProps {
@@ -37,7 +37,7 @@ export function OperatorAssignment({ neighbourhood, operators }: OperatorAssignm
     setMessage(null);
     assign.mutate(parsed.data.userIds, {
       onSuccess: () => setSaved(true),
-      onError: (error) => setMessage(error instanceof ApiError ? error.message : 'Could not save. Try again.'),
+      onError: (error) => setMessage(errorMessage(error, 'Could not save. Try again.')),
     });
   }
 

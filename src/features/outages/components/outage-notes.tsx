@@ -2,7 +2,7 @@ import { useState, type FormEvent } from 'react';
 import { outageNotesSchema, type OutageDto } from '../../../../shared/schemas/outage';
 import { Button } from '../../../components/button';
 import { TextAreaField } from '../../../components/form-field';
-import { ApiError } from '../../../lib/api';
+import { errorMessage } from '../../../lib/api';
 import { useUpdateOutageNotes } from '../api/outages';
 
 /** An outage's notes, editable in place by those the server allows to annotate it. */
@@ -22,7 +22,7 @@ export function OutageNotes({ outage }: { outage: OutageDto }) {
     setErrors([]);
     save.mutate(parsed.data.notes, {
       onSuccess: () => setEditing(false),
-      onError: (error) => setErrors([error instanceof ApiError ? error.message : 'Could not save the notes. Try again.']),
+      onError: (error) => setErrors([errorMessage(error, 'Could not save the notes. Try again.')]),
     });
   }
 

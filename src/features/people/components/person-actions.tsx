@@ -1,11 +1,11 @@
 import { useState } from 'react';
 import type { UserDto } from '../../../../shared/schemas/user';
 import { buttonClass, Button } from '../../../components/button';
-import { ApiError } from '../../../lib/api';
+import { errorMessage } from '../../../lib/api';
 import { exportUrl, useErasePerson, useInvite } from '../api/account';
 import { useUpdatePerson } from '../api/people';
 
-const errorText = (e: unknown, fallback: string) => (e instanceof ApiError ? e.message : fallback);
+const errorText = errorMessage;
 
 /** What an admin can do to one person; each button appears only when the server's abilities allow it. */
 export function PersonActions({ person }: { person: UserDto }) {

@@ -1,7 +1,7 @@
 import { useId, useState } from 'react';
 import { ROLES, type Role } from '../../../../shared/enums';
 import type { UserDto } from '../../../../shared/schemas/user';
-import { ApiError } from '../../../lib/api';
+import { errorMessage } from '../../../lib/api';
 import { capitalise } from '../../../lib/format';
 import { lazySchema } from '../../../lib/form';
 import { useUpdatePerson } from '../api/people';
@@ -30,7 +30,7 @@ export function RoleSelect({ person }: { person: UserDto }) {
     }
     setMessage(null);
     update.mutate(parsed.data, {
-      onError: (error) => setMessage(error instanceof ApiError ? error.message : 'Could not change the role. Try again.'),
+      onError: (error) => setMessage(errorMessage(error, 'Could not change the role. Try again.')),
     });
   }
 

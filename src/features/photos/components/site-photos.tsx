@@ -4,11 +4,11 @@ import { EmptyState } from '../../../components/empty-state';
 import { FormMessage } from '../../../components/form-field';
 import { Section } from '../../../components/page-header';
 import { LoadError, Loading } from '../../../components/query-state';
-import { ApiError } from '../../../lib/api';
+import { errorMessage } from '../../../lib/api';
 import { formatDateTime } from '../../../lib/format';
 import { useDeletePhoto, useSitePhotos, useUploadPhoto } from '../api/photos';
 
-const errorText = (e: unknown) => (e instanceof ApiError ? e.message : e ? 'Something went wrong. Try again.' : null);
+const errorText = (e: unknown) => (e ? errorMessage(e) : null);
 
 /** Install photos of one site: thumbnails that open the full picture, an upload form, and removal for managers. */
 export function SitePhotos({ siteId }: { siteId: number }) {

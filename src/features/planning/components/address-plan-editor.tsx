@@ -1,7 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { nodeAddressPlanSchema } from '../../../../shared/schemas/planningRecords';
 import { FormMessage, TextField, FormActions } from '../../../components/form-field';
-import { ApiError } from '../../../lib/api';
+import { errorMessage } from '../../../lib/api';
 import { useSaveAddressPlan } from '../api/planning';
 import type { AddressPlanRow } from '../api/types';
 
@@ -21,7 +21,7 @@ export function AddressPlanEditor({ plan, onDone }: { plan: AddressPlanRow; onDo
       return;
     }
     setErrors({});
-    save.mutate({ nodeId: plan.nodeId, ...parsed.data }, { onSuccess: onDone, onError: (err) => setMessage(err instanceof ApiError ? err.message : 'Could not save. Try again.') });
+    save.mutate({ nodeId: plan.nodeId, ...parsed.data }, { onSuccess: onDone, onError: (err) => setMessage(errorMessage(err, 'Could not save. Try again.')) });
   }
   const field = (key: keyof typeof v, label: string, hint?: string) => (
     <TextField label={label} value={v[key]} errors={errors[key]} hint={hint} onChange={(e) => setV({ ...v, [key]: e.target.value })} />

@@ -5,7 +5,7 @@ import { Button } from '../../../components/button';
 import { EmptyState } from '../../../components/empty-state';
 import { FormMessage } from '../../../components/form-field';
 import { LoadError, Loading } from '../../../components/query-state';
-import { ApiError } from '../../../lib/api';
+import { errorMessage } from '../../../lib/api';
 import { ALL_ROWS } from '../../../lib/resource';
 import { useDeleteRadio, useRadios } from '../api/radios';
 import { RadioForm } from './radio-form';
@@ -24,7 +24,7 @@ function RemoveRadio({ radio, onError }: { radio: RadioDto; onError: (message: s
       onClick={() => {
         if (!window.confirm(`Remove the radio ${radio.iface} and every link it carries? This cannot be undone.`)) return;
         onError(null);
-        remove.mutate(undefined, { onError: (e) => onError(e instanceof ApiError ? e.message : 'Could not remove the radio. Try again.') });
+        remove.mutate(undefined, { onError: (e) => onError(errorMessage(e, 'Could not remove the radio. Try again.')) });
       }}
     >
       Remove
