@@ -21,7 +21,9 @@ export function StateShape({ state, size = 14 }: { state: NodeState; size?: numb
   return (
     <svg width={size} height={size} viewBox="0 0 16 16" role="img" aria-label={label} className="shrink-0">
       {state === 'online' && <circle cx="8" cy="8" r="6.5" className="fill-state-online" />}
-      {state === 'degraded' && <path d="M8 1.5 15 14.5H1z" className="fill-state-degraded stroke-state-degraded-edge" strokeWidth="0.8" strokeLinejoin="round" />}
+      {state === 'degraded' && (
+        <path d="M8 1.5 15 14.5H1z" className="fill-state-degraded stroke-state-degraded-edge" strokeWidth="0.8" strokeLinejoin="round" />
+      )}
       {state === 'offline' && <rect x="2" y="2" width="12" height="12" rx="1" className="fill-state-offline" />}
       {state === 'maintenance' && (
         <>

@@ -78,7 +78,8 @@ export function TimeChart(props: TimeChartProps) {
   const data = useMemo<uPlot.AlignedData>(() => [times, ...lines.map((line) => line.values)], [times, lines]);
   // The chart is rebuilt only when its shape changes (lines, unit, size); new figures go through setData.
   const dark = useIsDark();
-  const shape = `${dark}|${lines.map((l) => `${l.label}|${l.colour}|${l.dashed}`).join(',')}|${props.unit}|${heightPx}|${props.sparkline}|${times.length < FEW_POINTS}`;
+  const lineShape = lines.map((l) => `${l.label}|${l.colour}|${l.dashed}`).join(',');
+  const shape = `${dark}|${lineShape}|${props.unit}|${heightPx}|${props.sparkline}|${times.length < FEW_POINTS}`;
 
   useEffect(() => {
     const element = box.current;

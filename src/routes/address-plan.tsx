@@ -51,7 +51,12 @@ export function AddressPlanPage() {
       <Section title={`Checks (${d.findings.length})`}>
         {d.findings.length === 0 ? <p className="text-sm" data-testid="address-findings">● No overlaps, stray gateways or DHCP clashes.</p> : (
           <ul className="space-y-1 text-sm" data-testid="address-findings">
-            {d.findings.map((f) => <li key={`${f.code}-${f.message}`} className="rounded-md border-l-4 border-danger bg-surface px-3 py-1.5"><span aria-hidden="true">■ </span>{f.message}</li>)}
+            {d.findings.map((f) => (
+              <li key={`${f.code}-${f.message}`} className="rounded-md border-l-4 border-danger bg-surface px-3 py-1.5">
+                <span aria-hidden="true">■ </span>
+                {f.message}
+              </li>
+            ))}
           </ul>
         )}
       </Section>

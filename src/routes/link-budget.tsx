@@ -4,6 +4,7 @@ import { Button } from '../components/button';
 import { Caution } from '../components/caution';
 import { CheckboxField, FormMessage, SelectField, TextField } from '../components/form-field';
 import { PageHeader, Section } from '../components/page-header';
+import type { Band } from '../../shared/enums';
 import { channelCenterMHz, channelProblem } from '../../shared/radio/channels';
 import { bandOptions, channelRegionOf, isBand, widthOptions } from '../lib/channel-options';
 import type { PlannedLinkEnd } from '../../shared/schemas/planningRecords';
@@ -44,6 +45,12 @@ export function LinkBudgetPage() {
   const band = radioA?.band ?? radio.band;
   const channel = radioA?.channel ?? num(radio.channel);
   const width = radioA?.channelWidthMHz ?? num(radio.channelWidthMHz);
+  const channelRegion = channelRegionOf(region) ?? 'EU';
+  // A new band keeps the width only where the band offers it (no 80 MHz on 2.4 GHz).
+  const chooseBand = (next: Band) => {
+    const kept = widthOptions(channelRegion, next).some((o) => o.value === radio.channelWidthMHz);
+    setRadio({ ...radio, band: next, channelWidthMHz: kept ? radio.channelWidthMHz : '20' });
+  };
 
   async function compute(e: FormEvent) {
     e.preventDefault();
@@ -107,9 +114,21 @@ export function LinkBudgetPage() {
         </div>
         <fieldset className="grid grid-cols-2 gap-3 rounded-lg border border-line bg-surface p-4 lg:grid-cols-4">
           <legend className="px-1 text-sm font-semibold">Radio {radioA ? '(from radio A)' : ''}</legend>
-          <SelectField label="Band" value={band} disabled={!!radioA} onChange={(e) => isBand(e.target.value) && setRadio({ ...radio, band: e.target.value, channelWidthMHz: e.target.value === '2.4' && radio.channelWidthMHz === '80' ? '20' : radio.channelWidthMHz })} options={bandOptions} />
+          <SelectField
+            label="Band"
+            value={band}
+            disabled={!!radioA}
+            onChange={(e) => isBand(e.target.value) && chooseBand(e.target.value)}
+            options={bandOptions}
+          />
           <TextField label="Channel" inputMode="numeric" value={radioA ? String(radioA.channel) : radio.channel} readOnly={!!radioA} onChange={(e) => setRadio({ ...radio, channel: e.target.value })} />
-          <SelectField label="Channel width" value={String(width)} disabled={!!radioA} onChange={(e) => setRadio({ ...radio, channelWidthMHz: e.target.value })} options={widthOptions(channelRegionOf(region) ?? 'EU', band)} />
+          <SelectField
+            label="Channel width"
+            value={String(width)}
+            disabled={!!radioA}
+            onChange={(e) => setRadio({ ...radio, channelWidthMHz: e.target.value })}
+            options={widthOptions(channelRegion, band)}
+          />
           <TextField label="Receiver noise figure (dB)" inputMode="decimal" value={radio.noiseFigureDb} onChange={(e) => setRadio({ ...radio, noiseFigureDb: e.target.value })} />
           <SelectField label="Spatial streams" value={adv.streams} onChange={(e) => setAdv({ ...adv, streams: e.target.value })} options={[{ value: '1', label: '1 stream' }, { value: '2', label: '2 streams' }]} />
           <SelectField label="Guard interval" value={adv.guardInterval} onChange={(e) => setAdv({ ...adv, guardInterval: e.target.value })} options={[{ value: 'long', label: 'Long (0.8 µs)' }, { value: 'short', label: 'Short (0.4 µs)' }]} />

@@ -103,7 +103,10 @@ export function RegulatoryVerdict({ region, answer, error }: { region: string; a
   if (error) return <p data-testid="regulatory-verdict" className="rounded-lg border border-danger/40 bg-danger-soft p-3 text-sm">{error}</p>;
   if (!answer) return null;
   return (
-    <div data-testid="regulatory-verdict" className={`rounded-lg border-2 bg-surface p-3 text-sm ${answer.compliant ? 'border-state-online' : 'border-danger'}`}>
+    <div
+      data-testid="regulatory-verdict"
+      className={`rounded-lg border-2 bg-surface p-3 text-sm ${answer.compliant ? 'border-state-online' : 'border-danger'}`}
+    >
       <p className="font-semibold">
         <span aria-hidden="true">{answer.compliant ? '● ' : '■ '}</span>
         {answer.compliant ? `Within the ${region} rules` : `Not within the ${region} rules`} — EIRP {answer.eirpDbm.toFixed(1)} dBm of at most {answer.maxEirpDbm.toFixed(1)} dBm;

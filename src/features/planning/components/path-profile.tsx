@@ -60,12 +60,27 @@ export function PathProfile({ distanceKm, freqMHz, kFactor, a, b, obstacles, ter
         <path d={line((p) => p.sightM)} fill="none" className="stroke-info" strokeWidth={1.8} />
         {posts.map((p, i) => (
           <g key={i} data-testid="profile-obstacle">
-            <rect x={x(p.distanceKm) - 3} width={6} y={y(Math.max(p.topM, p.baseM))} height={Math.max(1, y(p.baseM) - y(Math.max(p.topM, p.baseM)))} className="fill-ground" fillOpacity={0.8} />
+            <rect
+              x={x(p.distanceKm) - 3}
+              width={6}
+              y={y(Math.max(p.topM, p.baseM))}
+              height={Math.max(1, y(p.baseM) - y(Math.max(p.topM, p.baseM)))}
+              className="fill-ground"
+              fillOpacity={0.8}
+            />
             <title>{`Obstacle ${i + 1}: top ${p.heightM} m at ${p.distanceKm} km from ${a.label}`}</title>
           </g>
         ))}
         {worst && !worst.clear && (
-          <line x1={x(worst.atDistanceKm)} x2={x(worst.atDistanceKm)} y1={PAD.top} y2={H - PAD.bottom} className="stroke-state-offline" strokeDasharray="4 3" strokeWidth={1.5} />
+          <line
+            x1={x(worst.atDistanceKm)}
+            x2={x(worst.atDistanceKm)}
+            y1={PAD.top}
+            y2={H - PAD.bottom}
+            className="stroke-state-offline"
+            strokeDasharray="4 3"
+            strokeWidth={1.5}
+          />
         )}
         {mast(0, a)}
         {mast(distanceKm, b)}

@@ -39,7 +39,9 @@ export function TerrainTiles() {
             <label htmlFor="terrain-file" className="mb-1 block text-sm font-medium">SRTM tile (.hgt, unzipped, named like N47W039.hgt)</label>
             <input id="terrain-file" type="file" accept=".hgt" className="block text-sm" onChange={(e) => setFile(e.target.files?.[0] ?? null)} />
           </div>
-          <Button type="submit" variant="primary" disabled={!file || upload.isPending}>{upload.isPending ? `Uploading…${percent(progress) === null ? '' : ` ${percent(progress)} %`}` : 'Upload tile'}</Button>
+          <Button type="submit" variant="primary" disabled={!file || upload.isPending}>
+            {upload.isPending ? `Uploading…${percent(progress) === null ? '' : ` ${percent(progress)} %`}` : 'Upload tile'}
+          </Button>
         </form>
       )}
       {upload.isSuccess && <p role="status" className="text-sm">Added {upload.data.name}.</p>}

@@ -101,7 +101,13 @@ export function RadioForm({ nodeId, region, radio, onSaved, onCancel }: RadioFor
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
         <TextField label="Interface" value={values.iface} onChange={(e) => set('iface', e.target.value)} errors={errors.iface} hint="The router's name for the radio, e.g. wlan0" />
         <SelectField label="Role" value={values.role} onChange={(e) => set('role', e.target.value as typeof values.role)} options={choices(RADIO_ROLES, ROLE_WORDS)} errors={errors.role} />
-        <SelectField label="Band" value={values.band} onChange={(e) => isBand(e.target.value) && changeBandOrWidth(e.target.value, width)} options={bandOptions} errors={errors.band} />
+        <SelectField
+          label="Band"
+          value={values.band}
+          onChange={(e) => isBand(e.target.value) && changeBandOrWidth(e.target.value, width)}
+          options={bandOptions}
+          errors={errors.band}
+        />
         <SelectField label="Channel width" value={values.channelWidthMHz} onChange={(e) => changeBandOrWidth(band, asWidth(e.target.value))} options={widths} errors={errors.channelWidthMHz} />
         <SelectField
           label="Channel"
