@@ -3,17 +3,11 @@ import type { Request } from 'express';
 import type { Server, Socket } from 'socket.io';
 import type { Config } from '../config';
 import { loadActor, type Actor } from '../policies/actor';
+import { roomsOf } from '../policies/node';
 
 /** Every socket of a person also sits in this room, so their rooms can be found and changed from any instance. */
 export const personRoom = (userId: number) => `user:${userId}`;
 
-/** Rooms a person may listen in: deny by default, exactly what they may read over the API. */
-export function roomsOf(actor: Actor): string[] {
-  if (actor.role === 'admin') return ['admins'];
-  const rooms = [`host:${actor.id}`];
-  if (actor.role === 'operator') rooms.push(...actor.neighbourhoodIds.map((id) => `hood:${id}`));
-  return rooms;
-}
 
 /**
  * The handshake's Origin must be this site (the Host it was sent to, or PUBLIC_URL): a page elsewhere

@@ -8,6 +8,7 @@ import type { Config } from '../config';
 import { isGenuineLink } from '../mail/signedLinks';
 import { Node } from '../models';
 import type { Actor } from '../policies/actor';
+import { nodeRooms } from '../policies/node';
 import { domainEvents, type AccessChangedEvent, type NodeFiguresEvent, type OutageTimelineEvent } from '../services/events';
 import { recoveryContext } from '../services/hostRecovery';
 import { admit, refreshRooms, sameOrigin } from './access';
@@ -37,15 +38,8 @@ export function releaseOnEnd(pool: pg.Pool): pg.Pool {
   return pool;
 }
 
-/** Rooms an event about a node goes to: its neighbourhood, the admins, and its site's host. */
-export function roomsFor(e: { neighbourhoodId: number; hostUserId: number | null }): string[] {
-  const rooms = ['admins', `hood:${e.neighbourhoodId}`];
-  if (e.hostUserId) rooms.push(`host:${e.hostUserId}`);
-  return rooms;
-}
-
-/** The rooms of an event about a node, plus the room of recovery pages open for that node. */
-const withRecovery = (e: { nodeId: number; neighbourhoodId: number; hostUserId: number | null }) => [...roomsFor(e), `recovery:${e.nodeId}`];
+/** The rooms of an event about a node (who may read it: policies/node.ts), plus the recovery pages open for it. */
+const withRecovery = (e: { nodeId: number; neighbourhoodId: number; hostUserId: number | null }) => [...nodeRooms(e), `recovery:${e.nodeId}`];
 
 type EngineMiddleware = (req: Request & { _query?: Record<string, string> }, res: Response, next: NextFunction) => void;
 const onlyForHandshake = (mw: RequestHandler): EngineMiddleware => (req, res, next) =>
@@ -94,8 +88,8 @@ export function createRealtime(server: http.Server, config: Config, session: Req
   const onAccess = (e: AccessChangedEvent) =>
     void refreshRooms(io, e.userIds).catch((err: Error) => console.error('could not refresh live-update rooms:', err.message));
 
-  const onState = (e: Parameters<typeof roomsFor>[0] & { nodeId: number }) => io.to(withRecovery(e)).emit('node:state', e);
-  const onOutage = (e: Parameters<typeof roomsFor>[0] & { nodeId: number }) => io.to(withRecovery(e)).emit('outage', e);
+  const onState = (e: Parameters<typeof nodeRooms>[0] & { nodeId: number }) => io.to(withRecovery(e)).emit('node:state', e);
+  const onOutage = (e: Parameters<typeof nodeRooms>[0] & { nodeId: number }) => io.to(withRecovery(e)).emit('outage', e);
   const onTimeline = (e: OutageTimelineEvent) => io.to(withRecovery(e)).emit('outage:timeline', e);
   const figures = throttledFigures(config.figuresThrottleMs, (e) => io.to(withRecovery(e)).emit('node:figures', e));
   domainEvents.on('node-state', onState);
