@@ -39,6 +39,8 @@ export const isOperatorOf = (a: Actor, neighbourhoodId: number) =>
   a.role === 'operator' && a.neighbourhoodIds.includes(neighbourhoodId);
 /** Admins and the operators of a neighbourhood may change what is in it. */
 export const mayManage = (a: Actor, neighbourhoodId: number) => isAdmin(a) || isOperatorOf(a, neighbourhoodId);
+/** Admins and operators with at least one neighbourhood may add inventory somewhere (the create buttons). */
+export const operatesAny = (a: Actor) => isAdmin(a) || (a.role === 'operator' && a.neighbourhoodIds.length > 0);
 export const isHostOfSite = (a: Actor, siteId: number) => a.hostedSiteIds.includes(siteId);
 export const isHostOfNode = (a: Actor, node: Pick<Node, 'siteId'>) => isHostOfSite(a, node.siteId);
 

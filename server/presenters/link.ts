@@ -2,6 +2,7 @@ import type { LinkDto } from '../../shared/schemas/link';
 import type { Link } from '../models';
 import { iso } from './common';
 
+/** A link loaded with both ends' radios, with what the caller may do to it (policies/link.ts linkAbilities). */
 export function presentLink(l: Link, abilities: { update: boolean; delete: boolean }): LinkDto {
   return {
     id: l.id,

@@ -1,11 +1,11 @@
 import type { RadioDto } from '../../shared/schemas/radio';
 import type { Radio } from '../models';
-import { type Actor, mayManage } from '../policies/actor';
+import type { Actor } from '../policies/actor';
+import { radioAbilities } from '../policies/radio';
 import { iso } from './common';
 
 /** The pre-shared key never leaves the server here: only whether one is set. */
 export function presentRadio(r: Radio, neighbourhoodId: number, actor: Actor): RadioDto {
-  const manage = mayManage(actor, neighbourhoodId);
   return {
     id: r.id,
     nodeId: r.nodeId,
@@ -26,6 +26,6 @@ export function presentRadio(r: Radio, neighbourhoodId: number, actor: Actor): R
     macReportedAt: iso(r.macReportedAt ?? null),
     createdAt: iso(r.createdAt)!,
     updatedAt: iso(r.updatedAt)!,
-    abilities: { update: manage, delete: manage },
+    abilities: radioAbilities(actor, { neighbourhoodId }),
   };
 }

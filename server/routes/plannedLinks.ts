@@ -11,8 +11,7 @@ import { mayPlan } from '../policies/planning';
 import { presentLink } from '../presenters/link';
 import { recordChanges, type ChangeRecord } from '../services/changeHistory';
 import { uniquely } from '../services/conflicts';
-import { readableNode } from '../services/references';
-import { readableRadio } from './radios';
+import { readableNode, readableRadio } from '../services/references';
 
 const MANAGE = 'Only admins and the operators of its neighbourhood add radios and links at this node.';
 

@@ -19,9 +19,6 @@ export function auditContext(req: Request, _res: Response, next: NextFunction) {
   store.run({ actorId: (req.user as { id?: number } | undefined)?.id ?? null }, next);
 }
 
-/** For work outside a request that should still be recorded (seeding, scripts, tests). */
-export const asActor = <T>(actorId: number | null, fn: () => Promise<T>) => store.run({ actorId }, fn);
-
 /** Audited tables and the fields that are state, not inventory (written by health rules, never by people). */
 export const AUDITED: Record<string, { model: () => ModelStatic<Model>; ignore: string[] }> = {
   sites: { model: () => Site, ignore: [] },

@@ -1,9 +1,11 @@
 import { Op } from 'sequelize';
 import { Invalid, NotFound } from '../errors';
-import { Neighbourhood, Node, Site, User } from '../models';
+import { Link, Neighbourhood, Node, Radio, Site, User } from '../models';
 import { type Actor, isAdmin } from '../policies/actor';
 import { neighbourhoodScope } from '../policies/neighbourhood';
+import { linkScope } from '../policies/link';
 import { nodeScope } from '../policies/node';
+import { radioNodeInScope } from '../policies/radio';
 import { siteScope } from '../policies/site';
 
 /** Records named in a body must be readable by the caller; otherwise they "do not exist" for them. */
@@ -24,6 +26,29 @@ export async function readableNode(actor: Actor, id: number) {
   if (!n) throw NotFound(`Node ${id}`);
   return n;
 }
+
+/** A radio, with its node, when the caller may read that node. */
+export async function readableRadio(actor: Actor, id: number) {
+  const r = await Radio.findOne({ where: { id }, include: [radioNodeInScope(actor)] });
+  if (!r) throw NotFound(`Radio ${id}`);
+  return r;
+}
+
+/** The include a link's scope needs: both ends' radios with their nodes. */
+export const linkEnds = () => [
+  { model: Radio, as: 'radioA', required: true, include: [{ model: Node, as: 'node', required: true }] },
+  { model: Radio, as: 'radioB', required: true, include: [{ model: Node, as: 'node', required: true }] },
+];
+
+/** A link, with both ends' radios and nodes, when the caller may read it. */
+export async function readableLink(actor: Actor, id: number) {
+  const l = await Link.findOne({ where: { [Op.and]: [{ id }, linkScope(actor)] }, include: linkEnds() });
+  if (!l) throw NotFound(`Link ${id}`);
+  return l;
+}
+
+/** The neighbourhoods of a loaded link's ends, for the link predicates. */
+export const endsOf = (l: Link) => ({ neighbourhoodAId: l.radioA!.node!.neighbourhoodId, neighbourhoodBId: l.radioB!.node!.neighbourhoodId });
 
 /**
  * People the actor may name as a site's host: for admins every active person; for operators only

@@ -14,6 +14,8 @@ export interface AddressFinding {
   code: 'subnet_overlap' | 'gateway_outside_subnet' | 'dhcp_outside_subnet' | 'dhcp_range_reversed' | 'dhcp_includes_gateway' | 'dhcp_collides_static' | 'static_outside_subnet';
   label: string;
   message: string;
+  /** Positions in the checked list of the subnets the finding is about (two for an overlap). */
+  subnets: number[];
 }
 
 function address(text: string, what: string, label: string): number {
@@ -30,16 +32,16 @@ export function checkAddressPlan(subnets: PlannedSubnet[]): AddressFinding[] {
     for (let j = i + 1; j < parsed.length; j++) {
       if (cidrsOverlap(parsed[i][1], parsed[j][1])) {
         const [a, b] = [parsed[i][0], parsed[j][0]];
-        findings.push({ code: 'subnet_overlap', label: a.label, message: `${a.label} (${a.cidr}) overlaps ${b.label} (${b.cidr}); give one of them another block.` });
+        findings.push({ code: 'subnet_overlap', label: a.label, message: `${a.label} (${a.cidr}) overlaps ${b.label} (${b.cidr}); give one of them another block.`, subnets: [i, j] });
       }
     }
   }
-  for (const [s, c] of parsed) findings.push(...checkOne(s, c));
+  parsed.forEach(([s, c], i) => findings.push(...checkOne(s, c).map((f) => ({ ...f, subnets: [i] }))));
   return findings;
 }
 
-function checkOne(s: PlannedSubnet, c: Cidr): AddressFinding[] {
-  const out: AddressFinding[] = [];
+function checkOne(s: PlannedSubnet, c: Cidr): Omit<AddressFinding, 'subnets'>[] {
+  const out: Omit<AddressFinding, 'subnets'>[] = [];
   const info = describeSubnet(c);
   const hosts = `${info.firstHost}–${info.lastHost}`;
   const [lo, hi] = rangeOf(c);

@@ -87,3 +87,14 @@ export const addressAllocateSchema = z.object({
   prefixLength: z.number({ error: 'must be a number' }).int('must be a whole number').min(16, 'must be /16 to /30').max(30, 'must be /16 to /30').default(24),
 });
 export type AddressAllocateBody = z.infer<typeof addressAllocateSchema>;
+
+/** One node's subnet and DHCP range, as the address plan page reads it. */
+export interface AddressPlanDto {
+  nodeId: number; nodeName: string; neighbourhoodId: number; cidr: string; gateway: string; dhcpStart: string | null; dhcpEnd: string | null;
+  staticAddresses: string[]; abilities: { update: boolean; delete: boolean };
+}
+/** A plan-wide check's result; `code` says what kind (subnet_overlap, outside_pool, …) so callers never read the text. */
+export interface AddressFindingDto { code: string; label: string; message: string }
+export interface UnplannedNodeDto { nodeId: number; nodeName: string; neighbourhoodId: number; abilities: { allocate: boolean } }
+/** GET /api/address-plans */
+export interface AddressPlansDto { pool: string | null; plans: AddressPlanDto[]; findings: AddressFindingDto[]; unplannedNodes: UnplannedNodeDto[] }

@@ -21,6 +21,7 @@ describe('checkAddressPlan', () => {
     ]);
     expect(codes(f)).toEqual(['subnet_overlap']); // RFC 4632: 10.20.0.0/23 spans 10.20.0.0–10.20.1.255
     expect(f[0].message).toMatch(/A \(10\.20\.0\.0\/23\) overlaps B/);
+    expect(f[0].subnets).toEqual([0, 1]); // the finding names both subnets by position, so callers filter without reading text
   });
   it('flags a gateway outside the subnet or on its network/broadcast address', () => {
     expect(codes(checkAddressPlan([{ label: 'A', cidr: '10.20.1.0/24', gateway: '10.20.2.1' }]))).toEqual(['gateway_outside_subnet']);

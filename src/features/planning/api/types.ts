@@ -15,15 +15,8 @@ export interface NodeCongestion { nodeId: number; nodeName: string; surveyId: nu
 export interface ChannelPlan { region: string; radios: ChannelPlanRadio[]; skipped: { radioId: number; reason: string }[]; congestion: NodeCongestion[] }
 export interface SurveyUpload { data: { id: number; rowCount: number; fileName: string | null }; rejectedRows: { line: number; message: string }[] }
 
-export interface AddressPlanRow {
-  nodeId: number; nodeName: string; neighbourhoodId: number; cidr: string; gateway: string; dhcpStart: string | null; dhcpEnd: string | null;
-  staticAddresses: string[]; abilities: { update: boolean; delete: boolean };
-}
-export interface AddressFindingDto { code: string; label: string; message: string }
-export interface AddressPlans {
-  pool: string | null; plans: AddressPlanRow[]; findings: AddressFindingDto[];
-  unplannedNodes: { nodeId: number; nodeName: string; neighbourhoodId: number; abilities: { allocate: boolean } }[];
-}
+export type { AddressFindingDto } from '../../../../shared/schemas/planningRecords';
+export type { AddressPlanDto as AddressPlanRow, AddressPlansDto as AddressPlans } from '../../../../shared/schemas/planningRecords';
 
 export interface FindingDto { code: string; severity: Severity; message: string; fix: string }
 export interface SecurityReview {
