@@ -1,8 +1,5 @@
-import { Op } from 'sequelize';
-import { Link, Radio } from '../models';
-import { readableNeighbourhood, readableNode, readableSite } from '../services/references';
+import { readableLink, readableNeighbourhood, readableNode, readableRadio, readableSite } from '../services/references';
 import { type Actor, isAdmin } from './actor';
-import { nodeScope } from './node';
 
 /** The whole trail, and records that no longer exist, are for admins only. */
 export const mayReadWholeHistory = isAdmin;
@@ -17,16 +14,10 @@ export async function assertHistoryReadable(actor: Actor, table: string, id: num
   switch (table) {
     case 'sites': return readable(() => readableSite(actor, id));
     case 'nodes': return readable(() => readableNode(actor, id));
-    case 'radios': return (await Radio.count({ where: { id }, include: [{ association: 'node', where: nodeScope(actor), required: true }] })) > 0;
+    case 'radios': return readable(() => readableRadio(actor, id));
     case 'neighbourhoods': return readable(() => readableNeighbourhood(actor, id));
     case 'users': return actor.id === id;
-    case 'links': {
-      if (actor.role !== 'operator') return false;
-      const link = await Link.findByPk(id);
-      if (!link) return false;
-      const ends = await Radio.findAll({ where: { id: { [Op.in]: [link.radioAId, link.radioBId] } }, include: [{ association: 'node', required: true }] });
-      return ends.some((r) => actor.neighbourhoodIds.includes(r.node!.neighbourhoodId));
-    }
+    case 'links': return readable(() => readableLink(actor, id));
     default: return false;
   }
 }

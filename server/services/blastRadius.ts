@@ -1,7 +1,8 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { BlastRadiusDto } from '../../shared/schemas/outage';
 import type { BehindFacts } from '../mail/templates/operator';
-import { type Actor, isAdmin } from '../policies/actor';
+import type { Actor } from '../policies/actor';
+import { mayReadNode } from '../policies/node';
 
 /** Clients on a node's access-point radios at its last report (role as reported, else as in the inventory). */
 export const CLIENTS_SQL = (alias: string) => `
@@ -31,8 +32,7 @@ async function behindRows(sequelize: Sequelize, outageIds: number[], transaction
  */
 export async function blastRadii(sequelize: Sequelize, outageIds: number[], actor: Actor): Promise<Map<number, BlastRadiusDto>> {
   const out = new Map<number, BlastRadiusDto>(outageIds.map((id) => [id, { nodeCount: 0, neighbourhoodIds: [], clients: 0, nodeIds: [] }]));
-  const readable = (r: BehindRow) =>
-    isAdmin(actor) || actor.hostedSiteIds.includes(r.siteId) || (actor.role === 'operator' && actor.neighbourhoodIds.includes(r.neighbourhoodId));
+  const readable = (r: BehindRow) => mayReadNode(actor, r);
   for (const r of await behindRows(sequelize, outageIds)) {
     const b = out.get(r.outageId)!;
     b.nodeCount++;

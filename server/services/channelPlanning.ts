@@ -4,13 +4,13 @@ import { congestionMwByChannel, recommendChannels, type ChannelAssignment, type 
 import { allowedChannelNumbers, type ChannelRegion } from '../../shared/radio/channels';
 import { eirpDbm } from '../../shared/radio/linkBudget';
 import { mwToDbm } from '../../shared/radio/units';
-import { type Actor, isAdmin } from '../policies/actor';
+import { type Actor, mayManage } from '../policies/actor';
 
 interface RadioRow { id: number; nodeId: number; nodeName: string; neighbourhoodId: number; iface: string; band: Band; channel: number; channelWidthMHz: ChannelWidthMHz; txPowerDbm: number; antennaGainDbi: number; cableLossDb: number; lat: number; lon: number }
 interface SurveyRow { nodeId: number; surveyId: number; createdAt: Date; rows: (ObservedNetwork & { band: Band })[] }
 
 /** Radios the caller plans: admins every radio, operators those of their neighbourhoods. */
-const mayPlanRadio = (actor: Actor, r: RadioRow) => isAdmin(actor) || actor.neighbourhoodIds.includes(r.neighbourhoodId);
+const mayPlanRadio = (actor: Actor, r: RadioRow) => mayManage(actor, r.neighbourhoodId);
 
 async function loadRadios(sequelize: Sequelize): Promise<RadioRow[]> {
   return sequelize.query<RadioRow>(

@@ -7,7 +7,7 @@ import { ApiError } from '../errors';
 import { formatDuration } from '../mail/templates/compose';
 import { type LinkClaims, verifyLink } from '../mail/signedLinks';
 import { Node, Outage, User } from '../models';
-import { loadActor, type Actor } from '../policies/actor';
+import { isHostOfNode, loadActor, type Actor } from '../policies/actor';
 import { timelineOf } from './outageTimeline';
 import { currentTopology } from './topologyGraph';
 
@@ -33,7 +33,7 @@ export async function recoveryContext(sequelize: Sequelize, config: Config, toke
   if (!actor) throw gone('The person this link was sent to no longer has an active account.');
   const outage = await Outage.findByPk(claims.outageId, { include: [{ model: Node, as: 'node', required: true }, { model: User, as: 'acknowledger', required: false }] });
   if (!outage) throw gone('This outage is no longer recorded. If your node is still down, write to the operators of your neighbourhood.');
-  if (actor.hostedSiteIds.includes(outage.node!.siteId)) {
+  if (isHostOfNode(actor, outage.node!)) {
     return { claims, actor, outage, nodeId: outage.nodeId, upstreamNodeId: await failedUpstreamOf(sequelize, outage.nodeId) };
   }
   // A host whose node is cut off behind this outage's node: the cause is there, not at their place.

@@ -1,7 +1,8 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { assessLinkHealth, type LinkHealth } from '../../shared/radio/linkVerdict';
 import { NotFound } from '../errors';
-import { type Actor, isAdmin } from '../policies/actor';
+import type { Actor } from '../policies/actor';
+import { mayReadLink } from '../policies/link';
 import { predictLink, type RadioEnd } from './linkPrediction';
 
 /** The 7-day window the baseline is the median of. */
@@ -64,8 +65,7 @@ export async function linkHealth(sequelize: Sequelize, actor: Actor, linkId: num
   );
   if (!link) throw NotFound(`Link ${linkId}`);
   const [a, b] = await Promise.all([loadEnd(sequelize, link.radioAId), loadEnd(sequelize, link.radioBId)]);
-  const readable = isAdmin(actor) || (actor.role === 'operator' && (actor.neighbourhoodIds.includes(a.neighbourhoodId) || actor.neighbourhoodIds.includes(b.neighbourhoodId)));
-  if (!readable) throw NotFound(`Link ${linkId}`);
+  if (!mayReadLink(actor, { neighbourhoodAId: a.neighbourhoodId, neighbourhoodBId: b.neighbourhoodId })) throw NotFound(`Link ${linkId}`);
   const directions = [await direction(sequelize, a, b, now), await direction(sequelize, b, a, now)];
   return {
     linkId: link.id, name: link.name, status: link.status, baselineDays: BASELINE_DAYS,
