@@ -26,7 +26,8 @@ export function linkRoutes() {
     const actor = actorOf(req);
     const body = res.locals.body;
     const [a, b] = await Promise.all([readableRadio(actor, body.radioAId), readableRadio(actor, body.radioBId)]);
-    authorize(mayAddLink(actor, { neighbourhoodAId: a.node!.neighbourhoodId, neighbourhoodBId: b.node!.neighbourhoodId }), 'Only admins and the operators of one of its ends add this link.');
+    const ends = { neighbourhoodAId: a.node!.neighbourhoodId, neighbourhoodBId: b.node!.neighbourhoodId };
+    authorize(mayAddLink(actor, ends), 'Only admins and the operators of one of its ends add this link.');
     res.status(201).json({ data: presentFor(actor, await createLink(actor, body)) });
   });
 

@@ -71,7 +71,8 @@ export function findingsFor(actor: Actor, plans: PlanRow[], pool: string | null)
     for (const p of plans.filter((x) => mayReadPlan(actor, x))) {
       const [a, b] = rangeOf(parseCidr(p.cidr));
       if (a < lo || b > hi) {
-        out.push({ code: 'outside_pool', label: p.nodeName, nodeIds: [p.nodeId], message: `${p.nodeName}: ${p.cidr} lies outside the network's pool ${pool}; allocate it again from the pool.` });
+        const message = `${p.nodeName}: ${p.cidr} lies outside the network's pool ${pool}; allocate it again from the pool.`;
+        out.push({ code: 'outside_pool', label: p.nodeName, nodeIds: [p.nodeId], message });
       }
     }
   }
@@ -81,7 +82,8 @@ export function findingsFor(actor: Actor, plans: PlanRow[], pool: string | null)
 /** The findings about one node (its own, and overlaps it takes part in either way round). */
 export const findingsAbout = (findings: PlanFinding[], nodeId: number) => findings.filter((f) => f.nodeIds.includes(nodeId));
 
-const snapshot = (p: PlanRow | null) => (p ? { cidr: p.cidr, gateway: p.gateway, dhcpStart: p.dhcpStart, dhcpEnd: p.dhcpEnd, staticAddresses: p.staticAddresses } : null);
+const snapshot = (p: PlanRow | null) =>
+  (p ? { cidr: p.cidr, gateway: p.gateway, dhcpStart: p.dhcpStart, dhcpEnd: p.dhcpEnd, staticAddresses: p.staticAddresses } : null);
 
 /** Hands each node the next free block of the pool, all or none, recorded in the change history. */
 export async function allocatePlans(sequelize: Sequelize, actor: Actor, nodeIds: number[], prefixLength: number): Promise<PlanRow[]> {
@@ -92,7 +94,8 @@ export async function allocatePlans(sequelize: Sequelize, actor: Actor, nodeIds:
     const existing = await loadPlans(sequelize, transaction);
     const already = existing.filter((p) => nodeIds.includes(p.nodeId));
     if (already.length > 0) {
-      throw Conflict(`${already.map((p) => p.nodeName).join(', ')} already ha${already.length > 1 ? 've' : 's'} a subnet; change it instead of allocating another.`, 'already_planned');
+      const names = already.map((p) => p.nodeName).join(', ');
+      throw Conflict(`${names} already ha${already.length > 1 ? 've' : 's'} a subnet; change it instead of allocating another.`, 'already_planned');
     }
     const plans = allocateFor(pool, prefixLength, nodeIds, existing);
     for (const p of plans) await sequelize.query(UPSERT, { bind: [p.nodeId, p.cidr, p.gateway, p.dhcpStart, p.dhcpEnd, '{}'], transaction });
@@ -110,7 +113,8 @@ export async function savePlan(sequelize: Sequelize, actor: Actor, nodeId: numbe
   const before = await loadPlan(sequelize, nodeId);
   await sequelize.transaction(async (transaction) => {
     await sequelize.query(LOCK, { transaction });
-    await sequelize.query(UPSERT, { bind: [nodeId, b.cidr, b.gateway, b.dhcpStart ?? null, b.dhcpEnd ?? null, `{${b.staticAddresses.join(',')}}`], transaction });
+    const bind = [nodeId, b.cidr, b.gateway, b.dhcpStart ?? null, b.dhcpEnd ?? null, `{${b.staticAddresses.join(',')}}`];
+    await sequelize.query(UPSERT, { bind, transaction });
     await recordChanges(sequelize, [{
       tableName: 'node_address_plans', recordId: nodeId, action: before ? 'update' : 'create', changedBy: actor.id, before: snapshot(before), after: { ...b },
     }], transaction);
@@ -126,7 +130,9 @@ export async function deletePlan(sequelize: Sequelize, actor: Actor, nodeId: num
   if (!before) throw NotFound(`The address plan of node ${nodeId}`);
   await sequelize.transaction(async (transaction) => {
     await sequelize.query('DELETE FROM node_address_plans WHERE node_id = $1', { bind: [nodeId], transaction });
-    await recordChanges(sequelize, [{ tableName: 'node_address_plans', recordId: nodeId, action: 'delete', changedBy: actor.id, before: snapshot(before), after: null }], transaction);
+    await recordChanges(sequelize, [{
+      tableName: 'node_address_plans', recordId: nodeId, action: 'delete', changedBy: actor.id, before: snapshot(before), after: null,
+    }], transaction);
   });
 }
 

@@ -13,12 +13,15 @@ export function listLinks(actor: Actor, q: z.infer<typeof linkListQuerySchema>) 
   const where: WhereOptions[] = [linkScope(actor)];
   if (q.status) where.push({ status: q.status });
   if (q.nodeId) where.push({ [Op.or]: [{ '$radioA.node_id$': q.nodeId }, { '$radioB.node_id$': q.nodeId }] });
-  return listPage(Link, q, { where: { [Op.and]: where }, sortable: ['name', 'status', 'createdAt', 'id'], searchable: ['name'], defaultSort: 'id', include: linkEnds() });
+  return listPage(Link, q, {
+    where: { [Op.and]: where }, sortable: ['name', 'status', 'createdAt', 'id'], searchable: ['name'], defaultSort: 'id', include: linkEnds(),
+  });
 }
 
 /** Adds a link (409 when the two radios are already linked) and answers it with both ends loaded. */
 export async function createLink(actor: Actor, body: LinkCreate) {
-  const link = await uniquely(() => Link.create(body), `Radios ${body.radioAId} and ${body.radioBId} are already linked. Change that link instead of adding another.`);
+  const taken = `Radios ${body.radioAId} and ${body.radioBId} are already linked. Change that link instead of adding another.`;
+  const link = await uniquely(() => Link.create(body), taken);
   return readableLink(actor, link.id);
 }
 

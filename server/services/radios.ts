@@ -16,7 +16,8 @@ function checkBandChannel(band: Band, channel: number, channelWidthMHz: number) 
   if (!problem) return;
   const sentence = problem.field === 'channel' ? 'The channel does not fit the band.' : 'The channel width does not fit the band.';
   const message = `${problem.field} ${problem.message}`;
-  throw Invalid(problem.message.startsWith('must be 1–14') ? sentence : `${sentence} ${message[0].toUpperCase()}${message.slice(1)}.`, [{ path: problem.field, message }]);
+  const summary = problem.message.startsWith('must be 1–14') ? sentence : `${sentence} ${message[0].toUpperCase()}${message.slice(1)}.`;
+  throw Invalid(summary, [{ path: problem.field, message }]);
 }
 
 const duplicateIface = (iface: string) => `That node already has a radio on interface ${iface}. Choose another interface name.`;

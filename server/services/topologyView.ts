@@ -45,7 +45,8 @@ export async function topologyFor(config: Config, sequelize: Sequelize, actor: A
     const a = air.byLink.get(l.id);
     return {
       ...l, status: l.status as LinkStatus,
-      observed: a?.observed ?? false, observedSignalDbm: a?.observedSignalDbm ?? null, lastObservedAt: a?.lastObservedAt ?? null, plannedButSilent: a?.plannedButSilent ?? false,
+      observed: a?.observed ?? false, observedSignalDbm: a?.observedSignalDbm ?? null, lastObservedAt: a?.lastObservedAt ?? null,
+      plannedButSilent: a?.plannedButSilent ?? false,
     };
   });
   const hoodOf = new Map(nodes.map((n) => [n.id, n.neighbourhoodId]));

@@ -32,7 +32,8 @@ export function checkAddressPlan(subnets: PlannedSubnet[]): AddressFinding[] {
     for (let j = i + 1; j < parsed.length; j++) {
       if (cidrsOverlap(parsed[i][1], parsed[j][1])) {
         const [a, b] = [parsed[i][0], parsed[j][0]];
-        findings.push({ code: 'subnet_overlap', label: a.label, message: `${a.label} (${a.cidr}) overlaps ${b.label} (${b.cidr}); give one of them another block.`, subnets: [i, j] });
+        const message = `${a.label} (${a.cidr}) overlaps ${b.label} (${b.cidr}); give one of them another block.`;
+        findings.push({ code: 'subnet_overlap', label: a.label, message, subnets: [i, j] });
       }
     }
   }

@@ -102,7 +102,8 @@ describe('policy table: role × resource × action', () => {
       expect(mayReadNode(actor(), node)).toBe(read);
       expect((await Node.count({ where: { [Op.and]: [{ id: node.id }, nodeScope(actor())] } })) > 0).toBe(read);
       expect((await sqlCount(`SELECT count(*) AS c FROM nodes n WHERE n.id = $1 AND ${nodeScopeSql(actor(), 'n')}`, [node.id])) > 0).toBe(read);
-      const hosted = (await ctx.sequelize.query<{ h: number | null }>('SELECT host_user_id AS h FROM sites WHERE id = $1', { bind: [node.siteId], type: QueryTypes.SELECT }))[0].h;
+      const hostSql = 'SELECT host_user_id AS h FROM sites WHERE id = $1';
+      const hosted = (await ctx.sequelize.query<{ h: number | null }>(hostSql, { bind: [node.siteId], type: QueryTypes.SELECT }))[0].h;
       const rooms = nodeRooms({ neighbourhoodId: node.neighbourhoodId, hostUserId: hosted });
       expect(roomsOf(actor()).some((r) => rooms.includes(r))).toBe(read);
       const res = await call(agents[who], 'get', `/api/v1/nodes/${node.id}`);

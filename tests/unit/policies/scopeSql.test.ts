@@ -4,7 +4,9 @@ import { linkScopeSql } from '../../../server/policies/link';
 import { nodeScopeSql } from '../../../server/policies/node';
 import { column, intArray } from '../../../server/policies/scopeSql';
 
-const actor = (over: Partial<Actor>): Actor => ({ id: 7, email: 'p@example.test', name: 'P', role: 'host', neighbourhoodIds: [], hostedSiteIds: [], hostedNeighbourhoodIds: [], ...over });
+const actor = (over: Partial<Actor>): Actor => ({
+  id: 7, email: 'p@example.test', name: 'P', role: 'host', neighbourhoodIds: [], hostedSiteIds: [], hostedNeighbourhoodIds: [], ...over,
+});
 
 describe('raw-SQL scope builders', () => {
   it('write ids as an integer array literal and refuse anything else, so no text reaches the SQL', () => {
