@@ -27,5 +27,6 @@ export default defineConfig({
     },
   },
   // Maps stay beside the build for reading a stack trace, but scripts do not point to them and the server never sends them.
-  build: { outDir: 'dist', sourcemap: 'hidden', chunkSizeWarningLimit: 1500 },
+  // The manifest tells the server which scripts each page needs, so it can name them in the HTML (server/staticClient.ts).
+  build: { outDir: 'dist', sourcemap: 'hidden', chunkSizeWarningLimit: 1500, manifest: true },
 });

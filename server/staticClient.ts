@@ -4,6 +4,7 @@ import path from 'node:path';
 import expressStaticGzip from 'express-static-gzip';
 import express, { type NextFunction, type Request, type Response } from 'express';
 import { ApiError } from './errors';
+import { htmlForPage, type Manifest } from './pagePreloads';
 
 /** Vite names every built asset by its content hash, so a name never changes meaning: cache it for a year. */
 const HASHED_ASSETS = '/assets';
@@ -11,7 +12,8 @@ const YEAR_S = 365 * 24 * 3600;
 
 /**
  * Serves the built client: hashed assets immutable for a year, everything else (index.html, the
- * agent script, the icon) revalidated on each use so a new release shows at once. Source maps are
+ * agent script, the icon) revalidated on each use so a new release shows at once. The page shell
+ * names the opened page's own scripts (`pagePreloads.ts`), so they download alongside the entry. Source maps are
  * never served; an asset that is not there is a 404, never the page shell in its place.
  */
 export function staticClient(clientDist: string) {
@@ -19,6 +21,10 @@ export function staticClient(clientDist: string) {
   const indexHtml = path.join(dist, 'index.html');
   const router = express.Router();
   if (!fs.existsSync(indexHtml)) return router;
+  // Read once: a new release is a new process. The manifest names each page's scripts for the HTML.
+  const shell = fs.readFileSync(indexHtml, 'utf8');
+  const manifestFile = path.join(dist, '.vite', 'manifest.json');
+  const manifest: Manifest = fs.existsSync(manifestFile) ? (JSON.parse(fs.readFileSync(manifestFile, 'utf8')) as Manifest) : {};
 
   const missing = (req: Request, _res: Response, next: NextFunction) =>
     next(new ApiError(404, 'not_found', `There is no file ${req.originalUrl} in this release. Reload the page to get the current version.`));
@@ -35,9 +41,9 @@ export function staticClient(clientDist: string) {
     missing,
   );
   router.use(express.static(dist, { index: false, setHeaders: (res: Response) => res.set('Cache-Control', 'no-cache') }));
-  router.get('/{*splat}', (_req, res) => {
+  router.get('/{*splat}', (req, res) => {
     res.set('Cache-Control', 'no-cache');
-    res.sendFile(indexHtml);
+    res.type('html').send(htmlForPage(shell, manifest, req.path));
   });
   return router;
 }

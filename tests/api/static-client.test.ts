@@ -23,6 +23,21 @@ fs.writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js.gz'), zlib.gzipSyn
 fs.writeFileSync(path.join(dist, 'assets', 'chunk-Zz99Yy88.js'), script.replaceAll('map page', 'chart'));
 fs.writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js.map'), '{"version":3,"sources":["src/secret.ts"],"mappings":""}');
 fs.writeFileSync(path.join(dist, 'favicon.svg'), '<svg xmlns="http://www.w3.org/2000/svg"/>');
+// The build's manifest, as Vite writes it: which chunks each page and the signed-in shell import.
+fs.mkdirSync(path.join(dist, '.vite'));
+const manifest = {
+  'index.html': { file: 'assets/index-Ab12Cd34.js', isEntry: true, imports: ['_vendor-Vv11.js'] },
+  '_vendor-Vv11.js': { file: 'assets/vendor-Vv11.js' },
+  '_live-Ll22.js': { file: 'assets/live-Ll22.js', imports: ['_vendor-Vv11.js'] },
+  '_table-Tt33.js': { file: 'assets/table-Tt33.js', imports: ['_vendor-Vv11.js'] },
+  'src/app/signed-in-layout.tsx': { file: 'assets/signed-in-layout-Ss44.js', isDynamicEntry: true, imports: ['_vendor-Vv11.js', '_live-Ll22.js'] },
+  'src/routes/nodes.tsx': { file: 'assets/nodes-Nn55.js', isDynamicEntry: true, imports: ['index.html', '_table-Tt33.js'], css: ['assets/nodes-Nn55.css'] },
+  'src/routes/public-status.tsx': { file: 'assets/public-status-Pp66.js', isDynamicEntry: true, imports: ['_vendor-Vv11.js'] },
+};
+fs.writeFileSync(path.join(dist, '.vite', 'manifest.json'), JSON.stringify(manifest));
+const SESSION_PRELOAD = '<link rel="preload" href="/api/v1/session" as="fetch" crossorigin>';
+const preloadedScripts = (html: string) => [...html.matchAll(/<link rel="modulepreload" crossorigin href="([^"]+)">/g)].map((m) => m[1]);
+const withoutLinks = (html: string) => html.replace(/\s*<link [^>]*>/g, '').replace(/\s+<\/head>/, '</head>');
 afterAll(() => fs.rmSync(dist, { recursive: true, force: true }));
 
 /** The bytes exactly as they travel (supertest would decode them), with the answer's headers. */
@@ -96,11 +111,35 @@ describe('serving the built client', () => {
       expect(res.status, url).toBe(200);
       expect(res.headers['content-type'], url).toMatch(/text\/html/);
       expect(res.headers['cache-control'], url).toBe('no-cache');
-      expect(res.text, url).toBe(shell);
+      expect(withoutLinks(res.text), url).toBe(shell);
     }
     const icon = await request(ctx.app).get('/favicon.svg');
     expect(icon.status).toBe(200);
     expect(icon.headers['cache-control']).toBe('no-cache');
+  });
+
+  it("names the opened page's own scripts and styles in the shell, so they download alongside the entry", async () => {
+    const nodes = await request(ctx.app).get('/nodes?page=2');
+    expect(nodes.status).toBe(200);
+    // The shell's and the page's chunks and what they import, but not what the entry itself already brings.
+    expect(preloadedScripts(nodes.text)).toEqual(['/assets/signed-in-layout-Ss44.js', '/assets/live-Ll22.js', '/assets/nodes-Nn55.js', '/assets/table-Tt33.js']);
+    expect(nodes.text).toContain('<link rel="stylesheet" crossorigin href="/assets/nodes-Nn55.css">');
+    // The session question goes first, before the scripts take the browser's connections.
+    expect(nodes.text.indexOf(SESSION_PRELOAD)).toBeGreaterThan(0);
+    expect(nodes.text.indexOf(SESSION_PRELOAD)).toBeLessThan(nodes.text.indexOf('<title>'));
+
+    const status = await request(ctx.app).get('/status');
+    expect(preloadedScripts(status.text)).toEqual(['/assets/public-status-Pp66.js']);
+    expect(status.text).not.toContain('/api/v1/session');
+  });
+
+  it('opens an address no page claims, or a page the manifest does not list, with the plain shell and the session question', async () => {
+    for (const url of ['/no-such-page', '/sites/new', '/nodes/12']) {
+      const res = await request(ctx.app).get(url);
+      expect(res.status, url).toBe(200);
+      expect(preloadedScripts(res.text), url).toEqual([]);
+      expect(res.text, url).toContain(SESSION_PRELOAD);
+    }
   });
 
   it('compresses JSON answers from the API as well', async () => {

@@ -1,4 +1,4 @@
-import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
+import { type QueryClient, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { SessionBody, SessionUser, SignInInput } from '../../../../shared/schemas/session';
 import { api } from '../../../lib/api';
 import { sessionKeys } from '../../../lib/query-keys';
@@ -6,6 +6,11 @@ import { sessionKeys } from '../../../lib/query-keys';
 export const getSession = () => api.get<SessionBody>('/session');
 
 const sessionQuery = { queryKey: sessionKeys.current(), queryFn: getSession };
+
+/** Ask for the session at start-up, while the page's own scripts download, instead of once the page mounts. */
+export function prefetchSession(queryClient: QueryClient) {
+  void queryClient.prefetchQuery(sessionQuery);
+}
 
 export function useSession() {
   return useQuery({ ...sessionQuery, staleTime: 5 * 60_000 });
