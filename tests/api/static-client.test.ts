@@ -133,11 +133,15 @@ describe('serving the built client', () => {
     expect(status.text).not.toContain('/api/v1/session');
   });
 
-  it('opens an address no page claims, or a page the manifest does not list, with the plain shell and the session question', async () => {
-    for (const url of ['/no-such-page', '/sites/new', '/nodes/12']) {
+  it('opens an address no page claims with the plain shell, and a page the manifest does not list with the shell\'s scripts alone', async () => {
+    const unknown = await request(ctx.app).get('/no-such-page');
+    expect(unknown.status).toBe(200);
+    expect(preloadedScripts(unknown.text)).toEqual([]);
+    expect(unknown.text).toContain(SESSION_PRELOAD);
+    for (const url of ['/sites/new', '/nodes/12']) {
       const res = await request(ctx.app).get(url);
       expect(res.status, url).toBe(200);
-      expect(preloadedScripts(res.text), url).toEqual([]);
+      expect(preloadedScripts(res.text), url).toEqual(['/assets/signed-in-layout-Ss44.js', '/assets/live-Ll22.js']);
       expect(res.text, url).toContain(SESSION_PRELOAD);
     }
   });
