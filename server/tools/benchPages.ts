@@ -106,7 +106,14 @@ function budgetNote(pagePath: string, jsWireBytes: number): string {
   return `${jsWireBytes / 1024 <= budget ? 'within' : 'OVER'} ${budget} KB`;
 }
 
-const server = await startServerProcess({ DATABASE_URL: databaseUrl, CLIENT_DIST: clientDist, JOBS_ENABLED: 'false', SESSION_SECRET: 'bench-secret-bench-secret', SIGNIN_LIMIT_PER_ADDRESS: '100000', SIGNIN_LIMIT_PER_ACCOUNT: '100000' });
+const server = await startServerProcess({
+  DATABASE_URL: databaseUrl,
+  CLIENT_DIST: clientDist,
+  JOBS_ENABLED: 'false',
+  SESSION_SECRET: 'bench-secret-bench-secret',
+  SIGNIN_LIMIT_PER_ADDRESS: '100000',
+  SIGNIN_LIMIT_PER_ACCOUNT: '100000',
+});
 const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', headless: true, args: ['--no-sandbox', '--disable-gpu', '--disable-quic'] });
 try {
   const signedOut = await browser.newContext({ viewport: { width: 390, height: 844 } });

@@ -30,7 +30,9 @@ const router = createBrowserRouter([
         errorElement: <RouteError />,
         hydrateFallbackElement: <Loading />,
         children: [
-          ...pages.filter((page) => page.signedIn).map((page) => (page.pattern === '/' ? { index: true, lazy: lazyPage(page.file) } : { path: page.pattern, lazy: lazyPage(page.file) })),
+          ...pages
+            .filter((page) => page.signedIn)
+            .map((page) => (page.pattern === '/' ? { index: true, lazy: lazyPage(page.file) } : { path: page.pattern, lazy: lazyPage(page.file) })),
           { path: '*', element: <NotFoundPage /> },
         ],
       },

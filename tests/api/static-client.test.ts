@@ -122,7 +122,12 @@ describe('serving the built client', () => {
     const nodes = await request(ctx.app).get('/nodes?page=2');
     expect(nodes.status).toBe(200);
     // The shell's and the page's chunks and what they import, but not what the entry itself already brings.
-    expect(preloadedScripts(nodes.text)).toEqual(['/assets/signed-in-layout-Ss44.js', '/assets/live-Ll22.js', '/assets/nodes-Nn55.js', '/assets/table-Tt33.js']);
+    expect(preloadedScripts(nodes.text)).toEqual([
+      '/assets/signed-in-layout-Ss44.js',
+      '/assets/live-Ll22.js',
+      '/assets/nodes-Nn55.js',
+      '/assets/table-Tt33.js',
+    ]);
     expect(nodes.text).toContain('<link rel="stylesheet" crossorigin href="/assets/nodes-Nn55.css">');
     // The session question goes first, before the scripts take the browser's connections.
     expect(nodes.text.indexOf(SESSION_PRELOAD)).toBeGreaterThan(0);
