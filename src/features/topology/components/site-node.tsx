@@ -52,7 +52,7 @@ export const SiteNode = memo(function SiteNode({ data, selected }: NodeProps<Sit
         )}
         {data.isUplink && <span aria-hidden="true" className="absolute -inset-1 rounded-full border-2 border-accent" />}
         {/* The root of an outage with nodes stranded behind it: a double vermillion ring, so the cause stands out from what it cut off. */}
-        {cutOff > 0 && <span aria-hidden="true" className="absolute -inset-2 rounded-full border-[3px] border-double border-[#D55E00]" />}
+        {cutOff > 0 && <span aria-hidden="true" className="absolute -inset-2 rounded-full border-[3px] border-double border-state-offline" />}
         <StateShape state={data.state} size={SHAPE_PX} />
         {/* The node's name for assistive technology is its aria-label, which starts with these words. */}
         {labelled && (

@@ -39,7 +39,7 @@ export function TopologyLegend() {
           Ring: uplink (carries the shared connection)
         </p>
         <p className="mt-1 flex items-center gap-1.5">
-          <span aria-hidden="true" className="inline-block h-3.5 w-3.5 rounded-full border-[3px] border-double border-[#D55E00]" />
+          <span aria-hidden="true" className="inline-block h-3.5 w-3.5 rounded-full border-[3px] border-double border-state-offline" />
           Double ring: an outage's root, with the nodes it cut off shown as stranded
         </p>
       </div>
