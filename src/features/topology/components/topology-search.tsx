@@ -1,4 +1,4 @@
-import { useId, useState, type FormEvent } from 'react';
+import { useId, useMemo, useState, type FormEvent } from 'react';
 import { Button } from '../../../components/button';
 import type { TopologyNode } from '../api/topology';
 
@@ -18,6 +18,10 @@ export function TopologySearch({ nodes, onFind }: { nodes: TopologyNode[]; onFin
   const listId = useId();
   const [text, setText] = useState('');
   const [message, setMessage] = useState<string | null>(null);
+  // Live events replace the node list many times a second; the suggestions change only with the names.
+  const namesKey = nodes.map((n) => n.name).join('\n');
+  // eslint-disable-next-line react-hooks/exhaustive-deps -- keyed on the names on purpose
+  const suggestions = useMemo(() => nodes.map((node) => <option key={node.id} value={node.name} />), [namesKey]);
 
   function submit(event: FormEvent) {
     event.preventDefault();
@@ -49,9 +53,7 @@ export function TopologySearch({ nodes, onFind }: { nodes: TopologyNode[]; onFin
         <Button type="submit">Find</Button>
       </div>
       <datalist id={listId}>
-        {nodes.map((node) => (
-          <option key={node.id} value={node.name} />
-        ))}
+        {suggestions}
       </datalist>
       <p id={`${inputId}-message`} aria-live="polite" className="mt-1 text-sm text-danger empty:hidden">
         {message ?? ''}
