@@ -152,6 +152,18 @@ describe('the map of a 2,100-node town', () => {
       }
     });
 
+    // The same figures over 3 s with no events: on a shared machine they show what the load alone costs.
+    await page.waitForTimeout(3_000);
+    const quiet = await page.evaluate(() => {
+      const w = window as unknown as { frameStats: { gaps: number[]; longFrames: number[] } };
+      const gaps = [...w.frameStats.gaps].sort((a, b) => a - b);
+      const summary = { frames: gaps.length, p50: gaps[Math.floor(gaps.length / 2)], max: gaps.at(-1), longFrames: w.frameStats.longFrames.length };
+      w.frameStats.gaps = [];
+      w.frameStats.longFrames = [];
+      return summary;
+    });
+    note(`frames with no events (3 s): ${quiet.frames}; gap p50 ${quiet.p50?.toFixed(1)} ms, longest ${quiet.max?.toFixed(1)} ms; long frames ${quiet.longFrames}`);
+
     // A second socket.io instance on the same PostgreSQL adapter: events reach the app's sockets as
     // they do from another app instance behind the proxy.
     const pool = new pg.Pool({ connectionString: process.env.E2E_DATABASE_URL, max: 2 });
