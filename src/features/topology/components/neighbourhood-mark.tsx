@@ -26,7 +26,7 @@ export const NeighbourhoodMark = memo(function NeighbourhoodMark({ data }: NodeP
     <div data-testid={`topology-hood-${data.neighbourhoodId}`} data-counts={countsKey(data.counts)} style={{ width: MARK_WIDTH_PX, height: MARK_HEIGHT_PX }}>
       <div
         aria-hidden="true"
-        className="flex h-full w-full flex-col justify-center rounded-xl border-2 border-line-strong bg-surface px-2 py-1 text-ink shadow-sm"
+        className="flex h-full w-full flex-col justify-center rounded-xl border-2 border-line-strong bg-surface px-2 py-1 text-ink shadow-sm group-focus-visible:outline-3 group-focus-visible:outline-offset-2 group-focus-visible:outline-focus"
         style={SCALED}
       >
         <span className="flex items-baseline justify-between gap-2 text-[12px] leading-tight font-semibold">

@@ -42,6 +42,8 @@ function buildMarks(summaries: NeighbourhoodSummary[], cache: Map<number, { key:
     const flow: NeighbourhoodFlowNode = {
       id: `hood-${hood.neighbourhoodId}`,
       type: 'neighbourhood',
+      // The focus ring goes on the drawn mark (which keeps its screen size), not on the graph's small box.
+      className: 'group focus-visible:outline-none!',
       position: hood.centre,
       width: MARK_WIDTH_PX,
       height: MARK_HEIGHT_PX,
