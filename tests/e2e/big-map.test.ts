@@ -200,7 +200,8 @@ describe('the map of a 2,100-node town', () => {
         await page.waitForFunction(
           ([id, want]) => document.querySelector(`[data-testid="topology-hood-${id}"]`)?.getAttribute('data-counts') === want,
           [hood.id, expected] as const,
-          { timeout: 30_000 },
+          // Under heavy machine load the browser works through a backlog of events long after they were sent.
+          { timeout: 120_000 },
         );
       }
       for (const node of openNodes.slice(0, 5)) {
@@ -224,5 +225,5 @@ describe('the map of a 2,100-node town', () => {
         `long frames reported ${stats.longFrames.length}, longest ${stats.longFrames.length ? Math.max(...stats.longFrames).toFixed(0) : 0} ms`,
     );
     await screenshot(page, 'big-map-after-storm');
-  }, 300_000);
+  }, 480_000);
 });

@@ -16,8 +16,8 @@ export type NeighbourhoodFlowNode = Node<NeighbourhoodMarkData, 'neighbourhood'>
 export const MARK_WIDTH_PX = 168;
 export const MARK_HEIGHT_PX = 62;
 
-// Kept at its screen size when zoomed out (NodeScale sets the variable), so a mark stays readable.
-const SCALED = { transform: 'scale(var(--pp-mark-scale, 1))' };
+// Scaled like the nodes (NodeScale sets the variable); a mark kept at its full screen size would cover its neighbours.
+const SCALED = { transform: 'scale(var(--pp-node-scale, 1))' };
 
 /** A neighbourhood folded into one mark: its name, its node count and a shape and number per state present. */
 export const NeighbourhoodMark = memo(function NeighbourhoodMark({ data }: NodeProps<NeighbourhoodFlowNode>) {

@@ -64,10 +64,7 @@ function buildMarks(summaries: NeighbourhoodSummary[], cache: Map<number, { key:
  */
 function NodeScale({ target }: { target: RefObject<HTMLDivElement | null> }) {
   const scale = useStore((s) => nodeScaleFor(s.transform[2]));
-  // Neighbourhood marks keep their screen size at any zoom: they are read, not placed precisely.
-  const markScale = useStore((s) => (s.transform[2] >= 1 ? 1 : Math.round(100 / s.transform[2]) / 100));
   useEffect(() => target.current?.style.setProperty('--pp-node-scale', scale.toFixed(3)), [scale, target]);
-  useEffect(() => target.current?.style.setProperty('--pp-mark-scale', markScale.toFixed(2)), [markScale, target]);
   return null;
 }
 
