@@ -8,7 +8,8 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { NODE_STATES, type NodeState } from '../../shared/enums';
 import type { NodeStateEvent } from '../../shared/schemas/realtime';
 import { seedBigTown, removeBigTown, type BigTown } from '../helpers/bigTown';
-import { screenshot, signInAs, useE2E } from './helpers/browser';
+import path from 'node:path';
+import { artifactsDir, screenshot, signInAs, useE2E } from './helpers/browser';
 
 const NODE_COUNT = 2_100;
 const EVENTS_PER_S = 300;
@@ -16,6 +17,8 @@ const STORM_S = 10;
 const ADMIN = 'admin@parapet.example';
 
 const figures: string[] = [];
+// The open quarter's list makes the page thousands of pixels tall: the graph's part of the screen is what tells.
+const viewShot = (page: import('playwright-core').Page, name: string) => page.screenshot({ path: path.join(artifactsDir, `${name}.png`), timeout: 60_000 });
 const note = (line: string) => {
   figures.push(line);
   console.log(`bench:map ${line}`);
@@ -77,7 +80,7 @@ describe('the map of a 2,100-node town', () => {
     await page.getByTestId(`topology-node-${firstNode.id}`).waitFor({ timeout: 30_000 });
     note(`time to expand a quarter of ${town.nodes.filter((n) => n.neighbourhoodId === first.id).length} nodes: ${Date.now() - t1} ms`);
     await page.getByTestId(`topology-hood-${first.id}`).waitFor({ state: 'detached' });
-    await screenshot(page, 'big-map-quarter-open');
+    await viewShot(page, 'big-map-quarter-open');
 
     // Find a node in a folded quarter: that quarter opens, the node is drawn, the panel opens with focus.
     const wanted = [...town.nodes].reverse().find((n) => n.neighbourhoodId === second.id)!;
@@ -94,7 +97,7 @@ describe('the map of a 2,100-node town', () => {
     await expect(page.getByRole('button', { name: `Hide the nodes of ${second.name}` }).getAttribute('aria-expanded')).resolves.toBe('true');
     await expect(page.getByRole('button', { name: `Show the nodes of ${first.name}` }).getAttribute('aria-expanded')).resolves.toBe('false');
     await expect(page.getByRole('status').filter({ hasText: `Showing ${wanted.name}` }).count()).resolves.toBe(1);
-    await screenshot(page, 'big-map-found');
+    await viewShot(page, 'big-map-found');
   }, 180_000);
 
   it('gets past the graph in few Tab stops, and its list opens a quarter into rows by keyboard', async () => {
@@ -224,6 +227,6 @@ describe('the map of a 2,100-node town', () => {
       `frames during the storm: ${stats.frames}; gap p50 ${stats.p50?.toFixed(1)} ms, p99 ${stats.p99?.toFixed(1)} ms, longest ${stats.max?.toFixed(1)} ms; ` +
         `long frames reported ${stats.longFrames.length}, longest ${stats.longFrames.length ? Math.max(...stats.longFrames).toFixed(0) : 0} ms`,
     );
-    await screenshot(page, 'big-map-after-storm');
+    await viewShot(page, 'big-map-after-storm');
   }, 480_000);
 });
