@@ -18,6 +18,8 @@ export const MARK_HEIGHT_PX = 62;
 
 // Scaled like the nodes (NodeScale sets the variable); a mark kept at its full screen size would cover its neighbours.
 const SCALED = { transform: 'scale(var(--pp-node-scale, 1))' };
+// The graph's node box is the focused element; the ring shows on the drawn mark.
+const RING = 'group-focus-visible:outline-3 group-focus-visible:outline-offset-2 group-focus-visible:outline-focus';
 
 /** A neighbourhood folded into one mark: its name, its node count and a shape and number per state present. */
 export const NeighbourhoodMark = memo(function NeighbourhoodMark({ data }: NodeProps<NeighbourhoodFlowNode>) {
@@ -26,7 +28,7 @@ export const NeighbourhoodMark = memo(function NeighbourhoodMark({ data }: NodeP
     <div data-testid={`topology-hood-${data.neighbourhoodId}`} data-counts={countsKey(data.counts)} style={{ width: MARK_WIDTH_PX, height: MARK_HEIGHT_PX }}>
       <div
         aria-hidden="true"
-        className="flex h-full w-full flex-col justify-center rounded-xl border-2 border-line-strong bg-surface px-2 py-1 text-ink shadow-sm group-focus-visible:outline-3 group-focus-visible:outline-offset-2 group-focus-visible:outline-focus"
+        className={`flex h-full w-full flex-col justify-center rounded-xl border-2 border-line-strong bg-surface px-2 py-1 text-ink shadow-sm ${RING}`}
         style={SCALED}
       >
         <span className="flex items-baseline justify-between gap-2 text-[12px] leading-tight font-semibold">

@@ -119,7 +119,10 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
     [grouped, filters.neighbourhoodId, summaries, openHoodId],
   );
   const shownKey = shown.map((n) => n.id).join(',');
-  const siteNodes = useMemo(() => buildFlowNodes(shown, positions, { selectedId, highlightedId }, cache.current), [shown, positions, selectedId, highlightedId]);
+  const siteNodes = useMemo(
+    () => buildFlowNodes(shown, positions, { selectedId, highlightedId }, cache.current),
+    [shown, positions, selectedId, highlightedId],
+  );
   const marks = useMemo(() => buildMarks(folded, markCache.current), [folded]);
   const nodes = useMemo<MapFlowNode[]>(() => (marks.length ? [...marks, ...siteNodes] : siteNodes), [marks, siteNodes]);
   // eslint-disable-next-line react-hooks/exhaustive-deps -- keyed on which nodes are shown, not on their states
@@ -255,7 +258,12 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
       </a>
       <div className="flex flex-col gap-3 lg:flex-row">
         {/* Keys bubble up here from the graph's own focusable nodes. */}
-        <div ref={canvas} data-testid="topology" onKeyDown={onCanvasKeyDown} className="h-[60vh] min-h-[360px] min-w-0 overflow-hidden rounded-lg border border-line lg:h-[70vh] lg:flex-1">
+        <div
+          ref={canvas}
+          data-testid="topology"
+          onKeyDown={onCanvasKeyDown}
+          className="h-[60vh] min-h-[360px] min-w-0 overflow-hidden rounded-lg border border-line lg:h-[70vh] lg:flex-1"
+        >
           <ReactFlow<MapFlowNode>
             className="parapet-graph"
             nodes={nodes}
@@ -277,7 +285,14 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
             <LinkLayer lines={allLines} />
             <NodeScale target={canvas} />
             <Controls showInteractive={false} />
-            <MiniMap<MapFlowNode> className="max-lg:hidden" nodeColor={minimapColour} nodeClassName={minimapClass} pannable zoomable ariaLabel="Overview of the whole graph" />
+            <MiniMap<MapFlowNode>
+              className="max-lg:hidden"
+              nodeColor={minimapColour}
+              nodeClassName={minimapClass}
+              pannable
+              zoomable
+              ariaLabel="Overview of the whole graph"
+            />
           </ReactFlow>
         </div>
         {panel && (
