@@ -13,7 +13,6 @@ import { requireCsrf } from './middlewares/csrf';
 import { errorHandler } from './middlewares/errorHandler';
 import { requireRole } from './middlewares/requireRole';
 import { requireUser } from './middlewares/requireUser';
-import { useMailConfig } from './mail/settings';
 import { initModels } from './models';
 import { heartbeatRoutes } from './routes/heartbeats';
 import { addressPlanRoutes } from './routes/addressPlans';
@@ -78,7 +77,6 @@ const csrfExempt = (req: Request) => req.method === 'POST' && req.path === '/ses
 export function createApp({ config, sequelize, databaseWatch }: AppContext) {
   initModels(sequelize);
   installAuditHooks();
-  useMailConfig(config);
   const watch = databaseWatch ?? new DatabaseWatch(() => sequelize.query('SELECT 1'), config.databaseProbeIntervalMs);
   const pool = guardPool(new pg.Pool({ connectionString: config.databaseUrl, max: 4, connectionTimeoutMillis: 5_000 }), 'session store', watch);
   const passport = configurePassport();

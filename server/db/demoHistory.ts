@@ -3,7 +3,6 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { Config } from '../config';
 import { applyRetention, rollUp } from '../jobs/heartbeatStorage';
-import { useMailConfig } from '../mail/settings';
 import { ingestReports } from '../services/heartbeatIngest';
 import { planHistory } from './demoHistoryPlan';
 import { rememberSeqs, reportSpecs, writeDay } from './demoHistoryReports';
@@ -15,7 +14,6 @@ const DAY_MS = 86_400_000;
 export interface HistorySummary { days: number; reportRows: number; steps: number; outages: number; mails: number }
 
 export async function loadDemoHistory(sequelize: Sequelize, config: Config, people: Map<string, number>, progress: (line: string) => void): Promise<HistorySummary> {
-  useMailConfig(config);
   const plan = planHistory(config.now());
   const specs = await reportSpecs(sequelize);
   await sequelize.query(
@@ -53,7 +51,7 @@ export async function loadDemoHistory(sequelize: Sequelize, config: Config, peop
 
   // Every node reports once now, so the console opens on fresh figures (and the drifting link shows).
   for (const nodeId of specs.ids.values()) {
-    await ingestReports(sequelize, await tokenNode(sequelize, nodeId), [reportAt(specs, nodeId, plan.end, plan.drift.depthDb)], plan.end);
+    await ingestReports(sequelize, config, await tokenNode(sequelize, nodeId), [reportAt(specs, nodeId, plan.end, plan.drift.depthDb)], plan.end);
   }
   progress('history: every node reported once now');
   // Mail of the past went out in its day (see deliverDue); what is due later waits for the live sender.

@@ -84,13 +84,13 @@ export async function replayHistory(sequelize: Sequelize, config: Config, plan: 
     }
     // The check has been running all along: no "Parapet was not watching" notice for the replay's jumps.
     await sequelize.query(`UPDATE job_state SET last_run_at = $1 WHERE name = 'silence-check'`, { bind: [plus(at, -config.healthCheckIntervalMs)] });
-    await runSilenceCheck(sequelize, at, config.healthCheckIntervalMs, config.rootCauseWindowS);
+    await runSilenceCheck(sequelize, config, at, config.healthCheckIntervalMs, config.rootCauseWindowS);
     await runAlertSweep(sequelize, config, at);
     await deliverDue(sequelize, at);
   });
   const back = (node: string, at: Date) => add(at, 2, async () => {
     await deliverDue(sequelize, at);
-    await ingestReports(sequelize, await tokenNode(sequelize, id(node)), [reportAt(specs, id(node), at)], at);
+    await ingestReports(sequelize, config, await tokenNode(sequelize, id(node)), [reportAt(specs, id(node), at)], at);
     await deliverDue(sequelize, at);
   });
   const annotate = (o: PlannedOutage) => {

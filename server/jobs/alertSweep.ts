@@ -1,7 +1,7 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { Config } from '../config';
 import { writeDegradedDigests, writeHourlyDigests } from '../services/alertDigests';
-import { writeOfflineAlerts, writeReminders } from '../services/alerts';
+import { writeDueOfflineAlerts, writeReminders } from '../services/alerts';
 import { asLeader } from './leader';
 
 /**
@@ -11,14 +11,7 @@ import { asLeader } from './leader';
 export async function runAlertSweep(sequelize: Sequelize, config: Config, now: Date) {
   const result = await asLeader(sequelize, 'alert-sweep', async (transaction) => {
     const q = { type: QueryTypes.SELECT, transaction } as const;
-    const due = await sequelize.query<{ id: number }>(
-      `SELECT o.id FROM outages o JOIN nodes n ON n.id = o.node_id
-        WHERE o.ended_at IS NULL AND o.offline_notified_at IS NULL AND n.state = 'offline'
-          AND coalesce(n.last_seen_at, o.started_at) + make_interval(secs => $2) <= $1
-        ORDER BY o.id FOR UPDATE OF o`,
-      { ...q, bind: [now, config.alertGraceS ?? 0] },
-    );
-    for (const o of due) await writeOfflineAlerts(sequelize, config, o.id, now, transaction);
+    const offlineOutages = await writeDueOfflineAlerts(sequelize, config, now, transaction);
     const remind = await sequelize.query<{ id: number }>(
       `SELECT o.id FROM outages o
         WHERE o.ended_at IS NULL AND o.acknowledged_at IS NULL AND o.offline_notified_at IS NOT NULL
@@ -30,7 +23,7 @@ export async function runAlertSweep(sequelize: Sequelize, config: Config, now: D
     for (const o of remind) reminders += await writeReminders(sequelize, config, o.id, now, transaction);
     const hourly = await writeHourlyDigests(sequelize, config, now, transaction);
     const daily = await writeDegradedDigests(sequelize, config, now, transaction);
-    return { offlineOutages: due.length, reminders, hourly, daily };
+    return { offlineOutages, reminders, hourly, daily };
   });
   return result ?? { offlineOutages: 0, reminders: 0, hourly: 0, daily: 0 };
 }

@@ -51,7 +51,7 @@ export function startJobs(config: Config, sequelize: Sequelize, watch?: Database
       // Outages of the database since the last good check: silence in them is Parapet's, not the nodes'.
       const seen = watch?.outageCount ?? 0;
       const ownOutage: Outage | null = seen > outagesHandled ? (watch!.outages.at(-1) ?? null) : null;
-      const check = await runSilenceCheck(sequelize, now, config.healthCheckIntervalMs, config.rootCauseWindowS, ownOutage);
+      const check = await runSilenceCheck(sequelize, config, now, config.healthCheckIntervalMs, config.rootCauseWindowS, ownOutage);
       outagesHandled = seen;
       if (skipped) console.log(`scheduled jobs resumed after ${skipped} skipped tick(s)`);
       skipped = 0;

@@ -1,6 +1,8 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { DEFAULT_THRESHOLDS } from '../../shared/health/state';
+import type { Config } from '../config';
 import { writeSelfCheck } from '../services/alertDigests';
+import { writeDueOfflineAlerts } from '../services/alerts';
 import { applyMaintenanceWindows } from '../services/maintenance';
 import { emitTransition } from '../services/nodeHealth';
 import { judgeSilentNodes, type SilentNode } from '../services/silenceAttribution';
@@ -16,7 +18,7 @@ import { asLeader } from './leader';
  * and gives every node one full offline window of fresh reports before judging it. An outage of
  * the database (`ownOutage`, seen by this process) counts the same way: nodes could not report.
  */
-export async function runSilenceCheck(sequelize: Sequelize, now: Date, checkIntervalMs: number, rootCauseWindowS = 120, ownOutage: { from: Date; to: Date } | null = null) {
+export async function runSilenceCheck(sequelize: Sequelize, config: Config, now: Date, checkIntervalMs: number, rootCauseWindowS = 120, ownOutage: { from: Date; to: Date } | null = null) {
   const network = await thresholdsFor(sequelize, null);
   const offlineAfterIntervals = network.offlineAfterIntervals ?? DEFAULT_THRESHOLDS.offlineAfterIntervals;
   const result = await asLeader(sequelize, 'silence-check', async (transaction) => {
@@ -34,8 +36,8 @@ export async function runSilenceCheck(sequelize: Sequelize, now: Date, checkInte
     );
     // One admin-only message when the check itself had stopped (not on a database's very first run).
     const ownGapMs = ownOutage ? Math.max(now.getTime() - ownOutage.from.getTime(), 0) : 0;
-    if (resumed && job?.lastRunAt) await writeSelfCheck(sequelize, Math.max(Number.isFinite(gapMs) ? gapMs : 0, ownGapMs), now, transaction);
-    const events = await applyMaintenanceWindows(sequelize, now, transaction);
+    if (resumed && job?.lastRunAt) await writeSelfCheck(sequelize, config, Math.max(Number.isFinite(gapMs) ? gapMs : 0, ownGapMs), now, transaction);
+    const events = await applyMaintenanceWindows(sequelize, config, now, transaction);
     const silent = await sequelize.query<SilentNode>(
       `SELECT n.id AS "nodeId", n.neighbourhood_id AS "neighbourhoodId", s.host_user_id AS "hostUserId", n.state,
               n.last_seen_at + make_interval(secs => n.report_interval_s) AS "outageStartedAt"
@@ -48,8 +50,10 @@ export async function runSilenceCheck(sequelize: Sequelize, now: Date, checkInte
       { bind: [now, offlineAfterIntervals, watchingSince], type: QueryTypes.SELECT, transaction },
     );
     // Nodes behind a failed node or link are stranded under its outage, not given outages of their own.
-    events.push(...(await judgeSilentNodes(sequelize, silent, now, rootCauseWindowS, offlineAfterIntervals, transaction)));
-    events.push(...(await releaseStranded(sequelize, now, offlineAfterIntervals, transaction)));
+    events.push(...(await judgeSilentNodes(sequelize, config, silent, now, rootCauseWindowS, offlineAfterIntervals, transaction)));
+    events.push(...(await releaseStranded(sequelize, config, now, offlineAfterIntervals, transaction)));
+    // Outage mail last, in this transaction: it exists exactly when the outage does, and lists what sits behind it.
+    await writeDueOfflineAlerts(sequelize, config, now, transaction);
     return { resumed, silenced: silent.length, events };
   });
   if (!result) return { leader: false, resumed: false, silenced: 0 };

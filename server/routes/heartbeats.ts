@@ -45,7 +45,7 @@ export function heartbeatRoutes(config: Config, sequelize: Sequelize) {
         body && typeof body === 'object' && 'reports' in body
           ? parseOrThrow(heartbeatBatchSchema, body, 'batch').reports
           : [parseOrThrow(heartbeatReportSchema, body, 'report')];
-      const result = await ingestReports(sequelize, node, reports, config.now());
+      const result = await ingestReports(sequelize, config, node, reports, config.now());
       res.status(202).json(result);
     },
   );

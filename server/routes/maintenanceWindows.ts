@@ -13,6 +13,7 @@ import { authorize } from '../policies/authorize';
 import { mayAnnounceMaintenance } from '../policies/maintenance';
 import { nodeScope } from '../policies/node';
 import { presentMaintenanceWindow } from '../presenters/alerts';
+import { writeDueOfflineAlerts } from '../services/alerts';
 import { applyMaintenanceWindows } from '../services/maintenance';
 import { emitTransition } from '../services/nodeHealth';
 
@@ -26,9 +27,13 @@ async function readableNode(actor: Actor, id: number) {
   return node;
 }
 
-/** Puts the node into or out of maintenance now if a window just opened or closed, and tells open consoles. */
-async function applyNow(sequelize: Sequelize, nodeId: number, now: Date) {
-  const events = await sequelize.transaction((t) => applyMaintenanceWindows(sequelize, now, t, nodeId));
+/** Puts the node into or out of maintenance now if a window just opened or closed (mailing an outage that opens), and tells open consoles. */
+async function applyNow(sequelize: Sequelize, config: Config, nodeId: number, now: Date) {
+  const events = await sequelize.transaction(async (t) => {
+    const moved = await applyMaintenanceWindows(sequelize, config, now, t, nodeId);
+    await writeDueOfflineAlerts(sequelize, config, now, t);
+    return moved;
+  });
   events.forEach(emitTransition);
 }
 
@@ -59,7 +64,7 @@ export function maintenanceWindowRoutes(config: Config, sequelize: Sequelize) {
       throw Invalid('The request body is invalid: endsAt must be in the future.', [{ path: 'endsAt', message: 'endsAt must be in the future' }]);
     }
     const created = await MaintenanceWindow.create({ nodeId: node.id, startsAt: new Date(body.startsAt), endsAt: new Date(body.endsAt), reason: body.reason || null, createdBy: actor.id });
-    await applyNow(sequelize, node.id, now);
+    await applyNow(sequelize, config, node.id, now);
     const window = await MaintenanceWindow.findByPk(created.id, { include: [{ model: User, as: 'creator', required: false }] });
     res.status(201).json({ data: presentMaintenanceWindow(window!, now, true) });
   });
@@ -73,7 +78,7 @@ export function maintenanceWindowRoutes(config: Config, sequelize: Sequelize) {
     const now = config.now();
     if (!window.cancelledAt && window.endsAt > now) {
       await window.update({ cancelledAt: now });
-      await applyNow(sequelize, node.id, now);
+      await applyNow(sequelize, config, node.id, now);
     }
     res.status(204).end();
   });

@@ -1,7 +1,6 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { Config } from '../config';
 import { localMinutes } from '../mail/quietHours';
-import { mailConfig } from '../mail/settings';
 import { type ChangeLine, degradedDigest, type DigestLine, hourlyDigest, selfCheck } from '../mail/templates/digests';
 import { consoleUrl, footerLinks } from './alertAudience';
 import { enqueue } from './outbox';
@@ -19,9 +18,7 @@ function localDate(at: Date, timeZone: string) {
 }
 
 /** One `self-check` per admin (not one per node) when the health check finds it had stopped running. */
-export async function writeSelfCheck(sequelize: Sequelize, gapMs: number, now: Date, transaction: Transaction) {
-  const config = mailConfig();
-  if (!config) return 0;
+export async function writeSelfCheck(sequelize: Sequelize, config: Config, gapMs: number, now: Date, transaction: Transaction) {
   const timeZone = await networkTimeZone(sequelize, transaction);
   const admins = await sequelize.query<{ id: number; name: string; email: string }>(
     `SELECT u.id, u.name, u.email FROM users u LEFT JOIN alert_preferences p ON p.user_id = u.id

@@ -1,8 +1,6 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
-import type { NodeState } from '../../shared/enums';
 import type { Config } from '../config';
 import { quietUntil } from '../mail/quietHours';
-import { mailConfig } from '../mail/settings';
 import { hostOffline, hostOnline } from '../mail/templates/host';
 import { type BehindFacts, flapSummary, operatorOffline, operatorOnline, operatorReminder, type OperatorFacts } from '../mail/templates/operator';
 import { acknowledgeUrl, footerLinks, type NodeContext, nodeAudience, nodeContext, nodeUrl, type Recipient, recoveryUrl } from './alertAudience';
@@ -62,17 +60,30 @@ const hostFacts = (ctx: NodeContext, r: Recipient, since: Date) => ({
   since, timeZone: ctx.timeZone, operators: ctx.operators,
 });
 
+interface OutageMail {
+  kind: OutboxKind;
+  dedupeKey: string;
+  ctx: MailContext;
+  outage: OutageRow;
+  recipient: OutageRecipient;
+  now: Date;
+  /** Back online after an offline mail that never went out: the mail says "was down from … to …". */
+  missedOffline?: boolean;
+}
+
 /** Writes one outage message (or the flap summary in its place) for one person, honouring quiet hours for hosts. */
-async function writeFor(sequelize: Sequelize, config: Config, kind: OutboxKind, key: string, ctx: MailContext, outage: OutageRow, r: OutageRecipient, now: Date, transaction: Transaction, missedOffline = false) {
+async function writeFor(sequelize: Sequelize, config: Config, mail: OutageMail, transaction: Transaction) {
+  const { kind, ctx, outage, recipient: r, now } = mail;
   const footer = footerLinks(config, r.userId, now);
   const flap = await flapDecision(sequelize, config.flapMaxPerHour, ctx.nodeId, r.userId, now, transaction);
   if (flap.verdict === 'suppress') return false;
   const downForS = ((outage.endedAt ?? now).getTime() - new Date(outage.startedAt).getTime()) / 1000;
   const since = new Date(outage.startedAt);
-  const until = missedOffline ? new Date(outage.endedAt ?? now) : undefined;
+  const until = mail.missedOffline ? new Date(outage.endedAt ?? now) : undefined;
+  const stateNow = kind === 'node-online' ? 'back online' : 'offline';
   const rendered =
     flap.verdict === 'summary'
-      ? flapSummary({ nodeName: ctx.nodeName, neighbourhoodName: ctx.neighbourhoodName, nodeUrl: nodeUrl(config, ctx.nodeId), changes: flap.changes, stateNow: kind === 'node-online' ? 'back online' : 'offline' }, footer)
+      ? flapSummary({ nodeName: ctx.nodeName, neighbourhoodName: ctx.neighbourhoodName, nodeUrl: nodeUrl(config, ctx.nodeId), changes: flap.changes, stateNow }, footer)
       : r.audience === 'host'
         ? kind === 'node-online'
           ? hostOnline({ ...hostFacts(ctx, r, since), downForS, until }, footer)
@@ -80,13 +91,34 @@ async function writeFor(sequelize: Sequelize, config: Config, kind: OutboxKind, 
         : kind === 'node-online'
           ? operatorOnline({ ...operatorFacts(config, ctx, r, since, null), downForS, until }, footer)
           : operatorOffline(operatorFacts(config, ctx, r, since, r.behindOnly ? null : acknowledgeUrl(config, r.userId, outage.id, now)), footer);
-  const dedupeKey = flap.verdict === 'summary' ? `flap:${ctx.nodeId}:${r.userId}:${Math.floor(now.getTime() / 3_600_000)}` : key;
+  const dedupeKey = flap.verdict === 'summary' ? `flap:${ctx.nodeId}:${r.userId}:${Math.floor(now.getTime() / 3_600_000)}` : mail.dedupeKey;
   const notBefore = r.audience === 'host' ? quietUntil(now, ctx.timeZone, r.quietStart, r.quietEnd) : now;
-  return enqueue(sequelize, { kind, userId: r.userId, address: r.email, name: r.name, nodeId: ctx.nodeId, outageId: outage.id, dedupeKey, rendered, unsubscribeUrl: footer.unsubscribeUrl, notBefore }, now, transaction);
+  return enqueue(sequelize, {
+    kind, userId: r.userId, address: r.email, name: r.name, nodeId: ctx.nodeId, outageId: outage.id, dedupeKey, rendered, unsubscribeUrl: footer.unsubscribeUrl, notBefore,
+  }, now, transaction);
+}
+
+/**
+ * The one writer of `node-offline` mail. Every transaction that may open an outage (the silence
+ * check, a maintenance window ending) and the sweep call it before committing: it mails each open,
+ * not yet mailed outage whose grace has passed, and marks it mailed.
+ * The grace is decided here and nowhere else: `alertGraceS` after the node's last report (after
+ * the outage's start for a node never heard from); no grace set means at once.
+ */
+export async function writeDueOfflineAlerts(sequelize: Sequelize, config: Config, now: Date, transaction: Transaction) {
+  const due = await sequelize.query<{ id: number }>(
+    `SELECT o.id FROM outages o JOIN nodes n ON n.id = o.node_id
+      WHERE o.ended_at IS NULL AND o.offline_notified_at IS NULL AND n.state = 'offline'
+        AND coalesce(n.last_seen_at, o.started_at) + make_interval(secs => $2) <= $1
+      ORDER BY o.id FOR UPDATE OF o`,
+    { bind: [now, config.alertGraceS ?? 0], type: QueryTypes.SELECT, transaction },
+  );
+  for (const o of due) await writeOfflineAlerts(sequelize, config, o.id, now, transaction);
+  return due.length;
 }
 
 /** `node-offline` to the node's audience (hourly-digest operators read it in their digest instead). */
-export async function writeOfflineAlerts(sequelize: Sequelize, config: Config, outageId: number, now: Date, transaction: Transaction) {
+async function writeOfflineAlerts(sequelize: Sequelize, config: Config, outageId: number, now: Date, transaction: Transaction) {
   const outage = await loadOutage(sequelize, outageId, transaction);
   const node = outage && (await nodeContext(sequelize, outage.nodeId, transaction));
   if (!outage || !node) return 0;
@@ -94,7 +126,8 @@ export async function writeOfflineAlerts(sequelize: Sequelize, config: Config, o
   let written = 0;
   for (const r of await outageAudience(sequelize, outageId, ctx.nodeId, transaction)) {
     if (r.audience === 'operator' && r.operatorMode === 'hourly') continue;
-    if (await writeFor(sequelize, config, 'node-offline', `offline:${outageId}:${r.userId}`, ctx, outage, r, now, transaction)) written++;
+    const mail: OutageMail = { kind: 'node-offline', dedupeKey: `offline:${outageId}:${r.userId}`, ctx, outage, recipient: r, now };
+    if (await writeFor(sequelize, config, mail, transaction)) written++;
   }
   await sequelize.query('UPDATE outages SET offline_notified_at = $2 WHERE id = $1', { bind: [outageId, now], transaction });
   // The hosts of nodes cut off behind it hear once, if they asked to, that nothing is needed from them.
@@ -123,7 +156,9 @@ export async function writeOnlineAlerts(sequelize: Sequelize, config: Config, ou
     if (unsent) await sequelize.query('DELETE FROM outbox WHERE id = $1', { bind: [t.id], transaction });
     if (unsent && t.attempts === 0) continue;
     const r = audience.get(t.userId);
-    if (r && (await writeFor(sequelize, config, 'node-online', `online:${outageId}:${r.userId}`, ctx, outage, r, now, transaction, unsent))) written++;
+    if (!r) continue;
+    const mail: OutageMail = { kind: 'node-online', dedupeKey: `online:${outageId}:${r.userId}`, ctx, outage, recipient: r, now, missedOffline: unsent };
+    if (await writeFor(sequelize, config, mail, transaction)) written++;
   }
   return written;
 }
@@ -147,23 +182,4 @@ export async function writeReminders(sequelize: Sequelize, config: Config, outag
     if (await enqueue(sequelize, { kind: 'node-reminder', userId: r.userId, address: r.email, name: r.name, nodeId: ctx.nodeId, outageId, dedupeKey: `reminder:${outageId}:${n}:${r.userId}`, rendered, unsubscribeUrl: footer.unsubscribeUrl }, now, transaction)) written++;
   }
   return written;
-}
-
-/**
- * Called by recordTransition inside its transaction: an outage that opens mails at once when the
- * grace has passed (the sweep catches the rest); one that closes mails back-online, unless it
- * closed because a maintenance window began.
- */
-export async function alertsAfterTransition(
-  sequelize: Sequelize, t: { nodeId: number; to: NodeState; at: Date }, outage: { outageId: number; kind: 'opened' | 'closed' } | undefined, transaction: Transaction,
-) {
-  const config = mailConfig();
-  if (!config || !outage) return;
-  if (outage.kind === 'opened') {
-    const [node] = await sequelize.query<{ lastSeenAt: Date | null }>('SELECT last_seen_at AS "lastSeenAt" FROM nodes WHERE id = $1', { bind: [t.nodeId], type: QueryTypes.SELECT, transaction });
-    const graceEndsMs = node?.lastSeenAt && config.alertGraceS != null ? new Date(node.lastSeenAt).getTime() + config.alertGraceS * 1000 : 0;
-    if (graceEndsMs <= t.at.getTime()) await writeOfflineAlerts(sequelize, config, outage.outageId, t.at, transaction);
-  } else if (t.to !== 'maintenance') {
-    await writeOnlineAlerts(sequelize, config, outage.outageId, t.at, transaction);
-  }
 }

@@ -6,6 +6,7 @@ import type { HeartbeatReport } from '../../shared/schemas/heartbeat';
 import { isDatabaseUnreachable } from '../db/availability';
 import { ApiError } from '../errors';
 import { driftOf, type DriftItem } from './drift';
+import type { Config } from '../config';
 import { domainEvents } from './events';
 import type { TokenNode } from './ingestTokens';
 import { emitTransition, recordTransition } from './nodeHealth';
@@ -244,9 +245,9 @@ const nodeChains = new Map<number, Promise<unknown>>();
  * also records the transition. `node` carries what this process last saw of the node; it is
  * updated in place after each store, so a cached token lookup stays current.
  */
-export function ingestReports(sequelize: Sequelize, node: TokenNode, reports: HeartbeatReport[], now: Date): Promise<IngestResult> {
+export function ingestReports(sequelize: Sequelize, config: Config, node: TokenNode, reports: HeartbeatReport[], now: Date): Promise<IngestResult> {
   const before = nodeChains.get(node.nodeId) ?? Promise.resolve();
-  const run = before.catch(() => undefined).then(() => ingestInOrder(sequelize, node, reports, now));
+  const run = before.catch(() => undefined).then(() => ingestInOrder(sequelize, config, node, reports, now));
   nodeChains.set(node.nodeId, run);
   void run.catch(() => undefined).finally(() => {
     if (nodeChains.get(node.nodeId) === run) nodeChains.delete(node.nodeId);
@@ -254,7 +255,7 @@ export function ingestReports(sequelize: Sequelize, node: TokenNode, reports: He
   return run;
 }
 
-async function ingestInOrder(sequelize: Sequelize, node: TokenNode, reports: HeartbeatReport[], now: Date): Promise<IngestResult> {
+async function ingestInOrder(sequelize: Sequelize, config: Config, node: TokenNode, reports: HeartbeatReport[], now: Date): Promise<IngestResult> {
   const newest = newestOf(reports);
   const newestBoot = newest.bootId ?? '';
   const [thresholds, drift, bootSeenBefore] = await Promise.all([
@@ -313,7 +314,7 @@ async function ingestInOrder(sequelize: Sequelize, node: TokenNode, reports: Hea
       const [row] = await storeItems(sequelize, [itemFor(current, j, false)], transaction);
       stored ??= row.stored;
       const events = j.verdict && j.verdict.state !== current.state
-        ? await recordTransition(sequelize, { ...node, from: current.state, to: j.verdict.state, reason: j.verdict.reason, at: now }, transaction)
+        ? await recordTransition(sequelize, config, { ...node, from: current.state, to: j.verdict.state, reason: j.verdict.reason, at: now }, transaction)
         : null;
       remember(current, j);
       return { advances: j.advances, events };

@@ -1,6 +1,7 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { NodeState } from '../../shared/enums';
-import { alertsAfterTransition } from './alerts';
+import type { Config } from '../config';
+import { writeOnlineAlerts } from './alerts';
 import { domainEvents, type NodeStateEvent, type OutageEvent } from './events';
 
 export interface TransitionInput {
@@ -13,16 +14,15 @@ export interface TransitionInput {
   at: Date;
   /** When the outage began, if this transition opens one (the first missed report). */
   outageStartedAt?: Date;
-  /** The caller writes the outage mail itself, later in the same transaction (after attaching what sits behind it). */
-  holdAlerts?: boolean;
 }
 
 /**
  * Records a state change inside the caller's transaction: the transition row, and the outage it
- * opens (going offline) or closes (leaving offline), and the outage mail for it in the outbox.
- * Returns the events to emit after commit.
+ * opens (going offline) or closes (leaving offline), and the back-online mail in the outbox.
+ * The offline mail is not written here: the transaction's owner calls `writeDueOfflineAlerts`
+ * before it commits, once what sits behind the outage is attached. Returns the events to emit after commit.
  */
-export async function recordTransition(sequelize: Sequelize, t: TransitionInput, transaction: Transaction) {
+export async function recordTransition(sequelize: Sequelize, config: Config, t: TransitionInput, transaction: Transaction) {
   const events: { state: NodeStateEvent; outage?: OutageEvent } = {
     state: { nodeId: t.nodeId, neighbourhoodId: t.neighbourhoodId, hostUserId: t.hostUserId, state: t.to, previousState: t.from, at: t.at.toISOString(), reason: t.reason },
   };
@@ -44,8 +44,9 @@ export async function recordTransition(sequelize: Sequelize, t: TransitionInput,
     );
     if (rows[0]) events.outage = { ...base, outageId: rows[0].id, kind: 'closed' };
   }
-  // Outage mail is written in this same transaction (the outbox), so it exists exactly when the outage does.
-  if (!t.holdAlerts) await alertsAfterTransition(sequelize, t, events.outage, transaction);
+  // Back-online mail is written in this same transaction (the outbox), so it exists exactly when the outage closed;
+  // none when the outage closed because a maintenance window began.
+  if (events.outage?.kind === 'closed' && t.to !== 'maintenance') await writeOnlineAlerts(sequelize, config, events.outage.outageId, t.at, transaction);
   return events;
 }
 

@@ -1,8 +1,7 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { NodeState } from '../../shared/enums';
 import { type Attribution, attributeSilence, type WatchedNode } from '../../shared/health/rootCause';
-import { mailConfig } from '../mail/settings';
-import { alertsAfterTransition } from './alerts';
+import type { Config } from '../config';
 import { CLIENTS_SQL, refreshBlastCounts } from './blastRadius';
 import { recordTransition } from './nodeHealth';
 import { currentTopology } from './topologyGraph';
@@ -43,23 +42,23 @@ async function openOutageOf(sequelize: Sequelize, nodeId: number, transaction: T
 /**
  * Moves this check's silent nodes: roots go offline with an outage each; nodes cut off behind a
  * root become stranded and join its outage's blast radius; a cut that holds an uplink is one
- * partition notice to admins. Outage mail is written last, so it lists what sits behind the root.
+ * partition notice to admins. The roots' outage mail comes after, from the check's writeDueOfflineAlerts.
  */
-export async function judgeSilentNodes(sequelize: Sequelize, silent: SilentNode[], now: Date, windowS: number, offlineAfterIntervals: number, transaction: Transaction) {
+export async function judgeSilentNodes(sequelize: Sequelize, config: Config, silent: SilentNode[], now: Date, windowS: number, offlineAfterIntervals: number, transaction: Transaction) {
   const events: Events[] = [];
   if (!silent.length) return events;
   const a = await attribute(sequelize, silent, now, windowS, offlineAfterIntervals, transaction);
   const byId = new Map(silent.map((s) => [s.nodeId, s]));
   const outageOfRoot = new Map<number, number>();
-  const opened: { nodeId: number; outageId: number }[] = [];
+  const opened: number[] = [];
   for (const id of a.roots) {
     const node = byId.get(id)!;
     await sequelize.query(`UPDATE nodes SET state = 'offline', state_since = $2, health_streak = 0, health_reason = 'missed its reports' WHERE id = $1`, { bind: [id, now], transaction });
-    const ev = await recordTransition(sequelize, { ...node, from: node.state, to: 'offline', reason: 'missed its reports', at: now, outageStartedAt: new Date(node.outageStartedAt), holdAlerts: true }, transaction);
+    const ev = await recordTransition(sequelize, config, { ...node, from: node.state, to: 'offline', reason: 'missed its reports', at: now, outageStartedAt: new Date(node.outageStartedAt) }, transaction);
     events.push(ev);
     const outageId = ev.outage?.outageId ?? (await openOutageOf(sequelize, id, transaction));
     if (outageId) outageOfRoot.set(id, outageId);
-    if (ev.outage?.kind === 'opened') opened.push({ nodeId: id, outageId: ev.outage.outageId });
+    if (ev.outage?.kind === 'opened') opened.push(ev.outage.outageId);
   }
   const touched = new Set<number>();
   const partitionUplinks: number[] = [];
@@ -86,13 +85,12 @@ export async function judgeSilentNodes(sequelize: Sequelize, silent: SilentNode[
        ON CONFLICT (node_id) WHERE ended_at IS NULL DO NOTHING`,
       { bind: [s.nodeId, s.rootNodeId, outageId, s.cause, now], transaction },
     );
-    events.push(await recordTransition(sequelize, { ...node, from: node.state, to: 'stranded', reason, at: now }, transaction));
+    events.push(await recordTransition(sequelize, config, { ...node, from: node.state, to: 'stranded', reason, at: now }, transaction));
   }
   for (const outageId of touched) await refreshBlastCounts(sequelize, outageId, transaction);
-  // Mail last: the new roots' mail lists what sits behind them; older roots only add upstream notices.
-  for (const o of opened) await alertsAfterTransition(sequelize, { nodeId: o.nodeId, to: 'offline', at: now }, { outageId: o.outageId, kind: 'opened' }, transaction);
-  const config = mailConfig();
-  if (config) for (const outageId of touched) if (!opened.some((o) => o.outageId === outageId)) await writeUpstreamNotices(sequelize, config, outageId, now, transaction);
-  if (partitionUplinks.length) await writePartitionNotice(sequelize, partitionUplinks, partitionNodes, now, transaction);
+  // The new roots' offline mail (listing what sits behind them) is written by the check's writeDueOfflineAlerts;
+  // older roots, already mailed, only add upstream notices.
+  for (const outageId of touched) if (!opened.includes(outageId)) await writeUpstreamNotices(sequelize, config, outageId, now, transaction);
+  if (partitionUplinks.length) await writePartitionNotice(sequelize, config, partitionUplinks, partitionNodes, now, transaction);
   return events;
 }

@@ -1,4 +1,5 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import type { Config } from '../config';
 import { recordTransition } from './nodeHealth';
 
 /**
@@ -6,7 +7,7 @@ import { recordTransition } from './nodeHealth';
  * moment it came back) to report; those still silent then go offline with an outage and mail of
  * their own. Rows of nodes that reported again (or were put in maintenance) are closed.
  */
-export async function releaseStranded(sequelize: Sequelize, now: Date, offlineAfterIntervals: number, transaction: Transaction) {
+export async function releaseStranded(sequelize: Sequelize, config: Config, now: Date, offlineAfterIntervals: number, transaction: Transaction) {
   await sequelize.query(
     `UPDATE stranded_nodes sn SET ended_at = greatest(coalesce(n.state_since, $1), sn.stranded_at)
        FROM nodes n WHERE n.id = sn.node_id AND sn.ended_at IS NULL AND n.state <> 'stranded'`,
@@ -42,7 +43,7 @@ export async function releaseStranded(sequelize: Sequelize, now: Date, offlineAf
     const reason = 'still silent after the network upstream came back';
     await sequelize.query(`UPDATE nodes SET state = 'offline', state_since = $2, health_streak = 0, health_reason = $3 WHERE id = $1`, { bind: [d.nodeId, now, reason], transaction });
     await sequelize.query('UPDATE stranded_nodes SET ended_at = $2 WHERE id = $1', { bind: [d.rowId, now], transaction });
-    events.push(await recordTransition(sequelize, { ...d, from: 'stranded', to: 'offline', reason, at: now, outageStartedAt: new Date(d.releasedAt) }, transaction));
+    events.push(await recordTransition(sequelize, config, { ...d, from: 'stranded', to: 'offline', reason, at: now, outageStartedAt: new Date(d.releasedAt) }, transaction));
   }
   return events;
 }

@@ -1,7 +1,6 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { Config } from '../config';
 import { quietUntil } from '../mail/quietHours';
-import { mailConfig } from '../mail/settings';
 import { hostUpstream, partitionNotice } from '../mail/templates/upstream';
 import { consoleUrl, footerLinks, nodeAudience, recoveryUrl } from './alertAudience';
 import { enqueue } from './outbox';
@@ -44,9 +43,8 @@ export async function writeUpstreamNotices(sequelize: Sequelize, config: Config,
 }
 
 /** One `self-check` per admin when the cut contains Parapet's own side (an uplink went silent with what hangs off it). */
-export async function writePartitionNotice(sequelize: Sequelize, uplinkIds: number[], nodeCount: number, now: Date, transaction: Transaction) {
-  const config = mailConfig();
-  if (!config || !uplinkIds.length) return 0;
+export async function writePartitionNotice(sequelize: Sequelize, config: Config, uplinkIds: number[], nodeCount: number, now: Date, transaction: Transaction) {
+  if (!uplinkIds.length) return 0;
   const uplinks = await sequelize.query<{ name: string }>('SELECT name FROM nodes WHERE id = ANY($1::int[]) ORDER BY name', { bind: [uplinkIds], type: QueryTypes.SELECT, transaction });
   const admins = await sequelize.query<{ id: number; name: string; email: string; timeZone: string | null }>(
     `SELECT u.id, u.name, u.email, (SELECT time_zone FROM network_settings WHERE id = 1) AS "timeZone"

@@ -75,6 +75,8 @@ async function benchDatabase(url: string) {
   const { createSequelize } = await import('../db/sequelize');
   const { initModels } = await import('../models');
   const { runSilenceCheck } = await import('../jobs/silenceCheck');
+  const { loadConfig } = await import('../config');
+  const config = loadConfig(); // mail settings: the silence check writes the outage mail as it would in production
   const sequelize = createSequelize(url, 4);
   initModels(sequelize);
   const run = Date.now().toString(36);
@@ -101,13 +103,13 @@ async function benchDatabase(url: string) {
            WHERE x.ka < 16 AND x.kb < 16 ON CONFLICT DO NOTHING`, [JSON.stringify(rows.map(([a, ka, b, kb, status]) => ({ a, ka, b, kb, status })))]);
   const checkAt = new Date(now.getTime() + 181_000);
   await q(`UPDATE nodes SET last_seen_at = $2 WHERE neighbourhood_id = $3 AND NOT (id = ANY($1::int[]))`, [silent.map(nodeId), new Date(checkAt.getTime() - 30_000), hood]);
-  await runSilenceCheck(sequelize, new Date(now.getTime() - 1000), 1e9); // starts watching; earlier data in this database is judged here
+  await runSilenceCheck(sequelize, config, new Date(now.getTime() - 1000), 1e9); // starts watching; earlier data in this database is judged here
   const { currentTopology } = await import('../services/topologyGraph');
   const tTopo = performance.now();
   await currentTopology(sequelize);
   console.log(`graph and paths from PostgreSQL (inventory changed; predicted margins for every link): ${(performance.now() - tTopo).toFixed(0)} ms`);
   const t0 = performance.now();
-  const result = await runSilenceCheck(sequelize, checkAt, 1e9);
+  const result = await runSilenceCheck(sequelize, config, checkAt, 1e9);
   const ms = performance.now() - t0;
   const [counts] = (await q(`SELECT count(*) FILTER (WHERE state = 'offline')::int AS offline, count(*) FILTER (WHERE state = 'stranded')::int AS stranded FROM nodes WHERE neighbourhood_id = $1`, [hood])) as { offline: number; stranded: number }[];
   console.log(`silence check on PostgreSQL attributing ${result.silenced} silent nodes (topology cached): ${ms.toFixed(0)} ms → ${counts.offline} offline, ${counts.stranded} stranded`);

@@ -199,7 +199,7 @@ describe('outage mail', () => {
     await buildNode({ neighbourhoodId: s.hood.id });
     await s.report();
     clock.advance(2 * 3600); // Parapet was down: no checks ran
-    const run = await runSilenceCheck(ctx.sequelize, clock.now(), 1000);
+    const run = await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1000);
     expect(run.resumed).toBe(true);
     await sendOutbox(ctx);
     const mail = await mailTo(s.addresses(...s.everyone, secondAdmin));

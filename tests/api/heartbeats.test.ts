@@ -235,16 +235,16 @@ describe('silence check and outages', () => {
 
   it('marks a node offline after three missed intervals, opens an outage, and closes it on recovery', async () => {
     clock.set('2026-06-02T08:00:00Z');
-    await runSilenceCheck(ctx.sequelize, clock.now(), 1000); // starts watching
+    await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1000); // starts watching
     const { node, token } = await reportingNode();
     await post(ctx, token, report(1));
     clock.advance(1);
-    await runSilenceCheck(ctx.sequelize, clock.now(), 1000);
+    await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1000);
     clock.advance(interval * 3 - 2);
-    await runSilenceCheck(ctx.sequelize, clock.now(), 1_000_000);
+    await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1_000_000);
     expect((await Node.findByPk(node.id))!.state).toBe('online');
     clock.advance(2);
-    const run = await runSilenceCheck(ctx.sequelize, clock.now(), 1_000_000);
+    const run = await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1_000_000);
     expect(run.silenced).toBeGreaterThanOrEqual(1);
     expect((await Node.findByPk(node.id))!.state).toBe('offline');
     const [outage] = await ctx.sequelize.query<{ id: number; started_at: Date; ended_at: Date | null }>('SELECT id, started_at, ended_at FROM outages WHERE node_id = $1', { bind: [node.id], type: QueryTypes.SELECT });
@@ -262,24 +262,24 @@ describe('silence check and outages', () => {
 
   it('after Parapet itself was down, waits one full window before declaring nodes offline', async () => {
     clock.set('2026-06-03T08:00:00Z');
-    await runSilenceCheck(ctx.sequelize, clock.now(), 1000);
+    await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1000);
     const { node, token } = await reportingNode();
     await post(ctx, token, report(1));
     // Parapet is down for an hour: no checks run.
     clock.advance(3600);
-    const first = await runSilenceCheck(ctx.sequelize, clock.now(), 1000);
+    const first = await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1000);
     expect(first.resumed).toBe(true);
     expect((await Node.findByPk(node.id))!.state).toBe('online');
     clock.advance(interval * 3 - 1);
-    await runSilenceCheck(ctx.sequelize, clock.now(), 1_000_000);
+    await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1_000_000);
     expect((await Node.findByPk(node.id))!.state).toBe('online');
     clock.advance(1);
-    await runSilenceCheck(ctx.sequelize, clock.now(), 1_000_000);
+    await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1_000_000);
     expect((await Node.findByPk(node.id))!.state).toBe('offline');
   });
 
   it('runs the check in one process at a time (advisory lock)', async () => {
-    const results = await Promise.all([1, 2, 3].map(() => runSilenceCheck(ctx.sequelize, clock.now(), 1_000_000)));
+    const results = await Promise.all([1, 2, 3].map(() => runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1_000_000)));
     expect(results.filter((r) => r.leader).length).toBeGreaterThanOrEqual(1);
     // Whoever ran, no node got two open outages (a unique index allows one).
     const [row] = await ctx.sequelize.query<{ n: string }>('SELECT count(*) AS n FROM (SELECT node_id FROM outages WHERE ended_at IS NULL GROUP BY node_id HAVING count(*) > 1) x', { type: QueryTypes.SELECT });

@@ -21,16 +21,16 @@ describe('reports across reboots (bootId, seq)', () => {
 
   it('accepts a rebooted router counting from 1 again, and its reports move its state', async () => {
     clock.set('2026-06-01T12:00:00Z');
-    await runSilenceCheck(ctx.sequelize, clock.now(), 1000);
+    await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1000);
     const node = await buildNode();
     await Node.update({ reportIntervalS: 60 }, { where: { id: node.id } });
     const token = await tokenFor(ctx, node.id);
     expect((await post(ctx, token, report(41, { bootId: BOOT_A }))).body).toEqual({ accepted: 1, duplicates: 0 });
     // Silent for three intervals: offline.
     clock.advance(1);
-    await runSilenceCheck(ctx.sequelize, clock.now(), 1000);
+    await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1000);
     clock.advance(181);
-    await runSilenceCheck(ctx.sequelize, clock.now(), 1_000_000);
+    await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1_000_000);
     expect((await Node.findByPk(node.id))!.state).toBe('offline');
 
     // The router reboots: new boot id, counter back at 1 (lower than 41, and seq 1 was never sent by boot A).

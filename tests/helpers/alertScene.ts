@@ -35,7 +35,7 @@ export async function alertScene(ctx: TestContext, opts: { nodeName?: string; ho
 }
 
 /** Silence check as the scheduler runs it, with a check interval long enough that skipped minutes never look like Parapet was down. */
-export const silenceCheck = (ctx: TestContext) => runSilenceCheck(ctx.sequelize, ctx.config.now(), 1_000_000_000);
+export const silenceCheck = (ctx: TestContext) => runSilenceCheck(ctx.sequelize, ctx.config, ctx.config.now(), 1_000_000_000);
 export const sendOutbox = (ctx: TestContext) => runOutboxSender(ctx.sequelize, ctx.config);
 
 export async function outboxRows(ctx: TestContext, nodeId: number) {
