@@ -1,4 +1,5 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
+import { isTimeZone, localDate as zonedDate } from '../../shared/time/monthRange';
 import type { Config } from '../config';
 import { localMinutes } from '../mail/quietHours';
 import { type ChangeLine, degradedDigest, type DigestLine, hourlyDigest, selfCheck } from '../mail/templates/digests';
@@ -8,14 +9,8 @@ import { enqueue } from './outbox';
 const networkTimeZone = async (sequelize: Sequelize, transaction: Transaction) =>
   (await sequelize.query<{ tz: string }>('SELECT time_zone AS tz FROM network_settings WHERE id = 1', { type: QueryTypes.SELECT, transaction }))[0]?.tz ?? 'UTC';
 
-/** The local calendar date (YYYY-MM-DD) in the network's time zone. */
-function localDate(at: Date, timeZone: string) {
-  try {
-    return new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(at);
-  } catch {
-    return at.toISOString().slice(0, 10);
-  }
-}
+/** The local calendar date (YYYY-MM-DD) in the network's time zone (an unknown zone reads as UTC). */
+const localDate = (at: Date, timeZone: string) => zonedDate(at, isTimeZone(timeZone) ? timeZone : 'UTC');
 
 /** One `self-check` per admin (not one per node) when the health check finds it had stopped running. */
 export async function writeSelfCheck(sequelize: Sequelize, config: Config, gapMs: number, now: Date, transaction: Transaction) {
