@@ -1,7 +1,7 @@
 import { Router } from 'express';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { z } from 'zod';
-import { WINDOWS_S, availabilityPct } from '../../shared/health/availability';
+import { availabilityPct, observedInWindow, WINDOWS_S } from '../../shared/health/availability';
 import { idParamsSchema } from '../../shared/schemas/common';
 import type { Config } from '../config';
 import { actorOf } from '../middlewares/requireUser';
@@ -36,7 +36,7 @@ export function nodeTelemetryRoutes(config: Config, sequelize: Sequelize) {
       { bind: [node.id, new Date(now.getTime() - WINDOWS_S.d90 * 1000)], type: QueryTypes.SELECT },
     );
     const intervals = outages.map((o) => ({ start: new Date(o.start), end: o.end ? new Date(o.end) : null }));
-    const pct = (w: keyof typeof WINDOWS_S) => availabilityPct(intervals, WINDOWS_S[w], now, node.firstSeenAt);
+    const pct = (w: keyof typeof WINDOWS_S) => availabilityPct(observedInWindow(intervals, WINDOWS_S[w], now, node.firstSeenAt));
     res.json({ data: { h24: pct('h24'), d7: pct('d7'), d30: pct('d30'), d90: pct('d90') } });
   });
 

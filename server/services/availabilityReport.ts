@@ -1,6 +1,5 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
-import type { Interval } from '../../shared/health/availability';
-import { observedBetween, pctOf, pooledPct, type ObservedTime } from '../../shared/health/pooledAvailability';
+import { availabilityPct, type Interval, observedBetween, type ObservedTime } from '../../shared/health/availability';
 import type { AvailabilityReportDto, AvailabilityRow } from '../../shared/schemas/report';
 import { monthRange, zonedToUtc } from '../../shared/time/monthRange';
 import { Invalid } from '../errors';
@@ -10,11 +9,10 @@ interface NodeRow { id: number; name: string; neighbourhoodId: number; neighbour
 interface OutageRow { id: number; nodeId: number; startedAt: Date; endedAt: Date | null; acknowledgedAt: Date | null }
 
 const seconds = (a: Date, b: Date) => Math.round((b.getTime() - a.getTime()) / 1000);
-const round2 = (v: number | null) => (v === null ? null : Math.round(v * 100) / 100);
 const row = (parts: ObservedTime[], outageCount: number): AvailabilityRow => {
   const observedS = parts.reduce((s, p) => s + p.observedS, 0);
   const downS = parts.reduce((s, p) => s + p.downS, 0);
-  return { availabilityPct: round2(pooledPct(parts)), observedS: Math.round(observedS), downS: Math.round(downS), outageCount };
+  return { availabilityPct: availabilityPct(parts), observedS: Math.round(observedS), downS: Math.round(downS), outageCount };
 };
 
 /** Availability for one calendar month in the network's time zone, over the nodes an operator looks after. */
@@ -54,7 +52,7 @@ export async function availabilityReport(sequelize: Sequelize, actor: Actor, mon
       const members = nodeRows.filter((r) => r.n.neighbourhoodId === id);
       return { id, name: members[0].n.neighbourhood, ...row(members.map((m) => m.t), members.reduce((s, m) => s + m.count, 0)) };
     }),
-    nodes: nodeRows.map(({ n, t, count }) => ({ id: n.id, name: n.name, neighbourhoodId: n.neighbourhoodId, neighbourhood: n.neighbourhood, ...row([t], count), availabilityPct: round2(pctOf(t)) })),
+    nodes: nodeRows.map(({ n, t, count }) => ({ id: n.id, name: n.name, neighbourhoodId: n.neighbourhoodId, neighbourhood: n.neighbourhood, ...row([t], count) })),
     outages: outages.map((o) => {
       const start = new Date(o.startedAt);
       const end = o.endedAt ? new Date(o.endedAt) : null;
@@ -67,7 +65,7 @@ export async function availabilityReport(sequelize: Sequelize, actor: Actor, mon
         downInMonthS: Math.round(observedBetween([{ start, end }], range.start, to, seen(node)).downS),
       };
     }),
-    days: localDays(month, timeZone, to).map(({ date, start, end }) => ({ date, availabilityPct: round2(pooledPct(nodes.map((n) => observed(n, start, end)))) })),
+    days: localDays(month, timeZone, to).map(({ date, start, end }) => ({ date, availabilityPct: availabilityPct(nodes.map((n) => observed(n, start, end))) })),
   };
 }
 

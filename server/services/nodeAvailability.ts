@@ -1,13 +1,10 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
-import { WINDOWS_S } from '../../shared/health/availability';
-import { observedBetween, pooledPct, pctOf, type ObservedTime } from '../../shared/health/pooledAvailability';
+import { availabilityPct, type ObservedTime, observedInWindow, WINDOWS_S } from '../../shared/health/availability';
 
 export interface AvailabilityPair {
   h24Pct: number | null;
   d30Pct: number | null;
 }
-
-const round2 = (v: number | null) => (v === null ? null : Math.round(v * 100) / 100);
 
 /** Availability over 24 h and 30 d for each node and pooled over all of them, from the outages (one query). */
 export async function availabilityOf(sequelize: Sequelize, nodes: { id: number; firstSeenAt: Date | null }[], now: Date) {
@@ -24,13 +21,13 @@ export async function availabilityOf(sequelize: Sequelize, nodes: { id: number; 
     new Map<number, ObservedTime>(
       nodes.map((n) => {
         const intervals = outages.filter((o) => o.nodeId === n.id).map((o) => ({ start: new Date(o.start), end: o.end ? new Date(o.end) : null }));
-        return [n.id, observedBetween(intervals, new Date(now.getTime() - windowS * 1000), now, n.firstSeenAt ? new Date(n.firstSeenAt) : null)];
+        return [n.id, observedInWindow(intervals, windowS, now, n.firstSeenAt ? new Date(n.firstSeenAt) : null)];
       }),
     );
   const h24 = parts(WINDOWS_S.h24);
   const d30 = parts(WINDOWS_S.d30);
   return {
-    byNode: (id: number): AvailabilityPair => ({ h24Pct: round2(pctOf(h24.get(id)!)), d30Pct: round2(pctOf(d30.get(id)!)) }),
-    pooled: { h24Pct: round2(pooledPct([...h24.values()])), d30Pct: round2(pooledPct([...d30.values()])) } as AvailabilityPair,
+    byNode: (id: number): AvailabilityPair => ({ h24Pct: availabilityPct(h24.get(id)!), d30Pct: availabilityPct(d30.get(id)!) }),
+    pooled: { h24Pct: availabilityPct([...h24.values()]), d30Pct: availabilityPct([...d30.values()]) } as AvailabilityPair,
   };
 }

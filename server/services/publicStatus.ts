@@ -1,6 +1,5 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
-import { WINDOWS_S } from '../../shared/health/availability';
-import { observedBetween, pooledPct } from '../../shared/health/pooledAvailability';
+import { availabilityPct, observedInWindow, WINDOWS_S } from '../../shared/health/availability';
 import { countStates, DOWN_STATES, outageSentence, statusSentence } from '../../shared/health/publicWords';
 import type { NodeState } from '../../shared/enums';
 import type { PublicStatusDto } from '../../shared/schemas/publicStatus';
@@ -47,12 +46,12 @@ export async function computePublicStatus(sequelize: Sequelize, now: Date): Prom
         .sort((a, b) => a.startedAt.getTime() - b.startedAt.getTime());
       const counts = countStates(members.map((n) => n.state));
       const pct = (windowS: number) =>
-        pooledPct(members.map((n) => observedBetween(intervalsOf(n.id), new Date(now.getTime() - windowS * 1000), now, seen(n))));
+        availabilityPct(members.map((n) => observedInWindow(intervalsOf(n.id), windowS, now, seen(n))));
       return {
         name: h.name,
         counts,
         sentence: statusSentence(counts, open[0] ? localClock(open[0].startedAt, timeZone, now) : null),
-        availability: { h24Pct: round2(pct(WINDOWS_S.h24)), d30Pct: round2(pct(WINDOWS_S.d30)) },
+        availability: { h24Pct: pct(WINDOWS_S.h24), d30Pct: pct(WINDOWS_S.d30) },
         openOutages: open.map(({ node, startedAt }) => {
           const state = node.state as 'offline' | 'stranded';
           const sinceClock = localClock(startedAt, timeZone, now);
@@ -62,8 +61,6 @@ export async function computePublicStatus(sequelize: Sequelize, now: Date): Prom
     }),
   };
 }
-
-const round2 = (v: number | null) => (v === null ? null : Math.round(v * 100) / 100);
 
 /**
  * One computation shared by everyone for `ttlMs`: requests that arrive while it runs wait for the

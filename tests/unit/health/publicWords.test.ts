@@ -1,5 +1,4 @@
 import { describe, expect, it } from 'vitest';
-import { pooledPct, observedBetween } from '../../../shared/health/pooledAvailability';
 import { countStates, outageSentence, statusSentence } from '../../../shared/health/publicWords';
 
 describe('public status words', () => {
@@ -24,21 +23,5 @@ describe('public status words', () => {
       'The node that carries the internet uplink in Old Quay has been down since 9 Mar, 08:00.',
     );
     expect(outageSentence({ neighbourhood: 'Millbrook', state: 'stranded', isUplink: false, sinceClock: '14:20' })).toMatch(/cut off since 14:20, because a link further up/);
-  });
-});
-
-describe('pooled availability (time up ÷ time observed, REFERENCES.md)', () => {
-  const from = new Date('2026-03-01T00:00:00Z');
-  const to = new Date('2026-03-31T00:00:00Z'); // 30 days
-  it('gives 99.9 % for 43.2 minutes down in 30 days (Google SRE book, Availability Table)', () => {
-    const t = observedBetween([{ start: new Date('2026-03-05T00:00:00Z'), end: new Date('2026-03-05T00:43:12Z') }], from, to, new Date('2026-01-01T00:00:00Z'));
-    expect(pooledPct([t])).toBeCloseTo(99.9, 9);
-  });
-  it('weighs each node by the time it was observed, and counts nothing before first seen', () => {
-    const always = observedBetween([], from, to, new Date('2026-01-01T00:00:00Z'));
-    const late = observedBetween([{ start: new Date('2026-03-30T00:00:00Z'), end: null }], from, to, new Date('2026-03-29T00:00:00Z'));
-    expect(late).toEqual({ observedS: 2 * 86_400, downS: 86_400 });
-    expect(pooledPct([always, late])).toBeCloseTo((100 * (32 - 1)) / 32, 9);
-    expect(pooledPct([observedBetween([], from, to, null)])).toBeNull();
   });
 });
