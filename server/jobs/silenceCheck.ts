@@ -18,7 +18,9 @@ import { asLeader } from './leader';
  * and gives every node one full offline window of fresh reports before judging it. An outage of
  * the database (`ownOutage`, seen by this process) counts the same way: nodes could not report.
  */
-export async function runSilenceCheck(sequelize: Sequelize, config: Config, now: Date, checkIntervalMs: number, rootCauseWindowS = 120, ownOutage: { from: Date; to: Date } | null = null) {
+export async function runSilenceCheck(
+  sequelize: Sequelize, config: Config, now: Date, checkIntervalMs: number, rootCauseWindowS = 120, ownOutage: { from: Date; to: Date } | null = null,
+) {
   const network = await thresholdsFor(sequelize, null);
   const offlineAfterIntervals = network.offlineAfterIntervals ?? DEFAULT_THRESHOLDS.offlineAfterIntervals;
   const result = await asLeader(sequelize, 'silence-check', async (transaction) => {

@@ -83,7 +83,8 @@ async function writeFor(sequelize: Sequelize, config: Config, mail: OutageMail, 
   const stateNow = kind === 'node-online' ? 'back online' : 'offline';
   const rendered =
     flap.verdict === 'summary'
-      ? flapSummary({ nodeName: ctx.nodeName, neighbourhoodName: ctx.neighbourhoodName, nodeUrl: nodeUrl(config, ctx.nodeId), changes: flap.changes, stateNow }, footer)
+      ? flapSummary({ nodeName: ctx.nodeName, neighbourhoodName: ctx.neighbourhoodName, nodeUrl: nodeUrl(config, ctx.nodeId), changes: flap.changes, stateNow },
+        footer)
       : r.audience === 'host'
         ? kind === 'node-online'
           ? hostOnline({ ...hostFacts(ctx, r, since), downForS, until }, footer)
@@ -94,7 +95,8 @@ async function writeFor(sequelize: Sequelize, config: Config, mail: OutageMail, 
   const dedupeKey = flap.verdict === 'summary' ? `flap:${ctx.nodeId}:${r.userId}:${Math.floor(now.getTime() / 3_600_000)}` : mail.dedupeKey;
   const notBefore = r.audience === 'host' ? quietUntil(now, ctx.timeZone, r.quietStart, r.quietEnd) : now;
   return enqueue(sequelize, {
-    kind, userId: r.userId, address: r.email, name: r.name, nodeId: ctx.nodeId, outageId: outage.id, dedupeKey, rendered, unsubscribeUrl: footer.unsubscribeUrl, notBefore,
+    kind, userId: r.userId, address: r.email, name: r.name, nodeId: ctx.nodeId, outageId: outage.id,
+    dedupeKey, rendered, unsubscribeUrl: footer.unsubscribeUrl, notBefore,
   }, now, transaction);
 }
 

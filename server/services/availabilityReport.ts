@@ -52,7 +52,9 @@ export async function availabilityReport(sequelize: Sequelize, actor: Actor, mon
       const members = nodeRows.filter((r) => r.n.neighbourhoodId === id);
       return { id, name: members[0].n.neighbourhood, ...row(members.map((m) => m.t), members.reduce((s, m) => s + m.count, 0)) };
     }),
-    nodes: nodeRows.map(({ n, t, count }) => ({ id: n.id, name: n.name, neighbourhoodId: n.neighbourhoodId, neighbourhood: n.neighbourhood, ...row([t], count) })),
+    nodes: nodeRows.map(({ n, t, count }) => ({
+      id: n.id, name: n.name, neighbourhoodId: n.neighbourhoodId, neighbourhood: n.neighbourhood, ...row([t], count),
+    })),
     outages: outages.map((o) => {
       const start = new Date(o.startedAt);
       const end = o.endedAt ? new Date(o.endedAt) : null;

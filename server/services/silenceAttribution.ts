@@ -44,7 +44,9 @@ async function openOutageOf(sequelize: Sequelize, nodeId: number, transaction: T
  * root become stranded and join its outage's blast radius; a cut that holds an uplink is one
  * partition notice to admins. The roots' outage mail comes after, from the check's writeDueOfflineAlerts.
  */
-export async function judgeSilentNodes(sequelize: Sequelize, config: Config, silent: SilentNode[], now: Date, windowS: number, offlineAfterIntervals: number, transaction: Transaction) {
+export async function judgeSilentNodes(
+  sequelize: Sequelize, config: Config, silent: SilentNode[], now: Date, windowS: number, offlineAfterIntervals: number, transaction: Transaction,
+) {
   const events: Events[] = [];
   if (!silent.length) return events;
   const a = await attribute(sequelize, silent, now, windowS, offlineAfterIntervals, transaction);
@@ -54,7 +56,8 @@ export async function judgeSilentNodes(sequelize: Sequelize, config: Config, sil
   for (const id of a.roots) {
     const node = byId.get(id)!;
     await sequelize.query(`UPDATE nodes SET state = 'offline', state_since = $2, health_streak = 0, health_reason = 'missed its reports' WHERE id = $1`, { bind: [id, now], transaction });
-    const ev = await recordTransition(sequelize, config, { ...node, from: node.state, to: 'offline', reason: 'missed its reports', at: now, outageStartedAt: new Date(node.outageStartedAt) }, transaction);
+    const move = { ...node, from: node.state, to: 'offline' as const, reason: 'missed its reports', at: now, outageStartedAt: new Date(node.outageStartedAt) };
+    const ev = await recordTransition(sequelize, config, move, transaction);
     events.push(ev);
     const outageId = ev.outage?.outageId ?? (await openOutageOf(sequelize, id, transaction));
     if (outageId) outageOfRoot.set(id, outageId);

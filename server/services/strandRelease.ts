@@ -43,7 +43,8 @@ export async function releaseStranded(sequelize: Sequelize, config: Config, now:
     const reason = 'still silent after the network upstream came back';
     await sequelize.query(`UPDATE nodes SET state = 'offline', state_since = $2, health_streak = 0, health_reason = $3 WHERE id = $1`, { bind: [d.nodeId, now, reason], transaction });
     await sequelize.query('UPDATE stranded_nodes SET ended_at = $2 WHERE id = $1', { bind: [d.rowId, now], transaction });
-    events.push(await recordTransition(sequelize, config, { ...d, from: 'stranded', to: 'offline', reason, at: now, outageStartedAt: new Date(d.releasedAt) }, transaction));
+    const move = { ...d, from: 'stranded' as const, to: 'offline' as const, reason, at: now, outageStartedAt: new Date(d.releasedAt) };
+    events.push(await recordTransition(sequelize, config, move, transaction));
   }
   return events;
 }

@@ -25,7 +25,8 @@ describe('heartbeat storage upkeep', () => {
     expect(await partitionsOf(ctx, 'heartbeat_radios')).toEqual(expect.arrayContaining(['heartbeat_radios_p20310311']));
     const node = await buildNode();
     const token = await rotateToken(ctx.sequelize, node.id, now);
-    await ingestReports(ctx.sequelize, ctx.config, (await nodeForToken(ctx.sequelize, token))!, [{ seq: 1, sentAt: now.toISOString(), radios: [{ iface: 'wlan0', signalDbm: -60 }] }], now);
+    const reports = [{ seq: 1, sentAt: now.toISOString(), radios: [{ iface: 'wlan0', signalDbm: -60 }] }];
+    await ingestReports(ctx.sequelize, ctx.config, (await nodeForToken(ctx.sequelize, token))!, reports, now);
     const [row] = await ctx.sequelize.query<{ part: string }>(`SELECT tableoid::regclass::text AS part FROM heartbeats WHERE node_id = $1`, { bind: [node.id], type: QueryTypes.SELECT });
     expect(row.part).toBe('heartbeats_p20310310');
     // Running it again changes nothing.
@@ -43,7 +44,8 @@ describe('heartbeat storage upkeep', () => {
     const signals = [-60, -62, -64, -70];
     for (const [i, signalDbm] of signals.entries()) {
       const at = new Date(start.getTime() + i * 60_000);
-      await ingestReports(ctx.sequelize, ctx.config, { ...tokenNode, lastSeq: i ? String(i) : null }, [{ seq: i + 1, sentAt: at.toISOString(), throughputMbps: 10 * (i + 1), radios: [{ iface: 'wlan0', signalDbm, noiseDbm: -95 }] }], at);
+      const reports = [{ seq: i + 1, sentAt: at.toISOString(), throughputMbps: 10 * (i + 1), radios: [{ iface: 'wlan0', signalDbm, noiseDbm: -95 }] }];
+      await ingestReports(ctx.sequelize, ctx.config, { ...tokenNode, lastSeq: i ? String(i) : null }, reports, at);
     }
     await rollUp(ctx.sequelize, new Date('2031-04-01T10:06:00Z'), 300);
     const [b] = await ctx.sequelize.query<Record<string, number>>(
