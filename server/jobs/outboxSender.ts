@@ -4,9 +4,6 @@ import type { Config } from '../config';
 import { createMailer, type OutgoingRow, toMailOptions } from '../mail/transport';
 import { asLeader } from './leader';
 
-/** Exponential backoff: base, 2×base, 4×base… capped at six hours (common practice, no source). */
-export const backoffMs = (baseMs: number, attempt: number, capMs = 6 * 3_600_000) => Math.min(baseMs * 2 ** Math.max(0, attempt - 1), capMs);
-
 /** Mail about a node's outage is time-critical: short retry ceiling, and tried for a day before giving up. */
 export const OUTAGE_KINDS = ['node-offline', 'node-online', 'node-reminder', 'upstream-notice'] as const;
 const OUTAGE_MAIL_GIVE_UP_MS = 24 * 3_600_000;
@@ -19,7 +16,8 @@ interface Claimed extends OutgoingRow {
 
 /**
  * Claims due messages and pushes the retry time ahead in one committed statement, so no other
- * sender (or a crash and restart) picks the same row up before its backoff has passed.
+ * sender (or a crash and restart) picks the same row up before its backoff has passed. The backoff is
+ * exponential: base, 2×base, 4×base…, capped at six hours, or at the outage-mail ceiling (common practice, no source).
  */
 async function claim(sequelize: Sequelize, config: Config, now: Date): Promise<Claimed[]> {
   const rows = await sequelize.query<Claimed & { id: string }>(

@@ -1,3 +1,4 @@
+import ipaddr from 'ipaddr.js';
 import { PlanningError } from '../radio/errors';
 
 export interface Cidr {
@@ -15,22 +16,21 @@ export interface SubnetDescription {
   usableHosts: number;
 }
 
-const OCTET = '(?:0|[1-9]\\d{0,2})';
-// Four decimal parts, no leading zeros: "010.1.1.1" is octal to some parsers and decimal to others, so it is refused.
-const IPV4 = new RegExp(`^${OCTET}\\.${OCTET}\\.${OCTET}\\.${OCTET}$`);
-
 const invalid = (message: string) => new PlanningError(400, 'invalid_cidr', message);
 
-/** Strict dotted-quad IPv4 → unsigned integer, or null. */
+/**
+ * Strict dotted-quad IPv4 (RFC 791 §3.2 addresses written as four decimal octets) → unsigned integer, or null.
+ * ipaddr.js parses; its four-part-decimal check refuses "010.1.1.1" (octal to some parsers, decimal to others) and short forms.
+ */
 export function parseIpv4(text: string): number | null {
-  if (!IPV4.test(text)) return null;
-  const parts = text.split('.').map(Number);
-  if (parts.some((p) => p > 255)) return null;
-  return ((parts[0] << 24) >>> 0) + (parts[1] << 16) + (parts[2] << 8) + parts[3];
+  if (typeof text !== 'string' || !ipaddr.IPv4.isValidFourPartDecimal(text)) return null;
+  return toUint32(ipaddr.IPv4.parse(text));
 }
 
+const toUint32 = (address: ipaddr.IPv4) => address.toByteArray().reduce((n, octet) => n * 256 + octet, 0);
+
 export function formatIpv4(address: number): string {
-  return [24, 16, 8, 0].map((shift) => (address >>> shift) & 255).join('.');
+  return ipaddr.fromByteArray([24, 16, 8, 0].map((shift) => (address >>> shift) & 255)).toString();
 }
 
 /** Number of addresses in a /n block (RFC 4632: 2^(32−n)). */
@@ -39,7 +39,7 @@ export function blockSize(prefixLength: number): number {
 }
 
 export function netmaskOf(prefixLength: number): number {
-  return prefixLength === 0 ? 0 : (0xffffffff << (32 - prefixLength)) >>> 0;
+  return toUint32(ipaddr.IPv4.subnetMaskFromPrefixLength(prefixLength));
 }
 
 /** Parse "a.b.c.d/n" strictly; host bits set is an error that names the network meant. */

@@ -1,5 +1,4 @@
 export * from './cidr';
-export * from './dhcp';
 export * from './addressPlanChecks';
 export * from './ipv6';
 export * from './poolPlan';

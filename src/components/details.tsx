@@ -13,15 +13,3 @@ export function Details({ items }: { items: { label: string; value: ReactNode }[
     </dl>
   );
 }
-
-/** A part of a page that later work fills; says so plainly instead of showing made-up figures. */
-export function NotYetReporting({ title, children }: { title: string; children: ReactNode }) {
-  return (
-    <div className="rounded-lg border border-dashed border-line bg-surface p-4">
-      <p className="text-sm font-medium">
-        {title} <span className="ml-1 rounded bg-sunken px-1.5 py-0.5 text-xs font-normal text-muted">not yet reporting</span>
-      </p>
-      <p className="mt-1 text-sm text-muted">{children}</p>
-    </div>
-  );
-}

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import ipaddr from 'ipaddr.js';
 import { Netmask } from 'netmask';
-import { allocateSubnets, describeSubnet, formatCidr, parseCidr, parseIpv4, planAddresses, usableHosts } from '../../../shared/addressing/cidr';
+import { allocateSubnets, describeSubnet, formatCidr, formatIpv4, netmaskOf, parseCidr, parseIpv4, planAddresses, usableHosts } from '../../../shared/addressing/cidr';
 import { PlanningError } from '../../../shared/radio/errors';
 
 const planningError = (fn: () => unknown): PlanningError => {
@@ -22,11 +22,29 @@ describe('strict IPv4 parsing', () => {
     }
   });
   it('refuses leading zeros, short forms and out-of-range parts', () => {
-    // ipaddr.js would read 010.1.1.1 as octal 8.1.1.1, which is why it is not used to validate.
+    // ipaddr.parse alone reads 010.1.1.1 as octal 8.1.1.1, which is why parseIpv4 checks four decimal parts first.
     expect(ipaddr.parse('010.1.1.1').toString()).toBe('8.1.1.1');
+    expect(ipaddr.IPv4.isValidFourPartDecimal('010.1.1.1')).toBe(false); // outside check
     for (const text of ['010.1.1.1', '10.01.1.1', '10.1.1', '10.1.1.1.1', '256.1.1.1', '10.1.1.-1', ' 10.1.1.1', '0x0a.1.1.1', '1e1.1.1.1']) {
       expect(parseIpv4(text)).toBeNull();
     }
+  });
+});
+
+describe('formatIpv4 and the netmask', () => {
+  it('round-trips through the integer form and agrees with netmask', () => {
+    for (const text of ['0.0.0.0', '10.0.0.1', '172.31.255.254', '192.168.100.7', '255.255.255.255']) {
+      const n = parseIpv4(text)!;
+      expect(formatIpv4(n)).toBe(text);
+      expect(n).toBe(new Netmask(`${text}/32`).netLong); // outside check (netmask)
+    }
+  });
+  it('gives the RFC 4632 masks', () => {
+    expect(formatIpv4(netmaskOf(0))).toBe('0.0.0.0'); // RFC 4632 §3.1: /0 is the whole space
+    expect(formatIpv4(netmaskOf(12))).toBe('255.240.0.0'); // RFC 1918 §3: 172.16/12
+    expect(formatIpv4(netmaskOf(10))).toBe('255.192.0.0'); // RFC 6598 §7: 100.64/10
+    expect(formatIpv4(netmaskOf(31))).toBe('255.255.255.254'); // RFC 3021 §2
+    expect(formatIpv4(netmaskOf(32))).toBe('255.255.255.255');
   });
 });
 
