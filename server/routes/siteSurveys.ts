@@ -1,7 +1,7 @@
 import path from 'node:path';
 import { Router, type NextFunction, type Request, type Response } from 'express';
 import multer from 'multer';
-import { QueryTypes, type Sequelize } from 'sequelize';
+import type { Sequelize } from 'sequelize';
 import { parseSurveyCsv, SURVEY_MAX_BYTES } from '../../shared/radio/surveyCsv';
 import { idParamsSchema } from '../../shared/schemas/common';
 import { ApiError, Invalid } from '../errors';
@@ -10,8 +10,9 @@ import { validate } from '../middlewares/validate';
 import { mayManage } from '../policies/actor';
 import { authorize } from '../policies/authorize';
 import { mayPlan } from '../policies/planning';
-import { iso } from '../presenters/common';
+import { presentSiteSurvey } from '../presenters/planning';
 import { readableNode } from '../services/references';
+import { saveSurvey, surveysOf } from '../services/siteSurveys';
 
 const upload = multer({ storage: multer.memoryStorage(), limits: { fileSize: SURVEY_MAX_BYTES, files: 1, fields: 5, parts: 6 } });
 const LAYOUT = 'a CSV with the header ssid,channel,channelWidthMHz,signalDbm (band optional)';
@@ -45,10 +46,6 @@ function asCsvText(buffer: Buffer): string {
   }
 }
 
-interface SurveyRowDb { id: number; nodeId: number; fileName: string | null; rowCount: number; rows: unknown[]; createdAt: Date; uploadedBy: number | null }
-const present = (s: SurveyRowDb) => ({ id: s.id, nodeId: s.nodeId, fileName: s.fileName, rowCount: s.rowCount, rows: s.rows, uploadedBy: s.uploadedBy, createdAt: iso(s.createdAt) });
-const COLS = 'id, node_id AS "nodeId", file_name AS "fileName", row_count AS "rowCount", rows, uploaded_by AS "uploadedBy", created_at AS "createdAt"';
-
 /** Site surveys (scans of nearby networks) per node, in Parapet's CSV layout (shared/radio/surveyCsv.ts). */
 export function siteSurveyRoutes(sequelize: Sequelize) {
   const router = Router({ mergeParams: true });
@@ -57,8 +54,7 @@ export function siteSurveyRoutes(sequelize: Sequelize) {
     const actor = actorOf(req);
     const node = await readableNode(actor, res.locals.params.id);
     authorize(mayPlan(actor), 'Site surveys are for operators and admins.');
-    const rows = await sequelize.query<SurveyRowDb>(`SELECT ${COLS} FROM site_surveys WHERE node_id = $1 ORDER BY created_at DESC, id DESC LIMIT 20`, { bind: [node.id], type: QueryTypes.SELECT });
-    res.json({ data: rows.map(present) });
+    res.json({ data: (await surveysOf(sequelize, node.id)).map(presentSiteSurvey) });
   });
 
   router.post('/', validate('params', idParamsSchema), async (req, res, next) => {
@@ -77,11 +73,8 @@ export function siteSurveyRoutes(sequelize: Sequelize) {
       const first = details[0]?.message ?? 'the file has a header but no rows';
       throw Invalid(`No row of the survey could be used (${first}). Fix the file and upload it again.`, details);
     }
-    const [row] = await sequelize.query<SurveyRowDb>(
-      `INSERT INTO site_surveys (node_id, file_name, uploaded_by, row_count, rows) VALUES ($1, $2, $3, $4, $5::jsonb) RETURNING ${COLS}`,
-      { bind: [res.locals.node.id, safeFileName(req.file.originalname), actor.id, parsed.rows.length, JSON.stringify(parsed.rows)], type: QueryTypes.SELECT },
-    );
-    res.status(201).json({ data: present(row), rejectedRows });
+    const saved = await saveSurvey(sequelize, { nodeId: res.locals.node.id, fileName: safeFileName(req.file.originalname), uploadedBy: actor.id, rows: parsed.rows });
+    res.status(201).json({ data: presentSiteSurvey(saved), rejectedRows });
   });
 
   return router;

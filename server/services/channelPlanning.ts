@@ -1,10 +1,16 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { Band, ChannelWidthMHz } from '../../shared/enums';
 import { congestionMwByChannel, recommendChannels, type ChannelAssignment, type ObservedNetwork, type RadioOnAir, type RadioToPlan } from '../../shared/radio/channelPlan';
-import { allowedChannelNumbers, type ChannelRegion } from '../../shared/radio/channels';
+import { allowedChannelNumbers, validChannels, type ChannelRegion } from '../../shared/radio/channels';
+import type { ChannelApplyBody } from '../../shared/schemas/planningRecords';
+import { Invalid, NotFound } from '../errors';
+import { Node, Radio } from '../models';
+import { authorize } from '../policies/authorize';
+import { nodeScope } from '../policies/node';
+import { recordChanges, type ChangeRecord } from './changeHistory';
 import { eirpDbm } from '../../shared/radio/linkBudget';
 import { mwToDbm } from '../../shared/radio/units';
-import { type Actor, mayManage } from '../policies/actor';
+import { type Actor, isAdmin, mayManage } from '../policies/actor';
 
 interface RadioRow { id: number; nodeId: number; nodeName: string; neighbourhoodId: number; iface: string; band: Band; channel: number; channelWidthMHz: ChannelWidthMHz; txPowerDbm: number; antennaGainDbi: number; cableLossDb: number; lat: number; lon: number }
 interface SurveyRow { nodeId: number; surveyId: number; createdAt: Date; rows: (ObservedNetwork & { band: Band })[] }
@@ -90,4 +96,52 @@ export async function channelPlanFor(sequelize: Sequelize, actor: Actor, region:
     return { nodeId, nodeName: planned.find((r) => r.nodeId === nodeId)!.nodeName, surveyId: s.surveyId, surveyedAt: new Date(s.createdAt).toISOString(), '2.4': byBand('2.4'), '5': byBand('5') };
   });
   return { region, radios, skipped, congestion };
+}
+
+const CHANNEL_PLAN_REASON = 'channel plan applied';
+
+/** A block is allowed when every 20 MHz channel it spans is allowed in the region (one rule: validChannels); 14 is 802.11b only. */
+function fitsRegion(region: ChannelRegion, band: Band, channel: number, widthMHz: ChannelWidthMHz): boolean {
+  return !(band === '2.4' && channel === 14) && validChannels(band, widthMHz, region).includes(channel);
+}
+
+/** Applies chosen channels in one transaction: every radio readable and managed by the caller, every channel allowed, each change recorded. */
+export async function applyChannelPlan(sequelize: Sequelize, actor: Actor, region: ChannelRegion, assignments: ChannelApplyBody['assignments']) {
+  return sequelize.transaction(async (transaction) => {
+    const radios = await Radio.findAll({
+      where: { id: assignments.map((a) => a.radioId) },
+      include: [{ model: Node, as: 'node', where: nodeScope(actor), required: true }],
+      lock: { level: transaction.LOCK.UPDATE, of: Radio }, transaction,
+    });
+    const out: ChangeRecord[] = [];
+    for (const [i, a] of assignments.entries()) {
+      const r = radios.find((x) => x.id === a.radioId);
+      if (!r) throw NotFound(`Radio ${a.radioId}`);
+      authorize(mayManage(actor, r.node!.neighbourhoodId), `Only admins and the operators of its neighbourhood change radio ${r.id}.`);
+      if (!fitsRegion(region, r.band, a.channel, r.channelWidthMHz as ChannelWidthMHz)) {
+        throw Invalid(`Channel ${a.channel} at ${r.channelWidthMHz} MHz is not allowed on ${r.band} GHz in ${region}; pick one the plan recommends.`,
+          [{ path: `assignments.${i}.channel`, message: `assignments.${i}.channel ${a.channel} is not allowed for this radio in ${region}` }]);
+      }
+      if (r.channel === a.channel) continue;
+      out.push({ tableName: 'radios', recordId: r.id, action: 'update', changedBy: actor.id, reason: CHANNEL_PLAN_REASON, before: { channel: r.channel }, after: { channel: a.channel } });
+      await r.update({ channel: a.channel }, { transaction });
+    }
+    await recordChanges(sequelize, out, transaction);
+    return out;
+  });
+}
+
+
+export interface ChannelPlanHistoryRow { id: string; radioId: number; before: { channel: number }; after: { channel: number }; changedAt: Date; changedBy: string | null }
+
+/** The last 50 applied channel changes on radios the caller plans (mayManage, written in SQL). */
+export async function channelPlanHistory(sequelize: Sequelize, actor: Actor): Promise<ChannelPlanHistoryRow[]> {
+  return sequelize.query<ChannelPlanHistoryRow>(
+    `SELECT h.id, h.record_id::int AS "radioId", h.before, h.after, h.changed_at AS "changedAt", u.name AS "changedBy"
+       FROM change_history h LEFT JOIN users u ON u.id = h.changed_by
+       JOIN radios r ON r.id = h.record_id::int JOIN nodes n ON n.id = r.node_id
+      WHERE h.table_name = 'radios' AND h.reason = $3 AND ($1 OR n.neighbourhood_id = ANY($2::int[]))
+      ORDER BY h.changed_at DESC, h.id DESC LIMIT 50`,
+    { bind: [isAdmin(actor), actor.neighbourhoodIds, CHANNEL_PLAN_REASON], type: QueryTypes.SELECT },
+  );
 }
