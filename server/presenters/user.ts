@@ -1,3 +1,4 @@
+import type { MeDto } from '../../shared/schemas/account';
 import type { SessionUser } from '../../shared/schemas/session';
 import type { UserDto } from '../../shared/schemas/user';
 import type { User } from '../models';
@@ -23,3 +24,6 @@ export function presentUser(u: User, neighbourhoodIds: number[], actor: Actor): 
 }
 
 export const presentSessionUser = (a: Actor): SessionUser => ({ id: a.id, email: a.email, name: a.name, role: a.role });
+
+/** The caller's own account: contact details, no hash. */
+export const presentMe = (u: User): MeDto => ({ id: u.id, email: u.email, name: u.name, role: u.role, phone: u.phone ?? null });

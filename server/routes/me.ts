@@ -1,23 +1,17 @@
 import { Router } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import type { Sequelize } from 'sequelize';
-import { meUpdateSchema, passwordChangeSchema, type MeDto } from '../../shared/schemas/account';
-import { endSessionsOf } from '../auth/accountTokens';
-import { hashPassword, verifyPassword } from '../auth/passwords';
+import { meUpdateSchema, passwordChangeSchema } from '../../shared/schemas/account';
+import { verifyPassword } from '../auth/passwords';
 import type { Config } from '../config';
-import { Invalid, NotFound, TooMany } from '../errors';
+import { Invalid, TooMany } from '../errors';
 import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
-import { User } from '../models';
+import { presentMe } from '../presenters/user';
 import { assertPasswordFor } from '../services/accountLinks';
+import { changeOwnPassword, findPerson, updateOwnAccount } from '../services/people';
 
-const present = (u: User): MeDto => ({ id: u.id, email: u.email, name: u.name, role: u.role, phone: u.phone ?? null });
-
-async function me(id: number) {
-  const u = await User.findByPk(id);
-  if (!u) throw NotFound('Your account');
-  return u;
-}
+const me = (id: number) => findPerson(id, 'Your account');
 
 /** Each person's own account: contact details and password. The role is the admins' to change. */
 export function meRoutes(sequelize: Sequelize, config: Config) {
@@ -37,13 +31,13 @@ export function meRoutes(sequelize: Sequelize, config: Config) {
   });
 
   router.get('/', async (req, res) => {
-    res.json({ data: present(await me(actorOf(req).id)) });
+    res.json({ data: presentMe(await me(actorOf(req).id)) });
   });
 
   router.patch('/', validate('body', meUpdateSchema), async (req, res) => {
     const user = await me(actorOf(req).id);
-    await user.update(res.locals.body);
-    res.json({ data: present(user) });
+    await updateOwnAccount(user, res.locals.body);
+    res.json({ data: presentMe(user) });
   });
 
   router.post('/password', attempts, validate('body', passwordChangeSchema), async (req, res) => {
@@ -59,12 +53,7 @@ export function meRoutes(sequelize: Sequelize, config: Config) {
       throw Invalid('The new password is the same as the current one. Choose a different one.', [{ path: 'newPassword', message: 'newPassword must differ from the current password' }]);
     }
     assertPasswordFor(config, user, newPassword, 'newPassword');
-    await sequelize.transaction(async (transaction) => {
-      await user.update({ passwordHash: await hashPassword(newPassword) }, { transaction });
-      // Reset links from before the change stop working, and other devices are signed out; this one stays.
-      await sequelize.query(`UPDATE account_tokens SET used_at = now() WHERE user_id = $1 AND purpose = 'password-reset' AND used_at IS NULL`, { bind: [user.id], transaction });
-      await endSessionsOf(sequelize, user.id, req.sessionID, transaction);
-    });
+    await changeOwnPassword(sequelize, user, newPassword, req.sessionID);
     res.status(204).end();
   });
 

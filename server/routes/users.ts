@@ -1,32 +1,17 @@
 import { Router } from 'express';
 import { idParamsSchema } from '../../shared/schemas/common';
 import { userCreateSchema, userListQuerySchema, userUpdateSchema } from '../../shared/schemas/user';
-import { hashPassword } from '../auth/passwords';
 import type { Config } from '../config';
-import { Conflict, Invalid, NotFound } from '../errors';
+import { Invalid } from '../errors';
 import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
-import { OperatorAssignment, User } from '../models';
+import { User } from '../models';
 import { authorize } from '../policies/authorize';
 import { mayListPeople, userAbilities } from '../policies/user';
 import { presentUser } from '../presenters/user';
 import { assertPasswordFor } from '../services/accountLinks';
-import { uniquely } from '../services/conflicts';
-import { domainEvents } from '../services/events';
 import { filters, listPage } from '../services/listing';
-
-async function assignmentsOf(userIds: number[]) {
-  const rows = await OperatorAssignment.findAll({ where: { userId: userIds } });
-  return (id: number) => rows.filter((r) => r.userId === id).map((r) => r.neighbourhoodId).sort((a, b) => a - b);
-}
-
-async function findUser(id: number) {
-  const u = await User.findByPk(id);
-  if (!u) throw NotFound(`Person ${id}`);
-  return u;
-}
-
-const DUPLICATE_EMAIL = 'Someone already has that e-mail address.';
+import { assignmentsOf, createPerson, findPerson, removePerson, updatePerson } from '../services/people';
 
 /** People are the admins' to manage; other roles only ever see themselves through the session. */
 export function userRoutes(config: Config) {
@@ -55,40 +40,31 @@ export function userRoutes(config: Config) {
     const { password, ...rest } = res.locals.body;
     // The same checks as a password people choose themselves: not their own name or address, not the demo's.
     assertPasswordFor(config, rest, password, 'password');
-    if (await User.findOne({ where: { email: rest.email } })) throw Conflict(DUPLICATE_EMAIL, 'duplicate');
-    const passwordHash = await hashPassword(password);
-    // The unique index settles a race between two admins adding the same address.
-    const user = await uniquely(() => User.create({ ...rest, passwordHash }), DUPLICATE_EMAIL);
+    const user = await createPerson(rest, password);
     res.status(201).json({ data: presentUser(user, [], actor) });
   });
 
   router.get('/:id', validate('params', idParamsSchema), async (req, res) => {
-    const user = await findUser(res.locals.params.id);
+    const user = await findPerson(res.locals.params.id);
     res.json({ data: presentUser(user, (await assignmentsOf([user.id]))(user.id), actorOf(req)) });
   });
 
   router.patch('/:id', validate('params', idParamsSchema), validate('body', userUpdateSchema), async (req, res) => {
     const actor = actorOf(req);
-    const user = await findUser(res.locals.params.id);
+    const user = await findPerson(res.locals.params.id);
     const body = res.locals.body;
     if (user.id === actor.id && (body.role && body.role !== 'admin' || body.active === false)) {
       throw Invalid('You cannot remove your own admin role or deactivate yourself; ask another admin.');
     }
-    await User.sequelize!.transaction(async (transaction) => {
-      await user.update(body, { transaction });
-      // Assignments belong to operators only.
-      if (body.role && body.role !== 'operator') await OperatorAssignment.destroy({ where: { userId: user.id }, transaction });
-    });
-    if (body.role !== undefined || body.active !== undefined) domainEvents.emit('access-changed', { userIds: [user.id] });
+    await updatePerson(user, body);
     res.json({ data: presentUser(user, (await assignmentsOf([user.id]))(user.id), actor) });
   });
 
   router.delete('/:id', validate('params', idParamsSchema), async (req, res) => {
     const actor = actorOf(req);
-    const user = await findUser(res.locals.params.id);
+    const user = await findPerson(res.locals.params.id);
     authorize(userAbilities(actor, user).delete, 'You cannot remove your own account.');
-    await user.destroy();
-    domainEvents.emit('access-changed', { userIds: [user.id] });
+    await removePerson(user);
     res.status(204).end();
   });
 

@@ -55,3 +55,28 @@ export async function recordChanges(sequelize: Sequelize, changes: ChangeRecord[
   );
   return rows.map((r) => Number(r.id));
 }
+
+/** The tables whose changes the history page may show. */
+const AUDITED_TABLES = ['sites', 'nodes', 'radios', 'links', 'neighbourhoods', 'users', 'network_settings', 'node_address_plans'];
+
+export interface ChangeHistoryRow {
+  id: number; table: string; recordId: string; action: ChangeRecord['action']; changedAt: Date;
+  changedById: number | null; changedByName: string | null; reason: string | null;
+  before: Record<string, unknown> | null; after: Record<string, unknown> | null; total: string;
+}
+
+/** One page of the trail, newest first, optionally of one table or one record; the caller has checked who may read it. */
+export async function listChangeHistory(sequelize: Sequelize, q: { table?: string; recordId?: number; page: number; pageSize: number }) {
+  const rows = await sequelize.query<ChangeHistoryRow>(
+    `SELECT h.id::int AS id, h.table_name AS "table", h.record_id AS "recordId", h.action, h.changed_at AS "changedAt",
+            h.changed_by AS "changedById", u.name AS "changedByName", h.reason, h.before, h.after, count(*) OVER () AS total
+       FROM change_history h LEFT JOIN users u ON u.id = h.changed_by
+      WHERE h.table_name = ANY($1::text[]) AND ($2::text IS NULL OR h.table_name = $2) AND ($3::text IS NULL OR h.record_id = $3)
+      ORDER BY h.changed_at DESC, h.id DESC LIMIT $4 OFFSET $5`,
+    {
+      bind: [AUDITED_TABLES, q.table ?? null, q.recordId ? String(q.recordId) : null, q.pageSize, (q.page - 1) * q.pageSize],
+      type: QueryTypes.SELECT,
+    },
+  );
+  return { rows, total: Number(rows[0]?.total ?? 0) };
+}
