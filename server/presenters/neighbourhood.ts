@@ -1,4 +1,5 @@
-import type { NeighbourhoodDto } from '../../shared/schemas/neighbourhood';
+import type { NeighbourhoodDto, NeighbourhoodSummaryDto } from '../../shared/schemas/neighbourhood';
+import type { neighbourhoodSummary } from '../services/neighbourhoods';
 import type { Neighbourhood } from '../models';
 import type { Actor } from '../policies/actor';
 import { neighbourhoodAbilities } from '../policies/neighbourhood';
@@ -22,5 +23,17 @@ export function presentNeighbourhood(n: Neighbourhood, counts: NeighbourhoodCoun
     createdAt: iso(n.createdAt)!,
     updatedAt: iso(n.updatedAt)!,
     abilities: neighbourhoodAbilities(actor, n),
+  };
+}
+
+type Summary = Awaited<ReturnType<typeof neighbourhoodSummary>>;
+
+/** Hosts are named only for sites the caller may read; operators by name only. */
+export function presentNeighbourhoodSummary(s: Summary): NeighbourhoodSummaryDto {
+  return {
+    availability: s.availability.pooled,
+    nodes: s.nodes.map((x) => ({ id: x.id, name: x.name, state: x.state, siteId: x.siteId, siteName: s.siteNames.get(x.siteId) ?? '', availability: s.availability.byNode(x.id) })),
+    operators: s.operators.map((o) => ({ id: o.id, name: o.name })),
+    hosts: s.sites.map((site) => ({ siteId: site.id, siteName: site.name, host: site.host ? { id: site.host.id, name: site.host.name } : null })),
   };
 }
