@@ -1,37 +1,13 @@
 import type { ClockTrouble } from '../../../../shared/health/clock';
 import { keepPreviousData, useMutation, useQuery, type QueryClient } from '@tanstack/react-query';
 import type { NodeDto } from '../../../../shared/schemas/node';
+import type { NodeAvailabilityDto as NodeAvailability, NodeSeriesDto as NodeSeries, SeriesRange } from '../../../../shared/schemas/telemetry';
 import { api } from '../../../lib/api';
 import { nodeKeys, nodeTelemetryKeys } from '../../../lib/query-keys';
 
-export const SERIES_RANGES = ['24h', '7d', '30d'] as const;
-export type SeriesRange = (typeof SERIES_RANGES)[number];
-
-/** One roll-up bucket; a figure is null when no report in the bucket carried it. */
-export interface SeriesPoint {
-  t: string;
-  availabilityPct: number | null;
-  signalAvgDbm: number | null;
-  signalMinDbm: number | null;
-  noiseAvgDbm: number | null;
-  snrAvgDb: number | null;
-  throughputAvgMbps: number | null;
-  latencyAvgMs: number | null;
-}
-
-export interface NodeSeries {
-  range: SeriesRange;
-  bucketS: number;
-  points: SeriesPoint[];
-}
-
-/** Percent of each window the node was up, or null if it was never seen in it. */
-export interface NodeAvailability {
-  h24: number | null;
-  d7: number | null;
-  d30: number | null;
-  d90: number | null;
-}
+export { SERIES_RANGES } from '../../../../shared/schemas/telemetry';
+export type { NodeAvailability, NodeSeries, SeriesRange };
+export type { SeriesPointDto as SeriesPoint } from '../../../../shared/schemas/telemetry';
 
 /** The newest report's figures as the server keeps them on the node (`lastReport`). */
 export interface LastReport {

@@ -5,7 +5,7 @@ import type { LinkDto } from '../../../../shared/schemas/link';
 import { api, formWith, type UploadProgress } from '../../../lib/api';
 import { linkKeys, radioKeys, topologyKeys } from '../../../lib/query-keys';
 import { planningKeys } from './keys';
-import type { AddressPlans, ChannelPlan, LinkBudgetAnswer, LinkHealthDto, NetworkSettingsDto, ProvisioningSheet, RegulatoryAnswer, SecurityReview, SurveyUpload } from './types';
+import type { AddressPlans, ChannelApplyResultDto, ChannelPlan, ChannelPlanHistoryEntryDto, LinkBudgetAnswer, LinkHealthDto, NetworkSettingsDto, ProvisioningSheet, RegulatoryAnswer, SecurityReview, SurveyUpload } from './types';
 
 export function useNetworkSettings() {
   return useQuery({ queryKey: planningKeys.settings(), queryFn: () => api.get<{ data: NetworkSettingsDto }>('/settings/network').then((b) => b.data) });
@@ -43,13 +43,13 @@ export function useChannelPlan(params: { neighbourhoodId?: number; band?: string
 export function useChannelHistory() {
   return useQuery({
     queryKey: planningKeys.channelHistory(),
-    queryFn: () => api.get<{ data: { id: number; radioId: number; before: { channel: number }; after: { channel: number }; changedAt: string; changedBy: string | null }[] }>('/planning/channel-plan/history').then((b) => b.data),
+    queryFn: () => api.get<{ data: ChannelPlanHistoryEntryDto[] }>('/planning/channel-plan/history').then((b) => b.data),
   });
 }
 export function useApplyChannelPlan() {
   const qc = useQueryClient();
   return useMutation({
-    mutationFn: (body: ChannelApplyBody) => api.post<{ data: { updated: number } }>('/planning/channel-plan/apply', body).then((b) => b.data),
+    mutationFn: (body: ChannelApplyBody) => api.post<{ data: ChannelApplyResultDto }>('/planning/channel-plan/apply', body).then((b) => b.data),
     onSuccess: () => Promise.all([planningKeys.all, radioKeys.all, topologyKeys.all].map((k) => qc.invalidateQueries({ queryKey: [...k] }))),
   });
 }
