@@ -33,3 +33,7 @@ export const OUTBOX_KINDS = [
   'invitation',
   'password-reset',
 ] as const;
+
+/** Ranges of a node's charts (GET /nodes/:id/series). */
+export const SERIES_RANGES = ['24h', '7d', '30d'] as const;
+export type SeriesRange = (typeof SERIES_RANGES)[number];

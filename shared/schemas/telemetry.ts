@@ -1,7 +1,7 @@
 import { z } from 'zod';
+import { SERIES_RANGES, type SeriesRange } from '../enums';
 
-export const SERIES_RANGES = ['24h', '7d', '30d'] as const;
-export type SeriesRange = (typeof SERIES_RANGES)[number];
+export { SERIES_RANGES, type SeriesRange };
 export const seriesQuerySchema = z.object({ range: z.enum(SERIES_RANGES, { error: 'must be 24h, 7d or 30d' }).default('24h') });
 
 /** One roll-up bucket; a figure is null when no report in the bucket carried it. */

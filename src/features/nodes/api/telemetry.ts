@@ -5,7 +5,7 @@ import type { NodeAvailabilityDto as NodeAvailability, NodeSeriesDto as NodeSeri
 import { api } from '../../../lib/api';
 import { nodeKeys, nodeTelemetryKeys } from '../../../lib/query-keys';
 
-export { SERIES_RANGES } from '../../../../shared/schemas/telemetry';
+export { SERIES_RANGES } from '../../../../shared/enums';
 export type { NodeAvailability, NodeSeries, SeriesRange };
 export type { SeriesPointDto as SeriesPoint } from '../../../../shared/schemas/telemetry';
 
