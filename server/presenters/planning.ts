@@ -1,4 +1,6 @@
-import type { ChannelApplyResultDto, ChannelPlanHistoryEntryDto, SecurityFindingDto, SecurityReviewDto, SiteSurveyDto } from '../../shared/schemas/planningAnswers';
+import type {
+  ChannelApplyResultDto, ChannelPlanHistoryEntryDto, SecurityFindingDto, SecurityReviewDto, SiteSurveyDto,
+} from '../../shared/schemas/planningAnswers';
 import type { ChangeRecord } from '../services/changeHistory';
 import type { ChannelPlanHistoryRow } from '../services/channelPlanning';
 import type { SecurityReview } from '../services/securityReview';

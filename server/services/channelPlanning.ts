@@ -1,6 +1,8 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { Band, ChannelWidthMHz } from '../../shared/enums';
-import { congestionMwByChannel, recommendChannels, type ChannelAssignment, type ObservedNetwork, type RadioOnAir, type RadioToPlan } from '../../shared/radio/channelPlan';
+import {
+  congestionMwByChannel, recommendChannels, type ChannelAssignment, type ObservedNetwork, type RadioOnAir, type RadioToPlan,
+} from '../../shared/radio/channelPlan';
 import { allowedChannelNumbers, validChannels, type ChannelRegion } from '../../shared/radio/channels';
 import type { ChannelApplyBody } from '../../shared/schemas/planningRecords';
 import { Invalid, NotFound } from '../errors';

@@ -1,7 +1,9 @@
 import { describe, expect, it } from 'vitest';
 import ipaddr from 'ipaddr.js';
 import { Netmask } from 'netmask';
-import { allocateSubnets, describeSubnet, formatCidr, formatIpv4, netmaskOf, parseCidr, parseIpv4, planAddresses, usableHosts } from '../../../shared/addressing/cidr';
+import {
+  allocateSubnets, describeSubnet, formatCidr, formatIpv4, netmaskOf, parseCidr, parseIpv4, planAddresses, usableHosts,
+} from '../../../shared/addressing/cidr';
 import { PlanningError } from '../../../shared/radio/errors';
 
 const planningError = (fn: () => unknown): PlanningError => {

@@ -5,7 +5,10 @@ import type { LinkDto } from '../../../../shared/schemas/link';
 import { api, formWith, type UploadProgress } from '../../../lib/api';
 import { linkKeys, radioKeys, topologyKeys } from '../../../lib/query-keys';
 import { planningKeys } from './keys';
-import type { AddressPlans, ChannelApplyResultDto, ChannelPlan, ChannelPlanHistoryEntryDto, LinkBudgetAnswer, LinkHealthDto, NetworkSettingsDto, ProvisioningSheet, RegulatoryAnswer, SecurityReview, SurveyUpload } from './types';
+import type {
+  AddressPlans, ChannelApplyResultDto, ChannelPlan, ChannelPlanHistoryEntryDto, LinkBudgetAnswer, LinkHealthDto, NetworkSettingsDto,
+  ProvisioningSheet, RegulatoryAnswer, SecurityReview, SurveyUpload,
+} from './types';
 
 export function useNetworkSettings() {
   return useQuery({ queryKey: planningKeys.settings(), queryFn: () => api.get<{ data: NetworkSettingsDto }>('/settings/network').then((b) => b.data) });
