@@ -63,6 +63,7 @@ const envSchema = z.object({
   HEALTH_CHECK_INTERVAL_MS: z.coerce.number().int().min(50).default(10_000),
   ROOT_CAUSE_WINDOW_S: z.coerce.number().int().min(0).max(3600).default(120),
   JOBS_ENABLED: bool.default(true),
+  JOB_TIMINGS_LOG: bool.default(false),
   RAW_RETENTION_DAYS: z.coerce.number().int().min(1).default(14),
   ROLLUP_RETENTION_DAYS: z.coerce.number().int().min(1).default(400),
   PARTITION_DAYS_AHEAD: z.coerce.number().int().min(1).max(60).default(7),
@@ -152,6 +153,8 @@ export interface Config {
   /** Nodes whose last reports lie this close together are judged as one silence (root cause and stranded behind it). */
   rootCauseWindowS: number;
   jobsEnabled: boolean;
+  /** Log how long each silence-check tick took (for load runs). */
+  jobTimingsLog: boolean;
   rawRetentionDays: number;
   rollupRetentionDays: number;
   partitionDaysAhead: number;
@@ -240,6 +243,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     healthCheckIntervalMs: e.HEALTH_CHECK_INTERVAL_MS,
     rootCauseWindowS: e.ROOT_CAUSE_WINDOW_S,
     jobsEnabled: e.JOBS_ENABLED,
+    jobTimingsLog: e.JOB_TIMINGS_LOG,
     rawRetentionDays: e.RAW_RETENTION_DAYS,
     rollupRetentionDays: e.ROLLUP_RETENTION_DAYS,
     partitionDaysAhead: e.PARTITION_DAYS_AHEAD,

@@ -51,7 +51,13 @@ export function startJobs(config: Config, sequelize: Sequelize, watch?: Database
       // Outages of the database since the last good check: silence in them is Parapet's, not the nodes'.
       const seen = watch?.outageCount ?? 0;
       const ownOutage: Outage | null = seen > outagesHandled ? (watch!.outages.at(-1) ?? null) : null;
+      const checkStarted = performance.now();
       const check = await runSilenceCheck(sequelize, config, now, config.healthCheckIntervalMs, config.rootCauseWindowS, ownOutage);
+      // JOB_TIMINGS_LOG=true: one line per tick, read by `npm run bench:town` (every tick must stay well under the interval).
+      if (config.jobTimingsLog) {
+        const ms = (performance.now() - checkStarted).toFixed(1);
+        console.log(`job timing: silence-check ${ms} ms (${check.leader ? `leader, ${check.silenced} silenced` : 'not leader'})`);
+      }
       outagesHandled = seen;
       if (skipped) console.log(`scheduled jobs resumed after ${skipped} skipped tick(s)`);
       skipped = 0;

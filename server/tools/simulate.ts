@@ -5,6 +5,8 @@ import { ApiClient } from './apiClient';
 import { DEMO_QUIRKS } from '../db/demoScenario';
 import type { NodeDto } from '../../shared/schemas/node';
 import type { RadioDto } from '../../shared/schemas/radio';
+import { createSequelize } from '../db/sequelize';
+import { runTownSimulator } from './simulateTown';
 
 const baseUrl = process.env.PARAPET_URL ?? `http://${process.env.HOST ?? '127.0.0.1'}:${process.env.PORT ?? '4300'}`;
 const password = process.env.PARAPET_DEMO_PASSWORD ?? 'parapet-demo';
@@ -118,14 +120,34 @@ async function send(sim: SimNode) {
   if (res.status !== 202) console.warn(`simulator: ${sim.node.name} got ${res.status}${res.status === 400 ? '' : `; keeping ${sim.unsent.length} report(s) to resend`}: ${await res.text()}`);
 }
 
-const sims = await load();
-console.log(`simulator: ${sims.length} nodes reporting to ${baseUrl} (tokens in ${tokenFile}); ${FLAKY_NODE} drops for ${FLAKY_DOWN_S / 60} min every ${FLAKY_EVERY_S / 60} min`);
-for (const [i, sim] of sims.entries()) {
-  const intervalMs = (sim.node.reportIntervalS * 1000) / speedup;
-  setTimeout(() => {
-    void send(sim).catch((e) => console.warn(`simulator: ${sim.node.name}: ${(e as Error).message}`));
-    setInterval(() => void send(sim).catch((e) => console.warn(`simulator: ${sim.node.name}: ${(e as Error).message}`)), intervalMs);
-  }, (i * intervalMs) / sims.length); // spread the nodes over the interval
+async function runDemo() {
+  const sims = await load();
+  console.log(`simulator: ${sims.length} nodes reporting to ${baseUrl} (tokens in ${tokenFile}); ${FLAKY_NODE} drops for ${FLAKY_DOWN_S / 60} min every ${FLAKY_EVERY_S / 60} min`);
+  for (const [i, sim] of sims.entries()) {
+    const intervalMs = (sim.node.reportIntervalS * 1000) / speedup;
+    setTimeout(() => {
+      void send(sim).catch((e) => console.warn(`simulator: ${sim.node.name}: ${(e as Error).message}`));
+      setInterval(() => void send(sim).catch((e) => console.warn(`simulator: ${sim.node.name}: ${(e as Error).message}`)), intervalMs);
+    }, (i * intervalMs) / sims.length); // spread the nodes over the interval
+  }
+  process.on('SIGTERM', () => process.exit(0));
+  process.on('SIGINT', () => process.exit(0));
 }
-process.on('SIGTERM', () => process.exit(0));
-process.on('SIGINT', () => process.exit(0));
+
+// `--nodes N` (or SIMULATOR_NODES=N): a synthetic town of N nodes instead of the demo network.
+const nodesArg = process.argv.indexOf('--nodes');
+const townNodes = nodesArg >= 0 ? process.argv[nodesArg + 1] : process.env.SIMULATOR_NODES;
+if (townNodes === undefined) {
+  await runDemo();
+} else {
+  const count = Number(townNodes);
+  if (!Number.isInteger(count) || count < 1 || count > 200_000) {
+    console.error(`simulator: --nodes needs a whole number from 1 to 200000, got "${townNodes}"`);
+    process.exit(2);
+  }
+  if (!process.env.DATABASE_URL) {
+    console.error('simulator: the town is written straight into the database: set DATABASE_URL (start.sh prints it) and PARAPET_URL');
+    process.exit(2);
+  }
+  await runTownSimulator(count, baseUrl, createSequelize(process.env.DATABASE_URL, 4));
+}
