@@ -49,10 +49,10 @@ async function startProxy(targets: { name: string; url: string }[]) {
   child.stdout!.on('data', (d) => (output += d));
   child.stderr!.on('data', (d) => (output += d));
   const stop = () => new Promise<void>((resolve) => {
-    if (child.exitCode !== null) return resolve();
+    if (child.exitCode !== null || child.signalCode !== null) return resolve();
     child.once('exit', () => resolve());
     child.kill('SIGTERM');
-    setTimeout(() => child.kill('SIGKILL'), 5000).unref();
+    setTimeout(() => child.kill('SIGKILL'), 5000);
   });
   started.push({ stop });
   const deadline = Date.now() + 60_000;

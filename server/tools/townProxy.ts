@@ -15,7 +15,8 @@ if (!targets.length || targets.some((t) => !t.name || !t.url?.startsWith('http:/
 }
 
 const instanceOf = new WeakMap<http.IncomingMessage, string>();
-const proxy = httpProxy.createProxyServer({ agent: new http.Agent({ keepAlive: true, maxSockets: 512 }), xfwd: true });
+// A fresh loopback connection per request: reusing idle ones races the instance closing them (ECONNRESET), as it did in trials.
+const proxy = httpProxy.createProxyServer({ agent: new http.Agent({ keepAlive: false, maxSockets: 1024 }), xfwd: true });
 proxy.on('proxyRes', (proxyRes, req) => {
   proxyRes.headers['x-parapet-instance'] = instanceOf.get(req) ?? '';
 });
@@ -45,7 +46,7 @@ server.listen(Number(process.env.PROXY_PORT ?? 0), '127.0.0.1', () => {
 const stop = () => {
   server.close(() => process.exit(0));
   server.closeAllConnections();
-  setTimeout(() => process.exit(0), 3000).unref();
+  setTimeout(() => process.exit(0), 3000);
 };
 process.on('SIGTERM', stop);
 process.on('SIGINT', stop);
