@@ -78,7 +78,8 @@ async function tableBytes(names: string[]) {
   let bytes = 0;
   for (const name of names) {
     const [row] = await sequelize.query<{ bytes: string | null }>(
-      'SELECT CASE WHEN to_regclass($1) IS NULL THEN 0 ELSE (SELECT sum(pg_total_relation_size(relid)) FROM pg_partition_tree(to_regclass($1))) END AS bytes',
+      // A partitioned table: the sum over its tree (partitions, indexes, TOAST); a plain one: pg_partition_tree has no rows for it.
+      `SELECT coalesce((SELECT sum(pg_total_relation_size(relid)) FROM pg_partition_tree(to_regclass($1))), pg_total_relation_size(to_regclass($1)), 0) AS bytes`,
       { bind: [name], type: QueryTypes.SELECT });
     bytes += Number(row.bytes ?? 0);
   }
@@ -250,9 +251,11 @@ try {
   console.log(`50,000 nodes: raw held (${config.rawRetentionDays} days) ${year50k.rawHeldGB} GB; roll-ups add ${year50k.rollupsPerYearGB} GB a year (kept ${config.rollupRetentionDays} days)`);
   if (cross === 0) console.log('note: no event crossed instances');
   console.log(JSON.stringify({ bench: 'town', ...result }));
+  process.exitCode = 0;
 } finally {
   await reporter?.stop(1000);
   sockets.forEach((s) => s.close());
   await Promise.allSettled(started.reverse().map((s) => s.stop()));
   await sequelize.close();
 }
+process.exit(process.exitCode ?? 1);
