@@ -79,7 +79,8 @@ async function tableBytes(names: string[]) {
   for (const name of names) {
     const [row] = await sequelize.query<{ bytes: string | null }>(
       // A partitioned table: the sum over its tree (partitions, indexes, TOAST); a plain one: pg_partition_tree has no rows for it.
-      `SELECT coalesce((SELECT sum(pg_total_relation_size(relid)) FROM pg_partition_tree(to_regclass($1))), pg_total_relation_size(to_regclass($1)), 0) AS bytes`,
+      `SELECT coalesce((SELECT sum(pg_total_relation_size(relid)) FROM pg_partition_tree(to_regclass($1))),
+                       pg_total_relation_size(to_regclass($1)), 0) AS bytes`,
       { bind: [name], type: QueryTypes.SELECT });
     bytes += Number(row.bytes ?? 0);
   }
@@ -114,7 +115,9 @@ try {
   const proxy = await startProxy([{ name: 'a', url: a.url }, { name: 'b', url: b.url }]);
   say(`instances a ${a.url} (pid ${a.child.pid}), b ${b.url} (pid ${b.child.pid}); proxy ${proxy.url}`);
 
-  const signIn = await fetch(`${a.url}/api/v1/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password }) });
+  const signIn = await fetch(`${a.url}/api/v1/session`, {
+    method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password }),
+  });
   if (signIn.status !== 200) throw new Error(`bench sign-in failed with ${signIn.status}: ${await signIn.text()}`);
   const cookie = sessionCookieOf(signIn);
 
@@ -165,8 +168,9 @@ try {
     reporter!.log.slice(logged).forEach((l) => say(`  ${l}`));
     logged = reporter!.log.length;
     const c = reporter!.counts;
-    say(`t=${t}s: ${c.posts} posts, ${c.accepted} reports accepted, ${c.refused} refused, ${c.failed} failed; last ${SAMPLE_S} s p50 ${pct(recent, 0.5).toFixed(0)} ms ` +
-      `p99 ${pct(recent, 0.99).toFixed(0)} ms; RSS a ${rss.at(-1)!.a} MB, b ${rss.at(-1)!.b} MB; events a ${live.a.local}+${live.a.cross} cross, b ${live.b.local}+${live.b.cross} cross`);
+    say(`t=${t}s: ${c.posts} posts, ${c.accepted} reports accepted, ${c.refused} refused, ${c.failed} failed; ` +
+      `last ${SAMPLE_S} s p50 ${pct(recent, 0.5).toFixed(0)} ms p99 ${pct(recent, 0.99).toFixed(0)} ms; RSS a ${rss.at(-1)!.a} MB, b ${rss.at(-1)!.b} MB; ` +
+      `events a ${live.a.local}+${live.a.cross} cross, b ${live.b.local}+${live.b.cross} cross`);
   };
   sample();
   const sampler = setInterval(sample, SAMPLE_S * 1000);
@@ -223,7 +227,9 @@ try {
     nodes: NODES, durationS: DURATION_S, posts: reporter.counts.posts, statuses, perInstance,
     reportsAccepted: accepted, rowsStored: found, reportsLost: lost,
     latencyMs: { p50: r1(pct(latencies, 0.5)), p95: r1(pct(latencies, 0.95)), p99: r1(p99), max: r1(latencies.at(-1) ?? NaN) },
-    silenceCheckTicks: { leaderTicks: allTicks.length, p50Ms: r1(pct(allTicks, 0.5)), maxMs: r1(maxTick), over2s: allTicks.filter((t) => t >= TICK_TARGET_MS).length },
+    silenceCheckTicks: {
+      leaderTicks: allTicks.length, p50Ms: r1(pct(allTicks, 0.5)), maxMs: r1(maxTick), over2s: allTicks.filter((t) => t >= TICK_TARGET_MS).length,
+    },
     rssMb: rss, rssGrowthAfterWarmupMb: { a: growth('a'), b: growth('b') },
     liveEvents: live, stateEventsOnA: stateCounts, powerCuts: reporter.counts.powerCuts, flakyDrops: reporter.counts.flakyDrops,
     storage: { rawBytes, rawRows: Number(counts.raw), rawBytesPerReport: Math.round(rawPerReport), rawBytesPerNodePerDay: Math.round(rawPerNodeDay),
@@ -232,23 +238,28 @@ try {
   };
   const verdict = (ok: boolean) => (ok ? 'met' : 'MISSED');
   console.log('');
-  console.log(`reports: ${accepted} accepted (202), ${found} rows stored — ${lost === 0 ? 'nothing lost' : `${lost} LOST`}; statuses ${JSON.stringify(statuses)}; ` +
+  console.log(`reports: ${accepted} accepted (202), ${found} rows stored — ${lost === 0 ? 'nothing lost' : `${lost} LOST`}; ` +
+    `statuses ${JSON.stringify(statuses)}; ` +
     `posts per instance ${JSON.stringify(perInstance)}`);
-  console.log(`latency through the proxy: p50 ${result.latencyMs.p50} ms, p95 ${result.latencyMs.p95} ms, p99 ${result.latencyMs.p99} ms, max ${result.latencyMs.max} ms ` +
+  const l = result.latencyMs;
+  console.log(`latency through the proxy: p50 ${l.p50} ms, p95 ${l.p95} ms, p99 ${l.p99} ms, max ${l.max} ms ` +
     `(target p99 < ${P99_TARGET_MS} ms: ${verdict(p99 < P99_TARGET_MS)})`);
-  console.log(`silence check: ${allTicks.length} leader ticks (a ${ticks.a.length}, b ${ticks.b.length}), p50 ${result.silenceCheckTicks.p50Ms} ms, max ${result.silenceCheckTicks.maxMs} ms ` +
+  const st = result.silenceCheckTicks;
+  console.log(`silence check: ${allTicks.length} leader ticks (a ${ticks.a.length}, b ${ticks.b.length}), p50 ${st.p50Ms} ms, max ${st.maxMs} ms ` +
     `(target every tick < ${TICK_TARGET_MS} ms: ${verdict(result.silenceCheckTicks.over2s === 0 && allTicks.length > 0)})`);
   console.log(`memory (RSS MB every ${SAMPLE_S} s) a: ${rss.map((s) => s.a).join(' ')}`);
   console.log(`memory (RSS MB every ${SAMPLE_S} s) b: ${rss.map((s) => s.b).join(' ')}`);
   console.log(`memory growth after warm-up: a ${growth('a')} MB, b ${growth('b')} MB`);
   console.log(`live events: socket on a got ${live.a.cross} figures events for reports ingested by b (${live.a.local} local); ` +
-    `socket on b got ${live.b.cross} for reports ingested by a (${live.b.local} local); state events a ${live.a.states}, b ${live.b.states} ${JSON.stringify(stateCounts)} ` +
+    `socket on b got ${live.b.cross} for reports ingested by a (${live.b.local} local); ` +
+    `state events a ${live.a.states}, b ${live.b.states} ${JSON.stringify(stateCounts)} ` +
     `(${verdict(live.a.cross > 0 && live.b.cross > 0)})`);
   for (const [kind, p] of reporter.problems) console.log(`problem ${kind}: ${p.count} times, first: ${p.example}`);
   console.log(`faults: ${reporter.counts.powerCuts} power cuts, ${reporter.counts.flakyDrops} flaky drop-outs`);
   console.log(`storage: raw ${shown(rawPerReport)} B per report → ${shown(rawPerNodeDay / 1e6, 2)} MB per node per day at ${TOWN_REPORT_INTERVAL_S} s; ` +
     `roll-ups ${shown(rollupPerRow)} B per row → ${shown(rollupPerNodeDay / 1e3, 1)} kB per node per day (5-min + hourly)`);
-  console.log(`50,000 nodes: raw held (${config.rawRetentionDays} days) ${year50k.rawHeldGB} GB; roll-ups add ${year50k.rollupsPerYearGB} GB a year (kept ${config.rollupRetentionDays} days)`);
+  console.log(`50,000 nodes: raw held (${config.rawRetentionDays} days) ${year50k.rawHeldGB} GB; ` +
+    `roll-ups add ${year50k.rollupsPerYearGB} GB a year (kept ${config.rollupRetentionDays} days)`);
   if (cross === 0) console.log('note: no event crossed instances');
   console.log(JSON.stringify({ bench: 'town', ...result }));
   process.exitCode = 0;

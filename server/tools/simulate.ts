@@ -122,7 +122,8 @@ async function send(sim: SimNode) {
 
 async function runDemo() {
   const sims = await load();
-  console.log(`simulator: ${sims.length} nodes reporting to ${baseUrl} (tokens in ${tokenFile}); ${FLAKY_NODE} drops for ${FLAKY_DOWN_S / 60} min every ${FLAKY_EVERY_S / 60} min`);
+  console.log(`simulator: ${sims.length} nodes reporting to ${baseUrl} (tokens in ${tokenFile}); ` +
+    `${FLAKY_NODE} drops for ${FLAKY_DOWN_S / 60} min every ${FLAKY_EVERY_S / 60} min`);
   for (const [i, sim] of sims.entries()) {
     const intervalMs = (sim.node.reportIntervalS * 1000) / speedup;
     setTimeout(() => {

@@ -3,7 +3,7 @@
 import { randomUUID } from 'node:crypto';
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { offsetToLatLon } from '../db/demoScenario';
-import { hashToken, newToken } from '../services/ingestTokens';
+import { forgetTokens, hashToken, newToken } from '../services/ingestTokens';
 
 export type TownRole = 'hub' | 'relay' | 'leaf';
 export interface TownNode {
@@ -98,7 +98,9 @@ export function subtrees(plan: TownPlan): number[][] {
   return below;
 }
 
-interface RadioPlan { iface: string; role: 'backhaul-ap' | 'backhaul-client' | 'access-point'; band: '2.4' | '5'; channel: number; widthMHz: number; gainDbi: number }
+interface RadioPlan {
+  iface: string; role: 'backhaul-ap' | 'backhaul-client' | 'access-point'; band: '2.4' | '5'; channel: number; widthMHz: number; gainDbi: number;
+}
 const DOWN_CHANNELS = [36, 52, 100, 116, 132, 149];
 const AP_CHANNELS = [1, 6, 11];
 /** The backhaul-ap radio a child links to, by the parent's role. */
@@ -110,7 +112,8 @@ function radiosFor(plan: TownPlan, i: number): RadioPlan[] {
   const ap: RadioPlan = { iface: '', role: 'access-point', band: '2.4', channel: AP_CHANNELS[i % 3], widthMHz: 20, gainDbi: 5 };
   if (n.role === 'hub') return [{ iface: 'wlan0', role: 'backhaul-ap', band: '5', channel: down(i), widthMHz: 40, gainDbi: 16 }, { ...ap, iface: 'wlan1' }];
   const up: RadioPlan = { iface: 'wlan0', role: 'backhaul-client', band: '5', channel: down(n.parent!), widthMHz: 40, gainDbi: 23 };
-  if (n.role === 'relay') return [up, { iface: 'wlan1', role: 'backhaul-ap', band: '5', channel: down(i), widthMHz: 40, gainDbi: 16 }, { ...ap, iface: 'wlan2' }];
+  const downlink: RadioPlan = { iface: 'wlan1', role: 'backhaul-ap', band: '5', channel: down(i), widthMHz: 40, gainDbi: 16 };
+  if (n.role === 'relay') return [up, downlink, { ...ap, iface: 'wlan2' }];
   return [up, { ...ap, iface: 'wlan1' }];
 }
 
@@ -168,7 +171,8 @@ export async function seedTown(sequelize: Sequelize, plan: TownPlan, now = new D
   }
   const ids = plan.nodes.map((n) => nodeId.get(n.name)!);
   const radioRows = await q<{ id: number; nodeId: number; iface: string; role: string; band: string; channel: number; widthMHz: number }>(
-    `SELECT id, node_id AS "nodeId", iface, role, band, channel, channel_width_mhz AS "widthMHz" FROM radios WHERE node_id = ANY($1::int[]) ORDER BY id`, [ids]);
+    `SELECT id, node_id AS "nodeId", iface, role, band, channel, channel_width_mhz AS "widthMHz"
+       FROM radios WHERE node_id = ANY($1::int[]) ORDER BY id`, [ids]);
   const radioOf = new Map(radioRows.map((r) => [`${r.nodeId}/${r.iface}`, r]));
   // Every child's backhaul client links live to its parent's backhaul AP (one AP serves many clients).
   const pairs = plan.nodes.flatMap((n, i) => (n.parent === null ? [] : [{
@@ -189,6 +193,7 @@ export async function seedTown(sequelize: Sequelize, plan: TownPlan, now = new D
     await sequelize.query('INSERT INTO node_tokens (node_id, token_hash, created_at) SELECT n, h, $3 FROM unnest($1::int[], $2::text[]) AS t(n, h)',
       { bind: [ids, tokens.map(hashToken), now], transaction });
   });
+  forgetTokens(); // this process's cached lookups; other instances see the rotation within their cache lifetime
   const byNode = new Map<number, SeededRadio[]>();
   for (const r of radioRows) {
     const list = byNode.get(r.nodeId) ?? [];
@@ -199,7 +204,8 @@ export async function seedTown(sequelize: Sequelize, plan: TownPlan, now = new D
 }
 
 /** A made-up, locally administered MAC per radio (the 02: prefix), as the demo simulator uses. */
-const macOf = (radioId: number) => `02:50:61:${[(radioId >> 16) & 255, (radioId >> 8) & 255, radioId & 255].map((b) => b.toString(16).padStart(2, '0')).join(':')}`;
+const macOf = (radioId: number) =>
+  `02:50:61:${[(radioId >> 16) & 255, (radioId >> 8) & 255, radioId & 255].map((b) => b.toString(16).padStart(2, '0')).join(':')}`;
 
 export interface TownFaults {
   /** Every this many seconds one relay (or now and then a hub) loses power... */
@@ -249,7 +255,9 @@ export class TownReporter {
   ) {
     this.random = seededRandom(seed);
     this.below = subtrees(plan);
-    this.state = nodes.map(() => ({ seq: 0, bootId: randomUUID(), unsent: [], busy: false, poweredOffUntil: 0, flaky: this.random() < faults.flakyShare, fadeDb: 0 }));
+    this.state = nodes.map(() => ({
+      seq: 0, bootId: randomUUID(), unsent: [], busy: false, poweredOffUntil: 0, flaky: this.random() < faults.flakyShare, fadeDb: 0,
+    }));
   }
 
   get flakyCount() {
@@ -406,7 +414,8 @@ export async function runTownSimulator(nodeCount: number, baseUrl: string, seque
     reporter.log.slice(logged).forEach((l) => console.log(`simulator: ${l}`));
     logged = reporter.log.length;
     const c = reporter.counts;
-    console.log(`simulator: ${c.posts} posts, ${c.accepted} reports accepted, ${c.refused} refused, ${c.failed} failed; last 30 s p50 ${pct(0.5)} ms, p99 ${pct(0.99)} ms`);
+    console.log(`simulator: ${c.posts} posts, ${c.accepted} reports accepted, ${c.refused} refused, ${c.failed} failed; ` +
+      `last 30 s p50 ${pct(0.5)} ms, p99 ${pct(0.99)} ms`);
   }, 30_000);
   const stop = async () => {
     clearInterval(summary);
