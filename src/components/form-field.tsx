@@ -1,4 +1,4 @@
-import { useId, type InputHTMLAttributes, type ReactNode, type SelectHTMLAttributes, type TextareaHTMLAttributes } from 'react';
+import { useId, type ComponentPropsWithRef, type ReactNode } from 'react';
 import { Button } from './button';
 
 const CONTROL =
@@ -34,7 +34,7 @@ function describedBy(id: string, hint: unknown, errors?: string[]) {
   return [hint ? `${id}-hint` : '', errors?.length ? `${id}-error` : ''].filter(Boolean).join(' ') || undefined;
 }
 
-export function TextField({ label, errors, hint, ...input }: Frame & InputHTMLAttributes<HTMLInputElement>) {
+export function TextField({ label, errors, hint, ...input }: Frame & ComponentPropsWithRef<'input'>) {
   const id = useId();
   return (
     <FieldFrame id={id} label={label} errors={errors} hint={hint}>
@@ -43,7 +43,7 @@ export function TextField({ label, errors, hint, ...input }: Frame & InputHTMLAt
   );
 }
 
-export function TextAreaField({ label, errors, hint, ...input }: Frame & TextareaHTMLAttributes<HTMLTextAreaElement>) {
+export function TextAreaField({ label, errors, hint, ...input }: Frame & ComponentPropsWithRef<'textarea'>) {
   const id = useId();
   return (
     <FieldFrame id={id} label={label} errors={errors} hint={hint}>
@@ -57,7 +57,7 @@ export interface Option {
   label: string;
 }
 
-export function SelectField({ label, errors, hint, options, placeholder, ...select }: Frame & SelectHTMLAttributes<HTMLSelectElement> & { options: Option[]; placeholder?: string }) {
+export function SelectField({ label, errors, hint, options, placeholder, ...select }: Frame & ComponentPropsWithRef<'select'> & { options: Option[]; placeholder?: string }) {
   const id = useId();
   return (
     <FieldFrame id={id} label={label} errors={errors} hint={hint}>
@@ -73,7 +73,7 @@ export function SelectField({ label, errors, hint, options, placeholder, ...sele
   );
 }
 
-export function CheckboxField({ label, errors, hint, ...input }: Frame & Omit<InputHTMLAttributes<HTMLInputElement>, 'type'>) {
+export function CheckboxField({ label, errors, hint, ...input }: Frame & Omit<ComponentPropsWithRef<'input'>, 'type'>) {
   const id = useId();
   return (
     <div>

@@ -1,11 +1,10 @@
-import type { FormEvent } from 'react';
 import { maintenanceWindowCreateSchema, type MaintenanceWindowDto } from '../../../../shared/schemas/alerts';
 import { Button } from '../../../components/button';
 import { Caution } from '../../../components/caution';
 import { FormMessage, TextField, FormActions } from '../../../components/form-field';
 import { LoadError, Loading } from '../../../components/query-state';
 import { formatDateTime } from '../../../lib/format';
-import { useForm } from '../../../lib/form';
+import { useSchemaForm } from '../../../lib/schema-form';
 import { useAnnounceMaintenance, useCancelMaintenance, useMaintenanceWindows } from '../api/alerts';
 
 const STATUS_WORDS: Record<MaintenanceWindowDto['status'], string> = { upcoming: 'Planned', active: 'Now', over: 'Over', cancelled: 'Cancelled' };
@@ -18,23 +17,19 @@ export function MaintenanceWindows({ nodeId }: { nodeId: number }) {
   const windows = useMaintenanceWindows(nodeId);
   const announce = useAnnounceMaintenance(nodeId);
   const cancel = useCancelMaintenance(nodeId);
-  const form = useForm({ startsAt: '', endsAt: '', reason: '' });
-
-  async function submit(event: FormEvent) {
-    event.preventDefault();
-    const body = form.check(maintenanceWindowCreateSchema, {
-      startsAt: toIso(form.values.startsAt),
-      endsAt: toIso(form.values.endsAt),
-      ...(form.values.reason.trim() ? { reason: form.values.reason } : {}),
-    });
-    if (!body) return;
+  const form = useSchemaForm({
+    defaultValues: { startsAt: '', endsAt: '', reason: '' },
+    schema: maintenanceWindowCreateSchema,
+    toInput: (values) => ({ startsAt: toIso(values.startsAt), endsAt: toIso(values.endsAt), ...(values.reason.trim() ? { reason: values.reason } : {}) }),
+  });
+  const submit = form.handleSubmit(async (body) => {
     try {
       await announce.mutateAsync(body);
-      form.reset({ startsAt: '', endsAt: '', reason: '' });
+      form.reset();
     } catch (error) {
       form.showServerError(error);
     }
-  }
+  });
 
   if (windows.isPending) return <Loading label="Loading maintenance windows…" />;
   if (windows.isError) return <LoadError error={windows.error} />;
@@ -64,10 +59,10 @@ export function MaintenanceWindows({ nodeId }: { nodeId: number }) {
       )}
       {windows.data.abilities.create && (
         <form onSubmit={submit} noValidate className="grid gap-3 sm:grid-cols-2">
-          <TextField label="Starts" type="datetime-local" value={form.values.startsAt} errors={form.errors.startsAt} onChange={(e) => form.set('startsAt', e.target.value)} />
-          <TextField label="Ends" type="datetime-local" value={form.values.endsAt} errors={form.errors.endsAt} onChange={(e) => form.set('endsAt', e.target.value)} />
+          <TextField label="Starts" type="datetime-local" {...form.field('startsAt')} />
+          <TextField label="Ends" type="datetime-local" {...form.field('endsAt')} />
           <div className="sm:col-span-2">
-            <TextField label="Reason (optional)" maxLength={500} value={form.values.reason} errors={form.errors.reason} onChange={(e) => form.set('reason', e.target.value)} />
+            <TextField label="Reason (optional)" maxLength={500} {...form.field('reason')} />
           </div>
           <div className="sm:col-span-2 space-y-2">
             <Caution>Switching off roof equipment can mean ladders, roofs and mains power. Follow local rules and leave that work to people trained or licensed for it.</Caution>

@@ -1,6 +1,6 @@
 import { Button } from '../../../components/button';
 import { FormMessage, TextField } from '../../../components/form-field';
-import { lazySchema, useForm } from '../../../lib/form';
+import { lazySchema, useSchemaForm } from '../../../lib/schema-form';
 import { useSignIn } from '../api/session';
 
 // The shared schema (and the validation library under it) is fetched once someone starts typing,
@@ -8,41 +8,15 @@ import { useSignIn } from '../api/session';
 const loadSchema = lazySchema(() => import('../../../../shared/schemas/session').then((m) => m.signInSchema));
 
 export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
-  const form = useForm({ email: '', password: '' });
+  const form = useSchemaForm({ defaultValues: { email: '', password: '' }, schema: loadSchema });
   const signIn = useSignIn();
+  const submit = form.handleSubmit((input) => signIn.mutate(input, { onSuccess: onSignedIn, onError: form.showServerError }));
 
   return (
-    <form
-      data-testid="sign-in-form"
-      noValidate
-      className="space-y-4"
-      onFocus={() => void loadSchema().catch(() => undefined)}
-      onSubmit={(event) => {
-        event.preventDefault();
-        void form.checkWith(loadSchema, form.values).then((input) => {
-          if (input) signIn.mutate(input, { onSuccess: onSignedIn, onError: form.showServerError });
-        });
-      }}
-    >
+    <form data-testid="sign-in-form" noValidate className="space-y-4" onFocus={() => void loadSchema().catch(() => undefined)} onSubmit={submit}>
       <FormMessage message={form.formError} />
-      <TextField
-        label="E-mail"
-        name="email"
-        type="email"
-        autoComplete="username"
-        value={form.values.email}
-        onChange={(event) => form.set('email', event.target.value)}
-        errors={form.errors.email}
-      />
-      <TextField
-        label="Password"
-        name="password"
-        type="password"
-        autoComplete="current-password"
-        value={form.values.password}
-        onChange={(event) => form.set('password', event.target.value)}
-        errors={form.errors.password}
-      />
+      <TextField label="E-mail" type="email" autoComplete="username" {...form.field('email')} />
+      <TextField label="Password" type="password" autoComplete="current-password" {...form.field('password')} />
       <Button type="submit" variant="primary" className="w-full py-2" disabled={signIn.isPending}>
         {signIn.isPending ? 'Signing in…' : 'Sign in'}
       </Button>

@@ -1,7 +1,7 @@
 import { useState } from 'react';
 import { z } from 'zod';
 import { FormMessage, TextField, FormActions } from '../../../components/form-field';
-import { lazySchema, useForm } from '../../../lib/form';
+import { lazySchema, useSchemaForm } from '../../../lib/schema-form';
 import { useChangePassword } from '../api/account';
 import { PASSWORD_HINT } from './new-password-form';
 
@@ -14,9 +14,12 @@ const loadSchema = lazySchema(() =>
 const EMPTY = { currentPassword: '', newPassword: '', repeat: '' };
 
 export function ChangePasswordForm() {
-  const form = useForm(EMPTY);
+  const form = useSchemaForm({ defaultValues: EMPTY, schema: loadSchema });
   const change = useChangePassword();
   const [done, setDone] = useState(false);
+  const send = form.handleSubmit(({ currentPassword, newPassword }) =>
+    change.mutate({ currentPassword, newPassword }, { onSuccess: () => { form.reset(EMPTY); setDone(true); }, onError: form.showServerError }),
+  );
   return (
     <form
       noValidate
@@ -24,21 +27,14 @@ export function ChangePasswordForm() {
       className="max-w-md space-y-4"
       onFocus={() => void loadSchema().catch(() => undefined)}
       onSubmit={(event) => {
-        event.preventDefault();
         setDone(false);
-        void form.checkWith(loadSchema, form.values).then((input) => {
-          if (!input) return;
-          change.mutate(
-            { currentPassword: input.currentPassword, newPassword: input.newPassword },
-            { onSuccess: () => { form.reset(EMPTY); setDone(true); }, onError: form.showServerError },
-          );
-        });
+        void send(event);
       }}
     >
       <FormMessage message={form.formError} />
-      <TextField label="Current password" name="currentPassword" type="password" autoComplete="current-password" value={form.values.currentPassword} onChange={(e) => form.set('currentPassword', e.target.value)} errors={form.errors.currentPassword} />
-      <TextField label="New password" name="newPassword" type="password" autoComplete="new-password" value={form.values.newPassword} onChange={(e) => form.set('newPassword', e.target.value)} errors={form.errors.newPassword} hint={PASSWORD_HINT} />
-      <TextField label="The new password again" name="repeat" type="password" autoComplete="new-password" value={form.values.repeat} onChange={(e) => form.set('repeat', e.target.value)} errors={form.errors.repeat} />
+      <TextField label="Current password" type="password" autoComplete="current-password" {...form.field('currentPassword')} />
+      <TextField label="New password" type="password" autoComplete="new-password" {...form.field('newPassword')} hint={PASSWORD_HINT} />
+      <TextField label="The new password again" type="password" autoComplete="new-password" {...form.field('repeat')} />
       <FormActions label="Change password" busy={change.isPending} busyLabel="Changing…" status={done ? 'Changed. Your other devices are signed out.' : ''} />
     </form>
   );

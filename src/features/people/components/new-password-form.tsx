@@ -2,7 +2,7 @@ import { useState } from 'react';
 import { z } from 'zod';
 import { Button } from '../../../components/button';
 import { FormMessage, TextField } from '../../../components/form-field';
-import { lazySchema, useForm } from '../../../lib/form';
+import { lazySchema, useSchemaForm } from '../../../lib/schema-form';
 
 // The password rules carry a 460 KB dictionary: fetched when the form is first used, not with the page.
 const loadSchema = lazySchema(() =>
@@ -15,24 +15,14 @@ export const PASSWORD_HINT = 'At least 12 characters. A few unrelated words work
 
 /** Choose a password once (invitation or reset): checked here with the server's own rules, then sent with the link's token. */
 export function NewPasswordForm({ submitLabel, pending, onSubmit }: { submitLabel: string; pending: boolean; onSubmit: (password: string, showError: (e: unknown) => void) => void }) {
-  const form = useForm({ password: '', repeat: '' });
+  const form = useSchemaForm({ defaultValues: { password: '', repeat: '' }, schema: loadSchema });
   const [shown, setShown] = useState(false);
+  const submit = form.handleSubmit((input) => onSubmit(input.password, form.showServerError));
   return (
-    <form
-      noValidate
-      data-testid="new-password-form"
-      className="space-y-4"
-      onFocus={() => void loadSchema().catch(() => undefined)}
-      onSubmit={(event) => {
-        event.preventDefault();
-        void form.checkWith(loadSchema, form.values).then((input) => {
-          if (input) onSubmit(input.password, form.showServerError);
-        });
-      }}
-    >
+    <form noValidate data-testid="new-password-form" className="space-y-4" onFocus={() => void loadSchema().catch(() => undefined)} onSubmit={submit}>
       <FormMessage message={form.formError} />
-      <TextField label="New password" name="password" type={shown ? 'text' : 'password'} autoComplete="new-password" value={form.values.password} onChange={(e) => form.set('password', e.target.value)} errors={form.errors.password} hint={PASSWORD_HINT} />
-      <TextField label="The same password again" name="repeat" type={shown ? 'text' : 'password'} autoComplete="new-password" value={form.values.repeat} onChange={(e) => form.set('repeat', e.target.value)} errors={form.errors.repeat} />
+      <TextField label="New password" type={shown ? 'text' : 'password'} autoComplete="new-password" {...form.field('password')} hint={PASSWORD_HINT} />
+      <TextField label="The same password again" type={shown ? 'text' : 'password'} autoComplete="new-password" {...form.field('repeat')} />
       <label className="flex items-center gap-2 text-sm">
         <input type="checkbox" checked={shown} onChange={(e) => setShown(e.target.checked)} /> Show the password
       </label>

@@ -1,7 +1,7 @@
-import { siteCreateSchema, siteUpdateSchema, type SiteDto } from '../../../../shared/schemas/site';
+import { siteCreateSchema, siteUpdateSchema, type SiteCreate, type SiteDto } from '../../../../shared/schemas/site';
 import { Caution } from '../../../components/caution';
 import { FormMessage, SelectField, TextAreaField, TextField, type Option, FormActions } from '../../../components/form-field';
-import { toIdOrNull, toNumber, useForm } from '../../../lib/form';
+import { toIdOrNull, toNumber, useSchemaForm } from '../../../lib/schema-form';
 import { useCreateSite, useUpdateSite } from '../api/sites';
 
 interface SiteFormProps {
@@ -27,14 +27,12 @@ function initialValues(site?: SiteDto) {
 }
 
 export function SiteForm({ site, neighbourhoodOptions, hostOptions, onSaved, onCancel }: SiteFormProps) {
-  const form = useForm(initialValues(site));
   const create = useCreateSite();
   const update = useUpdateSite(site?.id ?? 0);
-  const saving = create.isPending || update.isPending;
-  const { values, errors, set } = form;
-
-  function submit() {
-    const input = {
+  const form = useSchemaForm({
+    defaultValues: initialValues(site),
+    schema: site ? siteUpdateSchema : siteCreateSchema,
+    toInput: (values) => ({
       name: values.name,
       neighbourhoodId: toNumber(values.neighbourhoodId),
       latitude: toNumber(values.latitude),
@@ -43,50 +41,33 @@ export function SiteForm({ site, neighbourhoodOptions, hostOptions, onSaved, onC
       antennaHeightM: toNumber(values.antennaHeightM),
       accessNotes: values.accessNotes,
       ...(hostOptions ? { hostUserId: toIdOrNull(values.hostUserId) } : {}),
-    };
-    if (site) {
-      const parsed = form.check(siteUpdateSchema, input);
-      if (parsed) update.mutate(parsed, { onSuccess: onSaved, onError: form.showServerError });
-    } else {
-      const parsed = form.check(siteCreateSchema, input);
-      if (parsed) create.mutate(parsed, { onSuccess: onSaved, onError: form.showServerError });
-    }
-  }
+    }),
+  });
+  const { field } = form;
+  const submit = form.handleSubmit((input) => {
+    if (site) update.mutate(input, { onSuccess: onSaved, onError: form.showServerError });
+    else create.mutate(input as SiteCreate, { onSuccess: onSaved, onError: form.showServerError });
+  });
 
   return (
-    <form
-      noValidate
-      aria-label={site ? `Edit ${site.name}` : 'New site'}
-      className="space-y-4 rounded-lg border border-line bg-surface p-4"
-      onSubmit={(event) => {
-        event.preventDefault();
-        submit();
-      }}
-    >
+    <form noValidate aria-label={site ? `Edit ${site.name}` : 'New site'} className="space-y-4 rounded-lg border border-line bg-surface p-4" onSubmit={submit}>
       <Caution>Roof access and mast work are dangerous. Follow local codes and licensed practice, and never work at height alone.</Caution>
       <FormMessage message={form.formError} />
       <div className="grid gap-4 sm:grid-cols-2">
-        <TextField label="Name" value={values.name} onChange={(e) => set('name', e.target.value)} errors={errors.name} />
-        <SelectField
-          label="Neighbourhood"
-          value={values.neighbourhoodId}
-          onChange={(e) => set('neighbourhoodId', e.target.value)}
-          options={neighbourhoodOptions}
-          placeholder="Choose…"
-          errors={errors.neighbourhoodId}
-        />
-        <TextField label="Latitude (°)" inputMode="decimal" value={values.latitude} onChange={(e) => set('latitude', e.target.value)} errors={errors.latitude} hint="WGS84, north positive, e.g. 52.0702" />
-        <TextField label="Longitude (°)" inputMode="decimal" value={values.longitude} onChange={(e) => set('longitude', e.target.value)} errors={errors.longitude} hint="WGS84, east positive, e.g. 4.3007" />
-        <TextField label="Ground elevation (m)" inputMode="decimal" value={values.groundElevationM} onChange={(e) => set('groundElevationM', e.target.value)} errors={errors.groundElevationM} hint="Above sea level; blank means 0" />
-        <TextField label="Antenna height above ground (m)" inputMode="decimal" value={values.antennaHeightM} onChange={(e) => set('antennaHeightM', e.target.value)} errors={errors.antennaHeightM} hint="Blank means 0" />
+        <TextField label="Name" {...field('name')} />
+        <SelectField label="Neighbourhood" {...field('neighbourhoodId')} options={neighbourhoodOptions} placeholder="Choose…" />
+        <TextField label="Latitude (°)" inputMode="decimal" {...field('latitude')} hint="WGS84, north positive, e.g. 52.0702" />
+        <TextField label="Longitude (°)" inputMode="decimal" {...field('longitude')} hint="WGS84, east positive, e.g. 4.3007" />
+        <TextField label="Ground elevation (m)" inputMode="decimal" {...field('groundElevationM')} hint="Above sea level; blank means 0" />
+        <TextField label="Antenna height above ground (m)" inputMode="decimal" {...field('antennaHeightM')} hint="Blank means 0" />
         {hostOptions ? (
-          <SelectField label="Host" value={values.hostUserId} onChange={(e) => set('hostUserId', e.target.value)} options={hostOptions} placeholder="No host" errors={errors.hostUserId} />
+          <SelectField label="Host" {...field('hostUserId')} options={hostOptions} placeholder="No host" />
         ) : (
           site?.host && <TextField label="Host" value={site.host.name} readOnly hint="Only an admin can change the host." />
         )}
       </div>
-      <TextAreaField label="Access notes" value={values.accessNotes} onChange={(e) => set('accessNotes', e.target.value)} errors={errors.accessNotes} hint="How to reach the roof or window: keys, ladders, who to call first." />
-      <FormActions label={site ? 'Save changes' : 'Add site'} busy={saving} onCancel={onCancel} />
+      <TextAreaField label="Access notes" {...field('accessNotes')} hint="How to reach the roof or window: keys, ladders, who to call first." />
+      <FormActions label={site ? 'Save changes' : 'Add site'} busy={create.isPending || update.isPending} onCancel={onCancel} />
     </form>
   );
 }

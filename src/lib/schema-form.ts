@@ -1,0 +1,133 @@
+import { useState } from 'react';
+import { useForm, type DefaultValues, type FieldError, type FieldErrors, type FieldPath, type Resolver, type UseFormRegisterReturn } from 'react-hook-form';
+import type { z } from 'zod';
+import { ApiError } from './api';
+
+/**
+ * A shared schema fetched on first use (when the form gets focus), so a page does not carry it, or
+ * what it needs (the password dictionary, the validation library), before anyone starts typing.
+ */
+export function lazySchema<S extends z.ZodType>(load: () => Promise<S>): () => Promise<S> {
+  let pending: Promise<S> | null = null;
+  return () =>
+    (pending ??= load().catch((error: unknown) => {
+      pending = null; // a dropped connection may come back: try again next time
+      throw error;
+    }));
+}
+
+/** Text from an input as a number: blank is "not given", a decimal comma is accepted. */
+export function toNumber(text: string): number | undefined {
+  const trimmed = text.trim();
+  if (trimmed === '') return undefined;
+  return Number(trimmed.replace(',', '.'));
+}
+
+/** An id from a select: blank means "none" where the schema allows null. */
+export function toIdOrNull(text: string): number | null {
+  return text === '' ? null : Number(text);
+}
+
+export function optionalText(text: string): string | undefined {
+  return text.trim() === '' ? undefined : text;
+}
+
+export interface Issue {
+  path: string;
+  message: string;
+}
+
+/** The schema's issues by path; a field left blank reads "is required", not "expected number": it was left out, not mistyped. */
+export function schemaIssues(issues: readonly z.core.$ZodIssue[], given: unknown): Issue[] {
+  const input = (given ?? {}) as Record<string, unknown>;
+  return issues.map((issue) => ({
+    path: issue.path.map(String).join('.'),
+    message: issue.code === 'invalid_type' && issue.path.length === 1 && input[String(issue.path[0])] === undefined ? 'is required' : issue.message,
+  }));
+}
+
+/**
+ * Issues split into those that belong to a field of the form (messages of one field joined, as the field shows them) and
+ * the rest, which the form-wide message carries after `summary`, each with its path.
+ */
+export function placeIssues(issues: Issue[], fieldNames: readonly string[], summary: string): { fields: Record<string, string>; formError: string } {
+  const fields: Record<string, string> = {};
+  const extra: string[] = [];
+  for (const { path, message } of issues) {
+    if (fieldNames.includes(path)) fields[path] = fields[path] ? `${fields[path]} ${message}` : message;
+    else extra.push(path ? `${path}: ${message}` : message);
+  }
+  return { fields, formError: [summary, ...extra].join(' ') };
+}
+
+type Values = Record<string, string | boolean>;
+type SchemaSource<S> = S | (() => Promise<S>);
+
+interface SchemaFormOptions<V extends Values, S extends z.ZodType> {
+  defaultValues: V;
+  /** The shared zod schema the API checks with, or a loader from `lazySchema`. */
+  schema: SchemaSource<S>;
+  /** What the API is sent, from the text in the fields (numbers converted, blanks left out); the values as they are by default. */
+  toInput?: (values: V) => unknown;
+}
+
+/**
+ * react-hook-form with a shared zod schema: the fields hold text; on submit `toInput` turns it into the API's input, the
+ * schema checks it, and its issues (and the server's 400 details) are shown under the fields by path, focusing the first.
+ */
+export function useSchemaForm<V extends Values, S extends z.ZodType>({ defaultValues, schema, toInput = (v) => v }: SchemaFormOptions<V, S>) {
+  const [formError, setFormError] = useState<string | null>(null);
+  const fieldNames = Object.keys(defaultValues);
+
+  const resolver: Resolver<V, unknown, z.output<S>> = async (values) => {
+    let loaded: S;
+    try {
+      loaded = typeof schema === 'function' ? await (schema as () => Promise<S>)() : schema;
+    } catch {
+      const message = 'This form could not load its checks. Check your connection and try again.';
+      setFormError(message);
+      return { values: {}, errors: { root: { type: 'load', message } } as FieldErrors<V> };
+    }
+    const input = toInput(values);
+    const result = loaded.safeParse(input);
+    if (result.success) {
+      setFormError(null);
+      return { values: result.data, errors: {} };
+    }
+    const placed = placeIssues(schemaIssues(result.error.issues, input), fieldNames, 'Some fields need attention.');
+    setFormError(placed.formError);
+    const errors: Record<string, FieldError> = {};
+    for (const [path, message] of Object.entries(placed.fields)) errors[path] = { type: 'schema', message };
+    return { values: {}, errors: errors as FieldErrors<V> };
+  };
+
+  const form = useForm<V, unknown, z.output<S>>({
+    defaultValues: defaultValues as DefaultValues<V>,
+    resolver,
+    reValidateMode: 'onSubmit',
+  });
+  const { errors } = form.formState;
+
+  /** The props of a field: react-hook-form's registration and the field's own errors. */
+  function field<K extends FieldPath<V>>(name: K): UseFormRegisterReturn<K> & { errors?: string[] } {
+    const message = (errors[name] as FieldError | undefined)?.message;
+    return { ...form.register(name), errors: message ? [message] : undefined };
+  }
+
+  /** The server's answer to a failed send: 400 details under their fields (the first focused), the rest in the form message. */
+  function showServerError(error: unknown) {
+    form.clearErrors();
+    if (!(error instanceof ApiError)) return setFormError('Something went wrong. Try again.');
+    if (error.details.length === 0) return setFormError(error.message);
+    const placed = placeIssues(error.details, fieldNames, error.message);
+    Object.entries(placed.fields).forEach(([path, message], index) => form.setError(path as FieldPath<V>, { type: 'server', message }, { shouldFocus: index === 0 }));
+    setFormError(placed.formError);
+  }
+
+  function reset(next: V = defaultValues) {
+    form.reset(next);
+    setFormError(null);
+  }
+
+  return { ...form, field, formError, showServerError, reset };
+}
