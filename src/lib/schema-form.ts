@@ -108,10 +108,14 @@ export function useSchemaForm<V extends Values, S extends z.ZodType>({ defaultVa
   });
   const { errors } = form.formState;
 
-  /** The props of a field: react-hook-form's registration and the field's own errors. */
-  function field<K extends FieldPath<V>>(name: K): UseFormRegisterReturn<K> & { errors?: string[] } {
+  /**
+   * The props of a field: react-hook-form's registration, the field's own errors and, for text, its value, so a select
+   * whose options arrive after the form still shows the chosen one. A checkbox stays with its registration.
+   */
+  function field<K extends FieldPath<V>>(name: K): UseFormRegisterReturn<K> & { errors?: string[]; value?: string } {
     const message = (errors[name] as FieldError | undefined)?.message;
-    return { ...form.register(name), errors: message ? [message] : undefined };
+    const value: unknown = form.watch(name);
+    return { ...form.register(name), errors: message ? [message] : undefined, ...(typeof value === 'string' ? { value } : {}) };
   }
 
   /** The server's answer to a failed send: 400 details under their fields (the first focused), the rest in the form message. */

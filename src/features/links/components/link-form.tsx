@@ -5,7 +5,7 @@ import { linkCreateSchema, linkUpdateSchema, type LinkDto } from '../../../../sh
 import type { RadioDto } from '../../../../shared/schemas/radio';
 import { Button } from '../../../components/button';
 import { FormMessage, SelectField, TextField, type Option, FormActions } from '../../../components/form-field';
-import { optionalText, toNumber, useForm } from '../../../lib/form';
+import { optionalText, toNumber, useSchemaForm } from '../../../lib/schema-form';
 import { useNodeChoices, useRadioChoices, useSiteChoices } from '../../../lib/inventory-choices';
 import { paths } from '../../../lib/paths';
 import { useCreateLink, useUpdateLink } from '../api/links';
@@ -27,25 +27,20 @@ export function LinkForm({ nodeId, link, onSaved, onCancel }: LinkFormProps) {
   return link ? <EditLink link={link} onSaved={onSaved} onCancel={onCancel} /> : <NewLink nodeId={nodeId} onSaved={onSaved} onCancel={onCancel} />;
 }
 
-function FormFrame({ label, onSubmit, children }: { label: string; onSubmit: () => void; children: React.ReactNode }) {
+function FormFrame({ label, onSubmit, children }: { label: string; onSubmit: (event: React.FormEvent) => void; children: React.ReactNode }) {
   return (
-    <form
-      noValidate
-      aria-label={label}
-      data-testid="link-form"
-      className="@container space-y-4 rounded-lg border border-line bg-surface p-4"
-      onSubmit={(event) => {
-        event.preventDefault();
-        onSubmit();
-      }}
-    >
+    <form noValidate aria-label={label} data-testid="link-form" className="@container space-y-4 rounded-lg border border-line bg-surface p-4" onSubmit={onSubmit}>
       {children}
     </form>
   );
 }
 
 function NewLink({ nodeId, onSaved, onCancel }: Omit<LinkFormProps, 'link'>) {
-  const form = useForm({ radioAId: '', radioBId: '', name: '', status: 'planned' });
+  const form = useSchemaForm({
+    defaultValues: { radioAId: '', radioBId: '', name: '', status: 'planned' },
+    schema: linkCreateSchema,
+    toInput: (values) => ({ radioAId: toNumber(values.radioAId), radioBId: toNumber(values.radioBId), name: optionalText(values.name), status: values.status }),
+  });
   const [farSiteId, setFarSiteId] = useState('');
   const [farNodeId, setFarNodeId] = useState('');
   const create = useCreateLink();
@@ -53,17 +48,13 @@ function NewLink({ nodeId, onSaved, onCancel }: Omit<LinkFormProps, 'link'>) {
   const sites = useSiteChoices();
   const farNodes = useNodeChoices(farSiteId ? Number(farSiteId) : undefined);
   const farRadios = useRadioChoices(farNodeId ? Number(farNodeId) : null);
-  const { values, errors, set } = form;
+  const { field, setValue } = form;
 
   const nodeOptions: Option[] = farSiteId
     ? (farNodes.data ?? []).filter((n) => n.id !== nodeId).map((n) => ({ value: String(n.id), label: n.name }))
     : [];
 
-  function submit() {
-    const input = { radioAId: toNumber(values.radioAId), radioBId: toNumber(values.radioBId), name: optionalText(values.name), status: values.status };
-    const parsed = form.check(linkCreateSchema, input);
-    if (parsed) create.mutate(parsed, { onSuccess: onSaved, onError: form.showServerError });
-  }
+  const submit = form.handleSubmit((input) => create.mutate(input, { onSuccess: onSaved, onError: form.showServerError }));
 
   if (nearRadios.isSuccess && nearRadios.data.length === 0) {
     return (
@@ -80,14 +71,14 @@ function NewLink({ nodeId, onSaved, onCancel }: Omit<LinkFormProps, 'link'>) {
     <FormFrame label="New link" onSubmit={submit}>
       <FormMessage message={form.formError} />
       <div className="grid gap-4 @md:grid-cols-2">
-        <SelectField label="This node's radio" value={values.radioAId} onChange={(e) => set('radioAId', e.target.value)} options={radioOptions(nearRadios.data)} placeholder="Choose…" errors={errors.radioAId} />
+        <SelectField label="This node's radio" {...field('radioAId')} options={radioOptions(nearRadios.data)} placeholder="Choose…" />
         <SelectField
           label="Far end: site"
           value={farSiteId}
           onChange={(e) => {
             setFarSiteId(e.target.value);
             setFarNodeId('');
-            set('radioBId', '');
+            setValue('radioBId', '');
           }}
           options={(sites.data ?? []).map((s) => ({ value: String(s.id), label: s.name }))}
           placeholder="Choose the far end's site…"
@@ -98,19 +89,17 @@ function NewLink({ nodeId, onSaved, onCancel }: Omit<LinkFormProps, 'link'>) {
           disabled={!farSiteId}
           onChange={(e) => {
             setFarNodeId(e.target.value);
-            set('radioBId', '');
+            setValue('radioBId', '');
           }}
           options={nodeOptions}
           placeholder={farSiteId && farNodes.isSuccess && nodeOptions.length === 0 ? 'No other node at this site' : 'Choose…'}
         />
         <SelectField
           label="Far end: radio"
-          value={values.radioBId}
+          {...field('radioBId')}
           disabled={!farNodeId}
-          onChange={(e) => set('radioBId', e.target.value)}
           options={radioOptions(farRadios.data)}
           placeholder={farNodeId && farRadios.isSuccess && farRadios.data.length === 0 ? 'That node has no radios yet' : 'Choose…'}
-          errors={errors.radioBId}
           hint={
             farNodeId && farRadios.isSuccess && farRadios.data.length === 0 ? (
               <>
@@ -119,8 +108,8 @@ function NewLink({ nodeId, onSaved, onCancel }: Omit<LinkFormProps, 'link'>) {
             ) : undefined
           }
         />
-        <TextField label="Name (optional)" value={values.name} onChange={(e) => set('name', e.target.value)} errors={errors.name} hint="e.g. Granary to Mill backhaul" />
-        <SelectField label="Status" value={values.status} onChange={(e) => set('status', e.target.value)} options={STATUS_OPTIONS} errors={errors.status} />
+        <TextField label="Name (optional)" {...field('name')} hint="e.g. Granary to Mill backhaul" />
+        <SelectField label="Status" {...field('status')} options={STATUS_OPTIONS} />
       </div>
       <FormActions label="Add link" busy={create.isPending} onCancel={onCancel} />
     </FormFrame>
@@ -128,22 +117,21 @@ function NewLink({ nodeId, onSaved, onCancel }: Omit<LinkFormProps, 'link'>) {
 }
 
 function EditLink({ link, onSaved, onCancel }: { link: LinkDto; onSaved: (link: LinkDto) => void; onCancel: () => void }) {
-  const form = useForm({ name: link.name ?? '', status: link.status as string });
+  const form = useSchemaForm({
+    defaultValues: { name: link.name ?? '', status: link.status as string },
+    schema: linkUpdateSchema,
+    toInput: (values) => ({ name: optionalText(values.name), status: values.status }),
+  });
   const update = useUpdateLink(link.id);
-  const { values, errors, set } = form;
-
-  function submit() {
-    const parsed = form.check(linkUpdateSchema, { name: optionalText(values.name), status: values.status });
-    if (parsed) update.mutate(parsed, { onSuccess: onSaved, onError: form.showServerError });
-  }
+  const submit = form.handleSubmit((input) => update.mutate(input, { onSuccess: onSaved, onError: form.showServerError }));
 
   return (
     <FormFrame label={`Edit ${link.name ?? `link #${link.id}`}`} onSubmit={submit}>
       <FormMessage message={form.formError} />
       <p className="text-sm text-muted">A link always joins the same two radios; to join others, remove it and add a new one.</p>
       <div className="grid gap-4 @md:grid-cols-2">
-        <TextField label="Name (optional)" value={values.name} onChange={(e) => set('name', e.target.value)} errors={errors.name} />
-        <SelectField label="Status" value={values.status} onChange={(e) => set('status', e.target.value)} options={STATUS_OPTIONS} errors={errors.status} />
+        <TextField label="Name (optional)" {...form.field('name')} />
+        <SelectField label="Status" {...form.field('status')} options={STATUS_OPTIONS} />
       </div>
       <FormActions label="Save link" busy={update.isPending} onCancel={onCancel} />
     </FormFrame>

@@ -3,7 +3,7 @@ import { validChannels, type ChannelRegion } from '../../../../shared/radio/chan
 import { radioCreateSchema, type RadioDto } from '../../../../shared/schemas/radio';
 import { Caution } from '../../../components/caution';
 import { FormMessage, SelectField, TextField, type Option, FormActions } from '../../../components/form-field';
-import { toNumber, useForm } from '../../../lib/form';
+import { toNumber, useSchemaForm } from '../../../lib/schema-form';
 import { asWidth, bandOptions, channelOptions, isBand, widthOptions } from '../../../lib/channel-options';
 import { useCreateRadio, useUpdateRadio } from '../api/radios';
 import { ENCRYPTION_WORDS, ROLE_WORDS } from './radio-words';
@@ -40,26 +40,12 @@ const POLARISATION_WORDS: Record<string, string> = { vertical: 'Vertical', horiz
 
 /** Add or edit one radio of a node; validated with the API's own schema, so the messages are the API's. */
 export function RadioForm({ nodeId, region, radio, onSaved, onCancel }: RadioFormProps) {
-  const form = useForm(initialValues(radio));
   const create = useCreateRadio();
   const update = useUpdateRadio(radio?.id ?? 0);
-  const saving = create.isPending || update.isPending;
-  const { values, errors, set } = form;
-  const band: Band = isBand(values.band) ? values.band : '5';
-  const width = asWidth(values.channelWidthMHz);
-  const widths = widthOptions(region, band);
-  const keyless = values.encryption === 'none';
-
-  // A new band or width keeps the channel only where it is still offered.
-  function changeBandOrWidth(nextBand: Band, nextWidth: ChannelWidthMHz) {
-    const usableWidth = widthOptions(region, nextBand).some((o) => o.value === String(nextWidth)) ? nextWidth : 20;
-    set('band', nextBand);
-    set('channelWidthMHz', String(usableWidth));
-    if (!validChannels(nextBand, usableWidth, region).includes(Number(values.channel))) set('channel', '');
-  }
-
-  function submit() {
-    const input = {
+  const form = useSchemaForm({
+    defaultValues: initialValues(radio),
+    schema: radioCreateSchema,
+    toInput: (values) => ({
       nodeId,
       iface: values.iface,
       role: values.role,
@@ -73,14 +59,28 @@ export function RadioForm({ nodeId, region, radio, onSaved, onCancel }: RadioFor
       ssid: values.ssid === '' ? null : values.ssid,
       encryption: values.encryption,
       // Write-only: an open network holds no key; a blank field keeps the stored key (or sets none on a new radio).
-      ...(keyless ? { preSharedKey: null } : values.preSharedKey !== '' ? { preSharedKey: values.preSharedKey } : {}),
+      ...(values.encryption === 'none' ? { preSharedKey: null } : values.preSharedKey ? { preSharedKey: values.preSharedKey } : {}),
       groupRekeyS: toNumber(values.groupRekeyS),
-    };
-    const parsed = form.check(radioCreateSchema, input);
-    if (!parsed) return;
-    if (radio) update.mutate(parsed, { onSuccess: onSaved, onError: form.showServerError });
-    else create.mutate(parsed, { onSuccess: onSaved, onError: form.showServerError });
+    }),
+  });
+  const { field, setValue } = form;
+  const [bandValue, widthValue, channel, encryption] = form.watch(['band', 'channelWidthMHz', 'channel', 'encryption']);
+  const band: Band = isBand(bandValue) ? bandValue : '5';
+  const width = asWidth(widthValue);
+  const keyless = encryption === 'none';
+
+  // A new band or width keeps the channel only where it is still offered.
+  function changeBandOrWidth(nextBand: Band, nextWidth: ChannelWidthMHz) {
+    const usableWidth = widthOptions(region, nextBand).some((o) => o.value === String(nextWidth)) ? nextWidth : 20;
+    setValue('band', nextBand);
+    setValue('channelWidthMHz', String(usableWidth));
+    if (!validChannels(nextBand, usableWidth, region).includes(Number(channel))) setValue('channel', '');
   }
+
+  const submit = form.handleSubmit((input) => {
+    if (radio) update.mutate(input, { onSuccess: onSaved, onError: form.showServerError });
+    else create.mutate(input, { onSuccess: onSaved, onError: form.showServerError });
+  });
 
   return (
     <form
@@ -88,10 +88,7 @@ export function RadioForm({ nodeId, region, radio, onSaved, onCancel }: RadioFor
       aria-label={radio ? `Edit radio ${radio.iface}` : 'New radio'}
       data-testid="radio-form"
       className="space-y-4 rounded-lg border border-line bg-surface p-4"
-      onSubmit={(event) => {
-        event.preventDefault();
-        submit();
-      }}
+      onSubmit={submit}
     >
       <Caution>
         High-gain antennas concentrate radio energy: keep people out of the beam while the radio transmits, and never work on a mast or antenna
@@ -99,39 +96,29 @@ export function RadioForm({ nodeId, region, radio, onSaved, onCancel }: RadioFor
       </Caution>
       <FormMessage message={form.formError} />
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
-        <TextField label="Interface" value={values.iface} onChange={(e) => set('iface', e.target.value)} errors={errors.iface} hint="The router's name for the radio, e.g. wlan0" />
-        <SelectField label="Role" value={values.role} onChange={(e) => set('role', e.target.value as typeof values.role)} options={choices(RADIO_ROLES, ROLE_WORDS)} errors={errors.role} />
-        <SelectField
-          label="Band"
-          value={values.band}
-          onChange={(e) => isBand(e.target.value) && changeBandOrWidth(e.target.value, width)}
-          options={bandOptions}
-          errors={errors.band}
-        />
-        <SelectField label="Channel width" value={values.channelWidthMHz} onChange={(e) => changeBandOrWidth(band, asWidth(e.target.value))} options={widths} errors={errors.channelWidthMHz} />
+        <TextField label="Interface" {...field('iface')} hint="The router's name for the radio, e.g. wlan0" />
+        <SelectField label="Role" {...field('role')} options={choices(RADIO_ROLES, ROLE_WORDS)} />
+        <SelectField label="Band" {...field('band')} onChange={(e) => isBand(e.target.value) && changeBandOrWidth(e.target.value, width)} options={bandOptions} />
+        <SelectField label="Channel width" {...field('channelWidthMHz')} onChange={(e) => changeBandOrWidth(band, asWidth(e.target.value))} options={widthOptions(region, band)} />
         <SelectField
           label="Channel"
-          value={values.channel}
-          onChange={(e) => set('channel', e.target.value)}
-          options={channelOptions(region, band, width, values.channel)}
+          {...field('channel')}
+          options={channelOptions(region, band, width, channel)}
           placeholder="Choose…"
-          errors={errors.channel}
           hint={`Channels allowed in ${region} at this band and width (the network's region)`}
         />
-        <TextField label="Transmit power (dBm)" inputMode="decimal" value={values.txPowerDbm} onChange={(e) => set('txPowerDbm', e.target.value)} errors={errors.txPowerDbm} hint="At the radio's output, −10 to 36" />
-        <TextField label="Antenna gain (dBi)" inputMode="decimal" value={values.antennaGainDbi} onChange={(e) => set('antennaGainDbi', e.target.value)} errors={errors.antennaGainDbi} />
-        <SelectField label="Polarisation" value={values.polarisation} onChange={(e) => set('polarisation', e.target.value)} options={choices(POLARISATIONS, POLARISATION_WORDS)} errors={errors.polarisation} />
-        <TextField label="Cable and connector loss (dB)" inputMode="decimal" value={values.cableLossDb} onChange={(e) => set('cableLossDb', e.target.value)} errors={errors.cableLossDb} hint="Between the radio and the antenna; 0 for a radio built into its antenna" />
-        <TextField label="SSID" value={values.ssid} onChange={(e) => set('ssid', e.target.value)} errors={errors.ssid} hint="Blank when the radio announces no network name" />
-        <SelectField label="Encryption" value={values.encryption} onChange={(e) => set('encryption', e.target.value as typeof values.encryption)} options={choices(ENCRYPTIONS, ENCRYPTION_WORDS)} errors={errors.encryption} />
+        <TextField label="Transmit power (dBm)" inputMode="decimal" {...field('txPowerDbm')} hint="At the radio's output, −10 to 36" />
+        <TextField label="Antenna gain (dBi)" inputMode="decimal" {...field('antennaGainDbi')} />
+        <SelectField label="Polarisation" {...field('polarisation')} options={choices(POLARISATIONS, POLARISATION_WORDS)} />
+        <TextField label="Cable and connector loss (dB)" inputMode="decimal" {...field('cableLossDb')} hint="Between the radio and the antenna; 0 for a radio built into its antenna" />
+        <TextField label="SSID" {...field('ssid')} hint="Blank when the radio announces no network name" />
+        <SelectField label="Encryption" {...field('encryption')} options={choices(ENCRYPTIONS, ENCRYPTION_WORDS)} />
         <TextField
           label="Pre-shared key"
           type="password"
           autoComplete="new-password"
-          value={keyless ? '' : values.preSharedKey}
+          {...field('preSharedKey')}
           disabled={keyless}
-          onChange={(e) => set('preSharedKey', e.target.value)}
-          errors={errors.preSharedKey}
           hint={
             keyless
               ? 'An open network has no key.'
@@ -140,9 +127,9 @@ export function RadioForm({ nodeId, region, radio, onSaved, onCancel }: RadioFor
                 : '8–63 printable characters or 64 hex digits. Never shown again after saving.'
           }
         />
-        <TextField label="Group key rekey interval (s)" inputMode="numeric" value={values.groupRekeyS} onChange={(e) => set('groupRekeyS', e.target.value)} errors={errors.groupRekeyS} hint="0 turns rekeying off (not advised)" />
+        <TextField label="Group key rekey interval (s)" inputMode="numeric" {...field('groupRekeyS')} hint="0 turns rekeying off (not advised)" />
       </div>
-      <FormActions label={radio ? 'Save radio' : 'Add radio'} busy={saving} onCancel={onCancel} />
+      <FormActions label={radio ? 'Save radio' : 'Add radio'} busy={create.isPending || update.isPending} onCancel={onCancel} />
     </form>
   );
 }
