@@ -57,7 +57,9 @@ export interface Option {
   label: string;
 }
 
-export function SelectField({ label, errors, hint, options, placeholder, ...select }: Frame & ComponentPropsWithRef<'select'> & { options: Option[]; placeholder?: string }) {
+type SelectProps = Frame & ComponentPropsWithRef<'select'> & { options: Option[]; placeholder?: string };
+
+export function SelectField({ label, errors, hint, options, placeholder, ...select }: SelectProps) {
   const id = useId();
   return (
     <FieldFrame id={id} label={label} errors={errors} hint={hint}>

@@ -96,7 +96,8 @@ export function useSchemaForm<V extends Values, S extends z.ZodType>({ defaultVa
     }
     const placed = placeIssues(schemaIssues(result.error.issues, input), fieldNames, 'Some fields need attention.');
     setFormError(placed.formError);
-    const errors: Record<string, FieldError> = {};
+    // The form-wide message is an error too, so issues that belong to no field still stop the send.
+    const errors: Record<string, FieldError> = { root: { type: 'schema', message: placed.formError } };
     for (const [path, message] of Object.entries(placed.fields)) errors[path] = { type: 'schema', message };
     return { values: {}, errors: errors as FieldErrors<V> };
   };
@@ -124,7 +125,9 @@ export function useSchemaForm<V extends Values, S extends z.ZodType>({ defaultVa
     if (!(error instanceof ApiError)) return setFormError('Something went wrong. Try again.');
     if (error.details.length === 0) return setFormError(error.message);
     const placed = placeIssues(error.details, fieldNames, error.message);
-    Object.entries(placed.fields).forEach(([path, message], index) => form.setError(path as FieldPath<V>, { type: 'server', message }, { shouldFocus: index === 0 }));
+    Object.entries(placed.fields).forEach(([path, message], index) =>
+      form.setError(path as FieldPath<V>, { type: 'server', message }, { shouldFocus: index === 0 }),
+    );
     setFormError(placed.formError);
   }
 

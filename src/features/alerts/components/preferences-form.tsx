@@ -63,7 +63,12 @@ export function PreferencesForm({ preferences }: { preferences: PreferencesDto }
           <CheckboxField label="Tell me when it stops answering and when it is back" {...field('hostMail')} />
           <div className="grid gap-3 sm:grid-cols-2">
             <TextField label="Quiet from" type="time" {...field('quietStart')} />
-            <TextField label="Quiet until" type="time" {...field('quietEnd')} hint={`In the network's time zone (${preferences.timeZone}); mail waits until quiet hours end.`} />
+            <TextField
+              label="Quiet until"
+              type="time"
+              {...field('quietEnd')}
+              hint={`In the network's time zone (${preferences.timeZone}); mail waits until quiet hours end.`}
+            />
           </div>
         </fieldset>
       )}

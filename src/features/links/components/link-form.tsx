@@ -29,7 +29,13 @@ export function LinkForm({ nodeId, link, onSaved, onCancel }: LinkFormProps) {
 
 function FormFrame({ label, onSubmit, children }: { label: string; onSubmit: (event: React.FormEvent) => void; children: React.ReactNode }) {
   return (
-    <form noValidate aria-label={label} data-testid="link-form" className="@container space-y-4 rounded-lg border border-line bg-surface p-4" onSubmit={onSubmit}>
+    <form
+      noValidate
+      aria-label={label}
+      data-testid="link-form"
+      className="@container space-y-4 rounded-lg border border-line bg-surface p-4"
+      onSubmit={onSubmit}
+    >
       {children}
     </form>
   );

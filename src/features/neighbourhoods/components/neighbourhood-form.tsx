@@ -1,4 +1,9 @@
-import { neighbourhoodCreateSchema, neighbourhoodUpdateSchema, type NeighbourhoodCreate, type NeighbourhoodDto } from '../../../../shared/schemas/neighbourhood';
+import {
+  neighbourhoodCreateSchema,
+  neighbourhoodUpdateSchema,
+  type NeighbourhoodCreate,
+  type NeighbourhoodDto,
+} from '../../../../shared/schemas/neighbourhood';
 import { FormMessage, TextAreaField, TextField, FormActions } from '../../../components/form-field';
 import { optionalText, useSchemaForm } from '../../../lib/schema-form';
 import { useCreateNeighbourhood, useUpdateNeighbourhood } from '../api/neighbourhoods';
@@ -24,7 +29,12 @@ export function NeighbourhoodForm({ neighbourhood, onSaved, onCancel }: Neighbou
   });
 
   return (
-    <form noValidate aria-label={neighbourhood ? `Edit ${neighbourhood.name}` : 'New neighbourhood'} className="space-y-4 rounded-lg border border-line bg-surface p-4" onSubmit={submit}>
+    <form
+      noValidate
+      aria-label={neighbourhood ? `Edit ${neighbourhood.name}` : 'New neighbourhood'}
+      className="space-y-4 rounded-lg border border-line bg-surface p-4"
+      onSubmit={submit}
+    >
       <FormMessage message={form.formError} />
       <TextField label="Name" {...form.field('name')} />
       <TextAreaField label="Description" {...form.field('description')} hint="Streets it covers, where the uplink is." />

@@ -14,7 +14,13 @@ export function InviteForm({ onSent, onCancel }: { onSent: (person: UserDto & { 
   const invite = useInvite();
   const submit = form.handleSubmit((input) => invite.mutate(input, { onSuccess: onSent, onError: form.showServerError }));
   return (
-    <form noValidate data-testid="invite-form" className="grid max-w-2xl gap-4 sm:grid-cols-3" onFocus={() => void loadSchema().catch(() => undefined)} onSubmit={submit}>
+    <form
+      noValidate
+      data-testid="invite-form"
+      className="grid max-w-2xl gap-4 sm:grid-cols-3"
+      onFocus={() => void loadSchema().catch(() => undefined)}
+      onSubmit={submit}
+    >
       <div className="sm:col-span-3"><FormMessage message={form.formError} /></div>
       <TextField label="E-mail" type="email" {...form.field('email')} />
       <TextField label="Name" {...form.field('name')} />

@@ -21,14 +21,26 @@ export function PersonForm({ onSaved, onCancel }: { onSaved: (person: UserDto) =
   const submit = form.handleSubmit((input) => create.mutate(input, { onSuccess: onSaved, onError: form.showServerError }));
 
   return (
-    <form noValidate aria-label="New person" className="space-y-4 rounded-lg border border-line bg-surface p-4" onFocus={() => void loadSchema().catch(() => undefined)} onSubmit={submit}>
+    <form
+      noValidate
+      aria-label="New person"
+      className="space-y-4 rounded-lg border border-line bg-surface p-4"
+      onFocus={() => void loadSchema().catch(() => undefined)}
+      onSubmit={submit}
+    >
       <FormMessage message={form.formError} />
       <div className="grid gap-4 sm:grid-cols-2">
         <TextField label="Name" autoComplete="off" {...field('name')} />
         <TextField label="E-mail" type="email" autoComplete="off" {...field('email')} />
         <SelectField label="Role" {...field('role')} options={ROLES.map((role) => ({ value: role, label: capitalise(role) }))} hint={ROLE_HINT} />
         <TextField label="Phone" type="tel" autoComplete="off" {...field('phone')} hint="Optional; used when a node they host goes down." />
-        <TextField label="Starting password" type="password" autoComplete="new-password" {...field('password')} hint="At least 12 characters. Hand it over in person, not by e-mail." />
+        <TextField
+          label="Starting password"
+          type="password"
+          autoComplete="new-password"
+          {...field('password')}
+          hint="At least 12 characters. Hand it over in person, not by e-mail."
+        />
       </div>
       <FormActions label="Add person" busy={create.isPending} busyLabel="Adding…" onCancel={onCancel} />
     </form>

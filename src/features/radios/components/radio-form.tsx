@@ -98,8 +98,18 @@ export function RadioForm({ nodeId, region, radio, onSaved, onCancel }: RadioFor
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">
         <TextField label="Interface" {...field('iface')} hint="The router's name for the radio, e.g. wlan0" />
         <SelectField label="Role" {...field('role')} options={choices(RADIO_ROLES, ROLE_WORDS)} />
-        <SelectField label="Band" {...field('band')} onChange={(e) => isBand(e.target.value) && changeBandOrWidth(e.target.value, width)} options={bandOptions} />
-        <SelectField label="Channel width" {...field('channelWidthMHz')} onChange={(e) => changeBandOrWidth(band, asWidth(e.target.value))} options={widthOptions(region, band)} />
+        <SelectField
+          label="Band"
+          {...field('band')}
+          onChange={(e) => isBand(e.target.value) && changeBandOrWidth(e.target.value, width)}
+          options={bandOptions}
+        />
+        <SelectField
+          label="Channel width"
+          {...field('channelWidthMHz')}
+          onChange={(e) => changeBandOrWidth(band, asWidth(e.target.value))}
+          options={widthOptions(region, band)}
+        />
         <SelectField
           label="Channel"
           {...field('channel')}
@@ -110,7 +120,12 @@ export function RadioForm({ nodeId, region, radio, onSaved, onCancel }: RadioFor
         <TextField label="Transmit power (dBm)" inputMode="decimal" {...field('txPowerDbm')} hint="At the radio's output, −10 to 36" />
         <TextField label="Antenna gain (dBi)" inputMode="decimal" {...field('antennaGainDbi')} />
         <SelectField label="Polarisation" {...field('polarisation')} options={choices(POLARISATIONS, POLARISATION_WORDS)} />
-        <TextField label="Cable and connector loss (dB)" inputMode="decimal" {...field('cableLossDb')} hint="Between the radio and the antenna; 0 for a radio built into its antenna" />
+        <TextField
+          label="Cable and connector loss (dB)"
+          inputMode="decimal"
+          {...field('cableLossDb')}
+          hint="Between the radio and the antenna; 0 for a radio built into its antenna"
+        />
         <TextField label="SSID" {...field('ssid')} hint="Blank when the radio announces no network name" />
         <SelectField label="Encryption" {...field('encryption')} options={choices(ENCRYPTIONS, ENCRYPTION_WORDS)} />
         <TextField

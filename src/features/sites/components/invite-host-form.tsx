@@ -10,7 +10,11 @@ import { siteKeys } from '../../../lib/query-keys';
  * become the site's host. Operators can name only people already hosting nearby; everyone else comes this way.
  */
 export function InviteHostForm({ siteId, onSent, onCancel }: { siteId: number; onSent: (email: string) => void; onCancel: () => void }) {
-  const form = useSchemaForm({ defaultValues: { email: '', name: '' }, schema: invitationCreateSchema, toInput: (values) => ({ ...values, role: 'host', siteId }) });
+  const form = useSchemaForm({
+    defaultValues: { email: '', name: '' },
+    schema: invitationCreateSchema,
+    toInput: (values) => ({ ...values, role: 'host', siteId }),
+  });
   const queryClient = useQueryClient();
   const invite = useMutation({
     mutationFn: (body: { email: string; name: string; role: 'host'; siteId: number }) => api.post('/invitations', body),
