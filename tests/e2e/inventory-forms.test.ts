@@ -103,6 +103,8 @@ describe('the inventory in the browser: radios, links and install photos', () =>
     await page.getByLabel('Group key rekey interval (s)').fill('900');
     await page.getByRole('button', { name: 'Add radio' }).click();
     const powerMessage = await fieldError(page, 'Transmit power (dBm)');
+    // The first field the schema refused takes focus, so a keyboard user lands on it.
+    await expect.poll(() => page.getByLabel('Transmit power (dBm)').evaluate((el) => el === document.activeElement), { timeout: 10_000 }).toBe(true);
     const keyMessage = await fieldError(page, 'Pre-shared key');
     const refused = await api(page, base(), 'POST', '/radios', {
       nodeId: node.id, iface: 'wlan3', role: 'mesh', band: '5', channel: 44, channelWidthMHz: 40, txPowerDbm: 50, antennaGainDbi: 12,
