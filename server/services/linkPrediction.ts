@@ -18,8 +18,24 @@ export interface RadioEnd {
   antennaHeightM: number;
 }
 
+// The budget is a pure function of the two ends, and a big town's map asks for thousands of them on every
+// read: answers are kept by their inputs (no invalidation needed), cleared whole when the table fills.
+const PREDICTION_MEMO_MAX = 50_000;
+const predictions = new Map<string, LinkBudgetAnswer | null>();
+const endKey = (e: RadioEnd) =>
+  [e.band, e.channel, e.channelWidthMHz, e.txPowerDbm, e.antennaGainDbi, e.cableLossDb, e.latitude, e.longitude, e.groundElevationM, e.antennaHeightM].join(',');
+
 /** The predicted budget of a link from radio a toward radio b, from the inventory; null if it cannot be computed. */
 export function predictLink(a: RadioEnd, b: RadioEnd): LinkBudgetAnswer | null {
+  const key = `${endKey(a)}|${endKey(b)}`;
+  if (predictions.has(key)) return predictions.get(key)!;
+  const answer = computePrediction(a, b);
+  if (predictions.size >= PREDICTION_MEMO_MAX) predictions.clear();
+  predictions.set(key, answer);
+  return answer;
+}
+
+function computePrediction(a: RadioEnd, b: RadioEnd): LinkBudgetAnswer | null {
   try {
     return computeLinkBudget({
       a: { lat: a.latitude, lon: a.longitude, heightM: a.antennaHeightM, groundElevationM: a.groundElevationM },

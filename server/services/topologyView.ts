@@ -37,7 +37,7 @@ export async function topologyFor(config: Config, sequelize: Sequelize, actor: A
   const windows = { observedWindowS: config.linkObservedWindowS, silentAfterS: config.linkSilentAfterS };
   const within = isAdmin(actor) ? null : ids;
   const [predicted, air, moves] = await Promise.all([
-    linksWithPrediction(sequelize, ids),
+    linksWithPrediction(sequelize, within),
     airView(sequelize, now, windows, within),
     radioMoves(sequelize, new Date(now.getTime() - config.radioMoveShowDays * 86_400_000), within),
   ]);
