@@ -1,7 +1,8 @@
-import type { DiscoveredLinkDto, TopologyDto, TopologyLinkDto, TopologyNodeDto } from '../../shared/schemas/topology';
+import { NODE_STATES, type NodeState } from '../../shared/enums';
+import type { DiscoveredLinkDto, TopologyDto, TopologyLinkDto, TopologyNeighbourhoodDto, TopologyNodeDto } from '../../shared/schemas/topology';
 import type { Actor } from '../policies/actor';
 import { mayAddLink } from '../policies/link';
-import type { TopologyNodeRow, TopologyView } from '../services/topologyView';
+import type { NeighbourhoodStateRow, TopologyNodeRow, TopologyView } from '../services/topologyView';
 import { iso } from './common';
 
 const presentNode = (n: TopologyNodeRow): TopologyNodeDto => ({
@@ -27,3 +28,21 @@ export const presentTopology = (actor: Actor, t: TopologyView): TopologyDto => (
   discoveredLinks: t.discoveredLinks.map((d) => presentDiscovered(actor, d)),
   radioMoves: t.radioMoves,
 });
+
+/** One entry per neighbourhood, every state counted (0 when absent), centre weighted by each state's node count. */
+export function presentNeighbourhoodStates(rows: NeighbourhoodStateRow[]): TopologyNeighbourhoodDto[] {
+  const byHood = new Map<number, TopologyNeighbourhoodDto>();
+  for (const r of rows) {
+    let hood = byHood.get(r.neighbourhoodId);
+    if (!hood) {
+      const counts = Object.fromEntries(NODE_STATES.map((s) => [s, 0])) as Record<NodeState, number>;
+      hood = { neighbourhoodId: r.neighbourhoodId, name: r.name, total: 0, counts, latitude: 0, longitude: 0 };
+      byHood.set(r.neighbourhoodId, hood);
+    }
+    hood.counts[r.state] += r.count;
+    hood.latitude += r.latitude * r.count;
+    hood.longitude += r.longitude * r.count;
+    hood.total += r.count;
+  }
+  return [...byHood.values()].map((h) => ({ ...h, latitude: h.latitude / h.total, longitude: h.longitude / h.total }));
+}

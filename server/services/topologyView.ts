@@ -53,4 +53,23 @@ export async function topologyFor(config: Config, sequelize: Sequelize, actor: A
   const discoveredLinks = air.discoveredLinks.map((d) => ({ ...d, neighbourhoodAId: hoodOf.get(d.nodeAId)!, neighbourhoodBId: hoodOf.get(d.nodeBId)! }));
   return { nodes, links, discoveredLinks, radioMoves: moves.map((m) => maskMove(m, ids)) };
 }
+
+export interface NeighbourhoodStateRow { neighbourhoodId: number; name: string; state: NodeState; count: number; latitude: number; longitude: number }
+
+/**
+ * Per neighbourhood holding nodes the caller may read, how many of those are in each state, with the mean
+ * of their sites' coordinates: one grouped query, no links, no air view.
+ */
+export function neighbourhoodStates(sequelize: Sequelize, actor: Actor) {
+  return sequelize.query<NeighbourhoodStateRow>(
+    `SELECT n.neighbourhood_id AS "neighbourhoodId", h.name, n.state, count(*)::int AS count,
+            avg(s.latitude)::float8 AS latitude, avg(s.longitude)::float8 AS longitude
+       FROM nodes n JOIN sites s ON s.id = n.site_id JOIN neighbourhoods h ON h.id = n.neighbourhood_id
+      WHERE ${nodeScopeSql(actor, 'n')}
+      GROUP BY n.neighbourhood_id, h.name, n.state
+      ORDER BY h.name, n.neighbourhood_id, n.state`,
+    { type: QueryTypes.SELECT },
+  );
+}
+
 export type TopologyView = Awaited<ReturnType<typeof topologyFor>>;

@@ -1,4 +1,5 @@
-import type { LinkStatus, NodeState } from '../enums';
+import { z } from 'zod';
+import { NODE_STATES, type LinkStatus, type NodeState } from '../enums';
 import type { RadioMove } from './radio';
 
 /** GET /api/topology: the map's graph, as the server answers it (server/presenters/topology.ts). */
@@ -28,3 +29,19 @@ export interface DiscoveredLinkDto {
 }
 
 export interface TopologyDto { nodes: TopologyNodeDto[]; links: TopologyLinkDto[]; discoveredLinks: DiscoveredLinkDto[]; radioMoves: RadioMove[] }
+
+/**
+ * GET /api/v1/topology/neighbourhoods: per readable neighbourhood how many of the caller's readable nodes are
+ * in each state, and where its sites are on average; small, so the map's marks draw before the graph arrives.
+ */
+export const topologyNeighbourhoodSchema = z.object({
+  neighbourhoodId: z.number().int(),
+  name: z.string(),
+  total: z.number().int().nonnegative(),
+  counts: z.object(Object.fromEntries(NODE_STATES.map((s) => [s, z.number().int().nonnegative()])) as Record<NodeState, z.ZodNumber>),
+  /** The mean of its readable nodes' site coordinates, in degrees. */
+  latitude: z.number(),
+  longitude: z.number(),
+});
+export const topologyNeighbourhoodsResponseSchema = z.object({ data: z.array(topologyNeighbourhoodSchema) });
+export type TopologyNeighbourhoodDto = z.infer<typeof topologyNeighbourhoodSchema>;
