@@ -8,7 +8,8 @@ import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods
 import { useNode } from '../features/nodes/api/nodes';
 import { NodeQuickLook } from '../features/nodes/components/node-quick-look';
 import { LinkEditor } from '../features/links/components/link-editor';
-import { useTopology } from '../features/topology/api/topology';
+import { useTopology, useTopologyNeighbourhoods } from '../features/topology/api/topology';
+import { NeighbourhoodPreview } from '../features/topology/components/neighbourhood-preview';
 import { AirFindings } from '../features/topology/components/air-findings';
 import { NodeLinks } from '../features/topology/components/node-links';
 import { TopologyLegend } from '../features/topology/components/topology-legend';
@@ -34,6 +35,8 @@ function MapLinkTools({ node, links, names }: { node: TopologyNode; links: Topol
 export function TopologyPage() {
   const [params, setParams] = useSearchParams();
   const topology = useTopology();
+  // Asked alongside the graph; only drawn while the graph is still on its way.
+  const preview = useTopologyNeighbourhoods(topology.isPending);
   const neighbourhoods = useNeighbourhoods(ALL_BY_NAME);
 
   const neighbourhoodId = idFromParam(params.get('neighbourhoodId') ?? undefined) ?? undefined;
@@ -70,7 +73,10 @@ export function TopologyPage() {
     <>
       <PageHeader title="Network map" subtitle="Nodes at their sites, links drawn with their margin. Changes appear as they happen." />
       {topology.isPending ? (
-        <Loading label="Loading the network map…" />
+        <>
+          <Loading label="Loading the network map…" />
+          {preview.data && preview.data.length > 0 && <NeighbourhoodPreview hoods={preview.data} />}
+        </>
       ) : topology.isError ? (
         <LoadError error={topology.error} />
       ) : topology.data.nodes.length === 0 ? (

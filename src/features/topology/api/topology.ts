@@ -3,6 +3,7 @@ import type { LinkStatus, NodeState } from '../../../../shared/enums';
 import { api } from '../../../lib/api';
 import { linkKeys, overviewKeys, topologyKeys } from '../../../lib/query-keys';
 import type { RadioMove } from '../../../../shared/schemas/radio';
+import type { TopologyNeighbourhoodDto } from '../../../../shared/schemas/topology';
 
 export type { RadioMove };
 
@@ -68,6 +69,17 @@ export function useAddDiscoveredLink() {
   return useMutation({
     mutationFn: (d: DiscoveredLink) => api.post<{ data: { id: number } }>('/links', { radioAId: d.radioAId, radioBId: d.radioBId, status: 'live' }),
     onSuccess: () => Promise.all([topologyKeys.all, linkKeys.all, overviewKeys.all].map((queryKey) => queryClient.invalidateQueries({ queryKey: [...queryKey] }))),
+  });
+}
+
+export type TopologyNeighbourhood = TopologyNeighbourhoodDto;
+
+/** Per neighbourhood the node count per state: small and quick, drawn while the whole graph loads. */
+export function useTopologyNeighbourhoods(enabled = true) {
+  return useQuery({
+    queryKey: [...topologyKeys.all, 'neighbourhoods'],
+    queryFn: () => api.get<{ data: TopologyNeighbourhood[] }>('/topology/neighbourhoods').then((body) => body.data),
+    enabled,
   });
 }
 
