@@ -1,4 +1,4 @@
-import { forwardRef, useId } from 'react';
+import { forwardRef, memo, useId } from 'react';
 import { NODE_STATES } from '../../../../shared/enums';
 import { Button } from '../../../components/button';
 import { StateBadge, stateWord } from '../../../components/state-badge';
@@ -18,7 +18,26 @@ interface TopologyListProps {
  * nodes. Readable by keyboard and screen reader, and it stays light with thousands of nodes
  * because only the open neighbourhood's rows are drawn.
  */
-export const TopologyList = forwardRef<HTMLHeadingElement, TopologyListProps>(function TopologyList(
+/** One node's row; a live event redraws only the rows whose node changed (unchanged nodes keep their object). */
+const NodeRow = memo(function NodeRow({ node, onShowNode }: { node: TopologyNode; onShowNode: (node: TopologyNode) => void }) {
+  return (
+    <tr data-testid={`topology-list-node-${node.id}`}>
+      <td className="py-1 pr-3 pl-5">
+        {node.name} <span className="text-muted">at {node.siteName}</span>
+      </td>
+      <td className="py-1 pr-3">
+        <StateBadge state={node.state} />
+      </td>
+      <td className="py-1 text-right">
+        <Button variant="quiet" onClick={() => onShowNode(node)}>
+          Details<span className="sr-only"> of {node.name}</span>
+        </Button>
+      </td>
+    </tr>
+  );
+});
+
+export const TopologyList = memo(forwardRef<HTMLHeadingElement, TopologyListProps>(function TopologyList(
   { summaries, nodesOf, openHoodId, onToggleHood, onShowNode },
   headingRef,
 ) {
@@ -61,26 +80,11 @@ export const TopologyList = forwardRef<HTMLHeadingElement, TopologyListProps>(fu
                   </Button>
                 </td>
               </tr>
-              {open &&
-                nodesOf(hood.neighbourhoodId).map((node) => (
-                  <tr key={node.id} data-testid={`topology-list-node-${node.id}`}>
-                    <td className="py-1 pr-3 pl-5">
-                      {node.name} <span className="text-muted">at {node.siteName}</span>
-                    </td>
-                    <td className="py-1 pr-3">
-                      <StateBadge state={node.state} />
-                    </td>
-                    <td className="py-1 text-right">
-                      <Button variant="quiet" onClick={() => onShowNode(node)}>
-                        Details<span className="sr-only"> of {node.name}</span>
-                      </Button>
-                    </td>
-                  </tr>
-                ))}
+              {open && nodesOf(hood.neighbourhoodId).map((node) => <NodeRow key={node.id} node={node} onShowNode={onShowNode} />)}
             </tbody>
           );
         })}
       </table>
     </section>
   );
-});
+}));
