@@ -5,7 +5,7 @@ import type { Config } from '../config';
 import { applyRetention, rollUp } from '../jobs/heartbeatStorage';
 import { ingestReports } from '../services/heartbeatIngest';
 import { planHistory } from './demoHistoryPlan';
-import { rememberSeqs, reportSpecs, writeDay } from './demoHistoryReports';
+import { reportSpecs, writeDay } from './demoHistoryReports';
 import { deliverDue, replayHistory, reportAt, tokenNode } from './demoHistoryReplay';
 import { TOWN } from './demoScenario';
 
@@ -30,11 +30,6 @@ export async function loadDemoHistory(sequelize: Sequelize, config: Config, peop
     reportRows += await writeDay(sequelize, plan, specs, day, TOWN.timeZone);
     if ((i + 1) % 5 === 0 || i === days.length - 1) progress(`history: reports for ${i + 1} of ${days.length} days written (${reportRows} rows)`);
   }
-  // The duplicate guard only matters for reports an agent can still resend: its buffer holds 500
-  // reports, under two days at five-minute reports. Older history needs no guard.
-  for (const day of days.slice(-2)) await rememberSeqs(sequelize, day);
-
-  progress('history: the duplicate guard knows the last two days of reports');
   progress('history: replaying outages, acknowledgements, maintenance and mail through the live rules');
   const steps = await replayHistory(sequelize, config, plan, specs, people);
 

@@ -73,34 +73,39 @@ const BUSY = (t: string) => `(0.5 + 0.5 * cos(((extract(hour FROM ${t} AT TIME Z
 const RAIN_DB_PER_KM = (t: string) =>
   `coalesce((SELECT max(r."peakDbPerKm" * sin(pi() * extract(epoch FROM ${t} - r."from") / extract(epoch FROM r."to" - r."from"))) FROM rain r WHERE ${t} BETWEEN r."from" AND r."to"), 0)`;
 
+// One row per report: each node's radios for a tick are gathered into the row's radios column (as a node sends them).
 const HEARTBEATS_SQL = (table: string) => `
 WITH spec AS (SELECT * FROM jsonb_to_recordset($3::jsonb) AS x("nodeId" int, "intervalS" int, firmware text, "rainKm" float8)), ${TICKS},
+rspec AS (SELECT * FROM jsonb_to_recordset($11::jsonb) AS x("nodeId" int, "intervalS" int, iface text, role text, band text, channel int, width int, ssid text,
+            "baseSignalDbm" float8, "rainKm" float8, drifts boolean)),
 ticks AS (SELECT s.*, mi.m + make_interval(secs => (s."nodeId" * 7) % 60) AS t FROM spec s ${TICKS_OF}),
-live AS (SELECT k.*, ${BUSY('k.t')} AS busy, ${RAIN_DB_PER_KM('k.t')} * k."rainKm" AS "rainDb" FROM ticks k WHERE ${LIVE('k')})
-INSERT INTO ${table} (node_id, seq, received_at, sent_at, uptime_s, load1, mem_free_kb, firmware, throughput_mbps, latency_ms)
+live AS (SELECT k.*, ${BUSY('k.t')} AS busy, ${RAIN_DB_PER_KM('k.t')} * k."rainKm" AS "rainDb" FROM ticks k WHERE ${LIVE('k')}),
+rticks AS (SELECT s.*, mi.m + make_interval(secs => (s."nodeId" * 7) % 60) AS t FROM rspec s ${TICKS_OF}),
+rlive AS (SELECT k.*, ${BUSY('k.t')} AS busy, ${RAIN_DB_PER_KM('k.t')} * k."rainKm" AS "rainDb",
+                 CASE WHEN k.drifts AND k.t > $9::timestamptz AND k.t > $8::timestamptz
+                      THEN $10::float8 * power(extract(epoch FROM k.t - $9::timestamptz) / extract(epoch FROM $6::timestamptz - $9::timestamptz), 2) ELSE 0 END AS "driftDb"
+            FROM rticks k WHERE ${LIVE('k')}),
+rad AS (
+  SELECT "nodeId", t, jsonb_agg(jsonb_strip_nulls(jsonb_build_object('iface', iface, 'role', role, 'band', band, 'channel', channel, 'channelWidthMHz', width,
+           'ssid', ssid, 'signalDbm', signal, 'noiseDbm', noise, 'txRateMbps', tx, 'rxRateMbps', rx, 'clients', clients)) ORDER BY iface) AS radios
+    FROM (
+      SELECT "nodeId", t, iface, role, band, channel, width, ssid,
+             round(CASE WHEN "baseSignalDbm" IS NULL THEN -58 - random() * 12
+                        ELSE "baseSignalDbm" + 1.5 * sin(extract(epoch FROM t) / 25200 * 2 * pi() + "nodeId") + (random() - 0.5) * 2 - "rainDb" + "driftDb"
+                   END::numeric, 1) AS signal,
+             round((-95 + (random() - 0.5) * 1.6)::numeric, 1) AS noise,
+             CASE WHEN role = 'access-point' THEN 72 ELSE greatest(13, 150 - 8 * "rainDb") END AS tx,
+             CASE WHEN role = 'access-point' THEN 65 ELSE greatest(13, 135 - 8 * "rainDb") END AS rx,
+             CASE WHEN role = 'access-point' THEN round(1 + 11 * busy * (0.7 + 0.3 * random()))::int END AS clients
+        FROM rlive) x
+   GROUP BY 1, 2
+)
+INSERT INTO ${table} (node_id, seq, received_at, sent_at, uptime_s, load1, mem_free_kb, firmware, throughput_mbps, latency_ms, radios)
 SELECT "nodeId", floor(extract(epoch FROM t) / 60)::bigint, t, t - interval '300 milliseconds', extract(epoch FROM t - $8::timestamptz) + 3456000,
        round((0.1 + 0.8 * busy + random() * 0.1)::numeric, 2), 30000 + floor(random() * 5000), firmware,
        round(greatest(1, 60 - 36 * busy - 3 * "rainDb" + (random() - 0.5) * 6)::numeric, 1),
-       round((8 + 20 * busy + "rainDb" + random() * 4)::numeric, 1)
-  FROM live`;
-
-const RADIOS_SQL = (table: string) => `
-WITH spec AS (SELECT * FROM jsonb_to_recordset($3::jsonb) AS x("nodeId" int, "intervalS" int, iface text, role text, band text, channel int, width int, ssid text,
-                "baseSignalDbm" float8, "rainKm" float8, drifts boolean)), ${TICKS},
-ticks AS (SELECT s.*, mi.m + make_interval(secs => (s."nodeId" * 7) % 60) AS t FROM spec s ${TICKS_OF}),
-live AS (SELECT k.*, ${BUSY('k.t')} AS busy, ${RAIN_DB_PER_KM('k.t')} * k."rainKm" AS "rainDb",
-                CASE WHEN k.drifts AND k.t > $9::timestamptz AND k.t > $8::timestamptz
-                     THEN $10::float8 * power(extract(epoch FROM k.t - $9::timestamptz) / extract(epoch FROM $6::timestamptz - $9::timestamptz), 2) ELSE 0 END AS "driftDb"
-           FROM ticks k WHERE ${LIVE('k')})
-INSERT INTO ${table} (node_id, seq, received_at, iface, role, band, channel, channel_width_mhz, ssid, signal_dbm, noise_dbm, tx_rate_mbps, rx_rate_mbps, clients)
-SELECT "nodeId", floor(extract(epoch FROM t) / 60)::bigint, t, iface, role, band, channel, width, ssid,
-       round(CASE WHEN "baseSignalDbm" IS NULL THEN -58 - random() * 12
-                  ELSE "baseSignalDbm" + 1.5 * sin(extract(epoch FROM t) / 25200 * 2 * pi() + "nodeId") + (random() - 0.5) * 2 - "rainDb" + "driftDb" END::numeric, 1),
-       round((-95 + (random() - 0.5) * 1.6)::numeric, 1),
-       CASE WHEN role = 'access-point' THEN 72 ELSE greatest(13, 150 - 8 * "rainDb") END,
-       CASE WHEN role = 'access-point' THEN 65 ELSE greatest(13, 135 - 8 * "rainDb") END,
-       CASE WHEN role = 'access-point' THEN round(1 + 11 * busy * (0.7 + 0.3 * random()))::int END
-  FROM live`;
+       round((8 + 20 * busy + "rainDb" + random() * 4)::numeric, 1), coalesce(rad.radios, '[]'::jsonb)
+  FROM live LEFT JOIN rad USING ("nodeId", t)`;
 
 const stamp = (d: Date) => d.toISOString().slice(0, 10).replace(/-/g, '');
 
@@ -121,39 +126,22 @@ export async function writeDay(sequelize: Sequelize, plan: HistoryPlan, specs: R
     .filter((q) => q.after < next && q.until >= day);
   const rain = plan.rain.filter((r) => r.from < next && r.to >= day);
   const common = [day, next, JSON.stringify(quiet), JSON.stringify(rain), plan.end, timeZone];
-  const bindFor = (spec: unknown[]) => {
-    const [from, to, q, rain, end, zone] = common;
-    // $8 is the history's start (uptime) for heartbeats; $9, $10 the drift for radios.
-    return spec === specs.radios
-      ? [from, to, JSON.stringify(spec), q, rain, end, zone, plan.start, plan.drift.from, plan.drift.depthDb]
-      : [from, to, JSON.stringify(spec), q, rain, end, zone, plan.start];
-  };
-  let rows = 0;
-  for (const [parent, sql, spec] of [['heartbeats', HEARTBEATS_SQL, specs.nodes], ['heartbeat_radios', RADIOS_SQL, specs.radios]] as const) {
-    const name = `${parent}_p${stamp(day)}`;
-    const bind = bindFor(spec as unknown[]);
-    if (await tableExists(sequelize, name)) {
-      const [, count] = await sequelize.query(sql(parent), { bind });
-      rows += rowCount(count);
-      continue;
-    }
-    await sequelize.transaction(async (transaction) => {
-      await sequelize.query(`CREATE TABLE ${name} (LIKE ${parent} INCLUDING DEFAULTS)`, { transaction });
-      const [, count] = await sequelize.query(sql(name), { bind, transaction });
-      rows += rowCount(count);
-      await sequelize.query(`CREATE INDEX ON ${name} (node_id, received_at)`, { transaction });
-      await sequelize.query(`ALTER TABLE ${parent} ATTACH PARTITION ${name} FOR VALUES FROM ('${day.toISOString()}') TO ('${next.toISOString()}')`, { transaction });
-    });
+  const [from, to, q, rainSpans, end, zone] = common;
+  // $8 is the history's start (uptime); $9, $10 the drift for radios; $11 the radios.
+  const bind = [from, to, JSON.stringify(specs.nodes), q, rainSpans, end, zone, plan.start, plan.drift.from, plan.drift.depthDb, JSON.stringify(specs.radios)];
+  const name = `heartbeats_p${stamp(day)}`;
+  if (await tableExists(sequelize, name)) {
+    const [, count] = await sequelize.query(HEARTBEATS_SQL('heartbeats'), { bind });
+    return rowCount(count);
   }
+  let rows = 0;
+  await sequelize.transaction(async (transaction) => {
+    await sequelize.query(`CREATE TABLE ${name} (LIKE heartbeats INCLUDING DEFAULTS)`, { transaction });
+    const [, count] = await sequelize.query(HEARTBEATS_SQL(name), { bind, transaction });
+    rows = rowCount(count);
+    await sequelize.query(`CREATE INDEX ON ${name} (node_id, received_at)`, { transaction });
+    await sequelize.query(`CREATE INDEX ON ${name} (node_id, (coalesce(boot_id, '')), seq)`, { transaction });
+    await sequelize.query(`ALTER TABLE heartbeats ATTACH PARTITION ${name} FOR VALUES FROM ('${day.toISOString()}') TO ('${next.toISOString()}')`, { transaction });
+  });
   return rows;
-}
-
-/** The duplicate guard remembers each stored (node, seq), as ingest does; only for days retention keeps. */
-export async function rememberSeqs(sequelize: Sequelize, day: Date) {
-  const next = new Date(day.getTime() + DAY_MS);
-  await sequelize.query(
-    `INSERT INTO heartbeat_seqs (node_id, seq, received_at)
-     SELECT node_id, seq, received_at FROM heartbeats WHERE received_at >= $1 AND received_at < $2 ORDER BY node_id, seq ON CONFLICT DO NOTHING`,
-    { bind: [day, next] },
-  );
 }

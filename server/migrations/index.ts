@@ -9,6 +9,7 @@ import * as m0008 from './0008-people';
 import * as m0010 from './0010-boot-ids';
 import * as m0013 from './0013-terrain-tiles';
 import * as m0015 from './0015-air-and-host-steps';
+import * as m0016 from './0016-one-row-per-report';
 
 /** Every migration in order. A new migration is a new file here and one line in this list. */
 export const MIGRATIONS = [
@@ -23,4 +24,5 @@ export const MIGRATIONS = [
   { name: '0010-boot-ids', ...m0010 },
   { name: '0013-terrain-tiles', ...m0013 },
   { name: '0015-air-and-host-steps', ...m0015 },
+  { name: '0016-one-row-per-report', ...m0016 },
 ];

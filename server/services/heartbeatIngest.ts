@@ -15,9 +15,9 @@ import { thresholdsFor } from './thresholds';
 
 // One statement stores the reports of many requests (group commit) and moves their nodes. Each item
 // is one request: its node, receive time, reports (boot id '' when the node sent none, sentAt null
-// when the node's clock was plainly wrong) and what the newest report does to the node. New (node,
-// boot id, seq) triples claim a row in heartbeat_seqs, and only those reach the partitioned tables,
-// so a resent report is stored once. A guarded item moves its node only if the node is still as it
+// when the node's clock was plainly wrong) and what the newest report does to the node. A report is
+// one row of heartbeats (its radios a jsonb column); only (node, boot id, seq) triples not stored
+// yet are inserted, so a resent report is stored once. A guarded item moves its node only if the node is still as it
 // was judged (seen_*); otherwise nothing about that node changes. An item whose report is not newer
 // (advances false) only touches last_seen_at. A node appears in at most one item of a statement.
 const STORE_SQL = `
@@ -33,28 +33,20 @@ input AS (
    WHERE EXISTS (SELECT 1 FROM nodes n WHERE n.id = i.node_id)
    ORDER BY i.node_id, r->>'bootId', (r->>'seq')::bigint, i.k
 ),
-fresh AS (
-  INSERT INTO heartbeat_seqs (node_id, boot_id, seq, received_at)
-  SELECT node_id, boot_id, seq, received_at FROM input
-  ON CONFLICT DO NOTHING
-  RETURNING node_id, boot_id, seq
+-- Exact dedupe without a second table: every writer of a node's reports holds that node's row lock from
+-- before this statement until commit (storeItems locks the batch's nodes first; the locked path holds
+-- FOR UPDATE). This statement's snapshot is taken after the lock is granted, so it sees every report of
+-- those nodes committed before, and DISTINCT ON above removes repeats within the statement.
+kept AS (
+  SELECT i.* FROM input i
+   WHERE NOT EXISTS (SELECT 1 FROM heartbeats h WHERE h.node_id = i.node_id AND coalesce(h.boot_id, '') = i.boot_id AND h.seq = i.seq)
 ),
-kept AS (SELECT i.* FROM input i JOIN fresh f USING (node_id, boot_id, seq)),
 hb AS (
-  INSERT INTO heartbeats (node_id, seq, boot_id, received_at, sent_at, uptime_s, load1, mem_free_kb, firmware, throughput_mbps, latency_ms)
+  INSERT INTO heartbeats (node_id, seq, boot_id, received_at, sent_at, uptime_s, load1, mem_free_kb, firmware, throughput_mbps, latency_ms, radios)
   SELECT i.node_id, i.seq, nullif(i.boot_id, ''), i.received_at, (i.r->>'sentAt')::timestamptz, (i.r->>'uptimeS')::float8,
-         (i.r->>'load1')::float8, (i.r->>'memFreeKb')::float8, i.r->>'firmware', (i.r->>'throughputMbps')::float8, (i.r->>'latencyMs')::float8
+         (i.r->>'load1')::float8, (i.r->>'memFreeKb')::float8, i.r->>'firmware', (i.r->>'throughputMbps')::float8, (i.r->>'latencyMs')::float8,
+         coalesce(i.r->'radios', '[]'::jsonb)
     FROM kept i
-),
-rad AS (
-  INSERT INTO heartbeat_radios (node_id, seq, boot_id, received_at, iface, role, band, channel, channel_width_mhz, ssid,
-                                signal_dbm, noise_dbm, tx_rate_mbps, rx_rate_mbps, clients, peer_mac)
-  SELECT i.node_id, i.seq, nullif(i.boot_id, ''), i.received_at, x.iface, x.role, x.band, x.channel, x."channelWidthMHz", x.ssid,
-         x."signalDbm", x."noiseDbm", x."txRateMbps", x."rxRateMbps", x.clients, x."peerMac"
-    FROM kept i,
-         jsonb_to_recordset(coalesce(i.r->'radios', '[]'::jsonb)) AS x(iface text, role text, band text, channel int,
-           "channelWidthMHz" int, ssid text, "signalDbm" float8, "noiseDbm" float8, "txRateMbps" float8,
-           "rxRateMbps" float8, clients int, "peerMac" text)
 ),
 node AS (
   UPDATE nodes n SET
@@ -107,16 +99,26 @@ const isDeadlock = (err: unknown) => (err as { parent?: { code?: string } })?.pa
 /** Stores items in one statement (retried when PostgreSQL breaks a deadlock with another instance's statement). */
 async function storeItems(sequelize: Sequelize, items: StoreItem[], transaction?: Transaction): Promise<StoreOutcome[]> {
   const json = JSON.stringify(items.map((item, k) => ({ ...item, k })));
+  const store = async (t: Transaction) => {
+    const rows = await sequelize.query<{ k: number; stored: number; updated: boolean }>(STORE_SQL, {
+      bind: { items: json },
+      type: QueryTypes.SELECT,
+      transaction: t,
+    });
+    return rows.map((r) => ({ stored: r.stored, updated: r.updated }));
+  };
+  // The caller's transaction already holds its node's row lock (FOR UPDATE).
+  if (transaction) return store(transaction);
+  const ids = [...new Set(items.map((i) => i.node_id))].sort((a, b) => a - b);
   for (let attempt = 1; ; attempt++) {
     try {
-      const rows = await sequelize.query<{ k: number; stored: number; updated: boolean }>(STORE_SQL, {
-        bind: { items: json },
-        type: QueryTypes.SELECT,
-        transaction,
+      return await sequelize.transaction(async (t) => {
+        // In id order, so two statements never wait on each other's nodes in a circle.
+        await sequelize.query('SELECT 1 FROM nodes WHERE id = ANY($1::int[]) ORDER BY id FOR NO KEY UPDATE', { bind: [ids], transaction: t });
+        return store(t);
       });
-      return rows.map((r) => ({ stored: r.stored, updated: r.updated }));
     } catch (err) {
-      if (transaction || attempt >= 3 || !isDeadlock(err)) throw err;
+      if (attempt >= 3 || !isDeadlock(err)) throw err;
     }
   }
 }
@@ -347,7 +349,7 @@ export function reportAdvances(m: Pick<NodeMemory, 'lastSeq' | 'lastBootId'>, bo
 }
 
 async function bootKnown(sequelize: Sequelize, nodeId: number, bootId: string): Promise<boolean> {
-  const rows = await sequelize.query('SELECT 1 FROM heartbeat_seqs WHERE node_id = $1 AND boot_id = $2 LIMIT 1', {
+  const rows = await sequelize.query("SELECT 1 FROM heartbeats WHERE node_id = $1 AND coalesce(boot_id, '') = $2 LIMIT 1", {
     bind: [nodeId, bootId],
     type: QueryTypes.SELECT,
   });

@@ -41,9 +41,9 @@ try {
   }
   const t0 = performance.now();
   await sequelize.query(
-    `INSERT INTO heartbeat_radios (node_id, seq, received_at, iface, signal_dbm, peer_mac)
-     SELECT nd.id, s.i, $2::timestamptz - s.i * interval '60 seconds', 'wlan0', -60,
-            '02:be:00:' || lpad(to_hex((p.n >> 8) & 255), 2, '0') || ':' || lpad(to_hex(p.n & 255), 2, '0') || ':01'
+    `INSERT INTO heartbeats (node_id, seq, received_at, radios)
+     SELECT nd.id, s.i, $2::timestamptz - s.i * interval '60 seconds', jsonb_build_array(jsonb_build_object('iface', 'wlan0', 'signalDbm', -60,
+            'peerMac', '02:be:00:' || lpad(to_hex((p.n >> 8) & 255), 2, '0') || ':' || lpad(to_hex(p.n & 255), 2, '0') || ':01'))
        FROM (SELECT id, (regexp_replace(name, '.*-', ''))::int AS n FROM nodes WHERE neighbourhood_id = $1) nd
        CROSS JOIN LATERAL (SELECT CASE WHEN nd.n % 2 = 1 THEN nd.n + 1 ELSE nd.n - 1 END AS n) p
        CROSS JOIN generate_series(0, 1439) s(i)`,
@@ -63,7 +63,7 @@ try {
   console.log(`air view: p50 ${times[Math.floor(RUNS / 2)].toFixed(0)} ms, max ${times[RUNS - 1].toFixed(0)} ms over ${RUNS} runs; ${observed} links observed, ${result!.discoveredLinks.length} pairs discovered`);
 } finally {
   if (hoodId) {
-    await sequelize.query('DELETE FROM heartbeat_radios WHERE node_id IN (SELECT id FROM nodes WHERE neighbourhood_id = $1)', { bind: [hoodId] });
+    await sequelize.query('DELETE FROM heartbeats WHERE node_id IN (SELECT id FROM nodes WHERE neighbourhood_id = $1)', { bind: [hoodId] });
     await sequelize.query('DELETE FROM links WHERE radio_a_id IN (SELECT r.id FROM radios r JOIN nodes n ON n.id = r.node_id WHERE n.neighbourhood_id = $1)', { bind: [hoodId] });
     await sequelize.query('DELETE FROM radios WHERE node_id IN (SELECT id FROM nodes WHERE neighbourhood_id = $1)', { bind: [hoodId] });
     await sequelize.query('DELETE FROM nodes WHERE neighbourhood_id = $1', { bind: [hoodId] });

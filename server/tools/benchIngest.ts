@@ -154,7 +154,6 @@ try {
   await bare.stop();
   const ids = nodes.map((n) => n.id);
   await sequelize.query('DELETE FROM heartbeats WHERE node_id = ANY($1::int[])', { bind: [ids] });
-  await sequelize.query('DELETE FROM heartbeat_radios WHERE node_id = ANY($1::int[])', { bind: [ids] });
   await Node.destroy({ where: { id: ids } });
   await site.destroy();
   await hood.destroy();
