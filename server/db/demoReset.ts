@@ -18,11 +18,11 @@ export async function dropDemo(sequelize: Sequelize, config: Config) {
   // Raw reports have no foreign key (partitioned): a day that holds only demo reports goes whole, others lose the demo's rows.
   const parts = await sequelize.query<{ name: string }>(
     `SELECT c.relname AS name FROM pg_inherits i JOIN pg_class c ON c.oid = i.inhrelid JOIN pg_class p ON p.oid = i.inhparent
-      WHERE p.relname IN ('heartbeats', 'heartbeat_radios')`,
+      WHERE p.relname = 'heartbeats'`,
     { type: QueryTypes.SELECT },
   );
   for (const { name } of parts) {
-    if (!/^heartbeat(s|_radios)_(p\d{8}|default)$/.test(name)) continue;
+    if (!/^heartbeats_(p\d{8}|default)$/.test(name)) continue;
     const [{ others, mine }] = await sequelize.query<{ others: boolean; mine: boolean }>(
       `SELECT EXISTS (SELECT 1 FROM ${name} WHERE NOT (node_id = ANY($1::int[]))) AS others, EXISTS (SELECT 1 FROM ${name} WHERE node_id = ANY($1::int[])) AS mine`,
       { bind: [nodes], type: QueryTypes.SELECT },

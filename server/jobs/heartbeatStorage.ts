@@ -5,13 +5,13 @@ const DAY_MS = 86_400_000;
 const day = (d: Date) => new Date(Math.floor(d.getTime() / DAY_MS) * DAY_MS);
 const stamp = (d: Date) => d.toISOString().slice(0, 10).replace(/-/g, '');
 
-/** Daily partitions from yesterday to `daysAhead` days out, for both raw tables. */
+/** Daily partitions of the raw reports from yesterday to `daysAhead` days out. */
 export async function ensurePartitions(sequelize: Sequelize, now: Date, daysAhead: number) {
   const created: string[] = [];
   for (let i = -1; i <= daysAhead; i++) {
     const from = new Date(day(now).getTime() + i * DAY_MS);
     const to = new Date(from.getTime() + DAY_MS);
-    for (const table of ['heartbeats', 'heartbeat_radios']) {
+    for (const table of ['heartbeats']) {
       const name = `${table}_p${stamp(from)}`;
       try {
         const [, meta] = await sequelize.query(
@@ -33,7 +33,7 @@ export async function applyRetention(sequelize: Sequelize, now: Date, rawDays: n
   const rollupCutoff = new Date(now.getTime() - rollupDays * DAY_MS);
   const [parts] = await sequelize.query(
     `SELECT c.relname AS name FROM pg_inherits i JOIN pg_class c ON c.oid = i.inhrelid JOIN pg_class p ON p.oid = i.inhparent
-      WHERE p.relname IN ('heartbeats', 'heartbeat_radios') AND c.relname ~ '_p[0-9]{8}$'`,
+      WHERE p.relname = 'heartbeats' AND c.relname ~ '_p[0-9]{8}$'`,
   );
   const dropped: string[] = [];
   for (const { name } of parts as { name: string }[]) {
@@ -45,14 +45,12 @@ export async function applyRetention(sequelize: Sequelize, now: Date, rawDays: n
     }
   }
   await sequelize.query('DELETE FROM heartbeats_default WHERE received_at < $1', { bind: [rawCutoff] });
-  await sequelize.query('DELETE FROM heartbeat_radios_default WHERE received_at < $1', { bind: [rawCutoff] });
-  await sequelize.query('DELETE FROM heartbeat_seqs WHERE received_at < $1', { bind: [rawCutoff] });
   await sequelize.query('DELETE FROM heartbeat_rollups WHERE bucket_start < $1', { bind: [rollupCutoff] });
   return dropped;
 }
 
 // Availability per bucket = reports received ÷ reports expected (REFERENCES.md: time up ÷ time observed).
-// Set-based: each raw table is read once for the whole span and grouped by bucket, so rolling up a
+// Set-based: the raw reports are read once (r expands their radios) for the whole span and grouped by bucket, so rolling up a
 // day (or five weeks of a loaded history) costs about as much per row as rolling up two buckets.
 const ROLLUP_SQL = `
 WITH h AS (
@@ -65,7 +63,7 @@ WITH h AS (
          min(signal_dbm) AS smin, avg(signal_dbm) AS savg, max(signal_dbm) AS smax,
          min(noise_dbm) AS nmin, avg(noise_dbm) AS navg, max(noise_dbm) AS nmax,
          min(signal_dbm - noise_dbm) AS qmin, avg(signal_dbm - noise_dbm) AS qavg, max(signal_dbm - noise_dbm) AS qmax
-    FROM heartbeat_radios WHERE received_at >= $2::timestamptz AND received_at < $3::timestamptz GROUP BY 1, 2
+    FROM heartbeat_radio_rows WHERE received_at >= $2::timestamptz AND received_at < $3::timestamptz GROUP BY 1, 2
 )
 INSERT INTO heartbeat_rollups (node_id, bucket_s, bucket_start, reports, expected_reports, availability_pct,
   signal_min_dbm, signal_avg_dbm, signal_max_dbm, noise_min_dbm, noise_avg_dbm, noise_max_dbm,

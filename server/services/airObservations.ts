@@ -19,14 +19,14 @@ export interface PairSighting {
 const SIGHTINGS_SQL = `
 WITH day AS (
   SELECT h.node_id, h.iface, lower(h.peer_mac) AS peer_mac, max(h.received_at) AS at
-    FROM heartbeat_radios h
+    FROM heartbeat_radio_rows h
    WHERE h.received_at > $1 AND h.received_at <= $2 AND h.peer_mac IS NOT NULL
      AND ($3::int[] IS NULL OR h.node_id = ANY($3::int[]))
    GROUP BY 1, 2, 3
 ),
 recent AS (
   SELECT DISTINCT ON (h.node_id, h.iface, lower(h.peer_mac)) h.node_id, h.iface, lower(h.peer_mac) AS peer_mac, h.signal_dbm
-    FROM heartbeat_radios h
+    FROM heartbeat_radio_rows h
    WHERE h.received_at > $4 AND h.received_at <= $2 AND h.peer_mac IS NOT NULL
      AND ($3::int[] IS NULL OR h.node_id = ANY($3::int[]))
    ORDER BY h.node_id, h.iface, lower(h.peer_mac), h.received_at DESC

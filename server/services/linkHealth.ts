@@ -37,7 +37,7 @@ async function loadEnd(sequelize: Sequelize, radioId: number): Promise<EndRow> {
 async function baseline(sequelize: Sequelize, end: EndRow, now: Date) {
   const [row] = await sequelize.query<{ median: number | null; samples: string }>(
     `SELECT percentile_cont(0.5) WITHIN GROUP (ORDER BY signal_dbm) AS median, count(signal_dbm) AS samples
-       FROM heartbeat_radios WHERE node_id = $1 AND iface = $2 AND signal_dbm IS NOT NULL
+       FROM heartbeat_radio_rows WHERE node_id = $1 AND iface = $2 AND signal_dbm IS NOT NULL
         AND received_at >= $3::timestamptz - make_interval(days => $4::int) AND received_at <= $3::timestamptz`,
     { bind: [end.nodeId, end.iface, now.toISOString(), BASELINE_DAYS], type: QueryTypes.SELECT },
   );

@@ -14,9 +14,10 @@ const tokenFor = ingestTokenFor;
 const post = postReports;
 
 async function stored(ctx: TestContext, nodeId: number) {
+  // One row per report; its radios are a jsonb array on that row, and the row itself is the duplicate guard.
   const [row] = await ctx.sequelize.query<{ hb: string; radios: string; seqs: string }>(
-    `SELECT (SELECT count(*) FROM heartbeats WHERE node_id = $1) AS hb, (SELECT count(*) FROM heartbeat_radios WHERE node_id = $1) AS radios,
-            (SELECT count(*) FROM heartbeat_seqs WHERE node_id = $1) AS seqs`,
+    `SELECT (SELECT count(*) FROM heartbeats WHERE node_id = $1) AS hb, (SELECT count(*) FROM heartbeat_radio_rows WHERE node_id = $1) AS radios,
+            (SELECT count(DISTINCT (coalesce(boot_id, ''), seq)) FROM heartbeats WHERE node_id = $1) AS seqs`,
     { bind: [nodeId], type: QueryTypes.SELECT },
   );
   return { heartbeats: Number(row.hb), radios: Number(row.radios), seqs: Number(row.seqs) };
@@ -136,7 +137,7 @@ describe('heartbeat ingest', () => {
     expect(res.status).toBe(202);
     expect(res.body).toEqual({ accepted: 1, duplicates: 0 });
     expect(await stored(ctx, node.id)).toEqual({ heartbeats: 1, radios: 2, seqs: 1 });
-    const [radio] = await ctx.sequelize.query<{ signal_dbm: number }>("SELECT signal_dbm FROM heartbeat_radios WHERE node_id = $1 AND iface = 'wlan0'", { bind: [node.id], type: QueryTypes.SELECT });
+    const [radio] = await ctx.sequelize.query<{ signal_dbm: number }>("SELECT signal_dbm FROM heartbeat_radio_rows WHERE node_id = $1 AND iface = 'wlan0'", { bind: [node.id], type: QueryTypes.SELECT });
     expect(radio.signal_dbm).toBe(-62);
   });
 

@@ -17,12 +17,11 @@ const partitionsOf = async (ctx: ReturnType<typeof useApi>, table: string) =>
 describe('heartbeat storage upkeep', () => {
   const ctx = useApi();
 
-  it('creates daily partitions ahead for both raw tables, and reports land in their day’s partition', async () => {
+  it('creates daily partitions ahead for the raw reports, and reports land in their day’s partition', async () => {
     const now = new Date('2031-03-10T12:00:00Z');
     await ensurePartitions(ctx.sequelize, now, 3);
     const parts = await partitionsOf(ctx, 'heartbeats');
     expect(parts).toEqual(expect.arrayContaining(['heartbeats_p20310309', 'heartbeats_p20310310', 'heartbeats_p20310313']));
-    expect(await partitionsOf(ctx, 'heartbeat_radios')).toEqual(expect.arrayContaining(['heartbeat_radios_p20310311']));
     const node = await buildNode();
     const token = await rotateToken(ctx.sequelize, node.id, now);
     const reports = [{ seq: 1, sentAt: now.toISOString(), radios: [{ iface: 'wlan0', signalDbm: -60 }] }];
@@ -70,7 +69,7 @@ describe('heartbeat storage upkeep', () => {
     const node = await buildNode();
     await ctx.sequelize.query(`INSERT INTO heartbeat_rollups (node_id, bucket_s, bucket_start, reports, expected_reports, availability_pct) VALUES ($1, 3600, '2029-01-01T00:00:00Z', 1, 60, 1.7), ($1, 3600, '2029-12-31T00:00:00Z', 60, 60, 100)`, { bind: [node.id] });
     const dropped = await applyRetention(ctx.sequelize, new Date('2030-01-20T00:00:00Z'), 14, 300);
-    expect(dropped).toEqual(expect.arrayContaining(['heartbeats_p20300101', 'heartbeat_radios_p20300101']));
+    expect(dropped).toEqual(expect.arrayContaining(['heartbeats_p20300101']));
     expect(await partitionsOf(ctx, 'heartbeats')).not.toContain('heartbeats_p20300101');
     expect(await partitionsOf(ctx, 'heartbeats')).toContain('heartbeats_p20310310'); // future ones stay
     const left = await ctx.sequelize.query<{ bucket_start: Date }>('SELECT bucket_start FROM heartbeat_rollups WHERE node_id = $1', { bind: [node.id], type: QueryTypes.SELECT });

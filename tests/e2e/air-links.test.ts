@@ -40,7 +40,6 @@ describe('links heard on the air, on the map', () => {
   afterAll(async () => {
     if (nodeIds.length) {
       await db.query('DELETE FROM links WHERE radio_a_id = ANY($1) OR radio_b_id = ANY($1)', [radioIds]);
-      await db.query('DELETE FROM heartbeat_radios WHERE node_id = ANY($1)', [nodeIds]);
       await db.query('DELETE FROM heartbeats WHERE node_id = ANY($1)', [nodeIds]);
       await db.query('DELETE FROM outages WHERE node_id = ANY($1)', [nodeIds]);
       await db.query('DELETE FROM radio_mac_moves WHERE from_node_id = ANY($1) OR to_node_id = ANY($1)', [nodeIds]);

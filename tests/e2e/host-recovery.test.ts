@@ -68,7 +68,6 @@ describe('a host guided back online from their phone', () => {
     if (nodeId) {
       await db.query('DELETE FROM outbox WHERE node_id = $1 OR recipient_user_id = $2', [nodeId, userId]);
       await db.query('DELETE FROM heartbeats WHERE node_id = $1', [nodeId]);
-      await db.query('DELETE FROM heartbeat_radios WHERE node_id = $1', [nodeId]);
       await db.query('DELETE FROM outages WHERE node_id = $1', [nodeId]);
       await db.query('DELETE FROM nodes WHERE id = $1', [nodeId]);
     }
