@@ -37,9 +37,12 @@ input AS (
 -- before this statement until commit (storeItems locks the batch's nodes first; the locked path holds
 -- FOR UPDATE). This statement's snapshot is taken after the lock is granted, so it sees every report of
 -- those nodes committed before, and DISTINCT ON above removes repeats within the statement.
+-- LATERAL ... LIMIT 1 keeps it one index probe per report (heartbeats_report_idx) rather than a scan of every partition.
 kept AS (
   SELECT i.* FROM input i
-   WHERE NOT EXISTS (SELECT 1 FROM heartbeats h WHERE h.node_id = i.node_id AND coalesce(h.boot_id, '') = i.boot_id AND h.seq = i.seq)
+    LEFT JOIN LATERAL (SELECT true AS found FROM heartbeats h
+                        WHERE h.node_id = i.node_id AND coalesce(h.boot_id, '') = i.boot_id AND h.seq = i.seq LIMIT 1) d ON true
+   WHERE d.found IS NULL
 ),
 hb AS (
   INSERT INTO heartbeats (node_id, seq, boot_id, received_at, sent_at, uptime_s, load1, mem_free_kb, firmware, throughput_mbps, latency_ms, radios)
