@@ -83,7 +83,8 @@ live AS (SELECT k.*, ${BUSY('k.t')} AS busy, ${RAIN_DB_PER_KM('k.t')} * k."rainK
 rticks AS (SELECT s.*, mi.m + make_interval(secs => (s."nodeId" * 7) % 60) AS t FROM rspec s ${TICKS_OF}),
 rlive AS (SELECT k.*, ${BUSY('k.t')} AS busy, ${RAIN_DB_PER_KM('k.t')} * k."rainKm" AS "rainDb",
                  CASE WHEN k.drifts AND k.t > $9::timestamptz AND k.t > $8::timestamptz
-                      THEN $10::float8 * power(extract(epoch FROM k.t - $9::timestamptz) / extract(epoch FROM $6::timestamptz - $9::timestamptz), 2) ELSE 0 END AS "driftDb"
+                      THEN $10::float8 * power(extract(epoch FROM k.t - $9::timestamptz) / extract(epoch FROM $6::timestamptz - $9::timestamptz), 2)
+                      ELSE 0 END AS "driftDb"
             FROM rticks k WHERE ${LIVE('k')}),
 rad AS (
   SELECT "nodeId", t, jsonb_agg(jsonb_strip_nulls(jsonb_build_object('iface', iface, 'role', role, 'band', band, 'channel', channel, 'channelWidthMHz', width,
@@ -141,7 +142,8 @@ export async function writeDay(sequelize: Sequelize, plan: HistoryPlan, specs: R
     rows = rowCount(count);
     await sequelize.query(`CREATE INDEX ON ${name} (node_id, received_at)`, { transaction });
     await sequelize.query(`CREATE INDEX ON ${name} (node_id, (coalesce(boot_id, '')), seq)`, { transaction });
-    await sequelize.query(`ALTER TABLE heartbeats ATTACH PARTITION ${name} FOR VALUES FROM ('${day.toISOString()}') TO ('${next.toISOString()}')`, { transaction });
+    const bounds = `FROM ('${day.toISOString()}') TO ('${next.toISOString()}')`;
+    await sequelize.query(`ALTER TABLE heartbeats ATTACH PARTITION ${name} FOR VALUES ${bounds}`, { transaction });
   });
   return rows;
 }

@@ -64,7 +64,9 @@ describe('fault drills', () => {
     return out;
   }
   const storedSeqs = async (nodeId: number, bootId: string) =>
-    new Set((await sequelize.query<{ seq: string }>("SELECT seq::text FROM heartbeats WHERE node_id = $1 AND coalesce(boot_id, '') = $2", { bind: [nodeId, bootId], type: QueryTypes.SELECT })).map((r) => Number(r.seq)));
+    new Set((await sequelize.query<{ seq: string }>("SELECT seq::text FROM heartbeats WHERE node_id = $1 AND coalesce(boot_id, '') = $2", {
+      bind: [nodeId, bootId], type: QueryTypes.SELECT,
+    })).map((r) => Number(r.seq)));
   const post = async (url: string, token: string, body: unknown) => {
     try {
       const res = await fetch(`${url}/api/v1/heartbeats`, { method: 'POST', headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' }, body: JSON.stringify(body) });

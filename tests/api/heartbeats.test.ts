@@ -137,7 +137,8 @@ describe('heartbeat ingest', () => {
     expect(res.status).toBe(202);
     expect(res.body).toEqual({ accepted: 1, duplicates: 0 });
     expect(await stored(ctx, node.id)).toEqual({ heartbeats: 1, radios: 2, seqs: 1 });
-    const [radio] = await ctx.sequelize.query<{ signal_dbm: number }>("SELECT signal_dbm FROM heartbeat_radio_rows WHERE node_id = $1 AND iface = 'wlan0'", { bind: [node.id], type: QueryTypes.SELECT });
+    const [radio] = await ctx.sequelize.query<{ signal_dbm: number }>(
+      "SELECT signal_dbm FROM heartbeat_radio_rows WHERE node_id = $1 AND iface = 'wlan0'", { bind: [node.id], type: QueryTypes.SELECT });
     expect(radio.signal_dbm).toBe(-62);
   });
 

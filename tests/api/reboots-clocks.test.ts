@@ -14,7 +14,8 @@ const report = (seq: number, extra: object = {}) => ({ seq, sentAt: '2026-06-01T
 const tokenFor = ingestTokenFor;
 const post = postReports;
 const seqRows = (ctx: TestContext, nodeId: number) =>
-  ctx.sequelize.query<{ boot_id: string; seq: string }>("SELECT coalesce(boot_id, '') AS boot_id, seq::text FROM heartbeats WHERE node_id = $1 ORDER BY received_at, boot_id, seq", { bind: [nodeId], type: QueryTypes.SELECT });
+  ctx.sequelize.query<{ boot_id: string; seq: string }>(
+    "SELECT coalesce(boot_id, '') AS boot_id, seq::text FROM heartbeats WHERE node_id = $1 ORDER BY received_at, boot_id, seq", { bind: [nodeId], type: QueryTypes.SELECT });
 
 describe('reports across reboots (bootId, seq)', () => {
   const ctx = useApi({ now: clock.now });
