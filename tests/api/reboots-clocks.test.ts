@@ -15,7 +15,9 @@ const tokenFor = ingestTokenFor;
 const post = postReports;
 const seqRows = (ctx: TestContext, nodeId: number) =>
   ctx.sequelize.query<{ boot_id: string; seq: string }>(
-    "SELECT coalesce(boot_id, '') AS boot_id, seq::text FROM heartbeats WHERE node_id = $1 ORDER BY received_at, boot_id, seq", { bind: [nodeId], type: QueryTypes.SELECT });
+    "SELECT coalesce(boot_id, '') AS boot_id, seq::text FROM heartbeats WHERE node_id = $1 ORDER BY received_at, boot_id, seq",
+    { bind: [nodeId], type: QueryTypes.SELECT },
+  );
 
 describe('reports across reboots (bootId, seq)', () => {
   const ctx = useApi({ now: clock.now });
