@@ -204,7 +204,7 @@ try {
 
   // Storage: roll the run's buckets up now (the job does this every minute; the upsert is idempotent), then size both.
   await rollUp(sequelize, new Date(), 300, Math.ceil(DURATION_S / 300) + 1);
-  const rawBytes = await tableBytes(['heartbeats', 'heartbeat_radios', 'heartbeat_seqs']);
+  const rawBytes = await tableBytes(['heartbeats']);
   const rollupBytes = await tableBytes(['heartbeat_rollups']);
   const [counts] = await sequelize.query<{ raw: string; rollups: string }>(
     'SELECT (SELECT count(*) FROM heartbeats) AS raw, (SELECT count(*) FROM heartbeat_rollups) AS rollups', { type: QueryTypes.SELECT });
