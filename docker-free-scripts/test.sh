@@ -101,8 +101,11 @@ export PARAPET_DEMO_PASSWORD=${PARAPET_DEMO_PASSWORD:-parapet-demo}
 
 build_client
 
-# Static checks first: a type error or a shell-script warning fails the run like a failing test.
+# Static checks first: a type error, a lint warning, an unformatted file or a shell-script warning
+# fails the run like a failing test.
 run_logged "tsc --noEmit (type check)" "$PARAPET_LOG_DIR/typecheck.log" npx tsc --noEmit -p tsconfig.json
+run_logged "eslint (zero warnings)" "$PARAPET_LOG_DIR/eslint.log" npx eslint . --max-warnings 0
+run_logged "prettier --check (formatting)" "$PARAPET_LOG_DIR/prettier.log" npx prettier --check '**/*.{ts,tsx,js,mjs}'
 run_logged "shellcheck (every shell script)" "$PARAPET_LOG_DIR/shellcheck.log" \
   shellcheck -x -P SCRIPTDIR -P SCRIPTDIR/lib -S style \
   "$PARAPET_ROOT"/docker-free-scripts/*.sh "$PARAPET_ROOT"/docker-free-scripts/lib/*.sh "$PARAPET_ROOT"/.ci/run
