@@ -13,8 +13,10 @@ export const idSchema = z.coerce
 export const idParamsSchema = z.object({ id: idSchema });
 
 // C0 and C1 control characters (line breaks included) and DEL.
+// eslint-disable-next-line no-control-regex -- these are the characters input is refused for
 const CONTROL = /[\u0000-\u001f\u007f-\u009f]/;
 // The same, but tabs and line breaks are fine in multi-line notes.
+// eslint-disable-next-line no-control-regex -- these are the characters input is refused for
 const CONTROL_BUT_LINES = /[\u0000-\u0008\u000b\u000c\u000e-\u001f\u007f-\u009f]/;
 // Unicode Bidirectional Algorithm (UAX #9 §2) embeddings, overrides and isolates: they reorder how
 // the surrounding text is shown, so "gnp.exe" can read as "exe.png" in a page or a mail.

@@ -8,6 +8,7 @@ const finite = (min: number, max: number, unit: string) =>
 export const MAX_BATCH_REPORTS = 500;
 
 // PostgreSQL text cannot hold NUL; a router's odd SSID or firmware string is kept, the NUL shown as U+FFFD.
+// eslint-disable-next-line no-control-regex -- NUL is the one character PostgreSQL text refuses
 const storableText = (max: number) => z.string().max(max, `must be at most ${max} characters`).transform((s) => s.replace(/\u0000/g, '\uFFFD'));
 
 const macSchema = z

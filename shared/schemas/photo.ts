@@ -5,6 +5,7 @@ export const photoCaptionSchema = z.object({
     .string()
     .trim()
     .max(200, 'must be at most 200 characters')
+    // eslint-disable-next-line no-control-regex -- control characters are what this check refuses
     .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'must not contain control characters or line breaks')
     .optional(),
 });

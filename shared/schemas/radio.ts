@@ -23,6 +23,7 @@ const radioFields = {
     .string()
     .max(32, 'must be at most 32 bytes')
     .refine((s) => new TextEncoder().encode(s).length <= 32, 'must be at most 32 bytes')
+    // eslint-disable-next-line no-control-regex -- control characters are what this check refuses
     .refine((s) => !/[\u0000-\u001f\u007f]/.test(s), 'must not contain control characters')
     .refine((s) => !/[\u202a-\u202e\u2066-\u2069]/.test(s), NO_BIDI)
     .optional()
