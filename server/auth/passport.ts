@@ -5,9 +5,9 @@ import { loadActor, type Actor } from '../policies/actor';
 import { verifyPassword } from './passwords';
 
 declare global {
-  // eslint-disable-next-line @typescript-eslint/no-namespace
+  // eslint-disable-next-line @typescript-eslint/no-namespace -- Express declares its request types in this global namespace
   namespace Express {
-    // eslint-disable-next-line @typescript-eslint/no-empty-object-type
+    // eslint-disable-next-line @typescript-eslint/no-empty-object-type -- declaration merging: req.user is our Actor
     interface User extends Actor {}
   }
 }

@@ -4,7 +4,8 @@ import { rateLimit } from 'express-rate-limit';
 import type { Sequelize } from 'sequelize';
 import { heartbeatBatchSchema, heartbeatReportSchema } from '../../shared/schemas/heartbeat';
 import type { Config } from '../config';
-import { ApiError, TooMany } from '../errors';
+import { ApiError } from '../errors';
+import { tooManyHandler } from '../middlewares/tooManyHandler';
 import { parseOrThrow } from '../middlewares/validate';
 import { configureGroupCommit, ingestReports } from '../services/heartbeatIngest';
 import { setIngestCacheMs } from '../services/ingestCacheMs';
@@ -26,10 +27,7 @@ export function heartbeatRoutes(config: Config, sequelize: Sequelize) {
     limit: config.ingestRateLimitPerMin,
     keyGenerator: (req) => createHash('sha256').update(bearer(req) ?? '').digest('hex'),
     validate: { keyGeneratorIpFallback: false },
-    handler: (req, _res, next) => {
-      const resetAt = (req as Request & { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime?.getTime() ?? Date.now() + 60_000;
-      next(TooMany((resetAt - Date.now()) / 1000, 'This node is sending too many reports. Slow down and retry after the wait.'));
-    },
+    handler: tooManyHandler(60_000, 'This node is sending too many reports. Slow down and retry after the wait.'),
   });
 
   router.post(

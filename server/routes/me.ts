@@ -4,8 +4,9 @@ import type { Sequelize } from 'sequelize';
 import { meUpdateSchema, passwordChangeSchema } from '../../shared/schemas/account';
 import { verifyPassword } from '../auth/passwords';
 import type { Config } from '../config';
-import { Invalid, TooMany } from '../errors';
+import { Invalid } from '../errors';
 import { actorOf } from '../middlewares/requireUser';
+import { tooManyHandler } from '../middlewares/tooManyHandler';
 import { validate } from '../middlewares/validate';
 import { presentMe } from '../presenters/user';
 import { assertPasswordFor } from '../services/accountLinks';
@@ -24,10 +25,7 @@ export function meRoutes(sequelize: Sequelize, config: Config) {
     skipSuccessfulRequests: true,
     requestWasSuccessful: (_req, res) => res.locals.wrongCurrentPassword !== true,
     validate: { keyGeneratorIpFallback: false },
-    handler: (req, _res, next) => {
-      const resetAt = (req as typeof req & { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime?.getTime() ?? Date.now() + config.signInLimitWindowMs;
-      next(TooMany((resetAt - Date.now()) / 1000, 'Too many wrong current passwords. Wait a few minutes, or sign out and use "Forgot password?".'));
-    },
+    handler: tooManyHandler(config.signInLimitWindowMs, 'Too many wrong current passwords. Wait a few minutes, or sign out and use "Forgot password?".'),
   });
 
   router.get('/', async (req, res) => {

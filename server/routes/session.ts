@@ -3,10 +3,11 @@ import { rateLimit } from 'express-rate-limit';
 import type passport from 'passport';
 import { signInSchema } from '../../shared/schemas/session';
 import type { Config } from '../config';
-import { ApiError, TooMany } from '../errors';
+import { ApiError } from '../errors';
 import { isKnownDevice, rememberDevice } from '../auth/knownDevice';
 import { markSignedIn } from '../auth/session';
 import { csrfTokenFor } from '../middlewares/csrf';
+import { tooManyHandler } from '../middlewares/tooManyHandler';
 import { parseOrThrow } from '../middlewares/validate';
 import type { Actor } from '../policies/actor';
 import { presentSessionUser } from '../presenters/user';
@@ -21,10 +22,7 @@ function signInLimiter(windowMs: number, limit: number, key: (req: Request) => s
     keyGenerator: key,
     skip,
     validate: { keyGeneratorIpFallback: false },
-    handler: (req, _res, next) => {
-      const resetAt = (req as typeof req & { rateLimit?: { resetTime?: Date } }).rateLimit?.resetTime?.getTime() ?? Date.now() + windowMs;
-      next(TooMany((resetAt - Date.now()) / 1000, 'Too many failed sign-ins. Wait a few minutes and try again.'));
-    },
+    handler: tooManyHandler(windowMs, 'Too many failed sign-ins. Wait a few minutes and try again.'),
   });
 }
 
