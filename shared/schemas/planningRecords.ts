@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { parseIpv4 } from '../addressing/cidr';
 import { BANDS, CHANNEL_WIDTHS_MHZ, RADIO_ROLES } from '../enums';
+import { isTimeZone } from '../time/monthRange';
 import { idSchema, nameSchema } from './common';
 import { cidrSchema } from './planning';
 import { checkChannelFields } from './radio';
@@ -8,21 +9,12 @@ import { checkChannelFields } from './radio';
 const oneOf = (values: readonly (string | number)[]) => `must be one of ${values.join(', ')}`;
 const ipv4Schema = z.string({ error: 'must be an IPv4 address like 10.64.1.1' }).trim().refine((t) => parseIpv4(t) !== null, 'must be an IPv4 address like 10.64.1.1 (four numbers 0–255, no leading zeros)');
 
-function isTimeZone(tz: string): boolean {
-  try {
-    new Intl.DateTimeFormat('en', { timeZone: tz });
-    return true;
-  } catch {
-    return false;
-  }
-}
-
 /** Network settings an admin changes; every field optional. */
 export const networkSettingsUpdateSchema = z
   .object({
     name: nameSchema,
     region: z.enum(['US', 'EU', 'JP'], { error: 'must be US, EU or JP' }),
-    timeZone: z.string().trim().refine(isTimeZone, 'must be an IANA time zone like Europe/Lisbon'),
+    timeZone: z.string().trim().min(1, 'must be an IANA time zone like Europe/Lisbon').refine(isTimeZone, 'must be an IANA time zone like Europe/Lisbon'),
     addressPool: cidrSchema.nullable(),
   })
   .partial()
