@@ -14,7 +14,7 @@ export const networkSettingsUpdateSchema = z
   .object({
     name: nameSchema,
     region: z.enum(['US', 'EU', 'JP'], { error: 'must be US, EU or JP' }),
-    timeZone: z.string().trim().min(1, 'must be an IANA time zone like Europe/Lisbon').refine(isTimeZone, 'must be an IANA time zone like Europe/Lisbon'),
+    timeZone: z.string().trim().refine((tz) => tz !== '' && isTimeZone(tz), 'must be an IANA time zone like Europe/Lisbon'),
     addressPool: cidrSchema.nullable(),
   })
   .partial()
