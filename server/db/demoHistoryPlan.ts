@@ -93,7 +93,9 @@ export function planHistory(now: Date): HistoryPlan {
   const backhaulFailure: PlannedBackhaulFailure = {
     node: 'lf-marsh', lastReportAt: failureStart, backAt: plus(failureStart, 222),
     ack: { by: 'operator2', at: plus(failureStart, 24) },
-    notes: 'The surge arrester at the water tower failed after the storm and took the relay down with it. Replaced it; everything on Saltmarsh Row behind the tower was cut off for the evening.',
+    notes:
+      'The surge arrester at the water tower failed after the storm and took the relay down with it. ' +
+      'Replaced it; everything on Saltmarsh Row behind the tower was cut off for the evening.',
     behind: ['lf-reed', 'lf-heron', 'lf-tide', 'lf-samphire', 'lf-dyke', 'lf-brine'],
   };
 

@@ -52,7 +52,10 @@ export async function loadDemo(config: Config, progress: (line: string) => void 
   const started = Date.now();
   if (options.reset) {
     const dropped = await dropDemo(User.sequelize!, config);
-    progress(`reset: dropped the demo's ${dropped.neighbourhoods} neighbourhoods, ${dropped.nodes} nodes, ${dropped.people} people and ${dropped.photos} photos; loading it again`);
+    progress(
+      `reset: dropped the demo's ${dropped.neighbourhoods} neighbourhoods, ${dropped.nodes} nodes, ` +
+        `${dropped.people} people and ${dropped.photos} photos; loading it again`,
+    );
   }
   const result = await seedDemo(config.demoPassword);
   if (result === 'already-loaded') return { result, seconds: 0 };
