@@ -7,7 +7,17 @@ import { BaseError, ConnectionError } from 'sequelize';
 const UNREACHABLE_CODES = new Set(['08000', '08001', '08003', '08004', '08006', '57P01', '57P02', '57P03', '53300',
   'ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'ENOTFOUND', 'EHOSTUNREACH', 'EAI_AGAIN']);
 // node-postgres raises these without a code.
-const UNREACHABLE_TEXT = /Connection terminated|timeout exceeded when trying to connect|Client has encountered a connection error|Connection is closed|the database system is (starting up|shutting down|in recovery mode)|terminating connection/i;
+const UNREACHABLE_TEXT = new RegExp(
+  [
+    'Connection terminated',
+    'timeout exceeded when trying to connect',
+    'Client has encountered a connection error',
+    'Connection is closed',
+    'the database system is (starting up|shutting down|in recovery mode)',
+    'terminating connection',
+  ].join('|'),
+  'i',
+);
 
 /** True when an error (or the one it wraps) says the database cannot be reached, whatever the query was. */
 export function isDatabaseUnreachable(err: unknown): boolean {

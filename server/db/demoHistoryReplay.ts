@@ -78,7 +78,9 @@ export async function replayHistory(sequelize: Sequelize, config: Config, plan: 
     );
     for (const q of silentNow) {
       await sequelize.query(
-        `UPDATE nodes SET (last_seen_at, last_seq) = (SELECT max(received_at), max(seq) FROM heartbeats WHERE node_id = $1 AND received_at <= $2) WHERE id = $1`,
+        `UPDATE nodes SET (last_seen_at, last_seq) =
+           (SELECT max(received_at), max(seq) FROM heartbeats WHERE node_id = $1 AND received_at <= $2)
+         WHERE id = $1`,
         { bind: [q.nodeId, q.after] },
       );
     }
@@ -137,7 +139,8 @@ export async function replayHistory(sequelize: Sequelize, config: Config, plan: 
 
   steps.sort((a, b) => a.at.getTime() - b.at.getTime() || a.order - b.order);
   await sequelize.query(
-    `INSERT INTO job_state (name, last_run_at, watching_since) VALUES ('silence-check', $1, $1) ON CONFLICT (name) DO UPDATE SET last_run_at = $1, watching_since = $1`,
+    `INSERT INTO job_state (name, last_run_at, watching_since) VALUES ('silence-check', $1, $1)
+     ON CONFLICT (name) DO UPDATE SET last_run_at = $1, watching_since = $1`,
     { bind: [plan.start] },
   );
   for (const step of steps) await step.run();

@@ -24,7 +24,8 @@ export async function dropDemo(sequelize: Sequelize, config: Config) {
   for (const { name } of parts) {
     if (!/^heartbeats_(p\d{8}|default)$/.test(name)) continue;
     const [{ others, mine }] = await sequelize.query<{ others: boolean; mine: boolean }>(
-      `SELECT EXISTS (SELECT 1 FROM ${name} WHERE NOT (node_id = ANY($1::int[]))) AS others, EXISTS (SELECT 1 FROM ${name} WHERE node_id = ANY($1::int[])) AS mine`,
+      `SELECT EXISTS (SELECT 1 FROM ${name} WHERE NOT (node_id = ANY($1::int[]))) AS others,
+              EXISTS (SELECT 1 FROM ${name} WHERE node_id = ANY($1::int[])) AS mine`,
       { bind: [nodes], type: QueryTypes.SELECT },
     );
     if (!mine) continue; // empty days ahead stay for the storage job
