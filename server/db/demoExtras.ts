@@ -13,10 +13,34 @@ import { photoStore, preparePhoto } from '../services/photoStore';
 
 /** Scans of nearby networks, one per neighbourhood, in Parapet's survey CSV layout. SSIDs are invented. */
 export const DEMO_SURVEYS: { node: string; fileName: string; csv: string }[] = [
-  { node: 'lf-rope', fileName: 'ropewalk-roof-scan.csv', csv: 'ssid,channel,channelWidthMHz,signalDbm\nQuayside-Guest,6,20,-52\nChandlery-Till,6,20,-58\nHarbour-Flats-2,6,40,-61\nNets&Floats,1,20,-79\nLoft-Printer,11,20,-83\n' },
-  { node: 'lf-tannery', fileName: 'tannery-lofts-scan.csv', csv: 'ssid,channel,channelWidthMHz,signalDbm\nMillrace-Home,6,20,-49\nBakehouse-Staff,6,20,-55\nTannery-3F,5,20,-60\nOrchardClose-7,11,20,-80\nMillbrook-School,36,40,-71\n' },
-  { node: 'lf-reed', fileName: 'reedbed-scan.csv', csv: 'ssid,channel,channelWidthMHz,signalDbm\nMarshLight,1,20,-57\nHeronWalk-Home,1,20,-63\nTidegate-Cottage,2,20,-66\nBrineSt-21,11,20,-84\n' },
-  { node: 'lf-belfry', fileName: 'belfry-lane-scan.csv', csv: 'ssid,channel,channelWidthMHz,signalDbm\nChapelHall-Guest,1,20,-54\nVicarage-Study,1,20,-61\nGlebe-Garden,3,20,-68\nLookout-4,6,20,-82\nHillside-5G,44,80,-74\n' },
+  {
+    node: 'lf-rope',
+    fileName: 'ropewalk-roof-scan.csv',
+    csv:
+      'ssid,channel,channelWidthMHz,signalDbm\nQuayside-Guest,6,20,-52\nChandlery-Till,6,20,-58\n' +
+      'Harbour-Flats-2,6,40,-61\nNets&Floats,1,20,-79\nLoft-Printer,11,20,-83\n',
+  },
+  {
+    node: 'lf-tannery',
+    fileName: 'tannery-lofts-scan.csv',
+    csv:
+      'ssid,channel,channelWidthMHz,signalDbm\nMillrace-Home,6,20,-49\nBakehouse-Staff,6,20,-55\n' +
+      'Tannery-3F,5,20,-60\nOrchardClose-7,11,20,-80\nMillbrook-School,36,40,-71\n',
+  },
+  {
+    node: 'lf-reed',
+    fileName: 'reedbed-scan.csv',
+    csv:
+      'ssid,channel,channelWidthMHz,signalDbm\nMarshLight,1,20,-57\nHeronWalk-Home,1,20,-63\n' +
+      'Tidegate-Cottage,2,20,-66\nBrineSt-21,11,20,-84\n',
+  },
+  {
+    node: 'lf-belfry',
+    fileName: 'belfry-lane-scan.csv',
+    csv:
+      'ssid,channel,channelWidthMHz,signalDbm\nChapelHall-Guest,1,20,-54\nVicarage-Study,1,20,-61\n' +
+      'Glebe-Garden,3,20,-68\nLookout-4,6,20,-82\nHillside-5G,44,80,-74\n',
+  },
 ];
 
 /** A schematic drawing of an install: sky, roofline, mast and antennas, with its caption. No real place is shown. */
