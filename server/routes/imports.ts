@@ -7,7 +7,7 @@ import { requireRole } from '../middlewares/requireRole';
 import { actorOf } from '../middlewares/requireUser';
 import { requireFile, singleUpload } from '../middlewares/upload';
 import { validate } from '../middlewares/validate';
-import { isAdmin } from '../policies/actor';
+import { operatesAny } from '../policies/actor';
 import { checkImport, commitImport } from '../services/csvImport';
 
 const kindParamsSchema = z.object({ kind: z.enum(IMPORT_KINDS, { error: `must be one of ${IMPORT_KINDS.join(', ')}` }) });
@@ -18,7 +18,7 @@ export function importRoutes(sequelize: Sequelize, settings: Config) {
   const upload = singleUpload('file', settings.csvImportMaxBytes, 'CSV file');
 
   // Checked before the address, the query and the upload are read: hosts add nothing to the inventory.
-  const gate = requireRole((actor) => isAdmin(actor) || actor.neighbourhoodIds.length > 0, 'Only admins and operators import sites and nodes.');
+  const gate = requireRole(operatesAny, 'Only admins and operators import sites and nodes.');
   router.post('/:kind', gate, validate('params', kindParamsSchema), validate('query', importQuerySchema), upload, async (req, res) => {
     const actor = actorOf(req);
     const kind = res.locals.params.kind as ImportKind;

@@ -9,6 +9,7 @@ import { actorOf, requireUser } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
 import { authorize } from '../policies/authorize';
 import { siteAbilities } from '../policies/site';
+import { operatesAny } from '../policies/actor';
 import { mayListPeople } from '../policies/user';
 import { presentUser } from '../presenters/user';
 import { acceptInvitation, invite } from '../services/accountLinks';
@@ -26,7 +27,7 @@ export function invitationRoutes(config: Config, sequelize: Sequelize) {
   router.post(
     '/',
     requireUser,
-    requireRole((a) => mayListPeople(a) || a.neighbourhoodIds.length > 0, 'Only admins invite people, and operators invite hosts for their sites.'),
+    requireRole(operatesAny, 'Only admins invite people, and operators invite hosts for their sites.'),
     validate('body', invitationCreateSchema),
     accountMailLimit(config, 'invitation'),
     async (req, res) => {

@@ -4,7 +4,7 @@ import { nodeCreateSchema, nodeListQuerySchema, nodeUpdateSchema } from '../../s
 import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
 import { Node } from '../models';
-import { isAdmin, mayManage } from '../policies/actor';
+import { isAdmin, mayManage, operatesAny } from '../policies/actor';
 import { authorize } from '../policies/authorize';
 import { nodeAbilities, nodeScope } from '../policies/node';
 import { presentNode } from '../presenters/node';
@@ -31,7 +31,7 @@ export function nodeRoutes() {
     res.json({
       data: rows.map((n) => presentNode(n, actor)),
       pagination,
-      abilities: { create: isAdmin(actor) || actor.neighbourhoodIds.length > 0 },
+      abilities: { create: operatesAny(actor) },
     });
   });
 

@@ -4,7 +4,7 @@ import { siteCreateSchema, siteListQuerySchema, siteUpdateSchema } from '../../s
 import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
 import { Node, Site, User } from '../models';
-import { isAdmin } from '../policies/actor';
+import { operatesAny } from '../policies/actor';
 import { authorize } from '../policies/authorize';
 import { mayCreateSiteIn, siteAbilities, siteScope } from '../policies/site';
 import { presentSite } from '../presenters/site';
@@ -30,7 +30,7 @@ export function siteRoutes() {
     res.json({
       data: rows.map((s) => presentSite(s, actor)),
       pagination,
-      abilities: { create: isAdmin(actor) || actor.neighbourhoodIds.length > 0 },
+      abilities: { create: operatesAny(actor) },
     });
   });
 
@@ -47,7 +47,7 @@ export function siteRoutes() {
   // Who the caller may pick as a host: names only, for the site form's picker.
   router.get('/host-candidates', async (req, res) => {
     const actor = actorOf(req);
-    authorize(isAdmin(actor) || actor.neighbourhoodIds.length > 0, 'Only admins and operators choose hosts.');
+    authorize(operatesAny(actor), 'Only admins and operators choose hosts.');
     res.json({ data: (await hostCandidates(actor)).map((u) => ({ id: u.id, name: u.name })) });
   });
 
