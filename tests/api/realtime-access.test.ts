@@ -34,6 +34,16 @@ function listen(url: string, cookie: string, origin?: string): Promise<Listener>
   });
 }
 
+/** How a refused handshake reads on the client: the transport's error and what the server's answer did to it. */
+const refusal = (attempt: Promise<Listener>) =>
+  attempt.then(
+    (l) => {
+      l.socket.close();
+      return 'connected';
+    },
+    (err: Error & { description?: { message?: string } }) => `${err.message}: ${err.description?.message}`,
+  );
+
 const waitFor = async (check: () => boolean, ms = 10_000) => {
   const end = Date.now() + ms;
   while (!check()) {
@@ -87,8 +97,9 @@ describe('live updates follow access', () => {
   it('refuses a handshake from a foreign Origin and accepts the site’s own', async () => {
     const user = await buildUser({ role: 'operator' });
     const s = await signInAt(b.url, user.email);
-    await expect(listen(b.url, s.cookie, 'https://elsewhere.example')).rejects.toBeTruthy();
-    await expect(listen(b.url, s.cookie, 'null')).rejects.toBeTruthy();
+    // socket.io's allowRequest refusal answers a WebSocket upgrade with 400 Bad Request.
+    expect(await refusal(listen(b.url, s.cookie, 'https://elsewhere.example'))).toBe('websocket error: Unexpected server response: 400');
+    expect(await refusal(listen(b.url, s.cookie, 'null'))).toBe('websocket error: Unexpected server response: 400');
     const own = await listen(b.url, s.cookie, b.url);
     expect(own.socket.connected).toBe(true);
     own.socket.close();
@@ -161,7 +172,8 @@ describe('live updates follow access', () => {
     expect(await waitFor(() => sock.disconnected() !== null, 15_000)).toBe(true);
     expect(sock.disconnected()).toBe('io server disconnect');
     // And the session itself is over: no new connection, no API.
-    await expect(listen(short.url, s.cookie)).rejects.toBeTruthy();
+    // The sign-in check ends an upgrade without a session by closing the connection (no HTTP answer on an upgrade).
+    expect(await refusal(listen(short.url, s.cookie))).toBe('websocket error: socket hang up');
     expect((await fetch(`${short.url}/api/v1/me`, { headers: { cookie: s.cookie } })).status).toBe(401);
   }, 60_000);
 });

@@ -34,7 +34,7 @@ const waitFor = async (check: () => boolean, ms = 8000) => {
 };
 
 describe('live updates across two server processes', () => {
-  const ctx = useApi();
+  useApi();
   let a: ServerProcess;
   let b: ServerProcess;
   const env = { SESSION_SECRET: 'a-shared-secret-for-both-test-instances', JOBS_ENABLED: 'false', FIGURES_THROTTLE_MS: '0', SOCKET_ADAPTER: 'postgres' };

@@ -1,7 +1,7 @@
 import request from 'supertest';
 import { describe, expect, it } from 'vitest';
 import { OperatorAssignment, Site } from '../../server/models';
-import { buildUser, call, ids, SIGNED_OUT, signIn, type Agent, useApi } from '../helpers/api';
+import { buildUser, call, SIGNED_OUT, signIn, type Agent, useApi } from '../helpers/api';
 import { buildNeighbourhood, buildNode, buildOperatorWithHood, buildSite } from '../helpers/factories';
 
 const validSite = (neighbourhoodId: number, overrides: Record<string, unknown> = {}) => ({

@@ -16,7 +16,7 @@ async function settled(page: Page) {
     await page.locator('h1').first().waitFor({ timeout: 90_000 });
     await page.waitForFunction(() => ![...document.querySelectorAll('[role=status]')].some((el) => /^Loading|^Checking/.test(el.textContent ?? '')), undefined, { timeout: 90_000 });
   } catch (error) {
-    throw new Error(`${page.url()} did not finish loading: ${(error as Error).message.split('\n')[0]}`);
+    throw new Error(`${page.url()} did not finish loading: ${(error as Error).message.split('\n')[0]}`, { cause: error });
   }
 }
 

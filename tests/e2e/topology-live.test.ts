@@ -1,4 +1,4 @@
-import { request as playwrightRequest, type APIRequestContext, type Page } from 'playwright-core';
+import { request as playwrightRequest, type APIRequestContext } from 'playwright-core';
 import { beforeAll, describe, expect, it } from 'vitest';
 import { DEMO_PASSWORD, screenshot, signInAs, useE2E } from './helpers/browser';
 
