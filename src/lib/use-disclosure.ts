@@ -12,7 +12,12 @@ export function useDisclosure<B extends HTMLElement = HTMLButtonElement, P exten
   const panelId = useId();
   const location = useLocation();
 
-  useEffect(() => setOpen(false), [location.pathname]);
+  // Moving to another page closes it: adjusted while rendering, not in an effect, so no extra render shows it open.
+  const [pathname, setPathname] = useState(location.pathname);
+  if (pathname !== location.pathname) {
+    setPathname(location.pathname);
+    setOpen(false);
+  }
 
   const close = useCallback((returnFocus: boolean) => {
     setOpen(false);

@@ -17,5 +17,6 @@ export function useInlineForm() {
     wasOpen.current = open;
   }, [open]);
 
-  return { open, show: () => setOpen(true), hide: () => setOpen(false), triggerRef, regionRef };
+  // Spread on the elements (`{...form.triggerProps}`), as useDisclosure's props are: the refs are only read in the effect above.
+  return { open, show: () => setOpen(true), hide: () => setOpen(false), triggerProps: { ref: triggerRef }, regionProps: { ref: regionRef } };
 }

@@ -71,7 +71,7 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
           !editing.open && (
             <>
               {record.abilities.update && (
-                <Button ref={editing.triggerRef} variant="primary" onClick={editing.show}>
+                <Button {...editing.triggerProps} variant="primary" onClick={editing.show}>
                   Edit neighbourhood
                 </Button>
               )}
@@ -91,7 +91,7 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
       />
       <FormMessage message={remove.error instanceof ApiError ? remove.error.message : remove.error ? 'Could not remove the neighbourhood.' : null} />
       {editing.open ? (
-        <div ref={editing.regionRef}>
+        <div {...editing.regionProps}>
           <NeighbourhoodForm neighbourhood={record} onSaved={editing.hide} onCancel={editing.hide} />
         </div>
       ) : (

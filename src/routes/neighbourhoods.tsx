@@ -25,14 +25,14 @@ export function NeighbourhoodsPage() {
         actions={
           neighbourhoods.data?.abilities?.create &&
           !adding.open && (
-            <Button ref={adding.triggerRef} variant="primary" onClick={adding.show}>
+            <Button {...adding.triggerProps} variant="primary" onClick={adding.show}>
               Add neighbourhood
             </Button>
           )
         }
       />
       {adding.open && (
-        <div ref={adding.regionRef} className="mb-6">
+        <div {...adding.regionProps} className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">New neighbourhood</h2>
           <NeighbourhoodForm onSaved={(n) => navigate(paths.neighbourhoodDetail.to(n.id))} onCancel={adding.hide} />
         </div>

@@ -88,7 +88,7 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
               <ButtonLink to={paths.topology.to(record.id)}>Show on the map</ButtonLink>
               {record.abilities.update && <ButtonLink to={paths.provisioningSheet.to(record.id)}>Provisioning sheet</ButtonLink>}
               {record.abilities.update && (
-                <Button ref={editing.triggerRef} variant="primary" onClick={editing.show}>
+                <Button {...editing.triggerProps} variant="primary" onClick={editing.show}>
                   Edit node
                 </Button>
               )}
@@ -103,7 +103,7 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
       />
       <FormMessage message={remove.error instanceof ApiError ? remove.error.message : remove.error ? 'Could not remove the node.' : null} />
       {editing.open ? (
-        <div ref={editing.regionRef}>
+        <div {...editing.regionProps}>
           <NodeForm
             node={record}
             siteOptions={toOptions(sites.data?.data)}

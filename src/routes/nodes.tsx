@@ -36,7 +36,7 @@ export function NodesPage() {
             {nodes.data?.abilities?.create && !adding.open && (
               <>
                 <ButtonLink to={paths.imports.to('nodes')}>Import CSV</ButtonLink>
-                <Button ref={adding.triggerRef} variant="primary" onClick={adding.show}>
+                <Button {...adding.triggerProps} variant="primary" onClick={adding.show}>
                   Add node
                 </Button>
               </>
@@ -45,7 +45,7 @@ export function NodesPage() {
         }
       />
       {adding.open && (
-        <div ref={adding.regionRef} className="mb-6">
+        <div {...adding.regionProps} className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">New node</h2>
           <NodeForm
             siteOptions={toOptions(sites.data?.data)}

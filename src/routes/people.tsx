@@ -31,7 +31,7 @@ export function PeoplePage() {
           !inviting.open && (
             <>
               <Button
-                ref={inviting.triggerRef}
+                {...inviting.triggerProps}
                 variant="primary"
                 onClick={() => {
                   setAdded(null);
@@ -41,7 +41,7 @@ export function PeoplePage() {
                 Invite by e-mail
               </Button>
               <Button
-                ref={adding.triggerRef}
+                {...adding.triggerProps}
                 onClick={() => {
                   setAdded(null);
                   adding.show();
@@ -57,7 +57,7 @@ export function PeoplePage() {
         {added ?? ''}
       </p>
       {inviting.open && (
-        <div ref={inviting.regionRef} className="mb-6">
+        <div {...inviting.regionProps} className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">Invite someone</h2>
           <InviteForm
             onSent={(person) => {
@@ -69,7 +69,7 @@ export function PeoplePage() {
         </div>
       )}
       {adding.open && (
-        <div ref={adding.regionRef} className="mb-6">
+        <div {...adding.regionProps} className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">New person</h2>
           <PersonForm
             onSaved={(person) => {

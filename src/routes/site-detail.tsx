@@ -61,7 +61,7 @@ function SiteDetail({ siteId }: { siteId: number }) {
           !editing.open && (
             <>
               {record.abilities.update && (
-                <Button ref={editing.triggerRef} variant="primary" onClick={editing.show}>
+                <Button {...editing.triggerProps} variant="primary" onClick={editing.show}>
                   Edit site
                 </Button>
               )}
@@ -76,7 +76,7 @@ function SiteDetail({ siteId }: { siteId: number }) {
       />
       <FormMessage message={remove.error instanceof ApiError ? remove.error.message : remove.error ? 'Could not remove the site.' : null} />
       {editing.open ? (
-        <div ref={editing.regionRef}>
+        <div {...editing.regionProps}>
           <SiteForm
             site={record}
             neighbourhoodOptions={toOptions(neighbourhoods.data?.data)}

@@ -4,6 +4,7 @@ import { Button } from '../../../components/button';
 import { DataTable, type Column } from '../../../components/data-table';
 import { formatDateTime, formatDuration, formatSince } from '../../../lib/format';
 import { paths } from '../../../lib/paths';
+import { useNow } from '../../../lib/use-now';
 import { useAcknowledgeOutage } from '../api/outages';
 import { OutageNotes } from './outage-notes';
 
@@ -69,7 +70,7 @@ interface OutagesTableProps {
 export { Acknowledgement, BlastRadius };
 
 export function OutagesTable({ outages, neighbourhoodNames, showNode = true, sort, onSort, testId = 'outages-table' }: OutagesTableProps) {
-  const now = Date.now();
+  const now = useNow();
   const columns: Column<OutageDto>[] = [
     ...(showNode
       ? [

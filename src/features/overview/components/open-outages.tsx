@@ -2,12 +2,13 @@ import { Link } from 'react-router-dom';
 import { EmptyState } from '../../../components/empty-state';
 import { formatDateTime, formatDuration } from '../../../lib/format';
 import { paths } from '../../../lib/paths';
+import { useNow } from '../../../lib/use-now';
 import type { OpenOutage } from '../api/overview';
 
 /** The nodes down right now, widest blast radius first (the server's order), each with a way to its page. */
 export function OpenOutages({ outages }: { outages: OpenOutage[] }) {
+  const now = useNow();
   if (outages.length === 0) return <EmptyState title="No open outages">Every node you look after is reporting or was never set up.</EmptyState>;
-  const now = Date.now();
   return (
     <ul data-testid="overview-open-outages" className="divide-y divide-line rounded-lg border border-line bg-surface text-sm">
       {outages.map((outage) => (
