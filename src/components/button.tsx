@@ -4,7 +4,8 @@ import { Link, type LinkProps } from 'react-router-dom';
 type Variant = 'primary' | 'secondary' | 'danger' | 'quiet';
 
 const BASE =
-  'inline-flex items-center justify-center gap-1.5 rounded-md px-3 py-1.5 text-sm font-medium transition-colors disabled:opacity-60 disabled:cursor-not-allowed';
+  'inline-flex items-center justify-center gap-1.5 rounded-md px-3 py-1.5 text-sm font-medium transition-colors ' +
+  'disabled:opacity-60 disabled:cursor-not-allowed';
 const VARIANTS: Record<Variant, string> = {
   primary: 'bg-accent text-accent-ink hover:opacity-90',
   secondary: 'border border-line-strong bg-surface text-ink hover:bg-sunken',

@@ -19,6 +19,9 @@ interface DataTableProps<Row> {
   testId?: string;
 }
 
+/** On a phone each row becomes a card and each cell a label-and-value line. */
+const CELL_STACKED = 'max-sm:flex max-sm:items-baseline max-sm:justify-between max-sm:gap-3 max-sm:px-0 max-sm:py-1 max-sm:text-right';
+
 function sortState(sort: string | undefined, key: string): 'ascending' | 'descending' | 'none' {
   if (sort === key) return 'ascending';
   if (sort === `-${key}`) return 'descending';
@@ -75,13 +78,16 @@ export function DataTable<Row>({ rows, columns, rowKey, caption, sort, onSort, t
           {rows.map((row) => (
             <tr
               key={rowKey(row)}
-              className="border-b border-line last:border-0 max-sm:block max-sm:rounded-lg max-sm:border max-sm:bg-surface max-sm:px-3 max-sm:py-2 max-sm:last:border"
+              className={
+                'border-b border-line last:border-0 ' +
+                'max-sm:block max-sm:rounded-lg max-sm:border max-sm:bg-surface max-sm:px-3 max-sm:py-2 max-sm:last:border'
+              }
             >
               {columns.map((column, index) => (
                 <td
                   key={column.key}
                   data-label={column.header}
-                  className={`px-3 py-2 align-middle max-sm:flex max-sm:items-baseline max-sm:justify-between max-sm:gap-3 max-sm:px-0 max-sm:py-1 max-sm:text-right ${
+                  className={`px-3 py-2 align-middle ${CELL_STACKED} ${
                     index === 0 ? 'max-sm:text-base max-sm:font-medium' : 'max-sm:before:text-muted max-sm:before:content-[attr(data-label)]'
                   } ${column.align === 'right' ? 'text-right tabular-nums' : ''}`}
                 >

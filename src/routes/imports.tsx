@@ -59,7 +59,8 @@ export function ImportsPage() {
             <p className="mb-2 text-sm" data-testid="import-summary">
               {preview.data.errorCount === 0
                 ? `All ${preview.data.validCount} rows are ready.`
-                : `${preview.data.errorCount} of ${preview.data.rows.length} rows have problems. Fix them in the file and choose it again; nothing is imported until every row is right.`}
+                : `${preview.data.errorCount} of ${preview.data.rows.length} rows have problems. ` +
+                  'Fix them in the file and choose it again; nothing is imported until every row is right.'}
             </p>
             <ImportPreview preview={preview.data} />
             <div className="mt-3">

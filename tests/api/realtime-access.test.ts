@@ -172,8 +172,8 @@ describe('live updates follow access', () => {
     expect(await waitFor(() => sock.disconnected() !== null, 15_000)).toBe(true);
     expect(sock.disconnected()).toBe('io server disconnect');
     // And the session itself is over: no new connection, no API.
-    // The sign-in check ends an upgrade without a session by closing the connection (no HTTP answer on an upgrade).
-    expect(await refusal(listen(short.url, s.cookie))).toBe('websocket error: socket hang up');
+    // The ended session is refused before the upgrade, which socket.io answers with 400 Bad Request.
+    expect(await refusal(listen(short.url, s.cookie))).toBe('websocket error: Unexpected server response: 400');
     expect((await fetch(`${short.url}/api/v1/me`, { headers: { cookie: s.cookie } })).status).toBe(401);
   }, 60_000);
 });

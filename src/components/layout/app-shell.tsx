@@ -137,7 +137,10 @@ export function AppShell({ user, navItems, onSignOut, signingOut, children }: Ap
             {...menu.panelProps}
             data-testid="nav"
             aria-label="Main"
-            className={`${menu.open ? 'max-lg:block' : 'max-lg:hidden'} z-40 max-lg:absolute max-lg:inset-x-0 max-lg:top-14 max-lg:border-b max-lg:border-line max-lg:bg-surface max-lg:p-3 max-lg:shadow-md lg:ml-4`}
+            className={
+              `${menu.open ? 'max-lg:block' : 'max-lg:hidden'} z-40 lg:ml-4 ` +
+              'max-lg:absolute max-lg:inset-x-0 max-lg:top-14 max-lg:border-b max-lg:border-line max-lg:bg-surface max-lg:p-3 max-lg:shadow-md'
+            }
           >
             <ul className="flex flex-col gap-1 lg:flex-row">
               {navItems.map((item) => (

@@ -32,7 +32,8 @@ function describe(spec: ChartSpec, points: SeriesPoint[], range: SeriesRange): s
   const values = points.map((p) => p[spec.lines[0].field]).filter((v): v is number => typeof v === 'number');
   if (values.length === 0) return `${spec.title} over ${RANGE_WORDS[range]}: no figures.`;
   const latest = values[values.length - 1];
-  return `${spec.title} over ${RANGE_WORDS[range]}: latest ${latest.toFixed(1)} ${spec.unit}, lowest ${Math.min(...values).toFixed(1)}, highest ${Math.max(...values).toFixed(1)}.`;
+  const [lowest, highest] = [Math.min(...values).toFixed(1), Math.max(...values).toFixed(1)];
+  return `${spec.title} over ${RANGE_WORDS[range]}: latest ${latest.toFixed(1)} ${spec.unit}, lowest ${lowest}, highest ${highest}.`;
 }
 
 export function RangeSwitch({ range, onChange }: { range: SeriesRange; onChange: (range: SeriesRange) => void }) {

@@ -21,7 +21,10 @@ export function PersonActions({ person }: { person: UserDto }) {
   }
 
   function confirmErase() {
-    const typed = window.prompt(`Erase ${person.name}'s personal data? Their name, e-mail, phone and password are removed for good; sites they hosted lose their host; outages and history keep an anonymous "Former member #${person.id}". Type ERASE to confirm.`);
+    const typed = window.prompt(
+      `Erase ${person.name}'s personal data? Their name, e-mail, phone and password are removed for good; sites they hosted lose their host; ` +
+        `outages and history keep an anonymous "Former member #${person.id}". Type ERASE to confirm.`,
+    );
     if (typed !== 'ERASE') return;
     erase.mutate(undefined, { onSuccess: () => setMessage('Erased.'), onError: (e) => setMessage(errorText(e, 'Could not erase.')) });
   }

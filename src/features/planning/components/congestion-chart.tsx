@@ -2,6 +2,7 @@ import type { CongestionRow } from '../api/types';
 
 const FLOOR_DBM = -100;
 const TOP_DBM = -30;
+const heard = (dbm: number | null) => (dbm === null ? 'nothing heard' : `${dbm} dBm`);
 
 /** Power heard per channel from the node's newest survey, as bars from −100 dBm up. */
 export function CongestionChart({ title, rows }: { title: string; rows: CongestionRow[] }) {
@@ -26,7 +27,7 @@ export function CongestionChart({ title, rows }: { title: string; rows: Congesti
             const loud = r.congestionDbm !== null && r.congestionDbm > -70;
             return (
               <g key={r.channel}>
-                <title>{`Channel ${r.channel}: ${r.congestionDbm === null ? 'nothing heard' : `${r.congestionDbm} dBm`}, ${r.networks} network(s) on it`}</title>
+                <title>{`Channel ${r.channel}: ${heard(r.congestionDbm)}, ${r.networks} network(s) on it`}</title>
                 <rect x={x} y={base - h} width={20} height={h} className={loud ? 'fill-state-offline' : 'fill-info'} fillOpacity={0.8} />
                 <text x={x + 10} y={H - 8} fontSize={10} textAnchor="middle" fill="currentColor">{r.channel}</text>
               </g>
