@@ -16,7 +16,8 @@ describe('the database guards its own data', () => {
 
   it('refuses a channel width outside 20/40/80 and a channel that does not fit the band', async () => {
     const node = await buildNode();
-    const base = `INSERT INTO radios (node_id, iface, band, channel, channel_width_mhz, tx_power_dbm, antenna_gain_dbi, role, encryption) VALUES ($1, $2, $3, $4, $5, 18, 10, 'mesh', 'wpa2-ccmp')`;
+    const base = `INSERT INTO radios (node_id, iface, band, channel, channel_width_mhz, tx_power_dbm, antenna_gain_dbi, role, encryption)
+      VALUES ($1, $2, $3, $4, $5, 18, 10, 'mesh', 'wpa2-ccmp')`;
     await rejects(base, [node.id, 'wlan0', '5', 36, 30]);
     await rejects(base, [node.id, 'wlan1', '2.4', 36, 20]);
     await rejects(base, [node.id, 'wlan2', '6', 1, 20]);

@@ -126,7 +126,8 @@ describe('fault drills', () => {
     const health = await fetch(`${server.url}/api/health`);
     console.log(
       `drill "PostgreSQL restart": ${total} reports answered 202, ${lost} of them missing; answers ${JSON.stringify(Object.fromEntries(statuses))}; ` +
-        `restart took ${secs(restartDoneAt - restartAt)}; every node accepted again within ${secs(worstBackMs)} of the restart command, ${secs(worstAfterReturnMs)} of the database being back; process up: ${server.child.exitCode === null}`,
+        `restart took ${secs(restartDoneAt - restartAt)}; every node accepted again within ${secs(worstBackMs)} of the restart command, ` +
+        `${secs(worstAfterReturnMs)} of the database being back; process up: ${server.child.exitCode === null}`,
     );
     expect(lost).toBe(0);
     expect([...statuses.keys()].filter((s) => s !== 202 && s !== 503)).toEqual([]);
@@ -147,7 +148,10 @@ describe('fault drills', () => {
     expect((await Node.findByPk(n.nodeId))!.state).toBe('offline');
     const rebooted = await post(server!.url, n.token, { seq: 1, bootId: randomUUID(), sentAt: new Date().toISOString() });
     const after = (await Node.findByPk(n.nodeId))!;
-    console.log(`drill "router reboot": seq 2^53-1 then offline after ${secs(Date.now() - t0)}; new boot, seq 1 answered ${rebooted.status} ${JSON.stringify(rebooted.body)}; node now ${after.state}, last seq ${after.lastSeq}`);
+    console.log(
+      `drill "router reboot": seq 2^53-1 then offline after ${secs(Date.now() - t0)}; ` +
+        `new boot, seq 1 answered ${rebooted.status} ${JSON.stringify(rebooted.body)}; node now ${after.state}, last seq ${after.lastSeq}`,
+    );
     expect(rebooted.body).toEqual({ accepted: 1, duplicates: 0 });
     expect(after.state).toBe('online');
     expect(after.lastSeq).toBe('1');
@@ -223,9 +227,12 @@ describe('fault drills', () => {
     const perMessage = new Map<string, number>();
     for (const m of mails) perMessage.set(m.headers['message-id'], (perMessage.get(m.headers['message-id']) ?? 0) + 1);
     console.log(
-      `drill "SIGKILL mid-batch": ${total} reports acknowledged in ${acked.length} batches, ${lost} missing; ${resent} batches resent after the kill, ${duplicates} duplicates reported back; ` +
-        `server answering again ${secs(upAgainMs)} after the kill; outbox at the kill ${JSON.stringify(outboxAtKill.map((o) => `${o.status}/${o.attempts}`))}; ` +
-        `mails ${mails.length} of ${dedupeKeys.length}, arrived ${secs(Date.now() - t0 - 3000)} after the restart, most copies of one message: ${Math.max(...perMessage.values())}`,
+      `drill "SIGKILL mid-batch": ${total} reports acknowledged in ${acked.length} batches, ${lost} missing; ` +
+        `${resent} batches resent after the kill, ${duplicates} duplicates reported back; ` +
+        `server answering again ${secs(upAgainMs)} after the kill; ` +
+        `outbox at the kill ${JSON.stringify(outboxAtKill.map((o) => `${o.status}/${o.attempts}`))}; ` +
+        `mails ${mails.length} of ${dedupeKeys.length}, arrived ${secs(Date.now() - t0 - 3000)} after the restart, ` +
+        `most copies of one message: ${Math.max(...perMessage.values())}`,
     );
     expect(lost).toBe(0);
     expect(outboxAtKill.some((o) => o.attempts > 0)).toBe(true); // it really died mid-send
@@ -262,7 +269,8 @@ describe('fault drills', () => {
     await sleep(5000); // a second copy would show up here
     mails = await mailTo([operator.email]);
     console.log(
-      `drill "SMTP hung 2 min": node offline ${secs(offlineAt - hungAt)} into the hang; outage mail tried ${duringHang?.attempts} times while hung (${duringHang?.status}); ` +
+      `drill "SMTP hung 2 min": node offline ${secs(offlineAt - hungAt)} into the hang; ` +
+        `outage mail tried ${duringHang?.attempts} times while hung (${duringHang?.status}); ` +
         `arrived ${secs(arrivedAfterMs)} after SMTP returned; copies received: ${mails.length}`,
     );
     expect(duringHang?.attempts).toBeGreaterThanOrEqual(2);

@@ -118,7 +118,8 @@ describe('role-based access matrix', () => {
   // Deleting a few small tables is much quicker than TRUNCATE, which 180 cases would feel.
   beforeEach(async () => {
     await ctx.sequelize.query(
-      'DELETE FROM links; DELETE FROM radios; DELETE FROM nodes; DELETE FROM sites; DELETE FROM operator_assignments; DELETE FROM neighbourhoods; DELETE FROM users;',
+      'DELETE FROM links; DELETE FROM radios; DELETE FROM nodes; DELETE FROM sites; ' +
+        'DELETE FROM operator_assignments; DELETE FROM neighbourhoods; DELETE FROM users;',
     );
   });
 

@@ -12,7 +12,9 @@ import { buildNeighbourhood } from '../helpers/factories';
 // A small built client of our own, so these checks do not depend on what the real build contains.
 const dist = fs.mkdtempSync(path.join(os.tmpdir(), 'parapet-dist-'));
 const script = `export const lines = [${Array.from({ length: 400 }, (_, i) => `"line ${i} of the map page"`).join(',')}];\n`;
-const shell = `<!doctype html><html lang="en"><head><title>Parapet</title><script type="module" src="/assets/index-Ab12Cd34.js"></script></head><body><div id="root"></div></body></html>`;
+const shell =
+  '<!doctype html><html lang="en"><head><title>Parapet</title><script type="module" src="/assets/index-Ab12Cd34.js"></script></head>' +
+  '<body><div id="root"></div></body></html>';
 fs.mkdirSync(path.join(dist, 'assets'));
 fs.writeFileSync(path.join(dist, 'index.html'), shell);
 fs.writeFileSync(path.join(dist, 'assets', 'index-Ab12Cd34.js'), script);

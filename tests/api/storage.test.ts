@@ -9,7 +9,8 @@ import { buildNode } from '../helpers/factories';
 const partitionsOf = async (ctx: ReturnType<typeof useApi>, table: string) =>
   (
     await ctx.sequelize.query<{ name: string }>(
-      `SELECT c.relname AS name FROM pg_inherits i JOIN pg_class c ON c.oid = i.inhrelid JOIN pg_class p ON p.oid = i.inhparent WHERE p.relname = $1 ORDER BY 1`,
+      `SELECT c.relname AS name FROM pg_inherits i JOIN pg_class c ON c.oid = i.inhrelid JOIN pg_class p ON p.oid = i.inhparent
+       WHERE p.relname = $1 ORDER BY 1`,
       { bind: [table], type: QueryTypes.SELECT },
     )
   ).map((r) => r.name);
@@ -67,7 +68,8 @@ describe('heartbeat storage upkeep', () => {
     await ensurePartitions(ctx.sequelize, old, 0);
     expect(await partitionsOf(ctx, 'heartbeats')).toContain('heartbeats_p20300101');
     const node = await buildNode();
-    await ctx.sequelize.query(`INSERT INTO heartbeat_rollups (node_id, bucket_s, bucket_start, reports, expected_reports, availability_pct) VALUES ($1, 3600, '2029-01-01T00:00:00Z', 1, 60, 1.7), ($1, 3600, '2029-12-31T00:00:00Z', 60, 60, 100)`, { bind: [node.id] });
+    await ctx.sequelize.query(`INSERT INTO heartbeat_rollups (node_id, bucket_s, bucket_start, reports, expected_reports, availability_pct)
+       VALUES ($1, 3600, '2029-01-01T00:00:00Z', 1, 60, 1.7), ($1, 3600, '2029-12-31T00:00:00Z', 60, 60, 100)`, { bind: [node.id] });
     const dropped = await applyRetention(ctx.sequelize, new Date('2030-01-20T00:00:00Z'), 14, 300);
     expect(dropped).toEqual(expect.arrayContaining(['heartbeats_p20300101']));
     expect(await partitionsOf(ctx, 'heartbeats')).not.toContain('heartbeats_p20300101');

@@ -23,13 +23,15 @@ describe('links heard on the air, on the map', () => {
     const hood = (await db.query<{ id: number }>(`SELECT id FROM neighbourhoods WHERE name = 'Old Quay'`)).rows[0].id;
     for (const [i, suffix] of ['a', 'b'].entries()) {
       const site = (await db.query<{ id: number }>(
-        `INSERT INTO sites (neighbourhood_id, name, latitude, longitude) SELECT $1, $2, latitude - 0.004 - $3 * 0.003, longitude + 0.004 FROM sites WHERE neighbourhood_id = $1 ORDER BY id LIMIT 1 RETURNING id`,
+        `INSERT INTO sites (neighbourhood_id, name, latitude, longitude) SELECT $1, $2, latitude - 0.004 - $3 * 0.003, longitude + 0.004
+         FROM sites WHERE neighbourhood_id = $1 ORDER BY id LIMIT 1 RETURNING id`,
         [hood, `${TAG}-${suffix}`, i],
       )).rows[0].id;
       siteIds.push(site);
       nodeIds.push((await db.query<{ id: number }>(`INSERT INTO nodes (site_id, neighbourhood_id, name) VALUES ($1, $2, $3) RETURNING id`, [site, hood, `lf-${TAG}-${suffix}`])).rows[0].id);
       radioIds.push((await db.query<{ id: number }>(
-        `INSERT INTO radios (node_id, iface, band, channel, channel_width_mhz, tx_power_dbm, antenna_gain_dbi, role, encryption) VALUES ($1, 'wlan0', '5', 44, 20, 18, 23, 'backhaul-ap', 'wpa2-ccmp') RETURNING id`,
+        `INSERT INTO radios (node_id, iface, band, channel, channel_width_mhz, tx_power_dbm, antenna_gain_dbi, role, encryption)
+         VALUES ($1, 'wlan0', '5', 44, 20, 18, 23, 'backhaul-ap', 'wpa2-ccmp') RETURNING id`,
         [nodeIds[i]],
       )).rows[0].id);
     }

@@ -49,7 +49,8 @@ describe('a host guided back online from their phone', () => {
     userId = (await db.query<{ id: number }>(`INSERT INTO users (email, name, role) VALUES ($1, 'Wren Albery', 'host') RETURNING id`, [HOST_EMAIL])).rows[0].id;
     const hood = (await db.query<{ id: number }>(`SELECT id FROM neighbourhoods WHERE name = 'Old Quay'`)).rows[0].id;
     siteId = (await db.query<{ id: number }>(
-      `INSERT INTO sites (neighbourhood_id, name, latitude, longitude, host_user_id) SELECT $1, $2, latitude + 0.001, longitude, $3 FROM sites WHERE neighbourhood_id = $1 LIMIT 1 RETURNING id`,
+      `INSERT INTO sites (neighbourhood_id, name, latitude, longitude, host_user_id) SELECT $1, $2, latitude + 0.001, longitude, $3
+       FROM sites WHERE neighbourhood_id = $1 LIMIT 1 RETURNING id`,
       [hood, `Ropewalk ${TAG}`, userId],
     )).rows[0].id;
     nodeId = (await db.query<{ id: number }>(`INSERT INTO nodes (site_id, neighbourhood_id, name, report_interval_s) VALUES ($1, $2, $3, $4) RETURNING id`, [siteId, hood, NODE_NAME, REPORT_INTERVAL_S])).rows[0].id;

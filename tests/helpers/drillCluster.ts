@@ -19,9 +19,13 @@ async function lib(script: string, ...args: string[]) {
  */
 export async function startDrillCluster() {
   const port = await freePort();
-  const dir = await lib(`d=$(mktemp -d /tmp/parapet-drill.XXXXXX); pg_owned_dir "$d" || { rm -rf "$d"; d=$(mktemp -d /var/tmp/parapet-drill.XXXXXX); pg_owned_dir "$d"; }; echo "$d"`);
+  const dir = await lib(
+    'd=$(mktemp -d /tmp/parapet-drill.XXXXXX); pg_owned_dir "$d" || ' +
+      '{ rm -rf "$d"; d=$(mktemp -d /var/tmp/parapet-drill.XXXXXX); pg_owned_dir "$d"; }; echo "$d"');
   await lib(
-    'pg_init_cluster "$1/pg" parapet_drill >&2 && pg_start_cluster "$1/pg" "$2" "$1/postgres.log" "fsync = off" "synchronous_commit = on" >&2 && pg_ensure_role_and_databases "$1/pg" "$2" parapet_drill >&2',
+    'pg_init_cluster "$1/pg" parapet_drill >&2 && ' +
+      'pg_start_cluster "$1/pg" "$2" "$1/postgres.log" "fsync = off" "synchronous_commit = on" >&2 && ' +
+      'pg_ensure_role_and_databases "$1/pg" "$2" parapet_drill >&2',
     dir,
     String(port),
   );

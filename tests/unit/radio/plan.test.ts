@@ -132,7 +132,8 @@ describe('second edition: line of sight, horizon, diffraction, rates', () => {
   });
   it('rates from the HT and VHT tables with streams and guard interval (IEEE 802.11-2020 clauses 19 and 21)', () => {
     const strong = { ...radio, distanceKm: 0.5 };
-    expect(computeLinkBudget({ ...strong, channelWidthMHz: 40, streams: 2, guardInterval: 'short' }).expectedRateMbps).toBe(300); // REFERENCES: HT40 MCS15 short GI 300 Mb/s
+    // REFERENCES: HT40 MCS15 short GI 300 Mb/s
+    expect(computeLinkBudget({ ...strong, channelWidthMHz: 40, streams: 2, guardInterval: 'short' }).expectedRateMbps).toBe(300);
     const vht = computeLinkBudget({ ...strong, channelWidthMHz: 80, streams: 2, guardInterval: 'short' });
     expect(vht.expectedRateMbps).toBe(866.7); // REFERENCES: VHT80 MCS9 2 streams short GI 866.7 Mb/s
     expect(vht.mcs).toBe(9);

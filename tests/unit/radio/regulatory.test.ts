@@ -112,7 +112,8 @@ describe('US U-NII-1 and U-NII-2A, 47 CFR §15.407(a)(1)–(2)', () => {
     const r = computeRegulatory(us({ freqMHz: 5300, antennaGainDbi: 6, txPowerDbm: 24 }));
     expect(r.maxTxPowerDbm).toBeCloseTo(23.98, 2); // §15.407(a)(2): 250 mW
     expect(r.compliant).toBe(false); // 24 dBm is 251 mW
-    expect(r.dfs).toEqual({ channelAvailabilityCheckS: 60, nonOccupancyMin: 30, advice: expect.stringMatching(/prefer a channel without DFS/) }); // KDB 905462, from memory
+    // KDB 905462, from memory
+    expect(r.dfs).toEqual({ channelAvailabilityCheckS: 60, nonOccupancyMin: 30, advice: expect.stringMatching(/prefer a channel without DFS/) });
   });
 });
 
@@ -125,7 +126,8 @@ describe('band edges: the whole occupied channel must lie in one band', () => {
     expect(computeRegulatory(eu({ freqMHz: 2472, txPowerDbm: 10, antennaGainDbi: 2 })).compliant).toBe(true); // channel 13: 2462–2482 MHz fits
   });
   it('5720 MHz at 20 MHz crosses 5725 MHz in the EU and in the US (where the straddle is flagged for the regulator)', () => {
-    expect(computeRegulatory(eu({ freqMHz: 5720, antennaGainDbi: 6, txPowerDbm: 10 })).problems[0]).toMatch(/band edge at 5725 MHz/); // EN 301 893: 5470–5725 MHz
+    // EN 301 893: 5470–5725 MHz
+    expect(computeRegulatory(eu({ freqMHz: 5720, antennaGainDbi: 6, txPowerDbm: 10 })).problems[0]).toMatch(/band edge at 5725 MHz/);
     const us144 = computeRegulatory(us({ freqMHz: 5720, antennaGainDbi: 6, txPowerDbm: 10 }));
     expect(us144.compliant).toBe(false);
     expect(us144.rule).toMatch(/ask the regulator/);

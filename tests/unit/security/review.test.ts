@@ -12,7 +12,8 @@ describe('reviewRadio', () => {
     expect(reviewRadio(radio({}))).toEqual([]);
   });
   it('flags open networks, worse on backhaul', () => {
-    expect(codes(reviewRadio(radio({ encryption: 'none', preSharedKey: null })))).toEqual(['open_network:high']); // REFERENCES: open networks carry no protection
+    // REFERENCES: open networks carry no protection
+    expect(codes(reviewRadio(radio({ encryption: 'none', preSharedKey: null })))).toEqual(['open_network:high']);
     expect(codes(reviewRadio(radio({ encryption: 'none', role: 'backhaul-ap' })))).toEqual(['open_network:critical']);
   });
   it('flags WEP and TKIP as deprecated, with the fix', () => {
