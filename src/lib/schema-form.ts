@@ -115,6 +115,7 @@ export function useSchemaForm<V extends Values, S extends z.ZodType>({ defaultVa
    */
   function field<K extends FieldPath<V>>(name: K): UseFormRegisterReturn<K> & { errors?: string[]; value?: string } {
     const message = (errors[name] as FieldError | undefined)?.message;
+    // eslint-disable-next-line react-hooks/incompatible-library -- watch() is meant to re-render on change; nothing here is memoised
     const value: unknown = form.watch(name);
     return { ...form.register(name), errors: message ? [message] : undefined, ...(typeof value === 'string' ? { value } : {}) };
   }
