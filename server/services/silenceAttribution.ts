@@ -3,7 +3,8 @@ import type { NodeState } from '../../shared/enums';
 import { type Attribution, attributeSilence, type WatchedNode } from '../../shared/health/rootCause';
 import type { Config } from '../config';
 import { CLIENTS_SQL, refreshBlastCounts } from './blastRadius';
-import { recordTransition } from './nodeHealth';
+import { type DownMove, openOutagesOf, recordDownMoves } from './downMoves';
+import type { recordTransition } from './nodeHealth';
 import { currentTopology } from './topologyGraph';
 import { writePartitionNotice, writeUpstreamNotices } from './upstreamNotices';
 
@@ -34,11 +35,6 @@ export async function attribute(sequelize: Sequelize, silent: SilentNode[], now:
   return attributeSilence(topology, await watchedNodes(sequelize, offlineAfterIntervals, transaction), ids, now.getTime(), windowS);
 }
 
-async function openOutageOf(sequelize: Sequelize, nodeId: number, transaction: Transaction) {
-  const [row] = await sequelize.query<{ id: number }>('SELECT id FROM outages WHERE node_id = $1 AND ended_at IS NULL', { bind: [nodeId], type: QueryTypes.SELECT, transaction });
-  return row?.id ?? null;
-}
-
 /**
  * Moves this check's silent nodes: roots go offline with an outage each; nodes cut off behind a
  * root become stranded and join its outage's blast radius; a cut that holds an uplink is one
@@ -51,45 +47,58 @@ export async function judgeSilentNodes(
   if (!silent.length) return events;
   const a = await attribute(sequelize, silent, now, windowS, offlineAfterIntervals, transaction);
   const byId = new Map(silent.map((s) => [s.nodeId, s]));
-  const outageOfRoot = new Map<number, number>();
-  const opened: number[] = [];
-  for (const id of a.roots) {
+  // Set-based: a fixed number of statements per check, however many nodes went quiet.
+  const rootMoves = a.roots.map((id) => {
     const node = byId.get(id)!;
-    await sequelize.query(`UPDATE nodes SET state = 'offline', state_since = $2, health_streak = 0, health_reason = 'missed its reports' WHERE id = $1`, { bind: [id, now], transaction });
-    const move = { ...node, from: node.state, to: 'offline' as const, reason: 'missed its reports', at: now, outageStartedAt: new Date(node.outageStartedAt) };
-    const ev = await recordTransition(sequelize, config, move, transaction);
-    events.push(ev);
-    const outageId = ev.outage?.outageId ?? (await openOutageOf(sequelize, id, transaction));
-    if (outageId) outageOfRoot.set(id, outageId);
-    if (ev.outage?.kind === 'opened') opened.push(ev.outage.outageId);
-  }
+    return { ...node, from: node.state, to: 'offline' as const, reason: 'missed its reports', outageStartedAt: new Date(node.outageStartedAt) };
+  });
+  const rootEvents = await recordDownMoves(sequelize, rootMoves, now, transaction);
+  events.push(...rootEvents);
+  const opened = rootEvents.flatMap((ev) => (ev.outage?.kind === 'opened' ? [ev.outage.outageId] : []));
+  const upstreamIds = [...new Set(a.stranded.map((s) => s.rootNodeId))];
+  const outageOfRoot = await openOutagesOf(sequelize, upstreamIds.filter((id) => a.stranded.some((s) => s.rootNodeId === id && s.cause === 'outage')), transaction);
+  const names = new Map(
+    upstreamIds.length
+      ? (await sequelize.query<{ id: number; name: string }>('SELECT id, name FROM nodes WHERE id = ANY($1::int[])', {
+        bind: [upstreamIds], type: QueryTypes.SELECT, transaction,
+      })).map((r) => [r.id, r.name])
+      : [],
+  );
   const touched = new Set<number>();
   const partitionUplinks: number[] = [];
   let partitionNodes = 0;
+  const strandMoves: (DownMove & { rootNodeId: number; outageId: number | null; cause: string })[] = [];
   for (const s of a.stranded) {
     const node = byId.get(s.nodeId)!;
     let outageId: number | null = null;
     if (s.cause === 'outage') {
-      outageId = outageOfRoot.get(s.rootNodeId) ?? (await openOutageOf(sequelize, s.rootNodeId, transaction));
+      outageId = outageOfRoot.get(s.rootNodeId) ?? null;
       if (!outageId) continue; // the root came back in the meantime: judged again next check
-      outageOfRoot.set(s.rootNodeId, outageId);
       touched.add(outageId);
     }
     if (s.cause === 'partition') {
       partitionNodes++;
       if (s.rootNodeId === s.nodeId) partitionUplinks.push(s.nodeId);
     }
-    const [root] = await sequelize.query<{ name: string }>('SELECT name FROM nodes WHERE id = $1', { bind: [s.rootNodeId], type: QueryTypes.SELECT, transaction });
-    const reason = s.cause === 'partition' ? 'Parapet lost sight of the network at its uplink' : `cut off behind ${root?.name ?? 'an upstream node'}`;
-    await sequelize.query(`UPDATE nodes SET state = 'stranded', state_since = $2, health_streak = 0, health_reason = $3 WHERE id = $1`, { bind: [s.nodeId, now, reason], transaction });
+    const reason = s.cause === 'partition' ? 'Parapet lost sight of the network at its uplink' : `cut off behind ${names.get(s.rootNodeId) ?? 'an upstream node'}`;
+    strandMoves.push({ ...node, from: node.state, to: 'stranded', reason, rootNodeId: s.rootNodeId, outageId, cause: s.cause });
+  }
+  const strandEvents = await recordDownMoves(sequelize, strandMoves, now, transaction);
+  if (strandMoves.length) {
     await sequelize.query(
       `INSERT INTO stranded_nodes (node_id, root_node_id, outage_id, cause, neighbourhood_id, clients, stranded_at)
-       SELECT n.id, $2, $3, $4, n.neighbourhood_id, ${CLIENTS_SQL('n')}, $5 FROM nodes n WHERE n.id = $1
+       SELECT n.id, m.root_id, m.outage_id, m.cause, n.neighbourhood_id, ${CLIENTS_SQL('n')}, $5
+         FROM unnest($1::int[], $2::int[], $3::int[], $4::text[]) WITH ORDINALITY AS m(id, root_id, outage_id, cause, k)
+         JOIN nodes n ON n.id = m.id
+        ORDER BY m.k
        ON CONFLICT (node_id) WHERE ended_at IS NULL DO NOTHING`,
-      { bind: [s.nodeId, s.rootNodeId, outageId, s.cause, now], transaction },
+      {
+        bind: [strandMoves.map((m) => m.nodeId), strandMoves.map((m) => m.rootNodeId), strandMoves.map((m) => m.outageId), strandMoves.map((m) => m.cause), now],
+        transaction,
+      },
     );
-    events.push(await recordTransition(sequelize, config, { ...node, from: node.state, to: 'stranded', reason, at: now }, transaction));
   }
+  events.push(...strandEvents);
   for (const outageId of touched) await refreshBlastCounts(sequelize, outageId, transaction);
   // The new roots' offline mail (listing what sits behind them) is written by the check's writeDueOfflineAlerts;
   // older roots, already mailed, only add upstream notices.

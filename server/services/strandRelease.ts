@@ -1,6 +1,6 @@
 import { QueryTypes, type Sequelize, type Transaction } from 'sequelize';
 import type { Config } from '../config';
-import { recordTransition } from './nodeHealth';
+import { recordDownMoves } from './downMoves';
 
 /**
  * After a root comes back, the nodes stranded behind it get one full report window (from the
@@ -38,13 +38,9 @@ export async function releaseStranded(sequelize: Sequelize, config: Config, now:
       FOR UPDATE OF n, sn`,
     { bind: [now, offlineAfterIntervals], type: QueryTypes.SELECT, transaction },
   );
-  const events = [];
-  for (const d of due) {
-    const reason = 'still silent after the network upstream came back';
-    await sequelize.query(`UPDATE nodes SET state = 'offline', state_since = $2, health_streak = 0, health_reason = $3 WHERE id = $1`, { bind: [d.nodeId, now, reason], transaction });
-    await sequelize.query('UPDATE stranded_nodes SET ended_at = $2 WHERE id = $1', { bind: [d.rowId, now], transaction });
-    const move = { ...d, from: 'stranded' as const, to: 'offline' as const, reason, at: now, outageStartedAt: new Date(d.releasedAt) };
-    events.push(await recordTransition(sequelize, config, move, transaction));
-  }
+  const reason = 'still silent after the network upstream came back';
+  const moves = due.map((d) => ({ ...d, from: 'stranded' as const, to: 'offline' as const, reason, outageStartedAt: new Date(d.releasedAt) }));
+  if (due.length) await sequelize.query('UPDATE stranded_nodes SET ended_at = $2 WHERE id = ANY($1::int[])', { bind: [due.map((d) => d.rowId), now], transaction });
+  const events = await recordDownMoves(sequelize, moves, now, transaction);
   return events;
 }
