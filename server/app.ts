@@ -3,7 +3,7 @@ import compression from 'compression';
 import express, { type Request } from 'express';
 import helmet from 'helmet';
 import pg from 'pg';
-import type { Sequelize } from 'sequelize';
+import { ConnectionAcquireTimeoutError, type Sequelize } from 'sequelize';
 import { configurePassport } from './auth/passport';
 import { sessionMiddleware } from './auth/session';
 import type { Config } from './config';
@@ -197,6 +197,8 @@ export function createApp({ config, sequelize, databaseWatch }: AppContext) {
   // A database call that failed because the server went away is the outage, not the request's fault.
   app.use((err: unknown, _req: Request, _res: express.Response, next: express.NextFunction) => {
     if (watch.reportFailure(err) || (!watch.up && isDatabaseError(err))) return next(Unavailable(undefined, retryAfterS(config)));
+    // Every pooled connection stayed busy too long: busy, not down; the client tries again shortly.
+    if (err instanceof ConnectionAcquireTimeoutError) return next(Unavailable(undefined, retryAfterS(config)));
     next(err);
   });
   app.use(errorHandler);

@@ -1,6 +1,6 @@
 import { EventEmitter } from 'node:events';
 import type pg from 'pg';
-import { BaseError, ConnectionError } from 'sequelize';
+import { BaseError, ConnectionAcquireTimeoutError, ConnectionError } from 'sequelize';
 
 // PostgreSQL error classes that mean "the server is not there right now", not "your query is wrong":
 // 08 connection exception, 57P01–57P03 shutdown/crash/starting up, 53300 too many connections.
@@ -22,6 +22,8 @@ const UNREACHABLE_TEXT = new RegExp(
 /** True when an error (or the one it wraps) says the database cannot be reached, whatever the query was. */
 export function isDatabaseUnreachable(err: unknown): boolean {
   for (let e = err as { code?: string; message?: string; parent?: unknown; original?: unknown } | undefined, depth = 0; e && depth < 4; depth++) {
+    // Waiting too long for a free connection of this process's own pool is load here, not a database away.
+    if (e instanceof ConnectionAcquireTimeoutError) return false;
     if (e instanceof ConnectionError) return true;
     if (typeof e.code === 'string' && UNREACHABLE_CODES.has(e.code)) return true;
     if (typeof e.message === 'string' && UNREACHABLE_TEXT.test(e.message)) return true;
