@@ -118,7 +118,13 @@ export function createApp({ config, sequelize, databaseWatch }: AppContext) {
       res.json({ status: 'ok' });
     } catch (err) {
       watch.reportFailure(err);
-      res.set('Retry-After', String(retryAfterS(config))).status(503).json({ status: 'unavailable', error: { code: 'database_unavailable', message: 'Parapet cannot reach its database. It retries by itself; try again in a few seconds.' } });
+      res
+        .set('Retry-After', String(retryAfterS(config)))
+        .status(503)
+        .json({
+          status: 'unavailable',
+          error: { code: 'database_unavailable', message: 'Parapet cannot reach its database. It retries by itself; try again in a few seconds.' },
+        });
     }
   });
 
@@ -203,7 +209,11 @@ export function createApp({ config, sequelize, databaseWatch }: AppContext) {
   });
   app.use(errorHandler);
   return {
-    app, session, passport, pool, databaseWatch: watch,
+    app,
+    session,
+    passport,
+    pool,
+    databaseWatch: watch,
     close: async () => {
       if (!databaseWatch) watch.stop();
       await pool.end();

@@ -1,9 +1,7 @@
 import { randomBytes } from 'node:crypto';
 import { z } from 'zod';
 
-const bool = z
-  .enum(['true', 'false', '1', '0', 'yes', 'no'])
-  .transform((v) => v === 'true' || v === '1' || v === 'yes');
+const bool = z.enum(['true', 'false', '1', '0', 'yes', 'no']).transform((v) => v === 'true' || v === '1' || v === 'yes');
 
 const envSchema = z.object({
   NODE_ENV: z.enum(['development', 'test', 'production']).default('development'),
@@ -12,13 +10,24 @@ const envSchema = z.object({
   DATABASE_URL: z.string().url('DATABASE_URL must be a postgres:// URL'),
   DATABASE_POOL_MAX: z.coerce.number().int().min(1).max(100).default(10),
   SESSION_SECRET: z.string().min(16, 'SESSION_SECRET must be at least 16 characters').optional(),
-  SESSION_IDLE_MINUTES: z.coerce.number().int().min(1).default(8 * 60),
-  SESSION_ABSOLUTE_HOURS: z.coerce.number().min(0.001).default(7 * 24),
+  SESSION_IDLE_MINUTES: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .default(8 * 60),
+  SESSION_ABSOLUTE_HOURS: z.coerce
+    .number()
+    .min(0.001)
+    .default(7 * 24),
   COOKIE_SECURE: bool.default(false),
   TRUST_PROXY: z.string().default('false'),
   SIGNIN_LIMIT_PER_ACCOUNT_ADDRESS: z.coerce.number().int().min(1).default(10),
   SIGNIN_LIMIT_PER_ADDRESS: z.coerce.number().int().min(1).default(100),
-  SIGNIN_LIMIT_WINDOW_S: z.coerce.number().int().min(1).default(15 * 60),
+  SIGNIN_LIMIT_WINDOW_S: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .default(15 * 60),
   SIGNIN_LIMIT_PER_ACCOUNT: z.coerce.number().int().min(1).default(100),
   SIGNIN_ACCOUNT_WINDOW_S: z.coerce.number().int().min(1).default(3600),
   KNOWN_DEVICE_DAYS: z.coerce.number().int().min(1).max(400).default(90),
@@ -34,16 +43,34 @@ const envSchema = z.object({
   SMTP_PASS: z.string().optional(),
   SMTP_TIMEOUT_MS: z.coerce.number().int().min(100).default(10_000),
   ALERT_GRACE_S: z.coerce.number().int().min(0).optional(),
-  REMINDER_INTERVAL_S: z.coerce.number().int().min(1).default(4 * 3600),
+  REMINDER_INTERVAL_S: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .default(4 * 3600),
   FLAP_MAX_PER_HOUR: z.coerce.number().int().min(1).default(4),
   OUTBOX_MAX_ATTEMPTS: z.coerce.number().int().min(1).max(50).default(6),
   OUTBOX_BACKOFF_BASE_MS: z.coerce.number().int().min(0).default(30_000),
   OUTBOX_BATCH_SIZE: z.coerce.number().int().min(1).max(500).default(25),
   DIGEST_HOUR_LOCAL: z.coerce.number().int().min(0).max(23).default(8),
-  DEGRADED_DIGEST_AFTER_S: z.coerce.number().int().min(60).default(3 * 3600),
+  DEGRADED_DIGEST_AFTER_S: z.coerce
+    .number()
+    .int()
+    .min(60)
+    .default(3 * 3600),
   MAIL_LINK_DAYS: z.coerce.number().int().min(1).max(365).default(60),
-  INVITATION_TTL_HOURS: z.coerce.number().int().min(1).max(24 * 30).default(72),
-  PASSWORD_RESET_TTL_MINUTES: z.coerce.number().int().min(5).max(24 * 60).default(60),
+  INVITATION_TTL_HOURS: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .max(24 * 30)
+    .default(72),
+  PASSWORD_RESET_TTL_MINUTES: z.coerce
+    .number()
+    .int()
+    .min(5)
+    .max(24 * 60)
+    .default(60),
   ACCOUNT_MAIL_LIMIT_PER_ADDRESS: z.coerce.number().int().min(1).default(3),
   ACCOUNT_MAIL_LIMIT_WINDOW_S: z.coerce.number().int().min(1).default(3600),
   PUBLIC_URL: z.string().optional(),
@@ -52,8 +79,16 @@ const envSchema = z.object({
   LOG_REQUESTS: bool.default(false),
   PUBLIC_STATUS_CACHE_S: z.coerce.number().int().min(0).max(3600).default(30),
   DATA_DIR: z.string().min(1).default('.data/uploads'),
-  PHOTO_MAX_BYTES: z.coerce.number().int().min(1024).default(8 * 1024 * 1024),
-  CSV_IMPORT_MAX_BYTES: z.coerce.number().int().min(1024).default(2 * 1024 * 1024),
+  PHOTO_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .min(1024)
+    .default(8 * 1024 * 1024),
+  CSV_IMPORT_MAX_BYTES: z.coerce
+    .number()
+    .int()
+    .min(1024)
+    .default(2 * 1024 * 1024),
   CSV_IMPORT_MAX_ROWS: z.coerce.number().int().min(1).default(5000),
   INGEST_RATE_LIMIT_PER_MIN: z.coerce.number().int().min(1).default(120),
   INGEST_BODY_LIMIT: z.string().default('64kb'),
@@ -71,10 +106,25 @@ const envSchema = z.object({
   FIGURES_THROTTLE_MS: z.coerce.number().int().min(0).default(2000),
   DATABASE_PROBE_INTERVAL_MS: z.coerce.number().int().min(50).max(60_000).default(1000),
   OUTAGE_MAIL_RETRY_MAX_MS: z.coerce.number().int().min(0).max(60_000).default(30_000),
-  LINK_OBSERVED_WINDOW_S: z.coerce.number().int().min(1).max(86_400).default(15 * 60),
-  LINK_SILENT_AFTER_S: z.coerce.number().int().min(60).max(30 * 86_400).default(86_400),
+  LINK_OBSERVED_WINDOW_S: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .max(86_400)
+    .default(15 * 60),
+  LINK_SILENT_AFTER_S: z.coerce
+    .number()
+    .int()
+    .min(60)
+    .max(30 * 86_400)
+    .default(86_400),
   RADIO_MOVE_SHOW_DAYS: z.coerce.number().int().min(1).max(365).default(7),
-  RECOVERY_LINK_HOURS: z.coerce.number().int().min(1).max(14 * 24).default(48),
+  RECOVERY_LINK_HOURS: z.coerce
+    .number()
+    .int()
+    .min(1)
+    .max(14 * 24)
+    .default(48),
 });
 
 export interface Config {

@@ -11,8 +11,7 @@ export class ApiError extends Error {
   }
 }
 
-export const Invalid = (message: string, details?: { path: string; message: string }[]) =>
-  new ApiError(400, 'invalid_input', message, details);
+export const Invalid = (message: string, details?: { path: string; message: string }[]) => new ApiError(400, 'invalid_input', message, details);
 export const Unauthenticated = (message = 'Sign in to continue.') => new ApiError(401, 'not_signed_in', message);
 export const Forbidden = (message = 'Your role does not allow this.') => new ApiError(403, 'forbidden', message);
 export const NotFound = (what: string) => new ApiError(404, 'not_found', `${what} was not found.`);

@@ -24,15 +24,7 @@ export const LINK_STATUSES = ['planned', 'live'] as const;
 export type LinkStatus = (typeof LINK_STATUSES)[number];
 
 export const OUTBOX_STATUSES = ['pending', 'sent', 'failed'] as const;
-export const OUTBOX_KINDS = [
-  'node-offline',
-  'node-reminder',
-  'node-online',
-  'upstream-notice',
-  'self-check',
-  'invitation',
-  'password-reset',
-] as const;
+export const OUTBOX_KINDS = ['node-offline', 'node-reminder', 'node-online', 'upstream-notice', 'self-check', 'invitation', 'password-reset'] as const;
 
 /** Ranges of a node's charts (GET /nodes/:id/series). */
 export const SERIES_RANGES = ['24h', '7d', '30d'] as const;

@@ -23,7 +23,8 @@ export async function issueAccountToken(
   transaction: Transaction,
 ): Promise<{ id: number; token: string; expiresAt: Date }> {
   await sequelize.query(`UPDATE account_tokens SET used_at = $3 WHERE user_id = $1 AND purpose = $2 AND used_at IS NULL`, {
-    bind: [t.userId, t.purpose, t.now], transaction,
+    bind: [t.userId, t.purpose, t.now],
+    transaction,
   });
   const expiresAtS = Math.floor((t.now.getTime() + t.ttlMs) / 1000);
   const [row] = await sequelize.query<{ id: string }>(
@@ -31,7 +32,11 @@ export async function issueAccountToken(
     { bind: [t.purpose, t.userId, expiresAtS, t.now], type: QueryTypes.SELECT, transaction },
   );
   const id = Number(row.id);
-  return { id, token: `${t.purpose}.${id}.${t.userId}.${expiresAtS}.${mac(secret, t.purpose, id, t.userId, expiresAtS)}`, expiresAt: new Date(expiresAtS * 1000) };
+  return {
+    id,
+    token: `${t.purpose}.${id}.${t.userId}.${expiresAtS}.${mac(secret, t.purpose, id, t.userId, expiresAtS)}`,
+    expiresAt: new Date(expiresAtS * 1000),
+  };
 }
 
 const damaged = () =>
@@ -74,6 +79,7 @@ export async function spendAccountToken(
 /** Ends every stored session of a person (all but `keepSid`), e.g. after their password changed. */
 export async function endSessionsOf(sequelize: Sequelize, userId: number, keepSid?: string, transaction?: Transaction) {
   await sequelize.query(`DELETE FROM session WHERE (sess -> 'passport' ->> 'user') = $1 AND ($2::text IS NULL OR sid <> $2)`, {
-    bind: [String(userId), keepSid ?? null], transaction,
+    bind: [String(userId), keepSid ?? null],
+    transaction,
   });
 }

@@ -4,8 +4,24 @@ import { BaseError, ConnectionAcquireTimeoutError, ConnectionError } from 'seque
 
 // PostgreSQL error classes that mean "the server is not there right now", not "your query is wrong":
 // 08 connection exception, 57P01–57P03 shutdown/crash/starting up, 53300 too many connections.
-const UNREACHABLE_CODES = new Set(['08000', '08001', '08003', '08004', '08006', '57P01', '57P02', '57P03', '53300',
-  'ECONNREFUSED', 'ECONNRESET', 'ETIMEDOUT', 'EPIPE', 'ENOTFOUND', 'EHOSTUNREACH', 'EAI_AGAIN']);
+const UNREACHABLE_CODES = new Set([
+  '08000',
+  '08001',
+  '08003',
+  '08004',
+  '08006',
+  '57P01',
+  '57P02',
+  '57P03',
+  '53300',
+  'ECONNREFUSED',
+  'ECONNRESET',
+  'ETIMEDOUT',
+  'EPIPE',
+  'ENOTFOUND',
+  'EHOSTUNREACH',
+  'EAI_AGAIN',
+]);
 // node-postgres raises these without a code.
 const UNREACHABLE_TEXT = new RegExp(
   [

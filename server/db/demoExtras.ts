@@ -30,9 +30,7 @@ export const DEMO_SURVEYS: { node: string; fileName: string; csv: string }[] = [
   {
     node: 'lf-reed',
     fileName: 'reedbed-scan.csv',
-    csv:
-      'ssid,channel,channelWidthMHz,signalDbm\nMarshLight,1,20,-57\nHeronWalk-Home,1,20,-63\n' +
-      'Tidegate-Cottage,2,20,-66\nBrineSt-21,11,20,-84\n',
+    csv: 'ssid,channel,channelWidthMHz,signalDbm\nMarshLight,1,20,-57\nHeronWalk-Home,1,20,-63\n' + 'Tidegate-Cottage,2,20,-66\nBrineSt-21,11,20,-84\n',
   },
   {
     node: 'lf-belfry',
@@ -70,7 +68,9 @@ const DEMO_PHOTOS = [
 ];
 
 export async function loadDemoExtras(sequelize: Sequelize, config: Config, people: Map<string, number>, now: Date) {
-  const ids = new Map((await sequelize.query<{ id: number; name: string }>('SELECT id, name FROM nodes', { type: QueryTypes.SELECT })).map((n) => [n.name, n.id]));
+  const ids = new Map(
+    (await sequelize.query<{ id: number; name: string }>('SELECT id, name FROM nodes', { type: QueryTypes.SELECT })).map((n) => [n.name, n.id]),
+  );
   const operator = people.get('operator') ?? null;
 
   for (const [i, s] of DEMO_SURVEYS.entries()) {
@@ -85,28 +85,52 @@ export async function loadDemoExtras(sequelize: Sequelize, config: Config, peopl
   const store = photoStore(config.dataDir);
   for (const p of DEMO_PHOTOS) {
     const [site] = await sequelize.query<{ id: number }>('SELECT id FROM sites WHERE name = $1', { bind: [p.site], type: QueryTypes.SELECT });
-    const bytes = await sharp(installDrawing(p.site, p.antennas, p.sky)).jpeg({ quality: 82 }).toBuffer();
+    const bytes = await sharp(installDrawing(p.site, p.antennas, p.sky))
+      .jpeg({ quality: 82 })
+      .toBuffer();
     const prepared = await preparePhoto(bytes);
     const key = store.newKey();
     await store.write(key, bytes, prepared.thumbnail);
-    await Photo.create({ siteId: site.id, storageKey: key, contentType: prepared.contentType, sizeBytes: bytes.length, widthPx: prepared.widthPx,
-      heightPx: prepared.heightPx, hasThumbnail: true, caption: p.caption, uploadedBy: operator });
+    await Photo.create({
+      siteId: site.id,
+      storageKey: key,
+      contentType: prepared.contentType,
+      sizeBytes: bytes.length,
+      widthPx: prepared.widthPx,
+      heightPx: prepared.heightPx,
+      hasThumbnail: true,
+      caption: p.caption,
+      uploadedBy: operator,
+    });
   }
 
   // Every node gets its /24 out of the pool (gateway = its management address); one hand-typed /23 overlaps a neighbour.
-  const nodes = await sequelize.query<{ id: number; name: string; managementAddress: string }>('SELECT id, name, management_address AS "managementAddress" FROM nodes ORDER BY id', { type: QueryTypes.SELECT });
+  const nodes = await sequelize.query<{ id: number; name: string; managementAddress: string }>(
+    'SELECT id, name, management_address AS "managementAddress" FROM nodes ORDER BY id',
+    { type: QueryTypes.SELECT },
+  );
   for (const n of nodes) {
     const third = Number(n.managementAddress.split('.')[2]);
     const cidr = n.name === 'lf-tannery' ? `10.64.${third}.0/23` : `10.64.${third}.0/24`;
     const l = layoutSubnet(parseCidr(cidr));
-    await sequelize.query('INSERT INTO node_address_plans (node_id, cidr, gateway, dhcp_start, dhcp_end) VALUES ($1, $2, $3, $4, $5)', { bind: [n.id, l.cidr, l.gateway, l.dhcpStart, l.dhcpEnd] });
+    await sequelize.query('INSERT INTO node_address_plans (node_id, cidr, gateway, dhcp_start, dhcp_end) VALUES ($1, $2, $3, $4, $5)', {
+      bind: [n.id, l.cidr, l.gateway, l.dhcpStart, l.dhcpEnd],
+    });
   }
 
   // The demo host has announced a power-off for next week, so the host portal and the node show one ahead.
   const nextWeek = new Date(Math.floor(now.getTime() / 3_600_000) * 3_600_000 + 5 * 86_400_000 + 9 * 3_600_000);
-  await MaintenanceWindow.create({ nodeId: ids.get('lf-yew')!, startsAt: nextWeek, endsAt: new Date(nextWeek.getTime() + 3 * 3_600_000),
-    reason: 'An electrician is rewiring the attic; the router will be unplugged.', createdBy: people.get('host') ?? null });
+  await MaintenanceWindow.create({
+    nodeId: ids.get('lf-yew')!,
+    startsAt: nextWeek,
+    endsAt: new Date(nextWeek.getTime() + 3 * 3_600_000),
+    reason: 'An electrician is rewiring the attic; the router will be unplugged.',
+    createdBy: people.get('host') ?? null,
+  });
 
   // The host behind the water tower asked to hear about trouble upstream (set before the history replays, so the failure tells her).
-  await sequelize.query('INSERT INTO alert_preferences (user_id, upstream_notices) VALUES ($1, true) ON CONFLICT (user_id) DO UPDATE SET upstream_notices = true', { bind: [people.get('h7')] });
+  await sequelize.query(
+    'INSERT INTO alert_preferences (user_id, upstream_notices) VALUES ($1, true) ON CONFLICT (user_id) DO UPDATE SET upstream_notices = true',
+    { bind: [people.get('h7')] },
+  );
 }

@@ -11,9 +11,20 @@ import { TOWN } from './demoScenario';
 
 const DAY_MS = 86_400_000;
 
-export interface HistorySummary { days: number; reportRows: number; steps: number; outages: number; mails: number }
+export interface HistorySummary {
+  days: number;
+  reportRows: number;
+  steps: number;
+  outages: number;
+  mails: number;
+}
 
-export async function loadDemoHistory(sequelize: Sequelize, config: Config, people: Map<string, number>, progress: (line: string) => void): Promise<HistorySummary> {
+export async function loadDemoHistory(
+  sequelize: Sequelize,
+  config: Config,
+  people: Map<string, number>,
+  progress: (line: string) => void,
+): Promise<HistorySummary> {
   const plan = planHistory(config.now());
   const specs = await reportSpecs(sequelize);
   await sequelize.query(
@@ -21,7 +32,9 @@ export async function loadDemoHistory(sequelize: Sequelize, config: Config, peop
             health_streak = 0, health_reason = NULL WHERE id = ANY($2::int[])`,
     { bind: [plan.start, [...specs.ids.values()]] },
   );
-  await sequelize.query(`UPDATE sites SET created_at = $1::timestamptz - interval '1 day' WHERE id IN (SELECT site_id FROM nodes WHERE id = ANY($2::int[]))`, { bind: [plan.start, [...specs.ids.values()]] });
+  await sequelize.query(`UPDATE sites SET created_at = $1::timestamptz - interval '1 day' WHERE id IN (SELECT site_id FROM nodes WHERE id = ANY($2::int[]))`, {
+    bind: [plan.start, [...specs.ids.values()]],
+  });
 
   const days: Date[] = [];
   for (let t = plan.start.getTime(); t < plan.end.getTime(); t += DAY_MS) days.push(new Date(t));
@@ -51,9 +64,15 @@ export async function loadDemoHistory(sequelize: Sequelize, config: Config, peop
   progress('history: every node reported once now');
   // Mail of the past went out in its day (see deliverDue); what is due later waits for the live sender.
   await deliverDue(sequelize, plan.end);
-  const [mails] = await sequelize.query<{ n: string }>('SELECT count(*) AS n FROM outbox WHERE node_id = ANY($1::int[])', { bind: [[...specs.ids.values()]], type: QueryTypes.SELECT });
+  const [mails] = await sequelize.query<{ n: string }>('SELECT count(*) AS n FROM outbox WHERE node_id = ANY($1::int[])', {
+    bind: [[...specs.ids.values()]],
+    type: QueryTypes.SELECT,
+  });
   // The live check starts watching afresh, as on a first start (no notice about the replay's clock).
   await sequelize.query(`UPDATE job_state SET last_run_at = NULL, watching_since = NULL WHERE name = 'silence-check'`);
-  const [counts] = await sequelize.query<{ outages: string }>('SELECT count(*) AS outages FROM outages WHERE node_id = ANY($1::int[])', { bind: [[...specs.ids.values()]], type: QueryTypes.SELECT });
+  const [counts] = await sequelize.query<{ outages: string }>('SELECT count(*) AS outages FROM outages WHERE node_id = ANY($1::int[])', {
+    bind: [[...specs.ids.values()]],
+    type: QueryTypes.SELECT,
+  });
   return { days: days.length, reportRows, steps, outages: Number(counts.outages), mails: Number(mails.n) };
 }

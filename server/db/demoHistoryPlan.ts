@@ -67,22 +67,58 @@ export function planHistory(now: Date): HistoryPlan {
     return new Date(d.getTime() + (hour * 60 + minute) * MIN_MS);
   };
   const plus = (d: Date, minutes: number) => new Date(d.getTime() + minutes * MIN_MS);
-  const outage = (node: string, daysAgo: number, hour: number, minute: number, downMin: number, ackAfterMin: number | null, by: string, notes: string | null): PlannedOutage => {
+  const outage = (
+    node: string,
+    daysAgo: number,
+    hour: number,
+    minute: number,
+    downMin: number,
+    ackAfterMin: number | null,
+    by: string,
+    notes: string | null,
+  ): PlannedOutage => {
     const lastReportAt = at(daysAgo, hour, minute);
     return { node, lastReportAt, backAt: plus(lastReportAt, downMin), ack: ackAfterMin === null ? null : { by, at: plus(lastReportAt, ackAfterMin) }, notes };
   };
 
   const outages = [
-    outage('lf-pier', 33, 14, 10, 47, 22, 'operator', 'The PoE cable was chewed through in the loft; the host swapped in a spare run while we talked her through it by phone.'),
+    outage(
+      'lf-pier',
+      33,
+      14,
+      10,
+      47,
+      22,
+      'operator',
+      'The PoE cable was chewed through in the loft; the host swapped in a spare run while we talked her through it by phone.',
+    ),
     outage('lf-glebe', 31, 2, 40, 420, 300, 'operator2', 'Power cut along Glebe Lane overnight; the node came back with the mains.'),
     outage('lf-rope', 29, 19, 5, 38, 19, 'operator', 'The resident unplugged the injector to free the socket. We labelled the plug.'),
     outage('lf-tannery', 27, 8, 20, 95, 20, 'operator', 'Router hung; the host power-cycled it at the socket and it came back.'),
-    outage('lf-dyke', 24, 11, 0, 260, 35, 'operator2', 'Water in the outdoor connector. Resealed with self-amalgamating tape; two people on the ladder, dry day.'),
+    outage(
+      'lf-dyke',
+      24,
+      11,
+      0,
+      260,
+      35,
+      'operator2',
+      'Water in the outdoor connector. Resealed with self-amalgamating tape; two people on the ladder, dry day.',
+    ),
     outage('lf-orchard', 22, 21, 30, 52, null, 'operator', null),
     outage('lf-customs', 19, 6, 15, 130, 25, 'operator', 'A breaker tripped during the building works downstairs.'),
     outage('lf-vicarage', 16, 15, 45, 70, 21, 'operator2', 'Extension lead knocked out behind the wardrobe.'),
     outage('lf-bakers', 14, 10, 5, 42, null, 'operator', null),
-    outage('lf-samphire', 10, 17, 20, 330, 40, 'operator2', 'The gale turned the CPE off its aim; re-aimed from the roof hatch (harness on) until the signal was back near its prediction.'),
+    outage(
+      'lf-samphire',
+      10,
+      17,
+      20,
+      330,
+      40,
+      'operator2',
+      'The gale turned the CPE off its aim; re-aimed from the roof hatch (harness on) until the signal was back near its prediction.',
+    ),
     outage('lf-lookout', 7, 4, 10, 65, 180, 'operator2', 'Nobody home overnight; the host found the injector unplugged in the morning.'),
     outage('lf-granarylane', 3, 13, 30, 28, 18, 'operator', 'Firmware upgrade by the host; back on its own.'),
   ];
@@ -91,7 +127,9 @@ export function planHistory(now: Date): HistoryPlan {
   // the live rule joins silences whose last reports lie within two minutes of each other.
   const failureStart = at(12, 19, 41);
   const backhaulFailure: PlannedBackhaulFailure = {
-    node: 'lf-marsh', lastReportAt: failureStart, backAt: plus(failureStart, 222),
+    node: 'lf-marsh',
+    lastReportAt: failureStart,
+    backAt: plus(failureStart, 222),
     ack: { by: 'operator2', at: plus(failureStart, 24) },
     notes:
       'The surge arrester at the water tower failed after the storm and took the relay down with it. ' +
@@ -105,13 +143,22 @@ export function planHistory(now: Date): HistoryPlan {
     const lastReportAt = plus(flapStart, i * 9);
     return { node: 'lf-weir', lastReportAt, backAt: plus(lastReportAt, 4), ack: null, notes: null };
   });
-  flaps[5] = { ...flaps[5], ack: { by: 'operator', at: plus(flaps[5].backAt, 20) }, notes: 'Loose Ethernet plug in the injector; reseated. The mail cap kicked in after four changes.' };
+  flaps[5] = {
+    ...flaps[5],
+    ack: { by: 'operator', at: plus(flaps[5].backAt, 20) },
+    notes: 'Loose Ethernet plug in the injector; reseated. The mail cap kicked in after four changes.',
+  };
 
   const windowStart = at(8, 9, 0);
   const maintenance: PlannedMaintenance = {
-    node: 'lf-belfry', announcedBy: 'h8', announcedAt: at(9, 18, 15), startsAt: windowStart, endsAt: plus(windowStart, 150),
+    node: 'lf-belfry',
+    announcedBy: 'h8',
+    announcedAt: at(9, 18, 15),
+    startsAt: windowStart,
+    endsAt: plus(windowStart, 150),
     reason: 'Roofers are replacing the flashing around the chimney; power to the loft is off.',
-    silentFrom: plus(windowStart, 5), silentUntil: plus(windowStart, 130),
+    silentFrom: plus(windowStart, 5),
+    silentUntil: plus(windowStart, 130),
   };
 
   const rain: RainEpisode[] = [
@@ -121,7 +168,13 @@ export function planHistory(now: Date): HistoryPlan {
   ];
 
   return {
-    start: historyStart(end), end, outages, backhaulFailure, flaps, maintenance, rain,
+    start: historyStart(end),
+    end,
+    outages,
+    backhaulFailure,
+    flaps,
+    maintenance,
+    rain,
     drift: { node: DEMO_QUIRKS.driftingNode, from: at(12, 0, 0), depthDb: -DEMO_QUIRKS.driftDb },
   };
 }

@@ -27,7 +27,11 @@ export async function deliverDue(sequelize: Sequelize, at: Date) {
   );
 }
 
-interface Step { at: Date; order: number; run: () => Promise<void> }
+interface Step {
+  at: Date;
+  order: number;
+  run: () => Promise<void>;
+}
 
 export async function tokenNode(sequelize: Sequelize, nodeId: number): Promise<TokenNode> {
   const [row] = await sequelize.query<TokenNode>(
@@ -43,14 +47,29 @@ export async function tokenNode(sequelize: Sequelize, nodeId: number): Promise<T
 export function reportAt(specs: ReportSpecs, nodeId: number, at: Date, driftDb = 0) {
   const node = specs.nodes.find((n) => n.nodeId === nodeId)!;
   return {
-    seq: Math.floor(at.getTime() / MIN_MS), sentAt: at.toISOString(), uptimeS: 120, load1: 0.4, memFreeKb: 31_000,
-    firmware: node.firmware ?? undefined, throughputMbps: 42, latencyMs: 14,
-    radios: specs.radios.filter((r) => r.nodeId === nodeId).map((r) => ({
-      iface: r.iface, role: r.role as 'access-point', band: r.band as '5', channel: r.channel, channelWidthMHz: r.width as 20, ssid: r.ssid ?? undefined,
-      signalDbm: Math.round(((r.baseSignalDbm ?? -64) + (r.drifts ? driftDb : 0)) * 10) / 10, noiseDbm: -95,
-      txRateMbps: r.role === 'access-point' ? 72 : 150, rxRateMbps: r.role === 'access-point' ? 65 : 135,
-      clients: r.role === 'access-point' ? 2 + (nodeId % 7) : undefined,
-    })),
+    seq: Math.floor(at.getTime() / MIN_MS),
+    sentAt: at.toISOString(),
+    uptimeS: 120,
+    load1: 0.4,
+    memFreeKb: 31_000,
+    firmware: node.firmware ?? undefined,
+    throughputMbps: 42,
+    latencyMs: 14,
+    radios: specs.radios
+      .filter((r) => r.nodeId === nodeId)
+      .map((r) => ({
+        iface: r.iface,
+        role: r.role as 'access-point',
+        band: r.band as '5',
+        channel: r.channel,
+        channelWidthMHz: r.width as 20,
+        ssid: r.ssid ?? undefined,
+        signalDbm: Math.round(((r.baseSignalDbm ?? -64) + (r.drifts ? driftDb : 0)) * 10) / 10,
+        noiseDbm: -95,
+        txRateMbps: r.role === 'access-point' ? 72 : 150,
+        rxRateMbps: r.role === 'access-point' ? 65 : 135,
+        clients: r.role === 'access-point' ? 2 + (nodeId % 7) : undefined,
+      })),
   };
 }
 
@@ -70,31 +89,33 @@ export async function replayHistory(sequelize: Sequelize, config: Config, plan: 
   const steps: Step[] = [];
   const add = (at: Date, order: number, run: () => Promise<void>) => steps.push({ at, order, run });
 
-  const check = (at: Date) => add(at, 1, async () => {
-    const silentNow = quiet.filter((q) => q.after < at && at <= q.until);
-    await sequelize.query(
-      `UPDATE nodes SET last_seen_at = $1, last_seq = floor(extract(epoch FROM $1::timestamptz) / 60)::bigint WHERE NOT (id = ANY($2::int[]))`,
-      { bind: [plus(at, -20_000), silentNow.map((q) => q.nodeId)] },
-    );
-    for (const q of silentNow) {
+  const check = (at: Date) =>
+    add(at, 1, async () => {
+      const silentNow = quiet.filter((q) => q.after < at && at <= q.until);
       await sequelize.query(
-        `UPDATE nodes SET (last_seen_at, last_seq) =
+        `UPDATE nodes SET last_seen_at = $1, last_seq = floor(extract(epoch FROM $1::timestamptz) / 60)::bigint WHERE NOT (id = ANY($2::int[]))`,
+        { bind: [plus(at, -20_000), silentNow.map((q) => q.nodeId)] },
+      );
+      for (const q of silentNow) {
+        await sequelize.query(
+          `UPDATE nodes SET (last_seen_at, last_seq) =
            (SELECT max(received_at), max(seq) FROM heartbeats WHERE node_id = $1 AND received_at <= $2)
          WHERE id = $1`,
-        { bind: [q.nodeId, q.after] },
-      );
-    }
-    // The check has been running all along: no "Parapet was not watching" notice for the replay's jumps.
-    await sequelize.query(`UPDATE job_state SET last_run_at = $1 WHERE name = 'silence-check'`, { bind: [plus(at, -config.healthCheckIntervalMs)] });
-    await runSilenceCheck(sequelize, config, at, config.healthCheckIntervalMs, config.rootCauseWindowS);
-    await runAlertSweep(sequelize, config, at);
-    await deliverDue(sequelize, at);
-  });
-  const back = (node: string, at: Date) => add(at, 2, async () => {
-    await deliverDue(sequelize, at);
-    await ingestReports(sequelize, config, await tokenNode(sequelize, id(node)), [reportAt(specs, id(node), at)], at);
-    await deliverDue(sequelize, at);
-  });
+          { bind: [q.nodeId, q.after] },
+        );
+      }
+      // The check has been running all along: no "Parapet was not watching" notice for the replay's jumps.
+      await sequelize.query(`UPDATE job_state SET last_run_at = $1 WHERE name = 'silence-check'`, { bind: [plus(at, -config.healthCheckIntervalMs)] });
+      await runSilenceCheck(sequelize, config, at, config.healthCheckIntervalMs, config.rootCauseWindowS);
+      await runAlertSweep(sequelize, config, at);
+      await deliverDue(sequelize, at);
+    });
+  const back = (node: string, at: Date) =>
+    add(at, 2, async () => {
+      await deliverDue(sequelize, at);
+      await ingestReports(sequelize, config, await tokenNode(sequelize, id(node)), [reportAt(specs, id(node), at)], at);
+      await deliverDue(sequelize, at);
+    });
   const annotate = (o: PlannedOutage) => {
     const update = async (at: Date, fields: Record<string, unknown>) => {
       const outage = await Outage.findOne({ where: { nodeId: id(o.node) }, order: [['startedAt', 'DESC']] });
@@ -131,7 +152,15 @@ export async function replayHistory(sequelize: Sequelize, config: Config, plan: 
 
   const m = plan.maintenance;
   add(m.announcedAt, 0, async () => {
-    await MaintenanceWindow.create({ nodeId: id(m.node), startsAt: m.startsAt, endsAt: m.endsAt, reason: m.reason, createdBy: people.get(m.announcedBy) ?? null, createdAt: m.announcedAt, updatedAt: m.announcedAt });
+    await MaintenanceWindow.create({
+      nodeId: id(m.node),
+      startsAt: m.startsAt,
+      endsAt: m.endsAt,
+      reason: m.reason,
+      createdBy: people.get(m.announcedBy) ?? null,
+      createdAt: m.announcedAt,
+      updatedAt: m.announcedAt,
+    });
   });
   check(plus(m.startsAt, MIN_MS));
   back(m.node, m.silentUntil);

@@ -11,14 +11,39 @@ const DAY_MS = 86_400_000;
 /** A 5 GHz link longer than this shows rain (common practice, no source: short links barely notice). */
 const RAIN_LINK_KM = 1.5;
 
-interface RadioRow extends RadioEnd { id: number; nodeId: number; nodeName: string; iface: string; role: string; ssid: string | null }
-interface NodeSpec { nodeId: number; firmware: string | null; rainKm: number; intervalS: number }
-interface RadioSpec {
-  nodeId: number; intervalS: number; iface: string; role: string; band: string; channel: number; width: number; ssid: string | null;
-  /** Predicted received signal of the link into this radio (weakest station for an access point on a link); null for a plain access point. */
-  baseSignalDbm: number | null; rainKm: number; drifts: boolean;
+interface RadioRow extends RadioEnd {
+  id: number;
+  nodeId: number;
+  nodeName: string;
+  iface: string;
+  role: string;
+  ssid: string | null;
 }
-export interface ReportSpecs { nodes: NodeSpec[]; radios: RadioSpec[]; ids: Map<string, number> }
+interface NodeSpec {
+  nodeId: number;
+  firmware: string | null;
+  rainKm: number;
+  intervalS: number;
+}
+interface RadioSpec {
+  nodeId: number;
+  intervalS: number;
+  iface: string;
+  role: string;
+  band: string;
+  channel: number;
+  width: number;
+  ssid: string | null;
+  /** Predicted received signal of the link into this radio (weakest station for an access point on a link); null for a plain access point. */
+  baseSignalDbm: number | null;
+  rainKm: number;
+  drifts: boolean;
+}
+export interface ReportSpecs {
+  nodes: NodeSpec[];
+  radios: RadioSpec[];
+  ids: Map<string, number>;
+}
 
 /** What each node and radio reports, from the inventory and the links' predicted budgets. */
 export async function reportSpecs(sequelize: Sequelize): Promise<ReportSpecs> {
@@ -29,14 +54,22 @@ export async function reportSpecs(sequelize: Sequelize): Promise<ReportSpecs> {
        FROM radios r JOIN nodes n ON n.id = r.node_id JOIN sites s ON s.id = n.site_id ORDER BY r.node_id, r.iface`,
     { type: QueryTypes.SELECT },
   );
-  const nodes = await sequelize.query<{ id: number; name: string; firmware: string | null; intervalS: number }>('SELECT id, name, firmware, report_interval_s AS "intervalS" FROM nodes ORDER BY id', { type: QueryTypes.SELECT });
+  const nodes = await sequelize.query<{ id: number; name: string; firmware: string | null; intervalS: number }>(
+    'SELECT id, name, firmware, report_interval_s AS "intervalS" FROM nodes ORDER BY id',
+    { type: QueryTypes.SELECT },
+  );
   const intervalOf = new Map(nodes.map((n) => [n.id, n.intervalS]));
-  const links = await sequelize.query<{ a: number; b: number }>(`SELECT radio_a_id AS a, radio_b_id AS b FROM links WHERE status = 'live'`, { type: QueryTypes.SELECT });
+  const links = await sequelize.query<{ a: number; b: number }>(`SELECT radio_a_id AS a, radio_b_id AS b FROM links WHERE status = 'live'`, {
+    type: QueryTypes.SELECT,
+  });
   const byId = new Map(radios.map((r) => [r.id, r]));
   const heard = new Map<number, { signal: number; km: number }[]>();
   for (const l of links) {
     const [a, b] = [byId.get(l.a)!, byId.get(l.b)!];
-    for (const [from, to] of [[a, b], [b, a]] as const) {
+    for (const [from, to] of [
+      [a, b],
+      [b, a],
+    ] as const) {
       const p = predictLink(from, to);
       if (p) heard.set(to.id, [...(heard.get(to.id) ?? []), { signal: p.rxSignalDbm, km: p.distanceKm }]);
     }
@@ -45,7 +78,13 @@ export async function reportSpecs(sequelize: Sequelize): Promise<ReportSpecs> {
     const h = heard.get(r.id) ?? [];
     const longest = Math.max(0, ...h.map((x) => x.km));
     return {
-      nodeId: r.nodeId, intervalS: intervalOf.get(r.nodeId)!, iface: r.iface, role: r.role, band: r.band, ssid: r.ssid, width: r.channelWidthMHz,
+      nodeId: r.nodeId,
+      intervalS: intervalOf.get(r.nodeId)!,
+      iface: r.iface,
+      role: r.role,
+      band: r.band,
+      ssid: r.ssid,
+      width: r.channelWidthMHz,
       channel: DEMO_QUIRKS.channels[r.nodeName]?.[r.iface] ?? r.channel,
       baseSignalDbm: h.length ? Math.min(...h.map((x) => x.signal)) : null,
       rainKm: r.band === '5' && longest > RAIN_LINK_KM ? longest : 0,
@@ -54,7 +93,9 @@ export async function reportSpecs(sequelize: Sequelize): Promise<ReportSpecs> {
   });
   return {
     nodes: nodes.map((n) => ({
-      nodeId: n.id, intervalS: n.intervalS, firmware: DEMO_QUIRKS.firmware[n.name] ?? n.firmware,
+      nodeId: n.id,
+      intervalS: n.intervalS,
+      firmware: DEMO_QUIRKS.firmware[n.name] ?? n.firmware,
       rainKm: Math.max(0, ...radioSpecs.filter((r) => r.nodeId === n.id).map((r) => r.rainKm)),
     })),
     radios: radioSpecs,
@@ -67,9 +108,11 @@ const TICKS = `
   quiet AS (SELECT * FROM jsonb_to_recordset($4::jsonb) AS q("nodeId" int, after timestamptz, until timestamptz)),
   rain AS (SELECT * FROM jsonb_to_recordset($5::jsonb) AS r("from" timestamptz, "to" timestamptz, "peakDbPerKm" float8))`;
 const TICKS_OF = `CROSS JOIN LATERAL generate_series($1::timestamptz, $2::timestamptz - interval '1 minute', make_interval(secs => s."intervalS")) AS mi(m)`;
-const LIVE = (alias: string) => `NOT EXISTS (SELECT 1 FROM quiet q WHERE q."nodeId" = ${alias}."nodeId" AND ${alias}.t > q.after AND ${alias}.t <= q.until) AND ${alias}.t < $6`;
+const LIVE = (alias: string) =>
+  `NOT EXISTS (SELECT 1 FROM quiet q WHERE q."nodeId" = ${alias}."nodeId" AND ${alias}.t > q.after AND ${alias}.t <= q.until) AND ${alias}.t < $6`;
 // Busiest around 21:00 local time (the simulator's rhythm); rain peaks halfway through its spell.
-const BUSY = (t: string) => `(0.5 + 0.5 * cos(((extract(hour FROM ${t} AT TIME ZONE $7) + extract(minute FROM ${t} AT TIME ZONE $7) / 60.0 - 21) / 24) * 2 * pi()))`;
+const BUSY = (t: string) =>
+  `(0.5 + 0.5 * cos(((extract(hour FROM ${t} AT TIME ZONE $7) + extract(minute FROM ${t} AT TIME ZONE $7) / 60.0 - 21) / 24) * 2 * pi()))`;
 const RAIN_DB_PER_KM = (t: string) =>
   `coalesce((SELECT max(r."peakDbPerKm" * sin(pi() * extract(epoch FROM ${t} - r."from") / extract(epoch FROM r."to" - r."from"))) FROM rain r WHERE ${t} BETWEEN r."from" AND r."to"), 0)`;
 
@@ -123,7 +166,8 @@ async function tableExists(sequelize: Sequelize, name: string) {
 export async function writeDay(sequelize: Sequelize, plan: HistoryPlan, specs: ReportSpecs, day: Date, timeZone: string) {
   const next = new Date(day.getTime() + DAY_MS);
   // Only the silences and rain of this day, so each row is checked against a handful of spans.
-  const quiet = [...silences(plan)].flatMap(([node, spans]) => spans.map((s) => ({ nodeId: specs.ids.get(node), after: s.after, until: s.until })))
+  const quiet = [...silences(plan)]
+    .flatMap(([node, spans]) => spans.map((s) => ({ nodeId: specs.ids.get(node), after: s.after, until: s.until })))
     .filter((q) => q.after < next && q.until >= day);
   const rain = plan.rain.filter((r) => r.from < next && r.to >= day);
   const common = [day, next, JSON.stringify(quiet), JSON.stringify(rain), plan.end, timeZone];

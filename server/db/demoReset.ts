@@ -13,7 +13,10 @@ export async function dropDemo(sequelize: Sequelize, config: Config) {
   const users = await ids(sequelize, 'SELECT id FROM users WHERE email = ANY($1::text[])', [PEOPLE.map((p) => p.email)]);
   const sites = await ids(sequelize, 'SELECT id FROM sites WHERE neighbourhood_id = ANY($1::int[])', [hoods]);
   const nodes = await ids(sequelize, 'SELECT id FROM nodes WHERE neighbourhood_id = ANY($1::int[]) OR site_id = ANY($2::int[])', [hoods, sites]);
-  const photos = await sequelize.query<{ key: string }>('SELECT storage_key AS key FROM photos WHERE site_id = ANY($1::int[])', { bind: [sites], type: QueryTypes.SELECT });
+  const photos = await sequelize.query<{ key: string }>('SELECT storage_key AS key FROM photos WHERE site_id = ANY($1::int[])', {
+    bind: [sites],
+    type: QueryTypes.SELECT,
+  });
 
   // Raw reports have no foreign key (partitioned): a day that holds only demo reports goes whole, others lose the demo's rows.
   const parts = await sequelize.query<{ name: string }>(

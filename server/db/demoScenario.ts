@@ -1,17 +1,45 @@
 // The demo scenario: the invented harbour town of Lindenfall and its volunteers. No real people or places.
 import type { Band, Encryption, RadioRole, Role } from '../../shared/enums';
 
-export interface DemoPerson { key: string; email: string; name: string; role: Role; phone?: string }
+export interface DemoPerson {
+  key: string;
+  email: string;
+  name: string;
+  role: Role;
+  phone?: string;
+}
 export interface DemoRadio {
-  iface: string; band: Band; channel: number; channelWidthMHz: 20 | 40 | 80; txPowerDbm: number; antennaGainDbi: number;
-  cableLossDb: number; role: RadioRole; ssid: string | null; encryption: Encryption; preSharedKey: string | null; groupRekeyS: number;
+  iface: string;
+  band: Band;
+  channel: number;
+  channelWidthMHz: 20 | 40 | 80;
+  txPowerDbm: number;
+  antennaGainDbi: number;
+  cableLossDb: number;
+  role: RadioRole;
+  ssid: string | null;
+  encryption: Encryption;
+  preSharedKey: string | null;
+  groupRekeyS: number;
 }
 export interface DemoSite {
-  key: string; name: string; neighbourhood: string; northM: number; eastM: number; groundElevationM: number;
-  antennaHeightM: number; accessNotes: string; host: string | null;
+  key: string;
+  name: string;
+  neighbourhood: string;
+  northM: number;
+  eastM: number;
+  groundElevationM: number;
+  antennaHeightM: number;
+  accessNotes: string;
+  host: string | null;
   node: { name: string; hardware: string; firmware: string; isUplink: boolean; reportIntervalS: number; radios: DemoRadio[] };
 }
-export interface DemoLink { from: [string, string]; to: [string, string]; status: 'planned' | 'live'; name: string }
+export interface DemoLink {
+  from: [string, string];
+  to: [string, string];
+  status: 'planned' | 'live';
+  name: string;
+}
 
 /** Invented firmware and maker: the demo names no real product. */
 export const DEMO_FIRMWARE = 'Tilecrest 5.1.2';
@@ -23,7 +51,14 @@ export const DEMO_FIRMWARE = 'Tilecrest 5.1.2';
 export const REPORT_INTERVAL_S = 300;
 const MINUTE_REPORTERS = ['tide', 'weir'];
 
-export const TOWN = { name: 'Lindenfall Community Network', latitude: 47.6012, longitude: -38.4127, region: 'EU' as const, timeZone: 'Atlantic/Azores', pool: '10.64.0.0/16' };
+export const TOWN = {
+  name: 'Lindenfall Community Network',
+  latitude: 47.6012,
+  longitude: -38.4127,
+  region: 'EU' as const,
+  timeZone: 'Atlantic/Azores',
+  pool: '10.64.0.0/16',
+};
 
 export const PEOPLE: DemoPerson[] = [
   { key: 'admin', email: 'admin@parapet.example', name: 'Marta Quillon', role: 'admin', phone: '+000 555 0100' },
@@ -43,37 +78,133 @@ export const NEIGHBOURHOODS = [
 ];
 
 const rekey = 3600;
-const ap = (ssid: string, channel: number, enc: Encryption = 'wpa2-ccmp', psk: string | null = 'lindenfall-shares-the-sky', extra: Partial<DemoRadio> = {}): DemoRadio => ({
-  iface: 'wlan1', band: '2.4', channel, channelWidthMHz: 20, txPowerDbm: 17, antennaGainDbi: 2, cableLossDb: 0, role: 'access-point',
-  ssid, encryption: enc, preSharedKey: enc === 'none' ? null : psk, groupRekeyS: rekey, ...extra,
+const ap = (
+  ssid: string,
+  channel: number,
+  enc: Encryption = 'wpa2-ccmp',
+  psk: string | null = 'lindenfall-shares-the-sky',
+  extra: Partial<DemoRadio> = {},
+): DemoRadio => ({
+  iface: 'wlan1',
+  band: '2.4',
+  channel,
+  channelWidthMHz: 20,
+  txPowerDbm: 17,
+  antennaGainDbi: 2,
+  cableLossDb: 0,
+  role: 'access-point',
+  ssid,
+  encryption: enc,
+  preSharedKey: enc === 'none' ? null : psk,
+  groupRekeyS: rekey,
+  ...extra,
 });
 const backhaul = (iface: string, role: RadioRole, channel: number, gainDbi: number, extra: Partial<DemoRadio> = {}): DemoRadio => ({
-  iface, band: '5', channel, channelWidthMHz: 40, txPowerDbm: 18, antennaGainDbi: gainDbi, cableLossDb: 0.5, role,
-  ssid: 'lf-backhaul', encryption: 'wpa2-ccmp', preSharedKey: 'Qx7!backhaul-of-lindenfall-2026', groupRekeyS: rekey, ...extra,
+  iface,
+  band: '5',
+  channel,
+  channelWidthMHz: 40,
+  txPowerDbm: 18,
+  antennaGainDbi: gainDbi,
+  cableLossDb: 0.5,
+  role,
+  ssid: 'lf-backhaul',
+  encryption: 'wpa2-ccmp',
+  preSharedKey: 'Qx7!backhaul-of-lindenfall-2026',
+  groupRekeyS: rekey,
+  ...extra,
 });
 
-function leaf(key: string, name: string, neighbourhood: string, northM: number, eastM: number, host: string | null, apChannel: number, bhChannel: number, radio: Partial<DemoRadio> = {}): DemoSite {
+function leaf(
+  key: string,
+  name: string,
+  neighbourhood: string,
+  northM: number,
+  eastM: number,
+  host: string | null,
+  apChannel: number,
+  bhChannel: number,
+  radio: Partial<DemoRadio> = {},
+): DemoSite {
   return {
-    key, name, neighbourhood, northM, eastM, groundElevationM: 8 + Math.round(Math.abs(northM) / 120), antennaHeightM: 6 + (key.length % 4),
-    accessNotes: 'Ring the resident first; ladder access from the back yard.', host,
-    node: { name: `lf-${key}`, hardware: 'Fallwright C5 outdoor CPE', firmware: DEMO_FIRMWARE, isUplink: false, reportIntervalS: MINUTE_REPORTERS.includes(key) ? 60 : REPORT_INTERVAL_S,
-      radios: [backhaul('wlan0', 'backhaul-client', bhChannel, 16), ap(`Lindenfall-${name.split(' ')[0]}`, apChannel, 'wpa2-ccmp', 'lindenfall-shares-the-sky', radio)] },
+    key,
+    name,
+    neighbourhood,
+    northM,
+    eastM,
+    groundElevationM: 8 + Math.round(Math.abs(northM) / 120),
+    antennaHeightM: 6 + (key.length % 4),
+    accessNotes: 'Ring the resident first; ladder access from the back yard.',
+    host,
+    node: {
+      name: `lf-${key}`,
+      hardware: 'Fallwright C5 outdoor CPE',
+      firmware: DEMO_FIRMWARE,
+      isUplink: false,
+      reportIntervalS: MINUTE_REPORTERS.includes(key) ? 60 : REPORT_INTERVAL_S,
+      radios: [
+        backhaul('wlan0', 'backhaul-client', bhChannel, 16),
+        ap(`Lindenfall-${name.split(' ')[0]}`, apChannel, 'wpa2-ccmp', 'lindenfall-shares-the-sky', radio),
+      ],
+    },
   };
 }
 
-function relay(key: string, name: string, neighbourhood: string, northM: number, eastM: number, host: string | null, upChannel: number, downChannel: number): DemoSite {
+function relay(
+  key: string,
+  name: string,
+  neighbourhood: string,
+  northM: number,
+  eastM: number,
+  host: string | null,
+  upChannel: number,
+  downChannel: number,
+): DemoSite {
   return {
-    key, name, neighbourhood, northM, eastM, groundElevationM: 12, antennaHeightM: 14, accessNotes: 'Roof hatch key with the caretaker; harness anchor by the chimney.', host,
-    node: { name: `lf-${key}`, hardware: 'Fallwright R2 dual-radio rooftop router', firmware: DEMO_FIRMWARE, isUplink: false, reportIntervalS: REPORT_INTERVAL_S,
-      radios: [backhaul('wlan0', 'backhaul-client', upChannel, 23), backhaul('wlan2', 'backhaul-ap', downChannel, 14), ap(`Lindenfall-${name.split(' ')[0]}`, 6)] },
+    key,
+    name,
+    neighbourhood,
+    northM,
+    eastM,
+    groundElevationM: 12,
+    antennaHeightM: 14,
+    accessNotes: 'Roof hatch key with the caretaker; harness anchor by the chimney.',
+    host,
+    node: {
+      name: `lf-${key}`,
+      hardware: 'Fallwright R2 dual-radio rooftop router',
+      firmware: DEMO_FIRMWARE,
+      isUplink: false,
+      reportIntervalS: REPORT_INTERVAL_S,
+      radios: [
+        backhaul('wlan0', 'backhaul-client', upChannel, 23),
+        backhaul('wlan2', 'backhaul-ap', downChannel, 14),
+        ap(`Lindenfall-${name.split(' ')[0]}`, 6),
+      ],
+    },
   };
 }
 
 export const SITES: DemoSite[] = [
-  { key: 'granary', name: 'Granary Tower', neighbourhood: 'Old Quay', northM: 0, eastM: 0, groundElevationM: 10, antennaHeightM: 28,
-    accessNotes: 'Uplink room on floor 6; the mast is on the roof. Two people for any mast work.', host: 'admin',
-    node: { name: 'lf-granary', hardware: 'Fallwright H3 rack router, three sector radios', firmware: DEMO_FIRMWARE, isUplink: true, reportIntervalS: REPORT_INTERVAL_S,
-      radios: [backhaul('wlan0', 'backhaul-ap', 36, 23), backhaul('wlan1', 'backhaul-ap', 100, 23), backhaul('wlan2', 'backhaul-ap', 116, 23)] } },
+  {
+    key: 'granary',
+    name: 'Granary Tower',
+    neighbourhood: 'Old Quay',
+    northM: 0,
+    eastM: 0,
+    groundElevationM: 10,
+    antennaHeightM: 28,
+    accessNotes: 'Uplink room on floor 6; the mast is on the roof. Two people for any mast work.',
+    host: 'admin',
+    node: {
+      name: 'lf-granary',
+      hardware: 'Fallwright H3 rack router, three sector radios',
+      firmware: DEMO_FIRMWARE,
+      isUplink: true,
+      reportIntervalS: REPORT_INTERVAL_S,
+      radios: [backhaul('wlan0', 'backhaul-ap', 36, 23), backhaul('wlan1', 'backhaul-ap', 100, 23), backhaul('wlan2', 'backhaul-ap', 116, 23)],
+    },
+  },
   relay('quay', 'Quay Chandlery', 'Old Quay', 900, -1200, 'host', 36, 52),
   relay('mill', 'Millbrook Mill', 'Millbrook', 150, 2100, 'h1', 100, 132),
   relay('marsh', 'Saltmarsh Water Tower', 'Saltmarsh Row', -2400, 300, 'h2', 116, 149),
@@ -108,7 +239,12 @@ const relayUp: Record<string, string> = { quay: 'wlan0', mill: 'wlan1', marsh: '
 
 /** Backhaul from the uplink to each relay (Chapel Hill hangs off Old Quay), then each relay to its leaves. */
 export const LINKS: DemoLink[] = [
-  ...Object.entries(relayUp).map(([relayKey, iface]): DemoLink => ({ from: ['granary', iface], to: [relayKey, 'wlan0'], status: 'live', name: `Granary – ${relayKey}` })),
+  ...Object.entries(relayUp).map(([relayKey, iface]): DemoLink => ({
+    from: ['granary', iface],
+    to: [relayKey, 'wlan0'],
+    status: 'live',
+    name: `Granary – ${relayKey}`,
+  })),
   { from: ['quay', 'wlan2'], to: ['chapel', 'wlan0'], status: 'live', name: 'Quay – Chapel Hill' },
   ...SITES.filter((s) => s.node.radios[0].role === 'backhaul-client' && s.node.radios.length === 2).map((s): DemoLink => {
     const relayKey = { 'Old Quay': 'quay', Millbrook: 'mill', 'Saltmarsh Row': 'marsh', 'Chapel Hill': 'chapel' }[s.neighbourhood]!;

@@ -15,7 +15,11 @@ export async function seedDemo(password: string): Promise<'loaded' | 'already-lo
     await NetworkSettings.update({ name: TOWN.name, region: TOWN.region, timeZone: TOWN.timeZone, addressPool: TOWN.pool }, { where: { id: 1 }, ...t });
     const people = new Map<string, User>();
     // Each person gets a hash of their own (argon2 draws a fresh salt every time), so one cracked hash opens one account.
-    for (const p of PEOPLE) people.set(p.key, await User.create({ email: p.email, name: p.name, role: p.role, phone: p.phone ?? null, passwordHash: await hashPassword(password) }, t));
+    for (const p of PEOPLE)
+      people.set(
+        p.key,
+        await User.create({ email: p.email, name: p.name, role: p.role, phone: p.phone ?? null, passwordHash: await hashPassword(password) }, t),
+      );
     const hoods = new Map<string, Neighbourhood>();
     for (const n of NEIGHBOURHOODS) {
       const hood = await Neighbourhood.create({ name: n.name, description: n.description }, t);
@@ -26,11 +30,30 @@ export async function seedDemo(password: string): Promise<'loaded' | 'already-lo
     for (const [i, s] of SITES.entries()) {
       const hood = hoods.get(s.neighbourhood)!;
       const site = await Site.create(
-        { name: s.name, neighbourhoodId: hood.id, ...offsetToLatLon(s.northM, s.eastM), groundElevationM: s.groundElevationM,
-          antennaHeightM: s.antennaHeightM, accessNotes: s.accessNotes, hostUserId: s.host ? people.get(s.host)!.id : null }, t);
+        {
+          name: s.name,
+          neighbourhoodId: hood.id,
+          ...offsetToLatLon(s.northM, s.eastM),
+          groundElevationM: s.groundElevationM,
+          antennaHeightM: s.antennaHeightM,
+          accessNotes: s.accessNotes,
+          hostUserId: s.host ? people.get(s.host)!.id : null,
+        },
+        t,
+      );
       const node = await Node.create(
-        { name: s.node.name, siteId: site.id, neighbourhoodId: hood.id, hardware: s.node.hardware, firmware: s.node.firmware,
-          isUplink: s.node.isUplink, managementAddress: `10.64.${i + 1}.1`, reportIntervalS: s.node.reportIntervalS }, t);
+        {
+          name: s.node.name,
+          siteId: site.id,
+          neighbourhoodId: hood.id,
+          hardware: s.node.hardware,
+          firmware: s.node.firmware,
+          isUplink: s.node.isUplink,
+          managementAddress: `10.64.${i + 1}.1`,
+          reportIntervalS: s.node.reportIntervalS,
+        },
+        t,
+      );
       for (const r of s.node.radios) radios.set(`${s.key}/${r.iface}`, await Radio.create({ ...r, nodeId: node.id }, t));
     }
     for (const l of LINKS) {

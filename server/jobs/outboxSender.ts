@@ -42,11 +42,15 @@ export async function deliverDue(sequelize: Sequelize, config: Config, mailer: T
     for (const row of batch) {
       try {
         await mailer.sendMail(toMailOptions(row, config));
-        await sequelize.query(`UPDATE outbox SET status = 'sent', sent_at = $2, last_error = NULL, updated_at = $2 WHERE id = $1`, { bind: [row.id, config.now()] });
+        await sequelize.query(`UPDATE outbox SET status = 'sent', sent_at = $2, last_error = NULL, updated_at = $2 WHERE id = $1`, {
+          bind: [row.id, config.now()],
+        });
         tally.sent++;
       } catch (err) {
         const urgent = (OUTAGE_KINDS as readonly string[]).includes(row.kind);
-        const last = urgent ? config.now().getTime() - new Date(row.createdAt).getTime() >= OUTAGE_MAIL_GIVE_UP_MS && row.attempts >= config.outboxMaxAttempts : row.attempts >= config.outboxMaxAttempts;
+        const last = urgent
+          ? config.now().getTime() - new Date(row.createdAt).getTime() >= OUTAGE_MAIL_GIVE_UP_MS && row.attempts >= config.outboxMaxAttempts
+          : row.attempts >= config.outboxMaxAttempts;
         const message = String((err as Error).message ?? err).slice(0, 500);
         await sequelize.query(`UPDATE outbox SET status = $2, last_error = $3, updated_at = $4 WHERE id = $1`, {
           bind: [row.id, last ? 'failed' : 'pending', message, config.now()],

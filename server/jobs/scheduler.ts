@@ -64,7 +64,11 @@ export function startJobs(config: Config, sequelize: Sequelize, watch?: Database
       await runAlertSweep(sequelize, config, now);
       if (now.getTime() - lastUpkeep >= 60_000) {
         lastUpkeep = now.getTime();
-        await runStorageUpkeep(sequelize, now, { daysAhead: config.partitionDaysAhead, rawDays: config.rawRetentionDays, rollupDays: config.rollupRetentionDays });
+        await runStorageUpkeep(sequelize, now, {
+          daysAhead: config.partitionDaysAhead,
+          rawDays: config.rawRetentionDays,
+          rollupDays: config.rollupRetentionDays,
+        });
       }
     } catch (err) {
       failed('scheduled job', err);

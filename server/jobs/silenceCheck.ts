@@ -10,7 +10,6 @@ import { releaseStranded } from '../services/strandRelease';
 import { thresholdsFor } from '../services/thresholds';
 import { asLeader } from './leader';
 
-
 /**
  * Finds nodes that missed their reports and marks them offline, opening an outage each, except
  * those whose silence a failure upstream explains (stranded, see silenceAttribution).
@@ -19,7 +18,12 @@ import { asLeader } from './leader';
  * the database (`ownOutage`, seen by this process) counts the same way: nodes could not report.
  */
 export async function runSilenceCheck(
-  sequelize: Sequelize, config: Config, now: Date, checkIntervalMs: number, rootCauseWindowS = 120, ownOutage: { from: Date; to: Date } | null = null,
+  sequelize: Sequelize,
+  config: Config,
+  now: Date,
+  checkIntervalMs: number,
+  rootCauseWindowS = 120,
+  ownOutage: { from: Date; to: Date } | null = null,
 ) {
   const network = await thresholdsFor(sequelize, null);
   const offlineAfterIntervals = network.offlineAfterIntervals ?? DEFAULT_THRESHOLDS.offlineAfterIntervals;

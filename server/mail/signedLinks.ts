@@ -39,7 +39,11 @@ export function verifyLink(secret: string, token: unknown, purpose: LinkPurpose,
 }
 
 const badLink = () =>
-  new ApiError(400, 'bad_link', 'This link is damaged or was changed, so Parapet cannot trust it. Copy the whole link from the e-mail, or sign in to Parapet instead.');
+  new ApiError(
+    400,
+    'bad_link',
+    'This link is damaged or was changed, so Parapet cannot trust it. Copy the whole link from the e-mail, or sign in to Parapet instead.',
+  );
 
 /** Whether `token` is a genuine, unexpired link for `purpose` (for checks that answer yes or no, like a socket handshake). */
 export function isGenuineLink(secret: string, token: unknown, purpose: LinkPurpose, now: Date): boolean {

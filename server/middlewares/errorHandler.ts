@@ -17,7 +17,8 @@ function fromDatabase(err: BaseError): ApiError | null {
   if (pgCode === '22003') return Invalid('A number is larger than Parapet can store. Check the value and send a smaller one.');
   if (pgCode === '22008' || pgCode === '22007') return Invalid('A date or time is outside the range Parapet can store. Check the year.');
   if (pgCode === '22001' || pgCode === '54000') return Invalid('A text value is too long. Shorten it and try again.');
-  if (pgCode === '22021' || pgCode === '22P05') return Invalid('A text value holds characters that cannot be stored (such as a NUL byte). Remove them and try again.');
+  if (pgCode === '22021' || pgCode === '22P05')
+    return Invalid('A text value holds characters that cannot be stored (such as a NUL byte). Remove them and try again.');
   if (pgCode && ['57P01', '57P03', '08006', '08001', '53300'].includes(pgCode)) return Unavailable();
   return null;
 }
@@ -33,10 +34,8 @@ export function errorHandler(err: unknown, req: Request, res: Response, _next: N
   else if (isPlanningError(err)) apiError = new ApiError(err.status, err.code, err.message);
   else if (err instanceof BaseError) apiError = fromDatabase(err);
   else if (isConnectionFailure(err)) apiError = Unavailable();
-  else if ((err as { type?: string })?.type === 'entity.too.large')
-    apiError = new ApiError(413, 'too_large', 'The request body is too large.');
-  else if ((err as { type?: string })?.type === 'entity.parse.failed')
-    apiError = Invalid('The request body is not valid JSON.');
+  else if ((err as { type?: string })?.type === 'entity.too.large') apiError = new ApiError(413, 'too_large', 'The request body is too large.');
+  else if ((err as { type?: string })?.type === 'entity.parse.failed') apiError = Invalid('The request body is not valid JSON.');
   else if ((err as { status?: number })?.status === 400) apiError = Invalid('The request could not be read.');
 
   if (!apiError) {

@@ -2,7 +2,8 @@ import type { NextFunction, Request, Response } from 'express';
 import multer from 'multer';
 import { ApiError, Invalid } from '../errors';
 
-const kib = (bytes: number) => (bytes >= 1024 * 1024 ? `${(bytes / 1024 / 1024).toFixed(bytes % (1024 * 1024) ? 1 : 0)} MiB` : `${Math.round(bytes / 1024)} KiB`);
+const kib = (bytes: number) =>
+  bytes >= 1024 * 1024 ? `${(bytes / 1024 / 1024).toFixed(bytes % (1024 * 1024) ? 1 : 0)} MiB` : `${Math.round(bytes / 1024)} KiB`;
 
 /**
  * One file in memory under `field`, at most `maxBytes`; nothing touches the disk here, so a refused
@@ -14,10 +15,11 @@ export function singleUpload(field: string, maxBytes: number, what: string) {
     handler(req, res, (err: unknown) => {
       if (!err) return next();
       if (err instanceof multer.MulterError) {
-        if (err.code === 'LIMIT_FILE_SIZE')
-          return next(new ApiError(413, 'too_large', `The ${what} is larger than ${kib(maxBytes)}. Send a smaller file.`));
+        if (err.code === 'LIMIT_FILE_SIZE') return next(new ApiError(413, 'too_large', `The ${what} is larger than ${kib(maxBytes)}. Send a smaller file.`));
         if (err.code === 'LIMIT_UNEXPECTED_FILE' || err.code === 'LIMIT_FILE_COUNT')
-          return next(Invalid(`Send exactly one ${what} in the form field "${field}".`, [{ path: field, message: `${field} must be the only file in the form` }]));
+          return next(
+            Invalid(`Send exactly one ${what} in the form field "${field}".`, [{ path: field, message: `${field} must be the only file in the form` }]),
+          );
         return next(Invalid(`The upload form could not be read (${err.message.toLowerCase()}). Send one file in the field "${field}".`));
       }
       next(Invalid(`The upload could not be read as a form. Send the ${what} as multipart/form-data in the field "${field}".`));

@@ -18,7 +18,21 @@ let initialised: Sequelize | null = null;
 /** Binds every model to one Sequelize instance; the schema itself comes from migrations. */
 export function initModels(sequelize: Sequelize): void {
   if (initialised === sequelize) return;
-  for (const m of [User, Neighbourhood, OperatorAssignment, Site, Node, Radio, Link, NetworkSettings, Outage, OutboxMessage, MaintenanceWindow, AlertPreference]) m.initModel(sequelize);
+  for (const m of [
+    User,
+    Neighbourhood,
+    OperatorAssignment,
+    Site,
+    Node,
+    Radio,
+    Link,
+    NetworkSettings,
+    Outage,
+    OutboxMessage,
+    MaintenanceWindow,
+    AlertPreference,
+  ])
+    m.initModel(sequelize);
   MaintenanceWindow.belongsTo(User, { as: 'creator', foreignKey: 'createdBy' });
   Site.belongsTo(User, { as: 'host', foreignKey: 'hostUserId' });
   Radio.belongsTo(Node, { as: 'node', foreignKey: 'nodeId' });

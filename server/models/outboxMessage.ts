@@ -27,7 +27,14 @@ export class OutboxMessage extends Model<InferAttributes<OutboxMessage>, InferCr
   static initModel(sequelize: Sequelize) {
     OutboxMessage.init(
       {
-        id: { type: DataTypes.BIGINT, primaryKey: true, autoIncrement: true, get(this: OutboxMessage) { return Number(this.getDataValue('id')); } },
+        id: {
+          type: DataTypes.BIGINT,
+          primaryKey: true,
+          autoIncrement: true,
+          get(this: OutboxMessage) {
+            return Number(this.getDataValue('id'));
+          },
+        },
         kind: { type: DataTypes.TEXT, allowNull: false },
         recipientUserId: { type: DataTypes.INTEGER },
         recipientAddress: { type: DataTypes.TEXT, allowNull: false },

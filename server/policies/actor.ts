@@ -35,8 +35,7 @@ export async function loadActor(userId: number): Promise<Actor | null> {
 }
 
 export const isAdmin = (a: Actor) => a.role === 'admin';
-export const isOperatorOf = (a: Actor, neighbourhoodId: number) =>
-  a.role === 'operator' && a.neighbourhoodIds.includes(neighbourhoodId);
+export const isOperatorOf = (a: Actor, neighbourhoodId: number) => a.role === 'operator' && a.neighbourhoodIds.includes(neighbourhoodId);
 /** Admins and the operators of a neighbourhood may change what is in it. */
 export const mayManage = (a: Actor, neighbourhoodId: number) => isAdmin(a) || isOperatorOf(a, neighbourhoodId);
 /** Admins and operators with at least one neighbourhood may add inventory somewhere (the create buttons). */

@@ -10,14 +10,25 @@ export const mayReadWholeHistory = isAdmin;
  */
 export async function assertHistoryReadable(actor: Actor, table: string, id: number): Promise<boolean> {
   if (isAdmin(actor)) return true;
-  const readable = async (check: () => Promise<unknown>) => check().then(() => true, () => false);
+  const readable = async (check: () => Promise<unknown>) =>
+    check().then(
+      () => true,
+      () => false,
+    );
   switch (table) {
-    case 'sites': return readable(() => readableSite(actor, id));
-    case 'nodes': return readable(() => readableNode(actor, id));
-    case 'radios': return readable(() => readableRadio(actor, id));
-    case 'neighbourhoods': return readable(() => readableNeighbourhood(actor, id));
-    case 'users': return actor.id === id;
-    case 'links': return readable(() => readableLink(actor, id));
-    default: return false;
+    case 'sites':
+      return readable(() => readableSite(actor, id));
+    case 'nodes':
+      return readable(() => readableNode(actor, id));
+    case 'radios':
+      return readable(() => readableRadio(actor, id));
+    case 'neighbourhoods':
+      return readable(() => readableNeighbourhood(actor, id));
+    case 'users':
+      return actor.id === id;
+    case 'links':
+      return readable(() => readableLink(actor, id));
+    default:
+      return false;
   }
 }

@@ -8,10 +8,12 @@ import { managedSql, operatedIds, type ScopeSql } from './scopeSql';
  */
 
 /** The neighbourhoods of a link's two ends. */
-export interface LinkEnds { neighbourhoodAId: number; neighbourhoodBId: number }
+export interface LinkEnds {
+  neighbourhoodAId: number;
+  neighbourhoodBId: number;
+}
 
-export const mayReadLink = (a: Actor, l: LinkEnds) =>
-  isAdmin(a) || isOperatorOf(a, l.neighbourhoodAId) || isOperatorOf(a, l.neighbourhoodBId);
+export const mayReadLink = (a: Actor, l: LinkEnds) => isAdmin(a) || isOperatorOf(a, l.neighbourhoodAId) || isOperatorOf(a, l.neighbourhoodBId);
 
 export const linkAbilities = (a: Actor, l: LinkEnds) => {
   const manage = mayManage(a, l.neighbourhoodAId) || mayManage(a, l.neighbourhoodBId);

@@ -28,5 +28,4 @@ export const siteAbilities = (a: Actor, s: Pick<Site, 'neighbourhoodId'>) => {
 };
 export const mayCreateSiteIn = (a: Actor, neighbourhoodId: number) => mayManage(a, neighbourhoodId);
 /** Host contact details: admins, the neighbourhood's operators, and the host themself. */
-export const maySeeHostContact = (a: Actor, s: Pick<Site, 'neighbourhoodId' | 'hostUserId'>) =>
-  mayManage(a, s.neighbourhoodId) || s.hostUserId === a.id;
+export const maySeeHostContact = (a: Actor, s: Pick<Site, 'neighbourhoodId' | 'hostUserId'>) => mayManage(a, s.neighbourhoodId) || s.hostUserId === a.id;

@@ -5,8 +5,15 @@ import { mayManage } from '../policies/actor';
 import type { PlanFinding, PlanRow, UnplannedNode } from '../services/addressPlans';
 
 export const presentPlan = (actor: Actor, p: PlanRow): AddressPlanDto => ({
-  nodeId: p.nodeId, nodeName: p.nodeName, neighbourhoodId: p.neighbourhoodId, cidr: p.cidr, gateway: p.gateway,
-  dhcpStart: p.dhcpStart, dhcpEnd: p.dhcpEnd, staticAddresses: p.staticAddresses, abilities: planAbilities(actor, p),
+  nodeId: p.nodeId,
+  nodeName: p.nodeName,
+  neighbourhoodId: p.neighbourhoodId,
+  cidr: p.cidr,
+  gateway: p.gateway,
+  dhcpStart: p.dhcpStart,
+  dhcpEnd: p.dhcpEnd,
+  staticAddresses: p.staticAddresses,
+  abilities: planAbilities(actor, p),
 });
 
 /** The nodes a finding is about stay on the server: one of them may be a node the caller cannot read. */

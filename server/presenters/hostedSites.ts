@@ -11,16 +11,19 @@ export function presentHostedSites(h: Awaited<ReturnType<typeof hostedSitesOf>>,
     id: s.id,
     name: s.name,
     neighbourhoodName: h.neighbourhoods.find((n) => n.id === s.neighbourhoodId)?.name ?? '',
-    nodes: h.nodes.filter((n) => n.siteId === s.id).map((n) => ({
-      id: n.id,
-      name: n.name,
-      state: n.state,
-      stateSince: iso(n.stateSince),
-      lastSeenAt: iso(n.lastSeenAt),
-      summary: hostSummary({ siteName: s.name, state: n.state, lastSeenClock: clock(n.lastSeenAt), sinceClock: clock(n.stateSince) }),
-      availability: h.availability.byNode(n.id),
-      recentOutages: h.outages.filter((o) => o.nodeId === n.id)
-        .map((o) => ({ id: o.id, startedAt: iso(o.startedAt)!, endedAt: iso(o.endedAt), acknowledged: Boolean(o.acknowledgedAt) })),
-    })),
+    nodes: h.nodes
+      .filter((n) => n.siteId === s.id)
+      .map((n) => ({
+        id: n.id,
+        name: n.name,
+        state: n.state,
+        stateSince: iso(n.stateSince),
+        lastSeenAt: iso(n.lastSeenAt),
+        summary: hostSummary({ siteName: s.name, state: n.state, lastSeenClock: clock(n.lastSeenAt), sinceClock: clock(n.stateSince) }),
+        availability: h.availability.byNode(n.id),
+        recentOutages: h.outages
+          .filter((o) => o.nodeId === n.id)
+          .map((o) => ({ id: o.id, startedAt: iso(o.startedAt)!, endedAt: iso(o.endedAt), acknowledged: Boolean(o.acknowledgedAt) })),
+      })),
   }));
 }

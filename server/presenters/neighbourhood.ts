@@ -32,7 +32,14 @@ type Summary = Awaited<ReturnType<typeof neighbourhoodSummary>>;
 export function presentNeighbourhoodSummary(s: Summary): NeighbourhoodSummaryDto {
   return {
     availability: s.availability.pooled,
-    nodes: s.nodes.map((x) => ({ id: x.id, name: x.name, state: x.state, siteId: x.siteId, siteName: s.siteNames.get(x.siteId) ?? '', availability: s.availability.byNode(x.id) })),
+    nodes: s.nodes.map((x) => ({
+      id: x.id,
+      name: x.name,
+      state: x.state,
+      siteId: x.siteId,
+      siteName: s.siteNames.get(x.siteId) ?? '',
+      availability: s.availability.byNode(x.id),
+    })),
     operators: s.operators.map((o) => ({ id: o.id, name: o.name })),
     hosts: s.sites.map((site) => ({ siteId: site.id, siteName: site.name, host: site.host ? { id: site.host.id, name: site.host.name } : null })),
   };

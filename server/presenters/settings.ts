@@ -4,5 +4,12 @@ import { isAdmin, type Actor } from '../policies/actor';
 import { iso } from './common';
 
 export function presentNetworkSettings(s: NetworkSettings, actor: Actor): NetworkSettingsDto {
-  return { name: s.name, region: s.region, timeZone: s.timeZone, addressPool: s.addressPool ?? null, updatedAt: iso(s.updatedAt)!, abilities: { update: isAdmin(actor) } };
+  return {
+    name: s.name,
+    region: s.region,
+    timeZone: s.timeZone,
+    addressPool: s.addressPool ?? null,
+    updatedAt: iso(s.updatedAt)!,
+    abilities: { update: isAdmin(actor) },
+  };
 }

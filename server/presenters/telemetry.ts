@@ -7,8 +7,14 @@ export function presentNodeSeries(s: { range: SeriesRange; bucketS: number; poin
     range: s.range,
     bucketS: s.bucketS,
     points: s.points.map((p) => ({
-      t: iso(p.t)!, availabilityPct: p.availabilityPct, signalAvgDbm: p.signalAvgDbm, signalMinDbm: p.signalMinDbm, noiseAvgDbm: p.noiseAvgDbm,
-      snrAvgDb: p.snrAvgDb, throughputAvgMbps: p.throughputAvgMbps, latencyAvgMs: p.latencyAvgMs,
+      t: iso(p.t)!,
+      availabilityPct: p.availabilityPct,
+      signalAvgDbm: p.signalAvgDbm,
+      signalMinDbm: p.signalMinDbm,
+      noiseAvgDbm: p.noiseAvgDbm,
+      snrAvgDb: p.snrAvgDb,
+      throughputAvgMbps: p.throughputAvgMbps,
+      latencyAvgMs: p.latencyAvgMs,
     })),
   };
 }

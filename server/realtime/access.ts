@@ -8,7 +8,6 @@ import { roomsOf } from '../policies/node';
 /** Every socket of a person also sits in this room, so their rooms can be found and changed from any instance. */
 export const personRoom = (userId: number) => `user:${userId}`;
 
-
 /**
  * The handshake's Origin must be this site (the Host it was sent to, or PUBLIC_URL): a page elsewhere
  * cannot open a live feed with a signed-in person's cookie. No Origin means no browser page is asking.

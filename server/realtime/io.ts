@@ -42,8 +42,10 @@ export function releaseOnEnd(pool: pg.Pool): pg.Pool {
 const withRecovery = (e: { nodeId: number; neighbourhoodId: number; hostUserId: number | null }) => [...nodeRooms(e), `recovery:${e.nodeId}`];
 
 type EngineMiddleware = (req: Request & { _query?: Record<string, string> }, res: Response, next: NextFunction) => void;
-const onlyForHandshake = (mw: RequestHandler): EngineMiddleware => (req, res, next) =>
-  req._query?.sid === undefined ? (mw(req, res, next) as void) : next();
+const onlyForHandshake =
+  (mw: RequestHandler): EngineMiddleware =>
+  (req, res, next) =>
+    req._query?.sid === undefined ? (mw(req, res, next) as void) : next();
 
 /** socket.io on the app's HTTP server, authenticated from the session cookie. */
 export function createRealtime(server: http.Server, config: Config, session: RequestHandler, pp: typeof passport, watch?: DatabaseWatch) {
@@ -56,7 +58,13 @@ export function createRealtime(server: http.Server, config: Config, session: Req
     // Two connections: the LISTEN one and one for NOTIFY, which keeps events in the order they happened.
     adapterPool = releaseOnEnd(guardPool(new pg.Pool({ connectionString: config.databaseUrl, max: 2, connectionTimeoutMillis: 5_000 }), 'live updates', watch));
     // Its failed publishes are only logged: the watch follows the requests' own database calls.
-    io.adapter(createAdapter(adapterPool, { tableName: 'socket_io_attachments', heartbeatInterval: 5_000, errorHandler: (err: Error) => console.error('live updates:', err.message) }));
+    io.adapter(
+      createAdapter(adapterPool, {
+        tableName: 'socket_io_attachments',
+        heartbeatInterval: 5_000,
+        errorHandler: (err: Error) => console.error('live updates:', err.message),
+      }),
+    );
   }
   io.engine.use(onlyForHandshake(session));
   io.engine.use(onlyForHandshake(pp.initialize() as RequestHandler));

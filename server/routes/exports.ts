@@ -17,7 +17,11 @@ export function exportRoutes(sequelize: Sequelize) {
     const kind = (res.locals.params.file as string).replace(/\.csv$/, '') as ExportKind;
     const csv = await exportCsv(sequelize, kind, actorOf(req));
     const day = new Date().toISOString().slice(0, 10);
-    res.set({ 'Content-Type': 'text/csv; charset=utf-8', 'Content-Disposition': `attachment; filename="parapet-${kind}-${day}.csv"`, 'Cache-Control': 'no-store' });
+    res.set({
+      'Content-Type': 'text/csv; charset=utf-8',
+      'Content-Disposition': `attachment; filename="parapet-${kind}-${day}.csv"`,
+      'Cache-Control': 'no-store',
+    });
     res.send(`\uFEFF${csv}\r\n`);
   });
 

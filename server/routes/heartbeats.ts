@@ -25,7 +25,10 @@ export function heartbeatRoutes(config: Config, sequelize: Sequelize) {
   const perToken = rateLimit({
     windowMs: 60_000,
     limit: config.ingestRateLimitPerMin,
-    keyGenerator: (req) => createHash('sha256').update(bearer(req) ?? '').digest('hex'),
+    keyGenerator: (req) =>
+      createHash('sha256')
+        .update(bearer(req) ?? '')
+        .digest('hex'),
     validate: { keyGeneratorIpFallback: false },
     handler: tooManyHandler(60_000, 'This node is sending too many reports. Slow down and retry after the wait.'),
   });

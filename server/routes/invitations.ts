@@ -40,7 +40,8 @@ export function invitationRoutes(config: Config, sequelize: Sequelize) {
         hostOf = { site, onlyNewPeople: !mayListPeople(actor) };
       }
       if (!mayListPeople(actor)) {
-        if (input.role !== 'host') throw Invalid('Operators invite hosts only; ask an admin for other roles.', [{ path: 'role', message: 'role must be host' }]);
+        if (input.role !== 'host')
+          throw Invalid('Operators invite hosts only; ask an admin for other roles.', [{ path: 'role', message: 'role must be host' }]);
         if (!hostOf) throw Invalid('Say which of your sites the new host will host.', [{ path: 'siteId', message: 'siteId is required' }]);
       }
       const { user, expiresAt } = await invite(sequelize, config, input, actor.name, hostOf);

@@ -16,7 +16,10 @@ const html = (fn: Handler) => (req: Request, res: Response, next: NextFunction) 
   fn(req, res).catch((err) => {
     if (!(err instanceof ApiError)) return next(err);
     const title = err.status === 410 ? 'This link has expired' : err.status === 400 ? 'This link cannot be used' : 'Not possible';
-    res.status(err.status).type('html').send(page(title, `<p data-code="${esc(err.code)}">${esc(err.message)}</p>`));
+    res
+      .status(err.status)
+      .type('html')
+      .send(page(title, `<p data-code="${esc(err.code)}">${esc(err.message)}</p>`));
   });
 
 const tokenOf = (req: Request) => (req.query.t ?? (req.body as Record<string, unknown> | undefined)?.t) as unknown;
@@ -39,7 +42,12 @@ export function mailLinkRoutes(config: Config) {
 
   async function loadAckable(req: Request) {
     const { claims, actor, token } = await claimsOf(req, 'acknowledge');
-    const outage = await Outage.findByPk(claims.outageId, { include: [{ model: Node, as: 'node', required: true }, { model: User, as: 'acknowledger', required: false }] });
+    const outage = await Outage.findByPk(claims.outageId, {
+      include: [
+        { model: Node, as: 'node', required: true },
+        { model: User, as: 'acknowledger', required: false },
+      ],
+    });
     if (!outage) throw new ApiError(404, 'not_found', 'This outage is no longer recorded.');
     if (!mayManage(actor, outage.node!.neighbourhoodId)) {
       throw new ApiError(403, 'forbidden', 'You are no longer an operator of this node’s neighbourhood, so you cannot acknowledge its outage.');
@@ -48,56 +56,93 @@ export function mailLinkRoutes(config: Config) {
   }
 
   const ackState = (o: Outage) =>
-    o.acknowledgedAt ? `<p>Already acknowledged${o.acknowledger ? ` by ${esc(o.acknowledger.name)}` : ''} at ${esc(o.acknowledgedAt.toISOString())}. No more reminders will be sent.</p>` : '';
+    o.acknowledgedAt
+      ? `<p>Already acknowledged${o.acknowledger ? ` by ${esc(o.acknowledger.name)}` : ''} at ${esc(o.acknowledgedAt.toISOString())}. No more reminders will be sent.</p>`
+      : '';
 
-  router.get('/acknowledge', html(async (req, res) => {
-    const { outage, token } = await loadAckable(req);
-    const name = esc(outage.node!.name);
-    const body = outage.acknowledgedAt
-      ? ackState(outage)
-      : outage.endedAt
-        ? `<p>${name} is back online; this outage is over and needs no acknowledgement.</p>`
-        : `<p>Acknowledge the outage of <strong>${name}</strong> (since ${esc(outage.startedAt.toISOString())})? This tells the other operators someone is on it and stops the reminders.</p>` +
-          confirmForm('acknowledge', token, 'Acknowledge outage');
-    res.type('html').send(page(`Outage of ${outage.node!.name}`, body));
-  }));
+  router.get(
+    '/acknowledge',
+    html(async (req, res) => {
+      const { outage, token } = await loadAckable(req);
+      const name = esc(outage.node!.name);
+      const body = outage.acknowledgedAt
+        ? ackState(outage)
+        : outage.endedAt
+          ? `<p>${name} is back online; this outage is over and needs no acknowledgement.</p>`
+          : `<p>Acknowledge the outage of <strong>${name}</strong> (since ${esc(outage.startedAt.toISOString())})? This tells the other operators someone is on it and stops the reminders.</p>` +
+            confirmForm('acknowledge', token, 'Acknowledge outage');
+      res.type('html').send(page(`Outage of ${outage.node!.name}`, body));
+    }),
+  );
 
-  router.post('/acknowledge', html(async (req, res) => {
-    const { outage, actor } = await loadAckable(req);
-    if (!outage.acknowledgedAt) await outage.update({ acknowledgedAt: config.now(), acknowledgedBy: actor.id });
-    await outage.reload({ include: [{ model: Node, as: 'node' }, { model: User, as: 'acknowledger', required: false }] });
-    res.type('html').send(page(`Outage of ${outage.node!.name}`, ackState(outage)));
-  }));
+  router.post(
+    '/acknowledge',
+    html(async (req, res) => {
+      const { outage, actor } = await loadAckable(req);
+      if (!outage.acknowledgedAt) await outage.update({ acknowledgedAt: config.now(), acknowledgedBy: actor.id });
+      await outage.reload({
+        include: [
+          { model: Node, as: 'node' },
+          { model: User, as: 'acknowledger', required: false },
+        ],
+      });
+      res.type('html').send(page(`Outage of ${outage.node!.name}`, ackState(outage)));
+    }),
+  );
 
-  router.get('/unsubscribe', html(async (req, res) => {
-    const { actor, token } = await claimsOf(req, 'unsubscribe');
-    res.type('html').send(page('Unsubscribe', `<p>Stop all Parapet mail to ${esc(actor.email)}? You can choose mail again later in your preferences.</p>${confirmForm('unsubscribe', token, 'Unsubscribe')}`));
-  }));
+  router.get(
+    '/unsubscribe',
+    html(async (req, res) => {
+      const { actor, token } = await claimsOf(req, 'unsubscribe');
+      res
+        .type('html')
+        .send(
+          page(
+            'Unsubscribe',
+            `<p>Stop all Parapet mail to ${esc(actor.email)}? You can choose mail again later in your preferences.</p>${confirmForm('unsubscribe', token, 'Unsubscribe')}`,
+          ),
+        );
+    }),
+  );
 
   // RFC 8058 one-click: the mail client POSTs "List-Unsubscribe=One-Click" to the header's URL.
-  router.post('/unsubscribe', html(async (req, res) => {
-    const { actor } = await claimsOf(req, 'unsubscribe');
-    await unsubscribeAll(actor.id, config.now());
-    res.type('html').send(page('Unsubscribed', `<p>Parapet will send no more mail to ${esc(actor.email)}.</p>`));
-  }));
+  router.post(
+    '/unsubscribe',
+    html(async (req, res) => {
+      const { actor } = await claimsOf(req, 'unsubscribe');
+      await unsubscribeAll(actor.id, config.now());
+      res.type('html').send(page('Unsubscribed', `<p>Parapet will send no more mail to ${esc(actor.email)}.</p>`));
+    }),
+  );
 
-  router.get('/preferences', html(async (req, res) => {
-    const { actor, token } = await claimsOf(req, 'preferences');
-    res.type('html').send(page('Your mail from Parapet', confirmForm('preferences', token, 'Save', preferenceFields(await preferencesOf(actor)))));
-  }));
+  router.get(
+    '/preferences',
+    html(async (req, res) => {
+      const { actor, token } = await claimsOf(req, 'preferences');
+      res.type('html').send(page('Your mail from Parapet', confirmForm('preferences', token, 'Save', preferenceFields(await preferencesOf(actor)))));
+    }),
+  );
 
-  router.post('/preferences', html(async (req, res) => {
-    const { actor, token } = await claimsOf(req, 'preferences');
-    const current = await preferencesOf(actor);
-    const parsed = preferencesUpdateSchema.safeParse(fromForm(req.body as Record<string, string>, current));
-    if (!parsed.success) {
-      const problems = issuesToDetails(parsed.error).map((d) => `<li>${esc(d.message)}</li>`).join('');
-      res.status(400).type('html').send(page('Please check your choices', `<ul>${problems}</ul>${confirmForm('preferences', token, 'Save', preferenceFields(current))}`));
-      return;
-    }
-    const saved = await updatePreferences(actor, parsed.data);
-    res.type('html').send(page('Your mail from Parapet', `<p>Saved.</p>${confirmForm('preferences', token, 'Save', preferenceFields(saved))}`));
-  }));
+  router.post(
+    '/preferences',
+    html(async (req, res) => {
+      const { actor, token } = await claimsOf(req, 'preferences');
+      const current = await preferencesOf(actor);
+      const parsed = preferencesUpdateSchema.safeParse(fromForm(req.body as Record<string, string>, current));
+      if (!parsed.success) {
+        const problems = issuesToDetails(parsed.error)
+          .map((d) => `<li>${esc(d.message)}</li>`)
+          .join('');
+        res
+          .status(400)
+          .type('html')
+          .send(page('Please check your choices', `<ul>${problems}</ul>${confirmForm('preferences', token, 'Save', preferenceFields(current))}`));
+        return;
+      }
+      const saved = await updatePreferences(actor, parsed.data);
+      res.type('html').send(page('Your mail from Parapet', `<p>Saved.</p>${confirmForm('preferences', token, 'Save', preferenceFields(saved))}`));
+    }),
+  );
 
   return router;
 }
@@ -108,7 +153,9 @@ function fromForm(body: Record<string, string>, p: PreferencesDto) {
   return {
     ...(p.applies.operator ? { operatorMode: body.operatorMode, degradedDigest: body.degradedDigest === 'on' } : {}),
     ...(p.applies.host ? { hostMail: body.hostMail === 'on', quietStart: quiet(body.quietStart), quietEnd: quiet(body.quietEnd) } : {}),
-    ...(p.applies.admin ? { adminNodeMail: body.adminNodeMail === 'on', adminSelfCheck: body.adminSelfCheck === 'on', upstreamNotices: body.upstreamNotices === 'on' } : {}),
+    ...(p.applies.admin
+      ? { adminNodeMail: body.adminNodeMail === 'on', adminSelfCheck: body.adminSelfCheck === 'on', upstreamNotices: body.upstreamNotices === 'on' }
+      : {}),
   };
 }
 
@@ -116,13 +163,19 @@ function preferenceFields(p: PreferencesDto): string {
   const parts: string[] = [];
   if (p.unsubscribedAt) parts.push('<p>You unsubscribed from all Parapet mail. Choosing any mail below turns it back on.</p>');
   if (p.applies.operator) {
-    parts.push(`<fieldset><legend>Outage mail for your neighbourhoods</legend>${radio('operatorMode', 'immediate', 'Right away', p.operatorMode === 'immediate')}${radio('operatorMode', 'hourly', 'One digest an hour', p.operatorMode === 'hourly')}${radio('operatorMode', 'off', 'None', p.operatorMode === 'off')}${checkbox('degradedDigest', 'Daily digest of nodes degraded for hours', p.degradedDigest)}</fieldset>`);
+    parts.push(
+      `<fieldset><legend>Outage mail for your neighbourhoods</legend>${radio('operatorMode', 'immediate', 'Right away', p.operatorMode === 'immediate')}${radio('operatorMode', 'hourly', 'One digest an hour', p.operatorMode === 'hourly')}${radio('operatorMode', 'off', 'None', p.operatorMode === 'off')}${checkbox('degradedDigest', 'Daily digest of nodes degraded for hours', p.degradedDigest)}</fieldset>`,
+    );
   }
   if (p.applies.host) {
-    parts.push(`<fieldset><legend>The node on your roof</legend>${checkbox('hostMail', 'Tell me when it stops answering and when it is back', p.hostMail)}<p>Quiet hours (${esc(p.timeZone)}): mail waits until they end.</p>${timeInput('quietStart', 'From', p.quietStart)}${timeInput('quietEnd', 'Until', p.quietEnd)}</fieldset>`);
+    parts.push(
+      `<fieldset><legend>The node on your roof</legend>${checkbox('hostMail', 'Tell me when it stops answering and when it is back', p.hostMail)}<p>Quiet hours (${esc(p.timeZone)}): mail waits until they end.</p>${timeInput('quietStart', 'From', p.quietStart)}${timeInput('quietEnd', 'Until', p.quietEnd)}</fieldset>`,
+    );
   }
   if (p.applies.admin) {
-    parts.push(`<fieldset><legend>Admin mail</legend>${checkbox('adminNodeMail', 'Outage mail for every node', p.adminNodeMail)}${checkbox('adminSelfCheck', 'When Parapet finds it had stopped watching', p.adminSelfCheck)}${checkbox('upstreamNotices', 'Upstream notices', p.upstreamNotices)}</fieldset>`);
+    parts.push(
+      `<fieldset><legend>Admin mail</legend>${checkbox('adminNodeMail', 'Outage mail for every node', p.adminNodeMail)}${checkbox('adminSelfCheck', 'When Parapet finds it had stopped watching', p.adminSelfCheck)}${checkbox('upstreamNotices', 'Upstream notices', p.upstreamNotices)}</fieldset>`,
+    );
   }
   if (!parts.length) parts.push('<p>Parapet has no mail for you in your current role.</p>');
   return parts.join('');

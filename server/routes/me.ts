@@ -48,7 +48,9 @@ export function meRoutes(sequelize: Sequelize, config: Config) {
       ]);
     }
     if (currentPassword === newPassword) {
-      throw Invalid('The new password is the same as the current one. Choose a different one.', [{ path: 'newPassword', message: 'newPassword must differ from the current password' }]);
+      throw Invalid('The new password is the same as the current one. Choose a different one.', [
+        { path: 'newPassword', message: 'newPassword must differ from the current password' },
+      ]);
     }
     assertPasswordFor(config, user, newPassword, 'newPassword');
     await changeOwnPassword(sequelize, user, newPassword, req.sessionID);

@@ -42,7 +42,10 @@ export function nodeRoutes() {
     // A node belongs to its site's neighbourhood unless told otherwise.
     const neighbourhoodId: number = body.neighbourhoodId ?? site.neighbourhoodId;
     if (body.neighbourhoodId !== undefined) await readableNeighbourhood(actor, neighbourhoodId);
-    authorize(mayManage(actor, neighbourhoodId) && mayManage(actor, site.neighbourhoodId), 'Only admins and the operators of that neighbourhood add nodes to it.');
+    authorize(
+      mayManage(actor, neighbourhoodId) && mayManage(actor, site.neighbourhoodId),
+      'Only admins and the operators of that neighbourhood add nodes to it.',
+    );
     // The form always sends the box; only ticking it is an admin's call.
     if (body.isUplink) authorize(isAdmin(actor), 'Only admins mark which nodes carry the uplink.');
     const node = await uniquely(() => Node.create({ ...body, neighbourhoodId, stateSince: null }), duplicateName(body.name));

@@ -47,7 +47,11 @@ export function outageRoutes(config: Config, sequelize: Sequelize) {
       include: include(actor, nodeWhere),
     });
     const now = config.now();
-    const blast = await blastRadii(sequelize, rows.map((o) => o.id), actor);
+    const blast = await blastRadii(
+      sequelize,
+      rows.map((o) => o.id),
+      actor,
+    );
     res.json({ data: rows.map((o) => presentOutage(o, actor, now, blast.get(o.id))), pagination, abilities: { create: false } });
   });
 
@@ -62,7 +66,10 @@ export function outageRoutes(config: Config, sequelize: Sequelize) {
     const actor = actorOf(req);
     const outage = await readableOutage(actor, res.locals.params.id);
     const node = outage.node!;
-    authorize(mayManage(actor, node.neighbourhoodId) || isHostOfNode(actor, node), 'Only the host of this node’s site and its operators record steps taken during this outage.');
+    authorize(
+      mayManage(actor, node.neighbourhoodId) || isHostOfNode(actor, node),
+      'Only the host of this node’s site and its operators record steps taken during this outage.',
+    );
     const hostUserId = (await Site.findByPk(node.siteId, { attributes: ['hostUserId'] }))?.hostUserId ?? null;
     const entry = await recordHostStep(sequelize, outage, actor, res.locals.body, hostUserId, config.now());
     res.status(201).json({ data: entry });

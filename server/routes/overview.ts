@@ -11,7 +11,7 @@ import { isAdmin } from '../policies/actor';
 import { airView, maskMove, radioMoves } from '../services/airObservations';
 import { linksWithPrediction } from '../services/topologyGraph';
 
-const sequelizeJsonNotEmpty = () => literal("jsonb_array_length(coalesce(\"Node\".\"drift\", '[]'::jsonb)) > 0");
+const sequelizeJsonNotEmpty = () => literal('jsonb_array_length(coalesce("Node"."drift", \'[]\'::jsonb)) > 0');
 
 /** The five live links with the least predicted fade margin among the nodes the caller may read. */
 async function weakest(actor: Parameters<typeof nodeScope>[0]) {
@@ -23,8 +23,14 @@ async function weakest(actor: Parameters<typeof nodeScope>[0]) {
     .sort((a, b) => a.fadeMarginDb! - b.fadeMarginDb! || a.id - b.id)
     .slice(0, 5)
     .map((l) => ({
-      id: l.id, nodeAId: l.nodeAId, nodeAName: names.get(l.nodeAId)!, nodeBId: l.nodeBId, nodeBName: names.get(l.nodeBId)!,
-      fadeMarginDb: l.fadeMarginDb, predictedSignalDbm: l.predictedSignalDbm, measuredSignalDbm: l.measuredSignalDbm,
+      id: l.id,
+      nodeAId: l.nodeAId,
+      nodeAName: names.get(l.nodeAId)!,
+      nodeBId: l.nodeBId,
+      nodeBName: names.get(l.nodeBId)!,
+      fadeMarginDb: l.fadeMarginDb,
+      predictedSignalDbm: l.predictedSignalDbm,
+      measuredSignalDbm: l.measuredSignalDbm,
     }));
 }
 
@@ -42,7 +48,16 @@ async function airFindings(config: Config, actor: Parameters<typeof nodeScope>[0
   ]);
   const silentLinks = links
     .filter((l) => air.byLink.get(l.id)?.plannedButSilent)
-    .map((l) => ({ id: l.id, name: l.name, status: l.status, nodeAId: l.nodeAId, nodeAName: names.get(l.nodeAId)!, nodeBId: l.nodeBId, nodeBName: names.get(l.nodeBId)!, lastObservedAt: air.byLink.get(l.id)!.lastObservedAt }));
+    .map((l) => ({
+      id: l.id,
+      name: l.name,
+      status: l.status,
+      nodeAId: l.nodeAId,
+      nodeAName: names.get(l.nodeAId)!,
+      nodeBId: l.nodeBId,
+      nodeBName: names.get(l.nodeBId)!,
+      lastObservedAt: air.byLink.get(l.id)!.lastObservedAt,
+    }));
   return { silentLinks, discoveredLinkCount: air.discoveredLinks.length, radioMoves: moves.map((m) => maskMove(m, ids)) };
 }
 
@@ -57,13 +72,31 @@ export function overviewRoutes(config: Config) {
       >,
       Site.count({ where: siteScope(actor) }),
       Neighbourhood.count({ where: neighbourhoodScope(actor) }),
-      Outage.findAll({ where: { endedAt: null }, include: [{ model: Node, as: 'node', required: true, where: nodeScope(actor) }], order: [['blastNodeCount', 'DESC'], ['blastClients', 'DESC'], ['startedAt', 'DESC']], limit: 20 }),
+      Outage.findAll({
+        where: { endedAt: null },
+        include: [{ model: Node, as: 'node', required: true, where: nodeScope(actor) }],
+        order: [
+          ['blastNodeCount', 'DESC'],
+          ['blastClients', 'DESC'],
+          ['startedAt', 'DESC'],
+        ],
+        limit: 20,
+      }),
       Node.findAll({ where: { [Op.and]: [nodeScope(actor), { drift: { [Op.ne]: null } }, sequelizeJsonNotEmpty()] }, order: [['name', 'ASC']], limit: 20 }),
     ]);
     const countsByState = Object.fromEntries(NODE_STATES.map((s) => [s, 0])) as Record<NodeState, number>;
     for (const row of byState) countsByState[row.state] = Number(row.n);
     const nodeCount = Object.values(countsByState).reduce((a, b) => a + b, 0);
-    const openOutages = open.map((o) => ({ id: o.id, nodeId: o.nodeId, nodeName: o.node!.name, neighbourhoodId: o.node!.neighbourhoodId, startedAt: o.startedAt.toISOString(), acknowledged: Boolean(o.acknowledgedAt), blastNodeCount: o.blastNodeCount, blastClients: o.blastClients }));
+    const openOutages = open.map((o) => ({
+      id: o.id,
+      nodeId: o.nodeId,
+      nodeName: o.node!.name,
+      neighbourhoodId: o.node!.neighbourhoodId,
+      startedAt: o.startedAt.toISOString(),
+      acknowledged: Boolean(o.acknowledgedAt),
+      blastNodeCount: o.blastNodeCount,
+      blastClients: o.blastClients,
+    }));
     const driftNodes = drifting.map((n) => ({ id: n.id, name: n.name, drift: n.drift ?? [] }));
     const weakestLinks = actor.role === 'host' ? [] : await weakest(actor);
     const air = actor.role === 'host' ? { silentLinks: [], discoveredLinkCount: 0, radioMoves: [] } : await airFindings(config, actor);

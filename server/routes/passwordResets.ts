@@ -18,7 +18,9 @@ export function passwordResetRoutes(config: Config, sequelize: Sequelize) {
     const left = config.passwordResetMinMs - (performance.now() - started);
     if (left > 0) await new Promise((resolve) => setTimeout(resolve, left));
     res.status(202).json({
-      data: { message: `If that address belongs to an active Parapet account, a link to choose a new password is on its way. It works once, within ${minutes} minutes.` },
+      data: {
+        message: `If that address belongs to an active Parapet account, a link to choose a new password is on its way. It works once, within ${minutes} minutes.`,
+      },
     });
   });
 

@@ -27,7 +27,13 @@ export function sitePhotoRoutes(sequelize: Sequelize, settings: Config) {
   router.get('/', validate('params', idParamsSchema), async (req, res) => {
     const actor = actorOf(req);
     const site = await readableSite(actor, res.locals.params.id);
-    const photos = await Photo.findAll({ where: { siteId: site.id }, order: [['createdAt', 'DESC'], ['id', 'DESC']] });
+    const photos = await Photo.findAll({
+      where: { siteId: site.id },
+      order: [
+        ['createdAt', 'DESC'],
+        ['id', 'DESC'],
+      ],
+    });
     res.json({ data: photos.map((p) => presentPhoto(p, photoAbilities(actor, site))), abilities: { create: mayAddPhoto(actor, site) } });
   });
 
@@ -35,7 +41,9 @@ export function sitePhotoRoutes(sequelize: Sequelize, settings: Config) {
     const actor = actorOf(req);
     const site = await readableSite(actor, res.locals.params.id);
     authorize(mayAddPhoto(actor, site), 'Only admins, the operators of its neighbourhood and its host add photos to this site.');
-    await new Promise<void>((resolve, reject) => singleUpload('photo', settings.photoMaxBytes, 'photo')(req, res, (err?: unknown) => (err ? reject(err) : resolve())));
+    await new Promise<void>((resolve, reject) =>
+      singleUpload('photo', settings.photoMaxBytes, 'photo')(req, res, (err?: unknown) => (err ? reject(err) : resolve())),
+    );
     const file = requireFile(req, 'photo', 'photo');
     const { caption } = parseOrThrow(photoCaptionSchema, { caption: req.body?.caption || undefined }, 'photo form');
     const prepared = await preparePhoto(file.buffer);
@@ -44,8 +52,15 @@ export function sitePhotoRoutes(sequelize: Sequelize, settings: Config) {
     await store.write(key, prepared.original, prepared.thumbnail);
     try {
       const photo = await Photo.create({
-        siteId: site.id, storageKey: key, contentType: prepared.contentType, sizeBytes: prepared.original.length,
-        widthPx: prepared.widthPx, heightPx: prepared.heightPx, hasThumbnail: true, caption: caption ?? null, uploadedBy: actor.id,
+        siteId: site.id,
+        storageKey: key,
+        contentType: prepared.contentType,
+        sizeBytes: prepared.original.length,
+        widthPx: prepared.widthPx,
+        heightPx: prepared.heightPx,
+        hasThumbnail: true,
+        caption: caption ?? null,
+        uploadedBy: actor.id,
       });
       res.status(201).json({ data: presentPhoto(photo, photoAbilities(actor, site)) });
     } catch (err) {
@@ -81,7 +96,13 @@ export function photoRoutes(sequelize: Sequelize, settings: Config) {
     const headers = { 'Content-Type': type, 'Cache-Control': 'private, max-age=3600', 'Content-Disposition': `inline; filename="${name}"` };
     res.sendFile(path.basename(file), { root: store.dir, headers, dotfiles: 'deny' }, (err?: Error & { code?: string }) => {
       if (!err || err.code === 'ECONNABORTED' || res.headersSent) return; // sent, or the client went away mid-file
-      next(new ApiError(404, 'photo_file_missing', 'The file of this photo is missing on the server. Ask an admin to restore it from a backup, or remove the photo and upload it again.'));
+      next(
+        new ApiError(
+          404,
+          'photo_file_missing',
+          'The file of this photo is missing on the server. Ask an admin to restore it from a backup, or remove the photo and upload it again.',
+        ),
+      );
     });
   };
 

@@ -22,7 +22,9 @@ async function resolve(actor: Actor, spec: PlannedLinkEnd, side: 'a' | 'b'): Pro
   const node = await readableNode(actor, spec.nodeId);
   authorize(mayManage(actor, node.neighbourhoodId), MANAGE);
   if (spec.band === '2.4' ? spec.channel > 14 : spec.channel < 32) {
-    throw Invalid('The channel does not fit the band.', [{ path: `${side}.channel`, message: `${side}.channel must be 1–14 on 2.4 GHz or 32 and above on 5 GHz` }]);
+    throw Invalid('The channel does not fit the band.', [
+      { path: `${side}.channel`, message: `${side}.channel must be 1–14 on 2.4 GHz or 32 and above on 5 GHz` },
+    ]);
   }
   return { radio: null, nodeId: node.id, neighbourhoodId: node.neighbourhoodId, spec };
 }
@@ -35,7 +37,8 @@ export function plannedLinkRoutes(sequelize: Sequelize) {
     authorize(mayPlan(actor), 'Planning is for operators and admins.');
     const body = res.locals.body as PlannedLinkBody;
     const [a, b] = [await resolve(actor, body.a, 'a'), await resolve(actor, body.b, 'b')];
-    if (a.nodeId === b.nodeId) throw Invalid('Both ends are on the same node; a link joins two different nodes.', [{ path: 'b', message: 'b must be on another node than a' }]);
+    if (a.nodeId === b.nodeId)
+      throw Invalid('Both ends are on the same node; a link joins two different nodes.', [{ path: 'b', message: 'b must be on another node than a' }]);
     const link = await savePlannedLink(sequelize, actor, a, b, body.name);
     const manage = mayManage(actor, a.neighbourhoodId) || mayManage(actor, b.neighbourhoodId);
     res.status(201).json({ data: presentLink(link, { update: manage, delete: manage }) });

@@ -28,7 +28,10 @@ export function planningRoutes(sequelize: Sequelize) {
     const { region, band, channelWidthMHz } = res.locals.query;
     const all = listChannels(region, band);
     if (channelWidthMHz === undefined) return void res.json(all);
-    if (band === '2.4' && channelWidthMHz === 80) throw Invalid('2.4 GHz has no 80 MHz channels; ask for 20 or 40.', [{ path: 'channelWidthMHz', message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' }]);
+    if (band === '2.4' && channelWidthMHz === 80)
+      throw Invalid('2.4 GHz has no 80 MHz channels; ask for 20 or 40.', [
+        { path: 'channelWidthMHz', message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' },
+      ]);
     const ok = new Set(validChannels(band, channelWidthMHz, region));
     res.json({ channels: all.channels.filter((c) => ok.has(c.channel)) });
   });

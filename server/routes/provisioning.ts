@@ -35,17 +35,45 @@ export function provisioningRoutes(sequelize: Sequelize) {
     res.set('Cache-Control', 'no-store');
     res.json({
       data: {
-        node: { id: node.id, name: node.name, hardware: node.hardware ?? null, firmware: node.firmware ?? null, managementAddress: node.managementAddress ?? null, reportIntervalS: node.reportIntervalS },
+        node: {
+          id: node.id,
+          name: node.name,
+          hardware: node.hardware ?? null,
+          firmware: node.firmware ?? null,
+          managementAddress: node.managementAddress ?? null,
+          reportIntervalS: node.reportIntervalS,
+        },
         site: { id: site.id, name: site.name, latitude: site.latitude, longitude: site.longitude, antennaHeightM: site.antennaHeightM },
         region: settings.region,
         timeZone: settings.timeZone,
-        addresses: plan && subnet
-          ? { cidr: plan.cidr, netmask: subnet.netmask, gateway: plan.gateway, broadcast: subnet.broadcast, dhcpStart: plan.dhcpStart, dhcpEnd: plan.dhcpEnd, staticAddresses: plan.staticAddresses }
-          : null,
+        addresses:
+          plan && subnet
+            ? {
+                cidr: plan.cidr,
+                netmask: subnet.netmask,
+                gateway: plan.gateway,
+                broadcast: subnet.broadcast,
+                dhcpStart: plan.dhcpStart,
+                dhcpEnd: plan.dhcpEnd,
+                staticAddresses: plan.staticAddresses,
+              }
+            : null,
         radios: radios.map((r) => ({
-          id: r.id, iface: r.iface, role: r.role, band: r.band, channel: r.channel, centerMHz: safeCenter(r.band, r.channel), channelWidthMHz: r.channelWidthMHz,
-          txPowerDbm: r.txPowerDbm, antennaGainDbi: r.antennaGainDbi, cableLossDb: r.cableLossDb, eirpDbm: Math.round(eirpDbm(r.txPowerDbm, r.antennaGainDbi, r.cableLossDb) * 100) / 100,
-          polarisation: r.polarisation, ssid: r.ssid ?? null, encryption: r.encryption, groupRekeyS: r.groupRekeyS,
+          id: r.id,
+          iface: r.iface,
+          role: r.role,
+          band: r.band,
+          channel: r.channel,
+          centerMHz: safeCenter(r.band, r.channel),
+          channelWidthMHz: r.channelWidthMHz,
+          txPowerDbm: r.txPowerDbm,
+          antennaGainDbi: r.antennaGainDbi,
+          cableLossDb: r.cableLossDb,
+          eirpDbm: Math.round(eirpDbm(r.txPowerDbm, r.antennaGainDbi, r.cableLossDb) * 100) / 100,
+          polarisation: r.polarisation,
+          ssid: r.ssid ?? null,
+          encryption: r.encryption,
+          groupRekeyS: r.groupRekeyS,
           hasPreSharedKey: Boolean(r.preSharedKey),
           ...(mayReadKeys ? { preSharedKey: r.preSharedKey ?? null } : {}),
         })),

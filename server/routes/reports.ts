@@ -24,12 +24,22 @@ export function reportRoutes(config: Config, sequelize: Sequelize) {
     }
     const csv =
       q.table === 'outages'
-        ? toSafeCsv(['id', 'node', 'neighbourhood', 'startedAt', 'endedAt', 'acknowledgedAt', 'timeToAcknowledgeS', 'timeToRecoverS', 'downInMonthS'], report.outages)
-        : toSafeCsv(['level', 'neighbourhood', 'node', 'availabilityPct', 'observedS', 'downS', 'outageCount'], [
-            ...report.neighbourhoods.map((h) => ({ level: 'neighbourhood', neighbourhood: h.name, node: '', ...h })),
-            ...report.nodes.map((n) => ({ level: 'node', node: n.name, ...n })),
-          ]);
-    res.set({ 'Content-Type': 'text/csv; charset=utf-8', 'Content-Disposition': `attachment; filename="parapet-${q.table}-${q.month}.csv"`, 'Cache-Control': 'no-store' });
+        ? toSafeCsv(
+            ['id', 'node', 'neighbourhood', 'startedAt', 'endedAt', 'acknowledgedAt', 'timeToAcknowledgeS', 'timeToRecoverS', 'downInMonthS'],
+            report.outages,
+          )
+        : toSafeCsv(
+            ['level', 'neighbourhood', 'node', 'availabilityPct', 'observedS', 'downS', 'outageCount'],
+            [
+              ...report.neighbourhoods.map((h) => ({ level: 'neighbourhood', neighbourhood: h.name, node: '', ...h })),
+              ...report.nodes.map((n) => ({ level: 'node', node: n.name, ...n })),
+            ],
+          );
+    res.set({
+      'Content-Type': 'text/csv; charset=utf-8',
+      'Content-Disposition': `attachment; filename="parapet-${q.table}-${q.month}.csv"`,
+      'Cache-Control': 'no-store',
+    });
     res.send(`\uFEFF${csv}\r\n`);
   });
 

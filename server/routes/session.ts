@@ -12,7 +12,10 @@ import { parseOrThrow } from '../middlewares/validate';
 import type { Actor } from '../policies/actor';
 import { presentSessionUser } from '../presenters/user';
 
-const emailOf = (req: Request) => String((req.body as { email?: unknown })?.email ?? '').trim().toLowerCase();
+const emailOf = (req: Request) =>
+  String((req.body as { email?: unknown })?.email ?? '')
+    .trim()
+    .toLowerCase();
 
 function signInLimiter(windowMs: number, limit: number, key: (req: Request) => string, skip?: (req: Request) => boolean) {
   return rateLimit({
@@ -33,8 +36,11 @@ export function sessionRoutes(config: Config, pp: typeof passport) {
   // a browser that signed in to that account before does not feel, so its owner is never locked out.
   const perAddress = signInLimiter(config.signInLimitWindowMs, config.signInLimitPerAddress, (req) => `addr:${req.ip}`);
   const perAccountAddress = signInLimiter(config.signInLimitWindowMs, config.signInLimitPerAccountAddress, (req) => `pair:${emailOf(req)}|${req.ip}`);
-  const perAccount = signInLimiter(config.signInAccountWindowMs, config.signInLimitPerAccount, (req) => `acct:${emailOf(req)}`, (req) =>
-    isKnownDevice(req, config, emailOf(req)),
+  const perAccount = signInLimiter(
+    config.signInAccountWindowMs,
+    config.signInLimitPerAccount,
+    (req) => `acct:${emailOf(req)}`,
+    (req) => isKnownDevice(req, config, emailOf(req)),
   );
 
   router.get('/', (req, res) => {

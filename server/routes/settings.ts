@@ -14,9 +14,14 @@ export function settingsRoutes(sequelize: Sequelize) {
   router.get('/network', async (req, res) => {
     res.json({ data: presentNetworkSettings(await networkSettings(), actorOf(req)) });
   });
-  router.patch('/network', requireRole(isAdmin, 'Only admins change the network settings.'), validate('body', networkSettingsUpdateSchema), async (req, res) => {
-    const actor = actorOf(req);
-    res.json({ data: presentNetworkSettings(await updateNetworkSettings(sequelize, actor, res.locals.body), actor) });
-  });
+  router.patch(
+    '/network',
+    requireRole(isAdmin, 'Only admins change the network settings.'),
+    validate('body', networkSettingsUpdateSchema),
+    async (req, res) => {
+      const actor = actorOf(req);
+      res.json({ data: presentNetworkSettings(await updateNetworkSettings(sequelize, actor, res.locals.body), actor) });
+    },
+  );
   return router;
 }

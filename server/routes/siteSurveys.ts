@@ -22,7 +22,8 @@ function receiveFile(req: Request, res: Response, next: NextFunction) {
   upload.single('file')(req, res, (err: unknown) => {
     if (!err) return next();
     if (err instanceof multer.MulterError) {
-      if (err.code === 'LIMIT_FILE_SIZE') return next(new ApiError(413, 'too_large', `The survey is larger than ${SURVEY_MAX_BYTES / 1e6} MB; split it into smaller files.`));
+      if (err.code === 'LIMIT_FILE_SIZE')
+        return next(new ApiError(413, 'too_large', `The survey is larger than ${SURVEY_MAX_BYTES / 1e6} MB; split it into smaller files.`));
       return next(Invalid(`Upload one survey file in the form field "file" (${err.message}).`));
     }
     next(Invalid('The upload could not be read; send it as multipart/form-data with the file in the field "file".'));
@@ -32,7 +33,11 @@ function receiveFile(req: Request, res: Response, next: NextFunction) {
 /** Only the base name is kept, for display; it is never used as a path. */
 export function safeFileName(name: string | undefined): string | null {
   if (!name) return null;
-  const base = path.posix.basename(name.replace(/\\/g, '/')).replace(/[^\w .()-]+/g, '_').replace(/^\.+/, '').slice(0, 200);
+  const base = path.posix
+    .basename(name.replace(/\\/g, '/'))
+    .replace(/[^\w .()-]+/g, '_')
+    .replace(/^\.+/, '')
+    .slice(0, 200);
   return base === '' ? null : base;
 }
 
@@ -57,25 +62,36 @@ export function siteSurveyRoutes(sequelize: Sequelize) {
     res.json({ data: (await surveysOf(sequelize, node.id)).map(presentSiteSurvey) });
   });
 
-  router.post('/', validate('params', idParamsSchema), async (req, res, next) => {
-    const actor = actorOf(req);
-    const node = await readableNode(actor, res.locals.params.id);
-    authorize(mayManage(actor, node.neighbourhoodId), 'Only admins and the operators of its neighbourhood upload surveys for this node.');
-    res.locals.node = node;
-    next();
-  }, receiveFile, async (req, res) => {
-    const actor = actorOf(req);
-    if (!req.file) throw Invalid(`Attach the survey file in the form field "file": ${LAYOUT}.`);
-    const parsed = parseSurveyCsv(asCsvText(req.file.buffer));
-    const rejectedRows = parsed.errors.map((e) => ({ line: e.line, message: e.message }));
-    if (parsed.rows.length === 0) {
-      const details = rejectedRows.map((e) => ({ path: `line.${e.line}`, message: `line ${e.line}: ${e.message}` }));
-      const first = details[0]?.message ?? 'the file has a header but no rows';
-      throw Invalid(`No row of the survey could be used (${first}). Fix the file and upload it again.`, details);
-    }
-    const saved = await saveSurvey(sequelize, { nodeId: res.locals.node.id, fileName: safeFileName(req.file.originalname), uploadedBy: actor.id, rows: parsed.rows });
-    res.status(201).json({ data: presentSiteSurvey(saved), rejectedRows });
-  });
+  router.post(
+    '/',
+    validate('params', idParamsSchema),
+    async (req, res, next) => {
+      const actor = actorOf(req);
+      const node = await readableNode(actor, res.locals.params.id);
+      authorize(mayManage(actor, node.neighbourhoodId), 'Only admins and the operators of its neighbourhood upload surveys for this node.');
+      res.locals.node = node;
+      next();
+    },
+    receiveFile,
+    async (req, res) => {
+      const actor = actorOf(req);
+      if (!req.file) throw Invalid(`Attach the survey file in the form field "file": ${LAYOUT}.`);
+      const parsed = parseSurveyCsv(asCsvText(req.file.buffer));
+      const rejectedRows = parsed.errors.map((e) => ({ line: e.line, message: e.message }));
+      if (parsed.rows.length === 0) {
+        const details = rejectedRows.map((e) => ({ path: `line.${e.line}`, message: `line ${e.line}: ${e.message}` }));
+        const first = details[0]?.message ?? 'the file has a header but no rows';
+        throw Invalid(`No row of the survey could be used (${first}). Fix the file and upload it again.`, details);
+      }
+      const saved = await saveSurvey(sequelize, {
+        nodeId: res.locals.node.id,
+        fileName: safeFileName(req.file.originalname),
+        uploadedBy: actor.id,
+        rows: parsed.rows,
+      });
+      res.status(201).json({ data: presentSiteSurvey(saved), rejectedRows });
+    },
+  );
 
   return router;
 }

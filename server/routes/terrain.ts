@@ -20,7 +20,8 @@ function receiveTile(req: Request, res: Response, next: NextFunction) {
   upload.single('tile')(req, res, (err: unknown) => {
     if (!err) return next();
     if (err instanceof multer.MulterError) {
-      if (err.code === 'LIMIT_FILE_SIZE') return next(new ApiError(413, 'too_large', 'The tile is larger than a 1″ SRTM tile (25,934,402 bytes); upload one unzipped .hgt file.'));
+      if (err.code === 'LIMIT_FILE_SIZE')
+        return next(new ApiError(413, 'too_large', 'The tile is larger than a 1″ SRTM tile (25,934,402 bytes); upload one unzipped .hgt file.'));
       return next(Invalid(`Upload one elevation tile in the form field "tile" (${err.message}).`));
     }
     next(Invalid('The upload could not be read; send it as multipart/form-data with the .hgt file in the field "tile".'));
@@ -39,16 +40,24 @@ export function terrainRoutes(sequelize: Sequelize) {
     res.json({ data: await listTiles(sequelize), abilities: { upload: isAdmin(actor), delete: isAdmin(actor) } });
   });
 
-  router.post('/tiles', (req, _res, next) => {
-    authorize(isAdmin(actorOf(req)), 'Only admins upload terrain tiles.');
-    next();
-  }, receiveTile, async (req, res) => {
-    if (!req.file) throw Invalid('Attach the tile in the form field "tile": an SRTM .hgt file named like N47W039.hgt.', [{ path: 'tile', message: 'tile is required' }]);
-    const bytes = new Uint8Array(req.file.buffer.buffer, req.file.buffer.byteOffset, req.file.buffer.byteLength);
-    const tile = parseHgt(req.file.originalname, bytes);
-    const saved = await saveTile(sequelize, tile, bytes, actorOf(req).id);
-    res.status(201).json({ data: { name: saved.name, south: saved.south, west: saved.west, samplesPerSide: saved.samplesPerSide, createdAt: saved.createdAt } });
-  });
+  router.post(
+    '/tiles',
+    (req, _res, next) => {
+      authorize(isAdmin(actorOf(req)), 'Only admins upload terrain tiles.');
+      next();
+    },
+    receiveTile,
+    async (req, res) => {
+      if (!req.file)
+        throw Invalid('Attach the tile in the form field "tile": an SRTM .hgt file named like N47W039.hgt.', [{ path: 'tile', message: 'tile is required' }]);
+      const bytes = new Uint8Array(req.file.buffer.buffer, req.file.buffer.byteOffset, req.file.buffer.byteLength);
+      const tile = parseHgt(req.file.originalname, bytes);
+      const saved = await saveTile(sequelize, tile, bytes, actorOf(req).id);
+      res
+        .status(201)
+        .json({ data: { name: saved.name, south: saved.south, west: saved.west, samplesPerSide: saved.samplesPerSide, createdAt: saved.createdAt } });
+    },
+  );
 
   router.delete('/tiles/:name', requireRole(isAdmin, 'Only admins remove terrain tiles.'), validate('params', tileParamsSchema), async (req, res) => {
     const { name } = parseTileName(`${res.locals.params.name}.hgt`);

@@ -53,7 +53,7 @@ export function userRoutes(config: Config) {
     const actor = actorOf(req);
     const user = await findPerson(res.locals.params.id);
     const body = res.locals.body;
-    if (user.id === actor.id && (body.role && body.role !== 'admin' || body.active === false)) {
+    if (user.id === actor.id && ((body.role && body.role !== 'admin') || body.active === false)) {
       throw Invalid('You cannot remove your own admin role or deactivate yourself; ask another admin.');
     }
     await updatePerson(user, body);

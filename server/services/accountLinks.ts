@@ -50,9 +50,25 @@ export async function invite(
     if (user) await user.update({ name: input.name, role: input.role }, { transaction });
     else user = await User.create({ email: input.email, name: input.name, role: input.role, active: false, passwordHash: null }, { transaction });
     if (hostOf) await hostOf.site.update({ hostUserId: user.id }, { transaction });
-    const link = await issueAccountToken(sequelize, config.sessionSecret, { purpose: 'invitation', userId: user.id, now, ttlMs: config.invitationTtlMs }, transaction);
-    const rendered = invitationMail({ name: user.name, invitedBy, role: user.role, url: linkUrl(config, 'invite', link.token), expiresAt: formatLocal(link.expiresAt, await timeZone(transaction)) });
-    await enqueue(sequelize, { kind: 'invitation', userId: user.id, address: user.email, name: user.name, dedupeKey: `invitation:${link.id}`, rendered, unsubscribeUrl: null }, now, transaction);
+    const link = await issueAccountToken(
+      sequelize,
+      config.sessionSecret,
+      { purpose: 'invitation', userId: user.id, now, ttlMs: config.invitationTtlMs },
+      transaction,
+    );
+    const rendered = invitationMail({
+      name: user.name,
+      invitedBy,
+      role: user.role,
+      url: linkUrl(config, 'invite', link.token),
+      expiresAt: formatLocal(link.expiresAt, await timeZone(transaction)),
+    });
+    await enqueue(
+      sequelize,
+      { kind: 'invitation', userId: user.id, address: user.email, name: user.name, dedupeKey: `invitation:${link.id}`, rendered, unsubscribeUrl: null },
+      now,
+      transaction,
+    );
     return { user, expiresAt: link.expiresAt };
   });
 }
@@ -79,12 +95,30 @@ export async function requestPasswordReset(sequelize: Sequelize, config: Config,
   await sequelize.transaction(async (transaction) => {
     const user = await User.findOne({ where: { email, active: true }, transaction });
     if (!user || user.erasedAt) {
-      passwordResetMail({ name: email, url: linkUrl(config, 'reset', randomBytes(48).toString('base64url')), expiresAt: formatLocal(new Date(now.getTime() + config.passwordResetTtlMs), await timeZone(transaction)) });
+      passwordResetMail({
+        name: email,
+        url: linkUrl(config, 'reset', randomBytes(48).toString('base64url')),
+        expiresAt: formatLocal(new Date(now.getTime() + config.passwordResetTtlMs), await timeZone(transaction)),
+      });
       return;
     }
-    const link = await issueAccountToken(sequelize, config.sessionSecret, { purpose: 'password-reset', userId: user.id, now, ttlMs: config.passwordResetTtlMs }, transaction);
-    const rendered = passwordResetMail({ name: user.name, url: linkUrl(config, 'reset', link.token), expiresAt: formatLocal(link.expiresAt, await timeZone(transaction)) });
-    await enqueue(sequelize, { kind: 'password-reset', userId: user.id, address: user.email, name: user.name, dedupeKey: `password-reset:${link.id}`, rendered, unsubscribeUrl: null }, now, transaction);
+    const link = await issueAccountToken(
+      sequelize,
+      config.sessionSecret,
+      { purpose: 'password-reset', userId: user.id, now, ttlMs: config.passwordResetTtlMs },
+      transaction,
+    );
+    const rendered = passwordResetMail({
+      name: user.name,
+      url: linkUrl(config, 'reset', link.token),
+      expiresAt: formatLocal(link.expiresAt, await timeZone(transaction)),
+    });
+    await enqueue(
+      sequelize,
+      { kind: 'password-reset', userId: user.id, address: user.email, name: user.name, dedupeKey: `password-reset:${link.id}`, rendered, unsubscribeUrl: null },
+      now,
+      transaction,
+    );
   });
 }
 

@@ -9,12 +9,27 @@ import { mayReadPlan, planScopeSql } from '../policies/addressPlan';
 import { recordChanges } from './changeHistory';
 
 export interface PlanRow {
-  nodeId: number; nodeName: string; neighbourhoodId: number; cidr: string; gateway: string;
-  dhcpStart: string | null; dhcpEnd: string | null; staticAddresses: string[];
+  nodeId: number;
+  nodeName: string;
+  neighbourhoodId: number;
+  cidr: string;
+  gateway: string;
+  dhcpStart: string | null;
+  dhcpEnd: string | null;
+  staticAddresses: string[];
 }
 /** A finding with the nodes it is about, so callers filter by node and code, never by the text. */
-export interface PlanFinding { code: AddressFinding['code'] | 'outside_pool'; label: string; message: string; nodeIds: number[] }
-export interface UnplannedNode { nodeId: number; nodeName: string; neighbourhoodId: number }
+export interface PlanFinding {
+  code: AddressFinding['code'] | 'outside_pool';
+  label: string;
+  message: string;
+  nodeIds: number[];
+}
+export interface UnplannedNode {
+  nodeId: number;
+  nodeName: string;
+  neighbourhoodId: number;
+}
 
 const PLAN_SQL = `SELECT p.node_id AS "nodeId", n.name AS "nodeName", n.neighbourhood_id AS "neighbourhoodId", p.cidr::text AS cidr,
   host(p.gateway) AS gateway, host(p.dhcp_start) AS "dhcpStart", host(p.dhcp_end) AS "dhcpEnd",
@@ -59,10 +74,16 @@ export function findingsFor(actor: Actor, plans: PlanRow[], pool: string | null)
   const hidden = 'a node outside your neighbourhoods';
   // Readable plans first, so an overlap between a readable and a hidden subnet is reported under the readable one.
   const ordered = [...plans].sort((x, y) => Number(mayReadPlan(actor, y)) - Number(mayReadPlan(actor, x)));
-  const checked = checkAddressPlan(ordered.map((p) => ({
-    label: mayReadPlan(actor, p) ? p.nodeName : hidden,
-    cidr: p.cidr, gateway: p.gateway, dhcpStart: p.dhcpStart ?? undefined, dhcpEnd: p.dhcpEnd ?? undefined, staticAddresses: p.staticAddresses,
-  })));
+  const checked = checkAddressPlan(
+    ordered.map((p) => ({
+      label: mayReadPlan(actor, p) ? p.nodeName : hidden,
+      cidr: p.cidr,
+      gateway: p.gateway,
+      dhcpStart: p.dhcpStart ?? undefined,
+      dhcpEnd: p.dhcpEnd ?? undefined,
+      staticAddresses: p.staticAddresses,
+    })),
+  );
   const out: PlanFinding[] = checked
     .filter((f) => mayReadPlan(actor, ordered[f.subnets[0]]))
     .map((f) => ({ code: f.code, label: f.label, message: f.message, nodeIds: f.subnets.map((i) => ordered[i].nodeId) }));
@@ -83,7 +104,7 @@ export function findingsFor(actor: Actor, plans: PlanRow[], pool: string | null)
 export const findingsAbout = (findings: PlanFinding[], nodeId: number) => findings.filter((f) => f.nodeIds.includes(nodeId));
 
 const snapshot = (p: PlanRow | null) =>
-  (p ? { cidr: p.cidr, gateway: p.gateway, dhcpStart: p.dhcpStart, dhcpEnd: p.dhcpEnd, staticAddresses: p.staticAddresses } : null);
+  p ? { cidr: p.cidr, gateway: p.gateway, dhcpStart: p.dhcpStart, dhcpEnd: p.dhcpEnd, staticAddresses: p.staticAddresses } : null;
 
 /** Hands each node the next free block of the pool, all or none, recorded in the change history. */
 export async function allocatePlans(sequelize: Sequelize, actor: Actor, nodeIds: number[], prefixLength: number): Promise<PlanRow[]> {
@@ -99,10 +120,19 @@ export async function allocatePlans(sequelize: Sequelize, actor: Actor, nodeIds:
     }
     const plans = allocateFor(pool, prefixLength, nodeIds, existing);
     for (const p of plans) await sequelize.query(UPSERT, { bind: [p.nodeId, p.cidr, p.gateway, p.dhcpStart, p.dhcpEnd, '{}'], transaction });
-    await recordChanges(sequelize, plans.map((p) => ({
-      tableName: 'node_address_plans', recordId: p.nodeId, action: 'create' as const, changedBy: actor.id, reason: 'allocated from the pool',
-      before: null, after: { ...p, staticAddresses: [] },
-    })), transaction);
+    await recordChanges(
+      sequelize,
+      plans.map((p) => ({
+        tableName: 'node_address_plans',
+        recordId: p.nodeId,
+        action: 'create' as const,
+        changedBy: actor.id,
+        reason: 'allocated from the pool',
+        before: null,
+        after: { ...p, staticAddresses: [] },
+      })),
+      transaction,
+    );
     return plans;
   });
   return (await Promise.all(made.map((p) => loadPlan(sequelize, p.nodeId)))).filter((p): p is PlanRow => p !== null);
@@ -115,9 +145,20 @@ export async function savePlan(sequelize: Sequelize, actor: Actor, nodeId: numbe
     await sequelize.query(LOCK, { transaction });
     const bind = [nodeId, b.cidr, b.gateway, b.dhcpStart ?? null, b.dhcpEnd ?? null, `{${b.staticAddresses.join(',')}}`];
     await sequelize.query(UPSERT, { bind, transaction });
-    await recordChanges(sequelize, [{
-      tableName: 'node_address_plans', recordId: nodeId, action: before ? 'update' : 'create', changedBy: actor.id, before: snapshot(before), after: { ...b },
-    }], transaction);
+    await recordChanges(
+      sequelize,
+      [
+        {
+          tableName: 'node_address_plans',
+          recordId: nodeId,
+          action: before ? 'update' : 'create',
+          changedBy: actor.id,
+          before: snapshot(before),
+          after: { ...b },
+        },
+      ],
+      transaction,
+    );
   });
   const plan = (await loadPlan(sequelize, nodeId))!;
   const findings = findingsAbout(findingsFor(actor, await loadPlans(sequelize), await addressPool()), nodeId);
@@ -130,9 +171,20 @@ export async function deletePlan(sequelize: Sequelize, actor: Actor, nodeId: num
   if (!before) throw NotFound(`The address plan of node ${nodeId}`);
   await sequelize.transaction(async (transaction) => {
     await sequelize.query('DELETE FROM node_address_plans WHERE node_id = $1', { bind: [nodeId], transaction });
-    await recordChanges(sequelize, [{
-      tableName: 'node_address_plans', recordId: nodeId, action: 'delete', changedBy: actor.id, before: snapshot(before), after: null,
-    }], transaction);
+    await recordChanges(
+      sequelize,
+      [
+        {
+          tableName: 'node_address_plans',
+          recordId: nodeId,
+          action: 'delete',
+          changedBy: actor.id,
+          before: snapshot(before),
+          after: null,
+        },
+      ],
+      transaction,
+    );
   });
 }
 
@@ -155,4 +207,3 @@ export function allocateFor(pool: string, prefixLength: number, nodeIds: number[
   const taken = existing.map((p) => p.cidr);
   return allocateSubnets(pool, prefixLength, nodeIds.length, taken).map((c, i) => ({ nodeId: nodeIds[i], ...layoutSubnet(c) }));
 }
-

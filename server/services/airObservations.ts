@@ -44,7 +44,13 @@ const pairKey = (x: number, y: number) => (x < y ? `${x}:${y}` : `${y}:${x}`);
  * the latest report's if that came after `signalSince` (else null). `nodeIds` limits the reporting
  * nodes (null: all).
  */
-export async function pairSightings(sequelize: Sequelize, since: Date, until: Date, signalSince: Date, nodeIds: number[] | null): Promise<Map<string, PairSighting>> {
+export async function pairSightings(
+  sequelize: Sequelize,
+  since: Date,
+  until: Date,
+  signalSince: Date,
+  nodeIds: number[] | null,
+): Promise<Map<string, PairSighting>> {
   const rows = await sequelize.query<{ radioId: number; nodeId: number; peerRadioId: number; peerNodeId: number; signalDbm: number | null; at: Date }>(
     SIGHTINGS_SQL,
     { bind: [since, until, nodeIds, signalSince], type: QueryTypes.SELECT },
@@ -56,7 +62,16 @@ export async function pairSightings(sequelize: Sequelize, since: Date, until: Da
     const known = pairs.get(key);
     if (known && known.lastSeenAt >= at) continue;
     // Lower radio id first, so a pair reads the same whichever end reported last.
-    const [a, b] = r.radioId < r.peerRadioId ? [[r.radioId, r.nodeId], [r.peerRadioId, r.peerNodeId]] : [[r.peerRadioId, r.peerNodeId], [r.radioId, r.nodeId]];
+    const [a, b] =
+      r.radioId < r.peerRadioId
+        ? [
+            [r.radioId, r.nodeId],
+            [r.peerRadioId, r.peerNodeId],
+          ]
+        : [
+            [r.peerRadioId, r.peerNodeId],
+            [r.radioId, r.nodeId],
+          ];
     pairs.set(key, { radioAId: a[0], nodeAId: a[1], radioBId: b[0], nodeBId: b[1], signalDbm: r.signalDbm, lastSeenAt: at });
   }
   return pairs;
@@ -123,11 +138,17 @@ export async function airView(sequelize: Sequelize, now: Date, windows: AirWindo
   const inScope = (id: number) => nodeIds === null || nodeIds.includes(id);
   const discoveredLinks = [...pairs.entries()]
     .filter(([key, p]) => !inventoryPairs.has(key) && p.lastSeenAt.getTime() > observedSince && inScope(p.nodeAId) && inScope(p.nodeBId))
-    .map(([, p]) => ({ nodeAId: p.nodeAId, nodeBId: p.nodeBId, radioAId: p.radioAId, radioBId: p.radioBId, signalDbm: p.signalDbm, lastSeenAt: p.lastSeenAt.toISOString() }))
+    .map(([, p]) => ({
+      nodeAId: p.nodeAId,
+      nodeBId: p.nodeBId,
+      radioAId: p.radioAId,
+      radioBId: p.radioBId,
+      signalDbm: p.signalDbm,
+      lastSeenAt: p.lastSeenAt.toISOString(),
+    }))
     .sort((x, y) => x.radioAId - y.radioAId || x.radioBId - y.radioBId);
   return { byLink, discoveredLinks };
 }
-
 
 /** MACs seen moving between nodes since `since`, touching any of the given nodes (all when null), newest first. */
 export async function radioMoves(sequelize: Sequelize, since: Date, nodeIds: number[] | null, limit = 50): Promise<RadioMove[]> {

@@ -21,8 +21,7 @@ interface CandidateRow extends Recipient {
   adminNodeMail: boolean;
 }
 
-const mailOn = (c: CandidateRow) =>
-  c.audience === 'operator' ? c.operatorMode !== 'off' : c.audience === 'host' ? c.hostMail : c.adminNodeMail;
+const mailOn = (c: CandidateRow) => (c.audience === 'operator' ? c.operatorMode !== 'off' : c.audience === 'host' ? c.hostMail : c.adminNodeMail);
 
 /**
  * Who hears about a node: the operators assigned to its neighbourhood, the host of its site, and
@@ -48,7 +47,15 @@ export async function nodeAudience(sequelize: Sequelize, nodeId: number, transac
   const chosen = new Map<number, Recipient>();
   for (const r of rows) {
     if (chosen.has(r.userId) || !mailOn(r)) continue;
-    chosen.set(r.userId, { userId: r.userId, name: r.name, email: r.email, audience: r.audience, operatorMode: r.operatorMode, quietStart: r.quietStart, quietEnd: r.quietEnd });
+    chosen.set(r.userId, {
+      userId: r.userId,
+      name: r.name,
+      email: r.email,
+      audience: r.audience,
+      operatorMode: r.operatorMode,
+      quietStart: r.quietStart,
+      quietEnd: r.quietEnd,
+    });
   }
   return [...chosen.values()];
 }

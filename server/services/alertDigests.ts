@@ -7,7 +7,8 @@ import { consoleUrl, footerLinks } from './alertAudience';
 import { enqueue } from './outbox';
 
 const networkTimeZone = async (sequelize: Sequelize, transaction: Transaction) =>
-  (await sequelize.query<{ tz: string }>('SELECT time_zone AS tz FROM network_settings WHERE id = 1', { type: QueryTypes.SELECT, transaction }))[0]?.tz ?? 'UTC';
+  (await sequelize.query<{ tz: string }>('SELECT time_zone AS tz FROM network_settings WHERE id = 1', { type: QueryTypes.SELECT, transaction }))[0]?.tz ??
+  'UTC';
 
 /** The local calendar date (YYYY-MM-DD) in the network's time zone (an unknown zone reads as UTC). */
 const localDate = (at: Date, timeZone: string) => zonedDate(at, isTimeZone(timeZone) ? timeZone : 'UTC');
@@ -23,18 +24,44 @@ export async function writeSelfCheck(sequelize: Sequelize, config: Config, gapMs
   let written = 0;
   for (const a of admins) {
     const footer = footerLinks(config, a.id, now);
-    const rendered = selfCheck({ recipientName: a.name, gapS: Number.isFinite(gapMs) ? gapMs / 1000 : null, resumedAt: now, timeZone, consoleUrl: consoleUrl(config) }, footer);
-    if (await enqueue(sequelize, { kind: 'self-check', userId: a.id, address: a.email, name: a.name, dedupeKey: `self-check:${now.toISOString()}:${a.id}`, rendered, unsubscribeUrl: footer.unsubscribeUrl }, now, transaction)) written++;
+    const rendered = selfCheck(
+      { recipientName: a.name, gapS: Number.isFinite(gapMs) ? gapMs / 1000 : null, resumedAt: now, timeZone, consoleUrl: consoleUrl(config) },
+      footer,
+    );
+    if (
+      await enqueue(
+        sequelize,
+        {
+          kind: 'self-check',
+          userId: a.id,
+          address: a.email,
+          name: a.name,
+          dedupeKey: `self-check:${now.toISOString()}:${a.id}`,
+          rendered,
+          unsubscribeUrl: footer.unsubscribeUrl,
+        },
+        now,
+        transaction,
+      )
+    )
+      written++;
   }
   return written;
 }
 
 async function mark(sequelize: Sequelize, name: string, transaction: Transaction, at?: Date) {
   if (at) {
-    await sequelize.query(`INSERT INTO job_state (name, marked_at) VALUES ($1, $2) ON CONFLICT (name) DO UPDATE SET marked_at = $2`, { bind: [name, at], transaction });
+    await sequelize.query(`INSERT INTO job_state (name, marked_at) VALUES ($1, $2) ON CONFLICT (name) DO UPDATE SET marked_at = $2`, {
+      bind: [name, at],
+      transaction,
+    });
     return null;
   }
-  const [row] = await sequelize.query<{ markedAt: Date | null }>('SELECT marked_at AS "markedAt" FROM job_state WHERE name = $1', { bind: [name], type: QueryTypes.SELECT, transaction });
+  const [row] = await sequelize.query<{ markedAt: Date | null }>('SELECT marked_at AS "markedAt" FROM job_state WHERE name = $1', {
+    bind: [name],
+    type: QueryTypes.SELECT,
+    transaction,
+  });
   return row?.markedAt ? new Date(row.markedAt) : null;
 }
 
@@ -57,8 +84,24 @@ export async function writeHourlyDigests(sequelize: Sequelize, config: Config, n
   );
   return writeGrouped(rows, async (first, lines) => {
     const footer = footerLinks(config, first.userId, now);
-    const rendered = hourlyDigest({ recipientName: first.name, lines: lines.map((l) => ({ ...l, at: new Date(l.at) })), timeZone, consoleUrl: consoleUrl(config) }, footer);
-    return enqueue(sequelize, { kind: 'node-reminder', userId: first.userId, address: first.email, name: first.name, dedupeKey: `hourly:${first.userId}:${hourStart.toISOString()}`, rendered, unsubscribeUrl: footer.unsubscribeUrl }, now, transaction);
+    const rendered = hourlyDigest(
+      { recipientName: first.name, lines: lines.map((l) => ({ ...l, at: new Date(l.at) })), timeZone, consoleUrl: consoleUrl(config) },
+      footer,
+    );
+    return enqueue(
+      sequelize,
+      {
+        kind: 'node-reminder',
+        userId: first.userId,
+        address: first.email,
+        name: first.name,
+        dedupeKey: `hourly:${first.userId}:${hourStart.toISOString()}`,
+        rendered,
+        unsubscribeUrl: footer.unsubscribeUrl,
+      },
+      now,
+      transaction,
+    );
   });
 }
 
@@ -80,8 +123,24 @@ export async function writeDegradedDigests(sequelize: Sequelize, config: Config,
   );
   return writeGrouped(rows, async (first, lines) => {
     const footer = footerLinks(config, first.userId, now);
-    const rendered = degradedDigest({ recipientName: first.name, lines: lines.map((l) => ({ ...l, sinceAt: new Date(l.sinceAt) })), now, timeZone, consoleUrl: consoleUrl(config) }, footer);
-    return enqueue(sequelize, { kind: 'node-reminder', userId: first.userId, address: first.email, name: first.name, dedupeKey: `degraded:${first.userId}:${today}`, rendered, unsubscribeUrl: footer.unsubscribeUrl }, now, transaction);
+    const rendered = degradedDigest(
+      { recipientName: first.name, lines: lines.map((l) => ({ ...l, sinceAt: new Date(l.sinceAt) })), now, timeZone, consoleUrl: consoleUrl(config) },
+      footer,
+    );
+    return enqueue(
+      sequelize,
+      {
+        kind: 'node-reminder',
+        userId: first.userId,
+        address: first.email,
+        name: first.name,
+        dedupeKey: `degraded:${first.userId}:${today}`,
+        rendered,
+        unsubscribeUrl: footer.unsubscribeUrl,
+      },
+      now,
+      transaction,
+    );
   });
 }
 

@@ -8,12 +8,21 @@ import { behindForMail } from './blastRadius';
 import { enqueue, type OutboxKind } from './outbox';
 import { writeUpstreamNotices } from './upstreamNotices';
 
-interface OutageRow { id: number; nodeId: number; startedAt: Date; endedAt: Date | null }
+interface OutageRow {
+  id: number;
+  nodeId: number;
+  startedAt: Date;
+  endedAt: Date | null;
+}
 
 const loadOutage = async (sequelize: Sequelize, outageId: number, transaction: Transaction) =>
-  (await sequelize.query<OutageRow>('SELECT id, node_id AS "nodeId", started_at AS "startedAt", ended_at AS "endedAt" FROM outages WHERE id = $1', {
-    bind: [outageId], type: QueryTypes.SELECT, transaction,
-  }))[0];
+  (
+    await sequelize.query<OutageRow>('SELECT id, node_id AS "nodeId", started_at AS "startedAt", ended_at AS "endedAt" FROM outages WHERE id = $1', {
+      bind: [outageId],
+      type: QueryTypes.SELECT,
+      transaction,
+    })
+  )[0];
 
 /** Outage mail per node and person is capped per rolling hour; past the cap one summary, then silence. */
 async function flapDecision(sequelize: Sequelize, cap: number, nodeId: number, userId: number, now: Date, transaction: Transaction) {
@@ -51,13 +60,29 @@ async function outageAudience(sequelize: Sequelize, outageId: number, nodeId: nu
 }
 
 const operatorFacts = (config: Config, ctx: MailContext, r: Recipient, since: Date, ackUrl: string | null): OperatorFacts => ({
-  recipientName: r.name, nodeId: ctx.nodeId, nodeName: ctx.nodeName, siteName: ctx.siteName, neighbourhoodName: ctx.neighbourhoodName,
-  hostName: ctx.hostName, since, timeZone: ctx.timeZone, nodeUrl: nodeUrl(config, ctx.nodeId), lastSeenAt: ctx.lastSeenAt,
-  lastReport: ctx.lastReport, neighbours: ctx.neighbours, ackUrl, behind: ctx.behind,
+  recipientName: r.name,
+  nodeId: ctx.nodeId,
+  nodeName: ctx.nodeName,
+  siteName: ctx.siteName,
+  neighbourhoodName: ctx.neighbourhoodName,
+  hostName: ctx.hostName,
+  since,
+  timeZone: ctx.timeZone,
+  nodeUrl: nodeUrl(config, ctx.nodeId),
+  lastSeenAt: ctx.lastSeenAt,
+  lastReport: ctx.lastReport,
+  neighbours: ctx.neighbours,
+  ackUrl,
+  behind: ctx.behind,
 });
 const hostFacts = (ctx: NodeContext, r: Recipient, since: Date) => ({
-  recipientName: r.name, nodeName: ctx.nodeName, siteName: ctx.siteName, neighbourhoodName: ctx.neighbourhoodName,
-  since, timeZone: ctx.timeZone, operators: ctx.operators,
+  recipientName: r.name,
+  nodeName: ctx.nodeName,
+  siteName: ctx.siteName,
+  neighbourhoodName: ctx.neighbourhoodName,
+  since,
+  timeZone: ctx.timeZone,
+  operators: ctx.operators,
 });
 
 interface OutageMail {
@@ -83,8 +108,10 @@ async function writeFor(sequelize: Sequelize, config: Config, mail: OutageMail, 
   const stateNow = kind === 'node-online' ? 'back online' : 'offline';
   const rendered =
     flap.verdict === 'summary'
-      ? flapSummary({ nodeName: ctx.nodeName, neighbourhoodName: ctx.neighbourhoodName, nodeUrl: nodeUrl(config, ctx.nodeId), changes: flap.changes, stateNow },
-        footer)
+      ? flapSummary(
+          { nodeName: ctx.nodeName, neighbourhoodName: ctx.neighbourhoodName, nodeUrl: nodeUrl(config, ctx.nodeId), changes: flap.changes, stateNow },
+          footer,
+        )
       : r.audience === 'host'
         ? kind === 'node-online'
           ? hostOnline({ ...hostFacts(ctx, r, since), downForS, until }, footer)
@@ -94,10 +121,23 @@ async function writeFor(sequelize: Sequelize, config: Config, mail: OutageMail, 
           : operatorOffline(operatorFacts(config, ctx, r, since, r.behindOnly ? null : acknowledgeUrl(config, r.userId, outage.id, now)), footer);
   const dedupeKey = flap.verdict === 'summary' ? `flap:${ctx.nodeId}:${r.userId}:${Math.floor(now.getTime() / 3_600_000)}` : mail.dedupeKey;
   const notBefore = r.audience === 'host' ? quietUntil(now, ctx.timeZone, r.quietStart, r.quietEnd) : now;
-  return enqueue(sequelize, {
-    kind, userId: r.userId, address: r.email, name: r.name, nodeId: ctx.nodeId, outageId: outage.id,
-    dedupeKey, rendered, unsubscribeUrl: footer.unsubscribeUrl, notBefore,
-  }, now, transaction);
+  return enqueue(
+    sequelize,
+    {
+      kind,
+      userId: r.userId,
+      address: r.email,
+      name: r.name,
+      nodeId: ctx.nodeId,
+      outageId: outage.id,
+      dedupeKey,
+      rendered,
+      unsubscribeUrl: footer.unsubscribeUrl,
+      notBefore,
+    },
+    now,
+    transaction,
+  );
 }
 
 /**
@@ -180,8 +220,29 @@ export async function writeReminders(sequelize: Sequelize, config: Config, outag
   for (const r of await nodeAudience(sequelize, ctx.nodeId, transaction)) {
     if (r.audience !== 'operator' || r.operatorMode !== 'immediate') continue;
     const footer = footerLinks(config, r.userId, now);
-    const rendered = operatorReminder({ ...operatorFacts(config, ctx, r, since, acknowledgeUrl(config, r.userId, outageId, now)), downForS: (now.getTime() - since.getTime()) / 1000 }, footer);
-    if (await enqueue(sequelize, { kind: 'node-reminder', userId: r.userId, address: r.email, name: r.name, nodeId: ctx.nodeId, outageId, dedupeKey: `reminder:${outageId}:${n}:${r.userId}`, rendered, unsubscribeUrl: footer.unsubscribeUrl }, now, transaction)) written++;
+    const rendered = operatorReminder(
+      { ...operatorFacts(config, ctx, r, since, acknowledgeUrl(config, r.userId, outageId, now)), downForS: (now.getTime() - since.getTime()) / 1000 },
+      footer,
+    );
+    if (
+      await enqueue(
+        sequelize,
+        {
+          kind: 'node-reminder',
+          userId: r.userId,
+          address: r.email,
+          name: r.name,
+          nodeId: ctx.nodeId,
+          outageId,
+          dedupeKey: `reminder:${outageId}:${n}:${r.userId}`,
+          rendered,
+          unsubscribeUrl: footer.unsubscribeUrl,
+        },
+        now,
+        transaction,
+      )
+    )
+      written++;
   }
   return written;
 }

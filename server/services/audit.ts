@@ -46,7 +46,12 @@ async function write(table: string, action: Action, instance: Model, options: Ho
   const attributes = Object.keys((instance.constructor as ModelStatic<Model>).getAttributes());
   const pick = (row: Record<string, unknown>) => Object.fromEntries(attributes.map((a) => [a, row[a]]));
   const now = pick(instance.get({ plain: false }) as Record<string, unknown>);
-  const before = action === 'create' ? null : action === 'delete' ? now : pick((instance as unknown as { _previousDataValues: Record<string, unknown> })._previousDataValues);
+  const before =
+    action === 'create'
+      ? null
+      : action === 'delete'
+        ? now
+        : pick((instance as unknown as { _previousDataValues: Record<string, unknown> })._previousDataValues);
   const after = action === 'delete' ? null : now;
   const diff = auditDiff(before, after, AUDITED[table].ignore);
   if (!diff) return;
@@ -83,5 +88,9 @@ export async function recordChange(
   const ctx = store.getStore();
   const diff = auditDiff(before, after);
   if (!diff) return;
-  await recordChanges(User.sequelize!, [{ tableName: table, recordId, action: before && after ? 'update' : after ? 'create' : 'delete', changedBy: ctx?.actorId ?? null, reason, ...diff }], transaction);
+  await recordChanges(
+    User.sequelize!,
+    [{ tableName: table, recordId, action: before && after ? 'update' : after ? 'create' : 'delete', changedBy: ctx?.actorId ?? null, reason, ...diff }],
+    transaction,
+  );
 }

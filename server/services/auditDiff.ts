@@ -8,7 +8,8 @@ const ALWAYS_IGNORED = new Set(['createdAt', 'updatedAt']);
 type Row = Record<string, unknown>;
 
 const comparable = (v: unknown) => (v instanceof Date ? v.toISOString() : v === undefined ? null : JSON.stringify(v));
-const shown = (field: string, v: unknown) => (v === null || v === undefined ? null : MASKED_FIELDS.has(field) ? HIDDEN : v instanceof Date ? v.toISOString() : v);
+const shown = (field: string, v: unknown) =>
+  v === null || v === undefined ? null : MASKED_FIELDS.has(field) ? HIDDEN : v instanceof Date ? v.toISOString() : v;
 
 /**
  * The before/after pair of the fields that differ (a create has no before, a delete no after).

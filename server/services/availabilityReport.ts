@@ -5,8 +5,20 @@ import { monthRange, zonedToUtc } from '../../shared/time/monthRange';
 import { Invalid } from '../errors';
 import { type Actor, isAdmin } from '../policies/actor';
 
-interface NodeRow { id: number; name: string; neighbourhoodId: number; neighbourhood: string; firstSeenAt: Date | null }
-interface OutageRow { id: number; nodeId: number; startedAt: Date; endedAt: Date | null; acknowledgedAt: Date | null }
+interface NodeRow {
+  id: number;
+  name: string;
+  neighbourhoodId: number;
+  neighbourhood: string;
+  firstSeenAt: Date | null;
+}
+interface OutageRow {
+  id: number;
+  nodeId: number;
+  startedAt: Date;
+  endedAt: Date | null;
+  acknowledgedAt: Date | null;
+}
 
 const seconds = (a: Date, b: Date) => Math.round((b.getTime() - a.getTime()) / 1000);
 const row = (parts: ObservedTime[], outageCount: number): AvailabilityRow => {
@@ -17,11 +29,15 @@ const row = (parts: ObservedTime[], outageCount: number): AvailabilityRow => {
 
 /** Availability for one calendar month in the network's time zone, over the nodes an operator looks after. */
 export async function availabilityReport(sequelize: Sequelize, actor: Actor, month: string, now: Date): Promise<AvailabilityReportDto> {
-  const [settings] = await sequelize.query<{ timeZone: string }>('SELECT time_zone AS "timeZone" FROM network_settings WHERE id = 1', { type: QueryTypes.SELECT });
+  const [settings] = await sequelize.query<{ timeZone: string }>('SELECT time_zone AS "timeZone" FROM network_settings WHERE id = 1', {
+    type: QueryTypes.SELECT,
+  });
   const timeZone = settings?.timeZone ?? 'UTC';
   const range = monthRange(month, timeZone);
   if (range.start.getTime() >= now.getTime())
-    throw Invalid(`${month} has not begun yet in ${timeZone}. Choose this month or an earlier one.`, [{ path: 'month', message: 'month must not be in the future' }]);
+    throw Invalid(`${month} has not begun yet in ${timeZone}. Choose this month or an earlier one.`, [
+      { path: 'month', message: 'month must not be in the future' },
+    ]);
   const to = new Date(Math.min(range.end.getTime(), now.getTime()));
   const nodes = await sequelize.query<NodeRow>(
     `SELECT n.id, n.name, n.neighbourhood_id AS "neighbourhoodId", h.name AS neighbourhood, n.first_seen_at AS "firstSeenAt"
@@ -35,7 +51,8 @@ export async function availabilityReport(sequelize: Sequelize, actor: Actor, mon
     { bind: [nodes.map((n) => n.id), range.start, to], type: QueryTypes.SELECT },
   );
   const intervals = new Map<number, Interval[]>();
-  for (const o of outages) intervals.set(o.nodeId, [...(intervals.get(o.nodeId) ?? []), { start: new Date(o.startedAt), end: o.endedAt ? new Date(o.endedAt) : null }]);
+  for (const o of outages)
+    intervals.set(o.nodeId, [...(intervals.get(o.nodeId) ?? []), { start: new Date(o.startedAt), end: o.endedAt ? new Date(o.endedAt) : null }]);
   const seen = (n: NodeRow) => (n.firstSeenAt ? new Date(n.firstSeenAt) : null);
   const observed = (n: NodeRow, from: Date, until: Date) => observedBetween(intervals.get(n.id) ?? [], from, until, seen(n));
   const nodeRows = nodes.map((n) => ({ n, t: observed(n, range.start, to), count: intervals.get(n.id)?.length ?? 0 }));
@@ -47,21 +64,40 @@ export async function availabilityReport(sequelize: Sequelize, actor: Actor, mon
     timeZone,
     from: range.start.toISOString(),
     to: to.toISOString(),
-    overall: row(nodeRows.map((r) => r.t), outages.length),
+    overall: row(
+      nodeRows.map((r) => r.t),
+      outages.length,
+    ),
     neighbourhoods: hoodIds.map((id) => {
       const members = nodeRows.filter((r) => r.n.neighbourhoodId === id);
-      return { id, name: members[0].n.neighbourhood, ...row(members.map((m) => m.t), members.reduce((s, m) => s + m.count, 0)) };
+      return {
+        id,
+        name: members[0].n.neighbourhood,
+        ...row(
+          members.map((m) => m.t),
+          members.reduce((s, m) => s + m.count, 0),
+        ),
+      };
     }),
     nodes: nodeRows.map(({ n, t, count }) => ({
-      id: n.id, name: n.name, neighbourhoodId: n.neighbourhoodId, neighbourhood: n.neighbourhood, ...row([t], count),
+      id: n.id,
+      name: n.name,
+      neighbourhoodId: n.neighbourhoodId,
+      neighbourhood: n.neighbourhood,
+      ...row([t], count),
     })),
     outages: outages.map((o) => {
       const start = new Date(o.startedAt);
       const end = o.endedAt ? new Date(o.endedAt) : null;
       const node = byId.get(o.nodeId)!;
       return {
-        id: o.id, nodeId: o.nodeId, node: node.name, neighbourhood: node.neighbourhood,
-        startedAt: start.toISOString(), endedAt: end?.toISOString() ?? null, acknowledgedAt: o.acknowledgedAt ? new Date(o.acknowledgedAt).toISOString() : null,
+        id: o.id,
+        nodeId: o.nodeId,
+        node: node.name,
+        neighbourhood: node.neighbourhood,
+        startedAt: start.toISOString(),
+        endedAt: end?.toISOString() ?? null,
+        acknowledgedAt: o.acknowledgedAt ? new Date(o.acknowledgedAt).toISOString() : null,
         timeToAcknowledgeS: o.acknowledgedAt ? seconds(start, new Date(o.acknowledgedAt)) : null,
         timeToRecoverS: end ? seconds(start, end) : null,
         downInMonthS: Math.round(observedBetween([{ start, end }], range.start, to, seen(node)).downS),

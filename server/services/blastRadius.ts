@@ -11,7 +11,15 @@ export const CLIENTS_SQL = (alias: string) => `
     WHERE coalesce(x->>'role', (SELECT r.role FROM radios r WHERE r.node_id = ${alias}.id AND r.iface = x->>'iface')) = 'access-point'
       AND jsonb_typeof(x->'clients') = 'number')`;
 
-interface BehindRow { outageId: number; nodeId: number; name: string; siteId: number; neighbourhoodId: number; neighbourhoodName: string; clients: number }
+interface BehindRow {
+  outageId: number;
+  nodeId: number;
+  name: string;
+  siteId: number;
+  neighbourhoodId: number;
+  neighbourhoodName: string;
+  clients: number;
+}
 
 async function behindRows(sequelize: Sequelize, outageIds: number[], transaction?: Transaction) {
   if (!outageIds.length) return [];

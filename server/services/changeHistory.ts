@@ -45,10 +45,19 @@ export async function recordChanges(sequelize: Sequelize, changes: ChangeRecord[
        FROM jsonb_to_recordset($1::jsonb) AS x(table_name text, record_id text, action text, changed_by int, reason text, before jsonb, after jsonb)
      RETURNING id`,
     {
-      bind: [JSON.stringify(fresh.map((c) => ({
-        table_name: c.tableName, record_id: String(c.recordId), action: c.action, changed_by: c.changedBy,
-        reason: c.reason ?? null, before: c.before, after: c.after,
-      })))],
+      bind: [
+        JSON.stringify(
+          fresh.map((c) => ({
+            table_name: c.tableName,
+            record_id: String(c.recordId),
+            action: c.action,
+            changed_by: c.changedBy,
+            reason: c.reason ?? null,
+            before: c.before,
+            after: c.after,
+          })),
+        ),
+      ],
       type: QueryTypes.SELECT,
       transaction,
     },
@@ -60,9 +69,17 @@ export async function recordChanges(sequelize: Sequelize, changes: ChangeRecord[
 const AUDITED_TABLES = ['sites', 'nodes', 'radios', 'links', 'neighbourhoods', 'users', 'network_settings', 'node_address_plans'];
 
 export interface ChangeHistoryRow {
-  id: number; table: string; recordId: string; action: ChangeRecord['action']; changedAt: Date;
-  changedById: number | null; changedByName: string | null; reason: string | null;
-  before: Record<string, unknown> | null; after: Record<string, unknown> | null; total: string;
+  id: number;
+  table: string;
+  recordId: string;
+  action: ChangeRecord['action'];
+  changedAt: Date;
+  changedById: number | null;
+  changedByName: string | null;
+  reason: string | null;
+  before: Record<string, unknown> | null;
+  after: Record<string, unknown> | null;
+  total: string;
 }
 
 /** One page of the trail, newest first, optionally of one table or one record; the caller has checked who may read it. */

@@ -1,7 +1,12 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { Band, ChannelWidthMHz } from '../../shared/enums';
 import {
-  congestionMwByChannel, recommendChannels, type ChannelAssignment, type ObservedNetwork, type RadioOnAir, type RadioToPlan,
+  congestionMwByChannel,
+  recommendChannels,
+  type ChannelAssignment,
+  type ObservedNetwork,
+  type RadioOnAir,
+  type RadioToPlan,
 } from '../../shared/radio/channelPlan';
 import { allowedChannelNumbers, validChannels, type ChannelRegion } from '../../shared/radio/channels';
 import type { ChannelApplyBody } from '../../shared/schemas/planningRecords';
@@ -14,8 +19,27 @@ import { eirpDbm } from '../../shared/radio/linkBudget';
 import { mwToDbm } from '../../shared/radio/units';
 import { type Actor, isAdmin, mayManage } from '../policies/actor';
 
-interface RadioRow { id: number; nodeId: number; nodeName: string; neighbourhoodId: number; iface: string; band: Band; channel: number; channelWidthMHz: ChannelWidthMHz; txPowerDbm: number; antennaGainDbi: number; cableLossDb: number; lat: number; lon: number }
-interface SurveyRow { nodeId: number; surveyId: number; createdAt: Date; rows: (ObservedNetwork & { band: Band })[] }
+interface RadioRow {
+  id: number;
+  nodeId: number;
+  nodeName: string;
+  neighbourhoodId: number;
+  iface: string;
+  band: Band;
+  channel: number;
+  channelWidthMHz: ChannelWidthMHz;
+  txPowerDbm: number;
+  antennaGainDbi: number;
+  cableLossDb: number;
+  lat: number;
+  lon: number;
+}
+interface SurveyRow {
+  nodeId: number;
+  surveyId: number;
+  createdAt: Date;
+  rows: (ObservedNetwork & { band: Band })[];
+}
 
 /** Radios the caller plans: admins every radio, operators those of their neighbourhoods. */
 const mayPlanRadio = (actor: Actor, r: RadioRow) => mayManage(actor, r.neighbourhoodId);
@@ -41,7 +65,13 @@ async function latestSurveys(sequelize: Sequelize, nodeIds: number[]): Promise<M
 }
 
 const onAir = (r: RadioRow, channel = r.channel): RadioOnAir => ({
-  id: r.id, nodeId: r.nodeId, band: r.band, channel, channelWidthMHz: r.channelWidthMHz, lat: r.lat, lon: r.lon,
+  id: r.id,
+  nodeId: r.nodeId,
+  band: r.band,
+  channel,
+  channelWidthMHz: r.channelWidthMHz,
+  lat: r.lat,
+  lon: r.lon,
   eirpDbm: eirpDbm(r.txPowerDbm, r.antennaGainDbi, r.cableLossDb),
 });
 const round = (x: number, places = 2) => Math.round(x * 10 ** places) / 10 ** places;
@@ -52,7 +82,9 @@ const round = (x: number, places = 2) => Math.round(x * 10 ** places) / 10 ** pl
  */
 export async function channelPlanFor(sequelize: Sequelize, actor: Actor, region: ChannelRegion, filter: { neighbourhoodId?: number; band?: Band }) {
   const all = await loadRadios(sequelize);
-  const planned = all.filter((r) => mayPlanRadio(actor, r) && (!filter.neighbourhoodId || r.neighbourhoodId === filter.neighbourhoodId) && (!filter.band || r.band === filter.band));
+  const planned = all.filter(
+    (r) => mayPlanRadio(actor, r) && (!filter.neighbourhoodId || r.neighbourhoodId === filter.neighbourhoodId) && (!filter.band || r.band === filter.band),
+  );
   const plannedIds = new Set(planned.map((r) => r.id));
   const nodeIds = [...new Set(planned.map((r) => r.nodeId))];
   const surveys = await latestSurveys(sequelize, nodeIds);
@@ -68,10 +100,17 @@ export async function channelPlanFor(sequelize: Sequelize, actor: Actor, region:
       }
       return true;
     });
-    const nearby = all.filter((r) => r.nodeId !== nodeId && (!plannedIds.has(r.id) || assigned.has(r.id))).map((r) => onAir(r, assigned.get(r.id) ?? r.channel));
+    const nearby = all
+      .filter((r) => r.nodeId !== nodeId && (!plannedIds.has(r.id) || assigned.has(r.id)))
+      .map((r) => onAir(r, assigned.get(r.id) ?? r.channel));
     const survey = surveys.get(nodeId)?.rows ?? [];
     const radios: RadioToPlan[] = usable.map((r) => ({ ...onAir(r), id: r.id }));
-    for (const a of recommendChannels({ region, radios, nearby, survey: { '2.4': survey.filter((s) => s.band === '2.4'), '5': survey.filter((s) => s.band === '5') } })) {
+    for (const a of recommendChannels({
+      region,
+      radios,
+      nearby,
+      survey: { '2.4': survey.filter((s) => s.band === '2.4'), '5': survey.filter((s) => s.band === '5') },
+    })) {
       assigned.set(a.radioId, a.channel);
       recs.set(a.radioId, a);
     }
@@ -79,24 +118,43 @@ export async function channelPlanFor(sequelize: Sequelize, actor: Actor, region:
   const radios = planned.map((r) => {
     const rec = recs.get(r.id);
     return {
-      radioId: r.id, nodeId: r.nodeId, nodeName: r.nodeName, neighbourhoodId: r.neighbourhoodId, iface: r.iface, band: r.band,
-      channelWidthMHz: r.channelWidthMHz, currentChannel: r.channel, recommendedChannel: rec?.channel ?? null,
-      centerMHz: rec?.centerMHz ?? null, interferenceDbm: rec ? round(mwToDbm(Math.max(rec.interferenceMw, 1e-15))) : null,
-      ownNodeOverlapMHz: rec?.ownNodeOverlapMHz ?? null, changed: rec ? rec.channel !== r.channel : false,
+      radioId: r.id,
+      nodeId: r.nodeId,
+      nodeName: r.nodeName,
+      neighbourhoodId: r.neighbourhoodId,
+      iface: r.iface,
+      band: r.band,
+      channelWidthMHz: r.channelWidthMHz,
+      currentChannel: r.channel,
+      recommendedChannel: rec?.channel ?? null,
+      centerMHz: rec?.centerMHz ?? null,
+      interferenceDbm: rec ? round(mwToDbm(Math.max(rec.interferenceMw, 1e-15))) : null,
+      ownNodeOverlapMHz: rec?.ownNodeOverlapMHz ?? null,
+      changed: rec ? rec.channel !== r.channel : false,
     };
   });
-  const congestion = nodeIds.filter((id) => surveys.has(id)).map((nodeId) => {
-    const s = surveys.get(nodeId)!;
-    const byBand = (band: Band) => {
-      const rows = s.rows.filter((x) => x.band === band);
-      const mw = congestionMwByChannel(band, allowedChannelNumbers(region, band), rows);
-      return [...mw].map(([channel, congestionMw]) => ({
-        channel, congestionDbm: congestionMw > 0 ? round(mwToDbm(congestionMw)) : null,
-        networks: rows.filter((x) => x.channel === channel).length,
-      }));
-    };
-    return { nodeId, nodeName: planned.find((r) => r.nodeId === nodeId)!.nodeName, surveyId: s.surveyId, surveyedAt: new Date(s.createdAt).toISOString(), '2.4': byBand('2.4'), '5': byBand('5') };
-  });
+  const congestion = nodeIds
+    .filter((id) => surveys.has(id))
+    .map((nodeId) => {
+      const s = surveys.get(nodeId)!;
+      const byBand = (band: Band) => {
+        const rows = s.rows.filter((x) => x.band === band);
+        const mw = congestionMwByChannel(band, allowedChannelNumbers(region, band), rows);
+        return [...mw].map(([channel, congestionMw]) => ({
+          channel,
+          congestionDbm: congestionMw > 0 ? round(mwToDbm(congestionMw)) : null,
+          networks: rows.filter((x) => x.channel === channel).length,
+        }));
+      };
+      return {
+        nodeId,
+        nodeName: planned.find((r) => r.nodeId === nodeId)!.nodeName,
+        surveyId: s.surveyId,
+        surveyedAt: new Date(s.createdAt).toISOString(),
+        '2.4': byBand('2.4'),
+        '5': byBand('5'),
+      };
+    });
   return { region, radios, skipped, congestion };
 }
 
@@ -113,7 +171,8 @@ export async function applyChannelPlan(sequelize: Sequelize, actor: Actor, regio
     const radios = await Radio.findAll({
       where: { id: assignments.map((a) => a.radioId) },
       include: [{ model: Node, as: 'node', where: nodeScope(actor), required: true }],
-      lock: { level: transaction.LOCK.UPDATE, of: Radio }, transaction,
+      lock: { level: transaction.LOCK.UPDATE, of: Radio },
+      transaction,
     });
     const out: ChangeRecord[] = [];
     for (const [i, a] of assignments.entries()) {
@@ -121,11 +180,20 @@ export async function applyChannelPlan(sequelize: Sequelize, actor: Actor, regio
       if (!r) throw NotFound(`Radio ${a.radioId}`);
       authorize(mayManage(actor, r.node!.neighbourhoodId), `Only admins and the operators of its neighbourhood change radio ${r.id}.`);
       if (!fitsRegion(region, r.band, a.channel, r.channelWidthMHz as ChannelWidthMHz)) {
-        throw Invalid(`Channel ${a.channel} at ${r.channelWidthMHz} MHz is not allowed on ${r.band} GHz in ${region}; pick one the plan recommends.`,
-          [{ path: `assignments.${i}.channel`, message: `assignments.${i}.channel ${a.channel} is not allowed for this radio in ${region}` }]);
+        throw Invalid(`Channel ${a.channel} at ${r.channelWidthMHz} MHz is not allowed on ${r.band} GHz in ${region}; pick one the plan recommends.`, [
+          { path: `assignments.${i}.channel`, message: `assignments.${i}.channel ${a.channel} is not allowed for this radio in ${region}` },
+        ]);
       }
       if (r.channel === a.channel) continue;
-      out.push({ tableName: 'radios', recordId: r.id, action: 'update', changedBy: actor.id, reason: CHANNEL_PLAN_REASON, before: { channel: r.channel }, after: { channel: a.channel } });
+      out.push({
+        tableName: 'radios',
+        recordId: r.id,
+        action: 'update',
+        changedBy: actor.id,
+        reason: CHANNEL_PLAN_REASON,
+        before: { channel: r.channel },
+        after: { channel: a.channel },
+      });
       await r.update({ channel: a.channel }, { transaction });
     }
     await recordChanges(sequelize, out, transaction);
@@ -133,8 +201,14 @@ export async function applyChannelPlan(sequelize: Sequelize, actor: Actor, regio
   });
 }
 
-
-export interface ChannelPlanHistoryRow { id: string; radioId: number; before: { channel: number }; after: { channel: number }; changedAt: Date; changedBy: string | null }
+export interface ChannelPlanHistoryRow {
+  id: string;
+  radioId: number;
+  before: { channel: number };
+  after: { channel: number };
+  changedAt: Date;
+  changedBy: string | null;
+}
 
 /** The last 50 applied channel changes on radios the caller plans (mayManage, written in SQL). */
 export async function channelPlanHistory(sequelize: Sequelize, actor: Actor): Promise<ChannelPlanHistoryRow[]> {

@@ -13,7 +13,22 @@ export type ExportKind = (typeof EXPORT_KINDS)[number];
 const COLUMNS: Record<ExportKind, readonly string[]> = {
   sites: ['id', 'name', 'neighbourhood', 'latitude', 'longitude', 'groundElevationM', 'antennaHeightM', 'accessNotes'],
   nodes: ['id', 'name', 'site', 'neighbourhood', 'hardware', 'firmware', 'managementAddress', 'reportIntervalS', 'isUplink', 'state', 'lastSeenAt'],
-  radios: ['id', 'node', 'iface', 'band', 'channel', 'channelWidthMHz', 'txPowerDbm', 'antennaGainDbi', 'polarisation', 'cableLossDb', 'role', 'ssid', 'encryption', 'groupRekeyS'],
+  radios: [
+    'id',
+    'node',
+    'iface',
+    'band',
+    'channel',
+    'channelWidthMHz',
+    'txPowerDbm',
+    'antennaGainDbi',
+    'polarisation',
+    'cableLossDb',
+    'role',
+    'ssid',
+    'encryption',
+    'groupRekeyS',
+  ],
   links: ['id', 'name', 'status', 'nodeA', 'radioA', 'nodeB', 'radioB'],
 };
 

@@ -1,8 +1,16 @@
 import { col, fn, Op, where as sqlWhere, type Sequelize } from 'sequelize';
 import type { z } from 'zod';
 import {
-  NODE_CSV_COLUMNS, NODE_CSV_REQUIRED, nodeCsvRowSchema, NUMERIC_CSV_COLUMNS, SITE_CSV_COLUMNS, SITE_CSV_REQUIRED, siteCsvRowSchema,
-  type ImportKind, type ImportPreviewDto, type ImportRowPreview,
+  NODE_CSV_COLUMNS,
+  NODE_CSV_REQUIRED,
+  nodeCsvRowSchema,
+  NUMERIC_CSV_COLUMNS,
+  SITE_CSV_COLUMNS,
+  SITE_CSV_REQUIRED,
+  siteCsvRowSchema,
+  type ImportKind,
+  type ImportPreviewDto,
+  type ImportRowPreview,
 } from '../../shared/schemas/csvImport';
 import { Invalid } from '../errors';
 import { issuesToDetails } from '../middlewares/validate';
@@ -15,13 +23,20 @@ import { cellsToInput, readCsv } from './csvRead';
 type Detail = { path: string; message: string };
 const lower = (s: string) => s.toLocaleLowerCase('en');
 
-interface Checked<T> { preview: ImportPreviewDto; records: T[] }
+interface Checked<T> {
+  preview: ImportPreviewDto;
+  records: T[];
+}
 
 /** Validates every row (shape, references, rights, duplicates) without writing anything. */
 export async function checkImport(kind: ImportKind, bytes: Buffer, actor: Actor, maxRows: number): Promise<Checked<Record<string, unknown>>> {
   const spec = kind === 'sites' ? { columns: SITE_CSV_COLUMNS, required: SITE_CSV_REQUIRED } : { columns: NODE_CSV_COLUMNS, required: NODE_CSV_REQUIRED };
   const table = readCsv(bytes, spec.columns, spec.required, maxRows);
-  const rows: ImportRowPreview[] = table.rows.map((values, i) => ({ row: i + 1, values, errors: (table.problems.get(i + 1) ?? []).map((m) => ({ path: `rows.${i + 1}`, message: `rows.${i + 1} ${m.toLowerCase()}` })) }));
+  const rows: ImportRowPreview[] = table.rows.map((values, i) => ({
+    row: i + 1,
+    values,
+    errors: (table.problems.get(i + 1) ?? []).map((m) => ({ path: `rows.${i + 1}`, message: `rows.${i + 1} ${m.toLowerCase()}` })),
+  }));
   const records = kind === 'sites' ? await checkSites(rows, actor) : await checkNodes(rows, actor);
   const errorCount = rows.filter((r) => r.errors.length).length;
   return { preview: { kind, columns: table.columns, rows, validCount: rows.length - errorCount, errorCount }, records };
@@ -34,7 +49,8 @@ function parseRow<S extends z.ZodType>(schema: S, r: ImportRowPreview): z.infer<
   return null;
 }
 
-const fail = (r: ImportRowPreview, field: string, message: string) => r.errors.push({ path: `rows.${r.row}.${field}`, message: `rows.${r.row}.${field} ${message}` });
+const fail = (r: ImportRowPreview, field: string, message: string) =>
+  r.errors.push({ path: `rows.${r.row}.${field}`, message: `rows.${r.row}.${field} ${message}` });
 
 async function checkSites(rows: ImportRowPreview[], actor: Actor) {
   const hoods = await Neighbourhood.findAll({ where: { [Op.and]: [neighbourhoodScope(actor), { retiredAt: null }] } });
@@ -46,10 +62,19 @@ async function checkSites(rows: ImportRowPreview[], actor: Actor) {
   for (const { r, v } of parsed) {
     if (!v) continue;
     const hood = hoodByName.get(lower(v.neighbourhood));
-    if (!hood) { fail(r, 'neighbourhood', `"${v.neighbourhood}" is not a neighbourhood you can see; check the spelling`); continue; }
-    if (!mayManage(actor, hood.id)) { fail(r, 'neighbourhood', `"${hood.name}" is not a neighbourhood you operate, so you cannot add sites to it`); continue; }
+    if (!hood) {
+      fail(r, 'neighbourhood', `"${v.neighbourhood}" is not a neighbourhood you can see; check the spelling`);
+      continue;
+    }
+    if (!mayManage(actor, hood.id)) {
+      fail(r, 'neighbourhood', `"${hood.name}" is not a neighbourhood you operate, so you cannot add sites to it`);
+      continue;
+    }
     const key = `${hood.id}:${lower(v.name)}`;
-    if (taken.has(key)) { fail(r, 'name', `"${v.name}" is already a site in ${hood.name} (or earlier in this file); choose another name`); continue; }
+    if (taken.has(key)) {
+      fail(r, 'name', `"${v.name}" is already a site in ${hood.name} (or earlier in this file); choose another name`);
+      continue;
+    }
     taken.add(key);
     const { neighbourhood: _named, ...site } = v;
     records.push({ ...site, neighbourhoodId: hood.id });
@@ -69,11 +94,23 @@ async function checkNodes(rows: ImportRowPreview[], actor: Actor) {
   for (const { r, v } of parsed) {
     if (!v) continue;
     const matches = sitesByName.get(lower(v.site)) ?? [];
-    if (matches.length === 0) { fail(r, 'site', `"${v.site}" is not a site you can see; check the spelling`); continue; }
-    if (matches.length > 1) { fail(r, 'site', `"${v.site}" names ${matches.length} sites in different neighbourhoods; rename one so the name is unique`); continue; }
+    if (matches.length === 0) {
+      fail(r, 'site', `"${v.site}" is not a site you can see; check the spelling`);
+      continue;
+    }
+    if (matches.length > 1) {
+      fail(r, 'site', `"${v.site}" names ${matches.length} sites in different neighbourhoods; rename one so the name is unique`);
+      continue;
+    }
     const site = matches[0];
-    if (!mayManage(actor, site.neighbourhoodId)) { fail(r, 'site', `"${site.name}" is in a neighbourhood you do not operate, so you cannot add nodes to it`); continue; }
-    if (taken.has(lower(v.name))) { fail(r, 'name', `"${v.name}" is already a node name (or appears earlier in this file); node names are unique across the network`); continue; }
+    if (!mayManage(actor, site.neighbourhoodId)) {
+      fail(r, 'site', `"${site.name}" is in a neighbourhood you do not operate, so you cannot add nodes to it`);
+      continue;
+    }
+    if (taken.has(lower(v.name))) {
+      fail(r, 'name', `"${v.name}" is already a node name (or appears earlier in this file); node names are unique across the network`);
+      continue;
+    }
     taken.add(lower(v.name));
     const { site: _named, ...node } = v;
     records.push({ ...node, siteId: site.id, neighbourhoodId: site.neighbourhoodId });

@@ -21,11 +21,16 @@ export function readCsv(bytes: Buffer, known: readonly string[], required: reado
     ]);
   const missing = required.filter((c) => !columns.includes(c));
   if (missing.length)
-    throw Invalid(`The header row lacks the column${missing.length > 1 ? 's' : ''} ${missing.join(', ')}. The first line must name the columns: ${known.join(', ')}.`, [
-      { path: 'columns', message: `missing column ${missing.map((m) => `"${m}"`).join(', ')}` },
+    throw Invalid(
+      `The header row lacks the column${missing.length > 1 ? 's' : ''} ${missing.join(', ')}. The first line must name the columns: ${known.join(', ')}.`,
+      [{ path: 'columns', message: `missing column ${missing.map((m) => `"${m}"`).join(', ')}` }],
+    );
+  if (parsed.data.length === 0)
+    throw Invalid('The file has a header but no rows. Add at least one row under the header.', [{ path: 'rows', message: 'rows must not be empty' }]);
+  if (parsed.data.length > maxRows)
+    throw Invalid(`The file has ${parsed.data.length} rows; at most ${maxRows} are imported at once. Split it into smaller files.`, [
+      { path: 'rows', message: `rows must be at most ${maxRows}` },
     ]);
-  if (parsed.data.length === 0) throw Invalid('The file has a header but no rows. Add at least one row under the header.', [{ path: 'rows', message: 'rows must not be empty' }]);
-  if (parsed.data.length > maxRows) throw Invalid(`The file has ${parsed.data.length} rows; at most ${maxRows} are imported at once. Split it into smaller files.`, [{ path: 'rows', message: `rows must be at most ${maxRows}` }]);
   const problems = new Map<number, string[]>();
   for (const e of parsed.errors) {
     if (e.row === undefined) continue;

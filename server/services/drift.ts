@@ -8,7 +8,14 @@ export interface DriftItem {
   reported: string | number | null;
 }
 
-export interface InventoryRadio { id: number; iface: string; channel: number; channelWidthMHz: number; ssid: string | null; mac: string | null }
+export interface InventoryRadio {
+  id: number;
+  iface: string;
+  channel: number;
+  channelWidthMHz: number;
+  ssid: string | null;
+  mac: string | null;
+}
 const cache = new Map<number, { at: number; radios: InventoryRadio[] }>();
 
 export async function inventoryRadios(sequelize: Sequelize, nodeId: number): Promise<InventoryRadio[]> {

@@ -178,7 +178,10 @@ class GroupCommit {
 
   private async run(batch: Pending[]) {
     try {
-      const outcomes = await storeItems(this.sequelize, batch.map((p) => p.item));
+      const outcomes = await storeItems(
+        this.sequelize,
+        batch.map((p) => p.item),
+      );
       batch.forEach((p, i) => p.resolve(outcomes[i]));
     } catch (err) {
       if (batch.length === 1 || isDatabaseUnreachable(err)) {
@@ -254,9 +257,11 @@ export function ingestReports(sequelize: Sequelize, config: Config, node: TokenN
   const before = nodeChains.get(node.nodeId) ?? Promise.resolve();
   const run = before.catch(() => undefined).then(() => ingestInOrder(sequelize, config, node, reports, now));
   nodeChains.set(node.nodeId, run);
-  void run.catch(() => undefined).finally(() => {
-    if (nodeChains.get(node.nodeId) === run) nodeChains.delete(node.nodeId);
-  });
+  void run
+    .catch(() => undefined)
+    .finally(() => {
+      if (nodeChains.get(node.nodeId) === run) nodeChains.delete(node.nodeId);
+    });
   return run;
 }
 
@@ -271,8 +276,14 @@ async function ingestInOrder(sequelize: Sequelize, config: Config, node: TokenNo
   const figures = keyFigures(newest);
   const clock = judgeSentAt(newest.sentAt, now);
   const lastReport = {
-    seq: newest.seq, bootId: newest.bootId ?? null, sentAt: clock.sentAt, receivedAt: now.toISOString(), ...figures,
-    uptimeS: newest.uptimeS ?? null, firmware: newest.firmware ?? null, radios: newest.radios ?? [],
+    seq: newest.seq,
+    bootId: newest.bootId ?? null,
+    sentAt: clock.sentAt,
+    receivedAt: now.toISOString(),
+    ...figures,
+    uptimeS: newest.uptimeS ?? null,
+    firmware: newest.firmware ?? null,
+    radios: newest.radios ?? [],
     clockTrouble: clock.trouble ? { kind: clock.trouble, reportedSentAt: newest.sentAt.slice(0, 40) } : null,
   };
   // Stored as sent, except a sentAt from a plainly wrong clock, which is stored as unknown.
@@ -282,16 +293,27 @@ async function ingestInOrder(sequelize: Sequelize, config: Config, node: TokenNo
     return { advances, verdict: advances ? afterReport({ state: m.state, streak: m.healthStreak }, figures, thresholds) : null };
   };
   const itemFor = (m: NodeMemory, j: ReturnType<typeof judge>, guarded: boolean): StoreItem => ({
-    node_id: node.nodeId, received_at: now.toISOString(), reports: rows, advances: j.advances, newest_seq: newest.seq,
-    boot_id: newestBoot, last_report: lastReport, streak: j.verdict?.streak ?? 0, reason: j.verdict?.reason ?? null, drift,
-    state: j.verdict?.state ?? m.state, guarded, seen_seq: m.lastSeq, seen_state: m.state, seen_streak: m.healthStreak,
+    node_id: node.nodeId,
+    received_at: now.toISOString(),
+    reports: rows,
+    advances: j.advances,
+    newest_seq: newest.seq,
+    boot_id: newestBoot,
+    last_report: lastReport,
+    streak: j.verdict?.streak ?? 0,
+    reason: j.verdict?.reason ?? null,
+    drift,
+    state: j.verdict?.state ?? m.state,
+    guarded,
+    seen_seq: m.lastSeq,
+    seen_state: m.state,
+    seen_streak: m.healthStreak,
     seen_boot_id: m.lastBootId ?? '',
   });
   // What the node is after a store that moved it.
   const remember = (m: NodeMemory, j: ReturnType<typeof judge>) => {
-    const after = j.advances && j.verdict
-      ? { state: j.verdict.state, healthStreak: j.verdict.streak, lastSeq: String(newest.seq), lastBootId: newestBoot || null }
-      : m;
+    const after =
+      j.advances && j.verdict ? { state: j.verdict.state, healthStreak: j.verdict.streak, lastSeq: String(newest.seq), lastBootId: newestBoot || null } : m;
     Object.assign(node, after);
   };
 
@@ -318,9 +340,10 @@ async function ingestInOrder(sequelize: Sequelize, config: Config, node: TokenNo
       const j = judge(current);
       const [row] = await storeItems(sequelize, [itemFor(current, j, false)], transaction);
       stored ??= row.stored;
-      const events = j.verdict && j.verdict.state !== current.state
-        ? await recordTransition(sequelize, config, { ...node, from: current.state, to: j.verdict.state, reason: j.verdict.reason, at: now }, transaction)
-        : null;
+      const events =
+        j.verdict && j.verdict.state !== current.state
+          ? await recordTransition(sequelize, config, { ...node, from: current.state, to: j.verdict.state, reason: j.verdict.reason, at: now }, transaction)
+          : null;
       remember(current, j);
       return { advances: j.advances, events };
     });
@@ -331,8 +354,14 @@ async function ingestInOrder(sequelize: Sequelize, config: Config, node: TokenNo
   if (outcome.advances) await rememberMacs(sequelize, node.nodeId, newest, now);
   if (outcome.advances) {
     domainEvents.emit('node-figures', {
-      nodeId: node.nodeId, neighbourhoodId: node.neighbourhoodId, hostUserId: node.hostUserId, at: now.toISOString(),
-      signalDbm: figures.signalDbm, snrDb: figures.snrDb, throughputMbps: figures.throughputMbps, latencyMs: figures.latencyMs,
+      nodeId: node.nodeId,
+      neighbourhoodId: node.neighbourhoodId,
+      hostUserId: node.hostUserId,
+      at: now.toISOString(),
+      signalDbm: figures.signalDbm,
+      snrDb: figures.snrDb,
+      throughputMbps: figures.throughputMbps,
+      latencyMs: figures.latencyMs,
     });
   }
   return { accepted: stored ?? 0, duplicates: reports.length - (stored ?? 0) };

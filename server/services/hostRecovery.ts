@@ -31,7 +31,12 @@ export async function recoveryContext(sequelize: Sequelize, config: Config, toke
   const claims = verifyLink(config.sessionSecret, token, 'recover', config.now());
   const actor = await loadActor(claims.userId);
   if (!actor) throw gone('The person this link was sent to no longer has an active account.');
-  const outage = await Outage.findByPk(claims.outageId, { include: [{ model: Node, as: 'node', required: true }, { model: User, as: 'acknowledger', required: false }] });
+  const outage = await Outage.findByPk(claims.outageId, {
+    include: [
+      { model: Node, as: 'node', required: true },
+      { model: User, as: 'acknowledger', required: false },
+    ],
+  });
   if (!outage) throw gone('This outage is no longer recorded. If your node is still down, write to the operators of your neighbourhood.');
   if (isHostOfNode(actor, outage.node!)) {
     return { claims, actor, outage, nodeId: outage.nodeId, upstreamNodeId: await failedUpstreamOf(sequelize, outage.nodeId) };
@@ -43,7 +48,11 @@ export async function recoveryContext(sequelize: Sequelize, config: Config, toke
     { bind: [outage.id, actor.hostedSiteIds], type: QueryTypes.SELECT },
   );
   if (behind) return { claims, actor, outage, nodeId: behind.nodeId, upstreamNodeId: outage.nodeId };
-  throw new ApiError(403, 'forbidden', 'You no longer host the node this link is about, so it cannot be used. Ask the operators of your neighbourhood if you need help.');
+  throw new ApiError(
+    403,
+    'forbidden',
+    'You no longer host the node this link is about, so it cannot be used. Ask the operators of your neighbourhood if you need help.',
+  );
 }
 
 /** The failed node nearest the uplink on the node's path, if one is down now (offline with an open outage). */
@@ -69,7 +78,16 @@ const localTime = (at: Date, timeZone: string) => {
 
 /** What the host's page shows. */
 export async function recoveryView(sequelize: Sequelize, config: Config, ctx: RecoveryContext): Promise<RecoveryDto> {
-  const [node] = await sequelize.query<{ id: number; name: string; state: NodeState; lastSeenAt: Date | null; siteName: string; neighbourhoodName: string; neighbourhoodId: number; timeZone: string | null }>(
+  const [node] = await sequelize.query<{
+    id: number;
+    name: string;
+    state: NodeState;
+    lastSeenAt: Date | null;
+    siteName: string;
+    neighbourhoodName: string;
+    neighbourhoodId: number;
+    timeZone: string | null;
+  }>(
     `SELECT n.id, n.name, n.state, n.last_seen_at AS "lastSeenAt", s.name AS "siteName", h.name AS "neighbourhoodName", h.id AS "neighbourhoodId",
             (SELECT time_zone FROM network_settings WHERE id = 1) AS "timeZone"
        FROM nodes n JOIN sites s ON s.id = n.site_id JOIN neighbourhoods h ON h.id = n.neighbourhood_id WHERE n.id = $1`,
@@ -77,9 +95,9 @@ export async function recoveryView(sequelize: Sequelize, config: Config, ctx: Re
   );
   const [upstream] = ctx.upstreamNodeId
     ? await sequelize.query<{ nodeName: string; siteName: string }>(
-      'SELECT n.name AS "nodeName", s.name AS "siteName" FROM nodes n JOIN sites s ON s.id = n.site_id WHERE n.id = $1',
-      { bind: [ctx.upstreamNodeId], type: QueryTypes.SELECT },
-    )
+        'SELECT n.name AS "nodeName", s.name AS "siteName" FROM nodes n JOIN sites s ON s.id = n.site_id WHERE n.id = $1',
+        { bind: [ctx.upstreamNodeId], type: QueryTypes.SELECT },
+      )
     : [];
   const operators = await sequelize.query<{ name: string }>(
     `SELECT u.name FROM operator_assignments oa JOIN users u ON u.id = oa.user_id
@@ -88,7 +106,9 @@ export async function recoveryView(sequelize: Sequelize, config: Config, ctx: Re
   );
   const o = ctx.outage;
   const timeZone = node.timeZone ?? 'UTC';
-  const who = operators.length ? operators.map((p) => p.name).join(' or ') : `the network's coordinators (no operator is assigned to ${node.neighbourhoodName} yet)`;
+  const who = operators.length
+    ? operators.map((p) => p.name).join(' or ')
+    : `the network's coordinators (no operator is assigned to ${node.neighbourhoodName} yet)`;
   const whatNext = o.endedAt
     ? 'Nothing more is needed from you.'
     : o.acknowledger

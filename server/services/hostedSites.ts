@@ -5,7 +5,13 @@ import { availabilityOf } from './nodeAvailability';
 
 const OUTAGES_PER_NODE = 5;
 
-export interface RecentOutageRow { id: number; nodeId: number; startedAt: Date; endedAt: Date | null; acknowledgedAt: Date | null }
+export interface RecentOutageRow {
+  id: number;
+  nodeId: number;
+  startedAt: Date;
+  endedAt: Date | null;
+  acknowledgedAt: Date | null;
+}
 
 /** The sites the caller hosts (whatever their role), their nodes with availability and each node's last five outages. */
 export async function hostedSitesOf(sequelize: Sequelize, actor: Actor, now: Date) {

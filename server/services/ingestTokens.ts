@@ -14,7 +14,10 @@ export async function rotateToken(sequelize: Sequelize, nodeId: number, now: Dat
   const token = newToken(nodeId);
   await sequelize.transaction(async (transaction) => {
     await sequelize.query('UPDATE node_tokens SET revoked_at = $2 WHERE node_id = $1 AND revoked_at IS NULL', { bind: [nodeId, now], transaction });
-    await sequelize.query('INSERT INTO node_tokens (node_id, token_hash, created_at) VALUES ($1, $2, $3)', { bind: [nodeId, hashToken(token), now], transaction });
+    await sequelize.query('INSERT INTO node_tokens (node_id, token_hash, created_at) VALUES ($1, $2, $3)', {
+      bind: [nodeId, hashToken(token), now],
+      transaction,
+    });
   });
   forgetTokens(nodeId);
   return token;

@@ -8,7 +8,14 @@ import { predictLink, type RadioEnd } from './linkPrediction';
 /** The 7-day window the baseline is the median of. */
 export const BASELINE_DAYS = 7;
 
-interface EndRow extends RadioEnd { radioId: number; nodeId: number; iface: string; neighbourhoodId: number; nodeName: string; lastReport: { receivedAt?: string; radios?: { iface?: string; signalDbm?: number | null }[] } | null }
+interface EndRow extends RadioEnd {
+  radioId: number;
+  nodeId: number;
+  iface: string;
+  neighbourhoodId: number;
+  nodeName: string;
+  lastReport: { receivedAt?: string; radios?: { iface?: string; signalDbm?: number | null }[] } | null;
+}
 export interface DirectionHealth extends LinkHealth {
   fromRadioId: number;
   toRadioId: number;
@@ -50,9 +57,15 @@ async function direction(sequelize: Sequelize, from: EndRow, to: EndRow, now: Da
   const measured = typeof reported?.signalDbm === 'number' ? reported.signalDbm : null;
   const base = await baseline(sequelize, to, now);
   return {
-    fromRadioId: from.radioId, toRadioId: to.radioId, toNodeId: to.nodeId, toNodeName: to.nodeName,
-    predictedSignalDbm: predicted, measuredSignalDbm: measured, measuredAt: measured === null ? null : (to.lastReport?.receivedAt ?? null),
-    baselineSignalDbm: base.median, baselineSamples: base.samples,
+    fromRadioId: from.radioId,
+    toRadioId: to.radioId,
+    toNodeId: to.nodeId,
+    toNodeName: to.nodeName,
+    predictedSignalDbm: predicted,
+    measuredSignalDbm: measured,
+    measuredAt: measured === null ? null : (to.lastReport?.receivedAt ?? null),
+    baselineSignalDbm: base.median,
+    baselineSamples: base.samples,
     ...assessLinkHealth({ measuredSignalDbm: measured, predictedSignalDbm: predicted, baselineSignalDbm: base.median }),
   };
 }
@@ -68,7 +81,11 @@ export async function linkHealth(sequelize: Sequelize, actor: Actor, linkId: num
   if (!mayReadLink(actor, { neighbourhoodAId: a.neighbourhoodId, neighbourhoodBId: b.neighbourhoodId })) throw NotFound(`Link ${linkId}`);
   const directions = [await direction(sequelize, a, b, now), await direction(sequelize, b, a, now)];
   return {
-    linkId: link.id, name: link.name, status: link.status, baselineDays: BASELINE_DAYS,
-    flagged: directions.some((d) => d.flagged), directions,
+    linkId: link.id,
+    name: link.name,
+    status: link.status,
+    baselineDays: BASELINE_DAYS,
+    flagged: directions.some((d) => d.flagged),
+    directions,
   };
 }

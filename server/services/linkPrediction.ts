@@ -23,8 +23,9 @@ export interface RadioEnd {
 const PREDICTION_MEMO_MAX = 50_000;
 const predictions = new Map<string, LinkBudgetAnswer | null>();
 const endKey = (e: RadioEnd) =>
-  [e.band, e.channel, e.channelWidthMHz, e.txPowerDbm, e.antennaGainDbi, e.cableLossDb, e.latitude, e.longitude, e.groundElevationM, e.antennaHeightM]
-    .join(',');
+  [e.band, e.channel, e.channelWidthMHz, e.txPowerDbm, e.antennaGainDbi, e.cableLossDb, e.latitude, e.longitude, e.groundElevationM, e.antennaHeightM].join(
+    ',',
+  );
 
 /** The predicted budget of a link from radio a toward radio b, from the inventory; null if it cannot be computed. */
 export function predictLink(a: RadioEnd, b: RadioEnd): LinkBudgetAnswer | null {

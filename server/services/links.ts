@@ -14,7 +14,11 @@ export function listLinks(actor: Actor, q: z.infer<typeof linkListQuerySchema>) 
   if (q.status) where.push({ status: q.status });
   if (q.nodeId) where.push({ [Op.or]: [{ '$radioA.node_id$': q.nodeId }, { '$radioB.node_id$': q.nodeId }] });
   return listPage(Link, q, {
-    where: { [Op.and]: where }, sortable: ['name', 'status', 'createdAt', 'id'], searchable: ['name'], defaultSort: 'id', include: linkEnds(),
+    where: { [Op.and]: where },
+    sortable: ['name', 'status', 'createdAt', 'id'],
+    searchable: ['name'],
+    defaultSort: 'id',
+    include: linkEnds(),
   });
 }
 

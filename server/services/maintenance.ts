@@ -45,7 +45,11 @@ export async function applyMaintenanceWindows(sequelize: Sequelize, config: Conf
   for (const n of entering) events.push(await move(sequelize, config, n, 'maintenance', 'inside a maintenance window', now, transaction));
   for (const n of leaving) {
     const to: NodeState = n.fresh ? 'online' : n.everSeen ? 'offline' : 'unknown';
-    const reason = n.fresh ? 'maintenance window ended; reporting' : n.everSeen ? 'maintenance window ended; not reporting' : 'maintenance window ended; never reported';
+    const reason = n.fresh
+      ? 'maintenance window ended; reporting'
+      : n.everSeen
+        ? 'maintenance window ended; not reporting'
+        : 'maintenance window ended; never reported';
     events.push(await move(sequelize, config, n, to, reason, now, transaction, n.windowEndedAt ? new Date(n.windowEndedAt) : now));
   }
   return events;

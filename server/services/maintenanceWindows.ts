@@ -21,7 +21,15 @@ async function applyNow(sequelize: Sequelize, config: Config, nodeId: number, no
 
 /** The node's 100 newest windows with who announced them. */
 export const windowsOf = (nodeId: number) =>
-  MaintenanceWindow.findAll({ where: { nodeId }, ...withCreator, order: [['startsAt', 'DESC'], ['id', 'DESC']], limit: 100 });
+  MaintenanceWindow.findAll({
+    where: { nodeId },
+    ...withCreator,
+    order: [
+      ['startsAt', 'DESC'],
+      ['id', 'DESC'],
+    ],
+    limit: 100,
+  });
 
 export async function findWindow(nodeId: number, windowId: number) {
   const window = await MaintenanceWindow.findOne({ where: { id: windowId, nodeId } });
@@ -34,7 +42,13 @@ export async function announceMaintenance(sequelize: Sequelize, config: Config, 
   if (new Date(body.endsAt) <= now) {
     throw Invalid('The request body is invalid: endsAt must be in the future.', [{ path: 'endsAt', message: 'endsAt must be in the future' }]);
   }
-  const created = await MaintenanceWindow.create({ nodeId, startsAt: new Date(body.startsAt), endsAt: new Date(body.endsAt), reason: body.reason || null, createdBy });
+  const created = await MaintenanceWindow.create({
+    nodeId,
+    startsAt: new Date(body.startsAt),
+    endsAt: new Date(body.endsAt),
+    reason: body.reason || null,
+    createdBy,
+  });
   await applyNow(sequelize, config, nodeId, now);
   return (await MaintenanceWindow.findByPk(created.id, withCreator))!;
 }

@@ -20,10 +20,12 @@ export async function countsFor(ids: number[]): Promise<(id: number) => Neighbou
     Site.count({ where: { neighbourhoodId: ids }, group: ['neighbourhoodId'] }),
     Node.count({ where: { neighbourhoodId: ids }, group: ['neighbourhoodId'] }),
   ]);
-  const byId = (rows: { neighbourhoodId: unknown; count: number }[], id: number) =>
-    rows.find((r) => Number(r.neighbourhoodId) === id)?.count ?? 0;
+  const byId = (rows: { neighbourhoodId: unknown; count: number }[], id: number) => rows.find((r) => Number(r.neighbourhoodId) === id)?.count ?? 0;
   return (id: number) => ({
-    operatorIds: assignments.filter((a) => a.neighbourhoodId === id).map((a) => a.userId).sort((a, b) => a - b),
+    operatorIds: assignments
+      .filter((a) => a.neighbourhoodId === id)
+      .map((a) => a.userId)
+      .sort((a, b) => a - b),
     siteCount: byId(sites as never, id),
     nodeCount: byId(nodes as never, id),
   });
@@ -63,7 +65,10 @@ export async function assignOperators(n: Neighbourhood, requestedIds: number[]) 
   const before = (await countsFor([n.id]))(n.id).operatorIds;
   await Neighbourhood.sequelize!.transaction(async (transaction) => {
     await OperatorAssignment.destroy({ where: { neighbourhoodId: n.id }, transaction });
-    await OperatorAssignment.bulkCreate(userIds.map((userId) => ({ userId, neighbourhoodId: n.id })), { transaction });
+    await OperatorAssignment.bulkCreate(
+      userIds.map((userId) => ({ userId, neighbourhoodId: n.id })),
+      { transaction },
+    );
     await recordChange(transaction, 'neighbourhoods', n.id, { operatorIds: before }, { operatorIds: [...userIds].sort((a, b) => a - b) }, 'operators assigned');
   });
   // Removed operators stop hearing this neighbourhood's live updates now, added ones start.
@@ -74,10 +79,16 @@ export async function assignOperators(n: Neighbourhood, requestedIds: number[]) 
 export async function neighbourhoodSummary(config: Config, sequelize: Sequelize, actor: Actor, n: Neighbourhood) {
   const [nodes, sites, assignments] = await Promise.all([
     Node.findAll({ where: { [Op.and]: [{ neighbourhoodId: n.id }, nodeScope(actor)] }, order: [['name', 'ASC']] }),
-    Site.findAll({ where: { [Op.and]: [{ neighbourhoodId: n.id }, siteScope(actor)] }, include: [{ model: User, as: 'host', attributes: ['id', 'name'] }], order: [['name', 'ASC']] }),
+    Site.findAll({
+      where: { [Op.and]: [{ neighbourhoodId: n.id }, siteScope(actor)] },
+      include: [{ model: User, as: 'host', attributes: ['id', 'name'] }],
+      order: [['name', 'ASC']],
+    }),
     OperatorAssignment.findAll({ where: { neighbourhoodId: n.id } }),
   ]);
-  const siteNames = new Map((await Site.findAll({ where: { id: [...new Set(nodes.map((x) => x.siteId))] }, attributes: ['id', 'name'] })).map((s) => [s.id, s.name]));
+  const siteNames = new Map(
+    (await Site.findAll({ where: { id: [...new Set(nodes.map((x) => x.siteId))] }, attributes: ['id', 'name'] })).map((s) => [s.id, s.name]),
+  );
   const operators = await User.findAll({ where: { id: assignments.map((a) => a.userId) }, attributes: ['id', 'name'], order: [['name', 'ASC']] });
   const availability = await availabilityOf(sequelize, nodes, config.now());
   return { nodes, sites, siteNames, operators, availability };

@@ -15,7 +15,11 @@ export async function updateNetworkSettings(sequelize: Sequelize, actor: Actor, 
     const s = await NetworkSettings.findByPk(1, { rejectOnEmpty: true, transaction, lock: transaction.LOCK.UPDATE });
     const before = snapshot(s);
     await s.update(changes, { transaction });
-    await recordChanges(sequelize, [{ tableName: 'network_settings', recordId: 1, action: 'update', changedBy: actor.id, before, after: snapshot(s) }], transaction);
+    await recordChanges(
+      sequelize,
+      [{ tableName: 'network_settings', recordId: 1, action: 'update', changedBy: actor.id, before, after: snapshot(s) }],
+      transaction,
+    );
     return s;
   });
 }

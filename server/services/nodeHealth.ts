@@ -24,7 +24,15 @@ export interface TransitionInput {
  */
 export async function recordTransition(sequelize: Sequelize, config: Config, t: TransitionInput, transaction: Transaction) {
   const events: { state: NodeStateEvent; outage?: OutageEvent } = {
-    state: { nodeId: t.nodeId, neighbourhoodId: t.neighbourhoodId, hostUserId: t.hostUserId, state: t.to, previousState: t.from, at: t.at.toISOString(), reason: t.reason },
+    state: {
+      nodeId: t.nodeId,
+      neighbourhoodId: t.neighbourhoodId,
+      hostUserId: t.hostUserId,
+      state: t.to,
+      previousState: t.from,
+      at: t.at.toISOString(),
+      reason: t.reason,
+    },
   };
   await sequelize.query('INSERT INTO node_transitions (node_id, from_state, to_state, reason, at) VALUES ($1, $2, $3, $4, $5)', {
     bind: [t.nodeId, t.from, t.to, t.reason, t.at],

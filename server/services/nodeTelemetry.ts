@@ -4,12 +4,20 @@ import type { SeriesRange } from '../../shared/schemas/telemetry';
 import type { Node } from '../models';
 
 const RANGES: Record<SeriesRange, { seconds: number; bucketS: number }> = {
-  '24h': { seconds: 86_400, bucketS: 300 }, '7d': { seconds: 7 * 86_400, bucketS: 3600 }, '30d': { seconds: 30 * 86_400, bucketS: 3600 },
+  '24h': { seconds: 86_400, bucketS: 300 },
+  '7d': { seconds: 7 * 86_400, bucketS: 3600 },
+  '30d': { seconds: 30 * 86_400, bucketS: 3600 },
 };
 
 export interface SeriesRow {
-  t: Date; availabilityPct: number | null; signalAvgDbm: number | null; signalMinDbm: number | null; noiseAvgDbm: number | null;
-  snrAvgDb: number | null; throughputAvgMbps: number | null; latencyAvgMs: number | null;
+  t: Date;
+  availabilityPct: number | null;
+  signalAvgDbm: number | null;
+  signalMinDbm: number | null;
+  noiseAvgDbm: number | null;
+  snrAvgDb: number | null;
+  throughputAvgMbps: number | null;
+  latencyAvgMs: number | null;
 }
 
 /** The node's roll-up buckets over the range: five-minute buckets for a day, hourly ones beyond. */

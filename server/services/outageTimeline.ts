@@ -9,10 +9,20 @@ import { domainEvents } from './events';
 /** Enough for any real attempt; a cap keeps a leaked link from filling the timeline. */
 export const MAX_STEPS_PER_OUTAGE = 100;
 
-interface StepRow { at: Date; step: HostStep; note: string | null; byUserId: number | null; byName: string | null; byHost: boolean }
+interface StepRow {
+  at: Date;
+  step: HostStep;
+  note: string | null;
+  byUserId: number | null;
+  byName: string | null;
+  byHost: boolean;
+}
 
 const stepEntry = (r: StepRow): TimelineEntryDto => ({
-  at: new Date(r.at).toISOString(), kind: 'host-step', step: r.step, byUserId: r.byUserId,
+  at: new Date(r.at).toISOString(),
+  kind: 'host-step',
+  step: r.step,
+  byUserId: r.byUserId,
   text: hostStepText(r.step, r.byName ? `${r.byName}${r.byHost ? ' (host)' : ''}` : 'Someone', r.note),
 });
 
@@ -27,12 +37,22 @@ export async function timelineOf(sequelize: Sequelize, o: Outage): Promise<Timel
   );
   const entries: TimelineEntryDto[] = [{ at: o.startedAt.toISOString(), kind: 'opened', text: `${o.node?.name ?? 'The node'} stopped answering` }];
   if (o.acknowledgedAt) {
-    entries.push({ at: o.acknowledgedAt.toISOString(), kind: 'acknowledged', byUserId: o.acknowledgedBy ?? null, text: `Acknowledged${o.acknowledger ? ` by ${o.acknowledger.name}` : ''}` });
+    entries.push({
+      at: o.acknowledgedAt.toISOString(),
+      kind: 'acknowledged',
+      byUserId: o.acknowledgedBy ?? null,
+      text: `Acknowledged${o.acknowledger ? ` by ${o.acknowledger.name}` : ''}`,
+    });
   }
   // Notes are one text kept on the outage; they sit at their last change.
   if (o.notes) entries.push({ at: o.updatedAt.toISOString(), kind: 'note', text: o.notes });
   entries.push(...steps.map(stepEntry));
-  if (o.endedAt) entries.push({ at: o.endedAt.toISOString(), kind: 'closed', text: `Back online after ${formatDuration((o.endedAt.getTime() - o.startedAt.getTime()) / 1000)}` });
+  if (o.endedAt)
+    entries.push({
+      at: o.endedAt.toISOString(),
+      kind: 'closed',
+      text: `Back online after ${formatDuration((o.endedAt.getTime() - o.startedAt.getTime()) / 1000)}`,
+    });
   const order = (e: TimelineEntryDto) => (e.kind === 'opened' ? 0 : e.kind === 'closed' ? 2 : 1);
   return entries.sort((a, b) => order(a) - order(b) || a.at.localeCompare(b.at));
 }
@@ -47,12 +67,23 @@ export async function recordHostStep(
   now: Date,
 ): Promise<TimelineEntryDto> {
   const note = input.note ? input.note : null;
-  const [{ n }] = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM outage_host_steps WHERE outage_id = $1', { bind: [o.id], type: QueryTypes.SELECT });
-  if (n >= MAX_STEPS_PER_OUTAGE) throw Conflict(`This outage already has ${MAX_STEPS_PER_OUTAGE} recorded steps. Add anything more as a note, or write to the operators.`);
+  const [{ n }] = await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM outage_host_steps WHERE outage_id = $1', {
+    bind: [o.id],
+    type: QueryTypes.SELECT,
+  });
+  if (n >= MAX_STEPS_PER_OUTAGE)
+    throw Conflict(`This outage already has ${MAX_STEPS_PER_OUTAGE} recorded steps. Add anything more as a note, or write to the operators.`);
   await sequelize.query('INSERT INTO outage_host_steps (outage_id, step, note, by_user_id, at) VALUES ($1, $2, $3, $4, $5)', {
     bind: [o.id, input.step, note, by.id, now],
   });
   const entry = stepEntry({ at: now, step: input.step, note, byUserId: by.id, byName: by.name, byHost: by.id === hostUserId });
-  domainEvents.emit('outage-timeline', { outageId: o.id, nodeId: o.nodeId, neighbourhoodId: o.node!.neighbourhoodId, hostUserId, at: entry.at, kind: 'host-step' });
+  domainEvents.emit('outage-timeline', {
+    outageId: o.id,
+    nodeId: o.nodeId,
+    neighbourhoodId: o.node!.neighbourhoodId,
+    hostUserId,
+    at: entry.at,
+    kind: 'host-step',
+  });
   return entry;
 }

@@ -34,8 +34,21 @@ export async function enqueue(sequelize: Sequelize, m: NewMessage, now: Date, tr
      VALUES ($1, $2, $3, $4, $5, $6, $7, $8, $9, $10, $11, $12, $13, $13)
      ON CONFLICT (dedupe_key) DO NOTHING RETURNING id`,
     {
-      bind: [m.kind, m.userId, m.address, m.name?.replace(/[\r\n]+/g, ' ') ?? null, m.rendered.subject, m.rendered.text, m.rendered.html,
-        m.unsubscribeUrl, m.nodeId ?? null, m.outageId ?? null, m.dedupeKey, m.notBefore ?? now, now],
+      bind: [
+        m.kind,
+        m.userId,
+        m.address,
+        m.name?.replace(/[\r\n]+/g, ' ') ?? null,
+        m.rendered.subject,
+        m.rendered.text,
+        m.rendered.html,
+        m.unsubscribeUrl,
+        m.nodeId ?? null,
+        m.outageId ?? null,
+        m.dedupeKey,
+        m.notBefore ?? now,
+        now,
+      ],
       type: QueryTypes.SELECT,
       transaction,
     },

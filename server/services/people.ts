@@ -14,7 +14,11 @@ const DUPLICATE_EMAIL = 'Someone already has that e-mail address.';
 /** The neighbourhoods each of these people is assigned to operate, as a lookup by person. */
 export async function assignmentsOf(userIds: number[]) {
   const rows = await OperatorAssignment.findAll({ where: { userId: userIds } });
-  return (id: number) => rows.filter((r) => r.userId === id).map((r) => r.neighbourhoodId).sort((a, b) => a - b);
+  return (id: number) =>
+    rows
+      .filter((r) => r.userId === id)
+      .map((r) => r.neighbourhoodId)
+      .sort((a, b) => a - b);
 }
 
 export async function findPerson(id: number, what = `Person ${id}`) {
@@ -58,7 +62,10 @@ export async function changeOwnPassword(sequelize: Sequelize, user: User, newPas
   const passwordHash = await hashPassword(newPassword);
   await sequelize.transaction(async (transaction) => {
     await user.update({ passwordHash }, { transaction });
-    await sequelize.query(`UPDATE account_tokens SET used_at = now() WHERE user_id = $1 AND purpose = 'password-reset' AND used_at IS NULL`, { bind: [user.id], transaction });
+    await sequelize.query(`UPDATE account_tokens SET used_at = now() WHERE user_id = $1 AND purpose = 'password-reset' AND used_at IS NULL`, {
+      bind: [user.id],
+      transaction,
+    });
     await endSessionsOf(sequelize, user.id, keepSid, transaction);
   });
 }

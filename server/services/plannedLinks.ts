@@ -6,7 +6,12 @@ import { recordChanges, type ChangeRecord } from './changeHistory';
 import { uniquely } from './conflicts';
 
 /** One end of a planned link after the caller's access was checked: an existing radio, or a node that gets a new one. */
-export interface ResolvedEnd { radio: Radio | null; nodeId: number; neighbourhoodId: number; spec: PlannedLinkEnd }
+export interface ResolvedEnd {
+  radio: Radio | null;
+  nodeId: number;
+  neighbourhoodId: number;
+  spec: PlannedLinkEnd;
+}
 
 const REASON = 'saved from the link budget';
 
@@ -19,7 +24,11 @@ async function freeIface(nodeId: number, transaction: Transaction): Promise<stri
 }
 
 async function defaultName(sequelize: Sequelize, nodeAId: number, nodeBId: number, transaction: Transaction): Promise<string> {
-  const rows = await sequelize.query<{ id: number; name: string }>('SELECT n.id, s.name FROM nodes n JOIN sites s ON s.id = n.site_id WHERE n.id IN ($1, $2)', { bind: [nodeAId, nodeBId], type: QueryTypes.SELECT, transaction });
+  const rows = await sequelize.query<{ id: number; name: string }>('SELECT n.id, s.name FROM nodes n JOIN sites s ON s.id = n.site_id WHERE n.id IN ($1, $2)', {
+    bind: [nodeAId, nodeBId],
+    type: QueryTypes.SELECT,
+    transaction,
+  });
   const label = (id: number) => rows.find((r) => r.id === id)?.name ?? `node ${id}`;
   return `${label(nodeAId)} – ${label(nodeBId)} (planned)`.slice(0, 120);
 }
@@ -32,15 +41,33 @@ export async function savePlannedLink(sequelize: Sequelize, actor: Actor, a: Res
       if (end.radio) return end.radio;
       const { nodeId, ...spec } = end.spec as Exclude<PlannedLinkEnd, { radioId: number }>;
       const radio = await Radio.create({ nodeId, ...spec, iface: await freeIface(nodeId, transaction), encryption: 'wpa2-ccmp' }, { transaction });
-      changes.push({ tableName: 'radios', recordId: radio.id, action: 'create', changedBy: actor.id, reason: REASON, before: null, after: { nodeId, iface: radio.iface, ...spec } });
+      changes.push({
+        tableName: 'radios',
+        recordId: radio.id,
+        action: 'create',
+        changedBy: actor.id,
+        reason: REASON,
+        before: null,
+        after: { nodeId, iface: radio.iface, ...spec },
+      });
       return radio;
     };
     const ra = await radioFor(a);
     const rb = await radioFor(b);
     const linkName = name ?? (await defaultName(sequelize, a.nodeId, b.nodeId, transaction));
-    const l = await uniquely(() => Link.create({ radioAId: ra.id, radioBId: rb.id, status: 'planned', name: linkName }, { transaction }),
-      `Radios ${ra.id} and ${rb.id} are already linked. Change that link instead of adding another.`);
-    changes.push({ tableName: 'links', recordId: l.id, action: 'create', changedBy: actor.id, reason: REASON, before: null, after: { radioAId: ra.id, radioBId: rb.id, status: 'planned', name: linkName } });
+    const l = await uniquely(
+      () => Link.create({ radioAId: ra.id, radioBId: rb.id, status: 'planned', name: linkName }, { transaction }),
+      `Radios ${ra.id} and ${rb.id} are already linked. Change that link instead of adding another.`,
+    );
+    changes.push({
+      tableName: 'links',
+      recordId: l.id,
+      action: 'create',
+      changedBy: actor.id,
+      reason: REASON,
+      before: null,
+      after: { radioAId: ra.id, radioBId: rb.id, status: 'planned', name: linkName },
+    });
     await recordChanges(sequelize, changes, transaction);
     l.radioA = ra;
     l.radioB = rb;

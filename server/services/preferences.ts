@@ -27,7 +27,10 @@ export async function updatePreferences(actor: Actor, patch: PreferencesUpdate) 
   const [row] = await AlertPreference.findOrCreate({ where: { userId: actor.id }, defaults: { userId: actor.id } });
   const values = Object.fromEntries(Object.entries(patch).filter(([, v]) => v !== undefined));
   await row.update(values);
-  const turnedOn = patch.operatorMode === 'immediate' || patch.operatorMode === 'hourly' || [patch.hostMail, patch.adminNodeMail, patch.adminSelfCheck, patch.upstreamNotices, patch.degradedDigest].includes(true);
+  const turnedOn =
+    patch.operatorMode === 'immediate' ||
+    patch.operatorMode === 'hourly' ||
+    [patch.hostMail, patch.adminNodeMail, patch.adminSelfCheck, patch.upstreamNotices, patch.degradedDigest].includes(true);
   if (turnedOn && row.unsubscribedAt) await row.update({ unsubscribedAt: null });
   return preferencesOf(actor);
 }
@@ -36,7 +39,12 @@ export async function updatePreferences(actor: Actor, patch: PreferencesUpdate) 
 export async function unsubscribeAll(userId: number, now: Date) {
   const [row] = await AlertPreference.findOrCreate({ where: { userId }, defaults: { userId } });
   await row.update({
-    operatorMode: 'off', hostMail: false, adminNodeMail: false, adminSelfCheck: false, upstreamNotices: false, degradedDigest: false,
+    operatorMode: 'off',
+    hostMail: false,
+    adminNodeMail: false,
+    adminSelfCheck: false,
+    upstreamNotices: false,
+    degradedDigest: false,
     unsubscribedAt: row.unsubscribedAt ?? now,
   });
 }

@@ -5,20 +5,28 @@ import type { NodeState } from '../../shared/enums';
 import type { PublicStatusDto } from '../../shared/schemas/publicStatus';
 import { localClock } from '../../shared/time/monthRange';
 
-interface NodeRow { id: number; neighbourhoodId: number; state: NodeState; isUplink: boolean; firstSeenAt: Date | null }
-interface OutageRow { nodeId: number; startedAt: Date; endedAt: Date | null }
+interface NodeRow {
+  id: number;
+  neighbourhoodId: number;
+  state: NodeState;
+  isUplink: boolean;
+  firstSeenAt: Date | null;
+}
+interface OutageRow {
+  nodeId: number;
+  startedAt: Date;
+  endedAt: Date | null;
+}
 
 /** Reads only counts, states and times: the query itself never selects a name of a site, node or person. */
 export async function computePublicStatus(sequelize: Sequelize, now: Date): Promise<PublicStatusDto> {
   const since30d = new Date(now.getTime() - WINDOWS_S.d30 * 1000);
-  const [settings] = await sequelize.query<{ name: string; timeZone: string }>(
-    'SELECT name, time_zone AS "timeZone" FROM network_settings WHERE id = 1',
-    { type: QueryTypes.SELECT },
-  );
-  const hoods = await sequelize.query<{ id: number; name: string }>(
-    'SELECT id, name FROM neighbourhoods WHERE retired_at IS NULL ORDER BY lower(name)',
-    { type: QueryTypes.SELECT },
-  );
+  const [settings] = await sequelize.query<{ name: string; timeZone: string }>('SELECT name, time_zone AS "timeZone" FROM network_settings WHERE id = 1', {
+    type: QueryTypes.SELECT,
+  });
+  const hoods = await sequelize.query<{ id: number; name: string }>('SELECT id, name FROM neighbourhoods WHERE retired_at IS NULL ORDER BY lower(name)', {
+    type: QueryTypes.SELECT,
+  });
   const nodes = await sequelize.query<NodeRow>(
     `SELECT n.id, n.neighbourhood_id AS "neighbourhoodId", n.state, n.is_uplink AS "isUplink", n.first_seen_at AS "firstSeenAt"
        FROM nodes n JOIN neighbourhoods h ON h.id = n.neighbourhood_id WHERE h.retired_at IS NULL`,
@@ -45,8 +53,7 @@ export async function computePublicStatus(sequelize: Sequelize, now: Date): Prom
         .flatMap((n) => (byNode.get(n.id) ?? []).filter((o) => !o.endedAt).map((o) => ({ node: n, startedAt: new Date(o.startedAt) })))
         .sort((a, b) => a.startedAt.getTime() - b.startedAt.getTime());
       const counts = countStates(members.map((n) => n.state));
-      const pct = (windowS: number) =>
-        availabilityPct(members.map((n) => observedInWindow(intervalsOf(n.id), windowS, now, seen(n))));
+      const pct = (windowS: number) => availabilityPct(members.map((n) => observedInWindow(intervalsOf(n.id), windowS, now, seen(n))));
       return {
         name: h.name,
         counts,

@@ -56,11 +56,26 @@ export const endsOf = (l: Link) => ({ neighbourhoodAId: l.radioA!.node!.neighbou
  * details they see anyway). Anyone else joins through an invitation.
  */
 export async function hostCandidates(actor: Actor): Promise<User[]> {
-  if (isAdmin(actor)) return User.findAll({ where: { active: true }, order: [['name', 'ASC'], ['id', 'ASC']] });
+  if (isAdmin(actor))
+    return User.findAll({
+      where: { active: true },
+      order: [
+        ['name', 'ASC'],
+        ['id', 'ASC'],
+      ],
+    });
   const hosting = actor.neighbourhoodIds.length
-    ? (await Site.findAll({ where: { neighbourhoodId: actor.neighbourhoodIds, hostUserId: { [Op.ne]: null } }, attributes: ['hostUserId'] })).map((s) => s.hostUserId!)
+    ? (await Site.findAll({ where: { neighbourhoodId: actor.neighbourhoodIds, hostUserId: { [Op.ne]: null } }, attributes: ['hostUserId'] })).map(
+        (s) => s.hostUserId!,
+      )
     : [];
-  return User.findAll({ where: { active: true, id: [...new Set([actor.id, ...hosting])] }, order: [['name', 'ASC'], ['id', 'ASC']] });
+  return User.findAll({
+    where: { active: true, id: [...new Set([actor.id, ...hosting])] },
+    order: [
+      ['name', 'ASC'],
+      ['id', 'ASC'],
+    ],
+  });
 }
 
 /**

@@ -3,9 +3,26 @@ import type { Encryption, RadioRole } from '../../shared/enums';
 import { reviewKeyReuse, reviewRadio, SEVERITY_ORDER, sortFindings, type SecurityFinding, type Severity } from '../../shared/security/review';
 import { type Actor, mayManage } from '../policies/actor';
 
-interface RadioRow { id: number; nodeId: number; nodeName: string; neighbourhoodId: number; iface: string; role: RadioRole; ssid: string | null; encryption: Encryption; preSharedKey: string | null; groupRekeyS: number }
+interface RadioRow {
+  id: number;
+  nodeId: number;
+  nodeName: string;
+  neighbourhoodId: number;
+  iface: string;
+  role: RadioRole;
+  ssid: string | null;
+  encryption: Encryption;
+  preSharedKey: string | null;
+  groupRekeyS: number;
+}
 type Finding = Pick<SecurityFinding, 'code' | 'severity' | 'message' | 'fix'>;
-interface RadioLabel { radioId: number; nodeId: number; nodeName: string; iface: string; ssid: string | null }
+interface RadioLabel {
+  radioId: number;
+  nodeId: number;
+  nodeName: string;
+  iface: string;
+  ssid: string | null;
+}
 
 export interface SecurityReview {
   counts: Record<Severity, number>;
@@ -30,15 +47,29 @@ export async function securityReviewFor(sequelize: Sequelize, actor: Actor): Pro
   const visible = new Set(mine.map((r) => r.id));
   const label = new Map(mine.map((r) => [r.id, { radioId: r.id, nodeId: r.nodeId, nodeName: r.nodeName, iface: r.iface, ssid: r.ssid }]));
   // Reuse is judged across the whole network; only the caller's radios are named in the answer.
-  const reuse = reviewKeyReuse(all).map((f) => ({ ...f, radioIds: f.radioIds?.filter((id) => visible.has(id)) })).filter((f) => (f.radioIds?.length ?? 0) > 0);
+  const reuse = reviewKeyReuse(all)
+    .map((f) => ({ ...f, radioIds: f.radioIds?.filter((id) => visible.has(id)) }))
+    .filter((f) => (f.radioIds?.length ?? 0) > 0);
   const radios = mine.map((r) => {
     const own = reviewRadio({ ...r, id: r.id });
     const reused = reuse.filter((f) => f.radioIds!.includes(r.id)).map((f) => ({ ...f, radioIds: [r.id] }));
     const findings = sortFindings([...own, ...reused]).map(strip);
-    return { radioId: r.id, nodeId: r.nodeId, nodeName: r.nodeName, neighbourhoodId: r.neighbourhoodId, iface: r.iface, role: r.role, ssid: r.ssid, encryption: r.encryption, groupRekeyS: r.groupRekeyS, findings };
+    return {
+      radioId: r.id,
+      nodeId: r.nodeId,
+      nodeName: r.nodeName,
+      neighbourhoodId: r.neighbourhoodId,
+      iface: r.iface,
+      role: r.role,
+      ssid: r.ssid,
+      encryption: r.encryption,
+      groupRekeyS: r.groupRekeyS,
+      findings,
+    };
   });
   const findings = sortFindings([...mine.flatMap((r) => reviewRadio({ ...r, id: r.id })), ...reuse]).map((f) => ({
-    ...strip(f), radios: (f.radioIds ?? []).map((id) => label.get(id)!).filter(Boolean),
+    ...strip(f),
+    radios: (f.radioIds ?? []).map((id) => label.get(id)!).filter(Boolean),
   }));
   const counts = Object.fromEntries(SEVERITY_ORDER.map((s) => [s, findings.filter((f) => f.severity === s).length])) as Record<Severity, number>;
   return { counts, findings, radios };

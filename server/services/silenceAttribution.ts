@@ -18,7 +18,14 @@ export interface SilentNode {
 type Events = Awaited<ReturnType<typeof recordTransition>>;
 
 async function watchedNodes(sequelize: Sequelize, offlineAfterIntervals: number, transaction: Transaction) {
-  const rows = await sequelize.query<{ id: number; isUplink: boolean; state: NodeState; lastSeenAt: Date | null; reportIntervalS: number; offlineWindowS: number }>(
+  const rows = await sequelize.query<{
+    id: number;
+    isUplink: boolean;
+    state: NodeState;
+    lastSeenAt: Date | null;
+    reportIntervalS: number;
+    offlineWindowS: number;
+  }>(
     `SELECT id, is_uplink AS "isUplink", state, last_seen_at AS "lastSeenAt", report_interval_s AS "reportIntervalS",
             report_interval_s * coalesce((thresholds->>'offlineAfterIntervals')::int, $1) AS "offlineWindowS"
        FROM nodes`,
@@ -28,7 +35,14 @@ async function watchedNodes(sequelize: Sequelize, offlineAfterIntervals: number,
 }
 
 /** Which silent node explains which: with no uplink marked, every silent node stands alone. */
-export async function attribute(sequelize: Sequelize, silent: SilentNode[], now: Date, windowS: number, offlineAfterIntervals: number, transaction: Transaction): Promise<Attribution> {
+export async function attribute(
+  sequelize: Sequelize,
+  silent: SilentNode[],
+  now: Date,
+  windowS: number,
+  offlineAfterIntervals: number,
+  transaction: Transaction,
+): Promise<Attribution> {
   const ids = silent.map((s) => s.nodeId);
   const topology = await currentTopology(sequelize, transaction);
   if (!topology.graph.uplinkIds.length) return { roots: ids, stranded: [], deferred: [] };
@@ -41,7 +55,13 @@ export async function attribute(sequelize: Sequelize, silent: SilentNode[], now:
  * partition notice to admins. The roots' outage mail comes after, from the check's writeDueOfflineAlerts.
  */
 export async function judgeSilentNodes(
-  sequelize: Sequelize, config: Config, silent: SilentNode[], now: Date, windowS: number, offlineAfterIntervals: number, transaction: Transaction,
+  sequelize: Sequelize,
+  config: Config,
+  silent: SilentNode[],
+  now: Date,
+  windowS: number,
+  offlineAfterIntervals: number,
+  transaction: Transaction,
 ) {
   const events: Events[] = [];
   if (!silent.length) return events;
@@ -56,12 +76,20 @@ export async function judgeSilentNodes(
   events.push(...rootEvents);
   const opened = rootEvents.flatMap((ev) => (ev.outage?.kind === 'opened' ? [ev.outage.outageId] : []));
   const upstreamIds = [...new Set(a.stranded.map((s) => s.rootNodeId))];
-  const outageOfRoot = await openOutagesOf(sequelize, upstreamIds.filter((id) => a.stranded.some((s) => s.rootNodeId === id && s.cause === 'outage')), transaction);
+  const outageOfRoot = await openOutagesOf(
+    sequelize,
+    upstreamIds.filter((id) => a.stranded.some((s) => s.rootNodeId === id && s.cause === 'outage')),
+    transaction,
+  );
   const names = new Map(
     upstreamIds.length
-      ? (await sequelize.query<{ id: number; name: string }>('SELECT id, name FROM nodes WHERE id = ANY($1::int[])', {
-        bind: [upstreamIds], type: QueryTypes.SELECT, transaction,
-      })).map((r) => [r.id, r.name])
+      ? (
+          await sequelize.query<{ id: number; name: string }>('SELECT id, name FROM nodes WHERE id = ANY($1::int[])', {
+            bind: [upstreamIds],
+            type: QueryTypes.SELECT,
+            transaction,
+          })
+        ).map((r) => [r.id, r.name])
       : [],
   );
   const touched = new Set<number>();
@@ -80,7 +108,8 @@ export async function judgeSilentNodes(
       partitionNodes++;
       if (s.rootNodeId === s.nodeId) partitionUplinks.push(s.nodeId);
     }
-    const reason = s.cause === 'partition' ? 'Parapet lost sight of the network at its uplink' : `cut off behind ${names.get(s.rootNodeId) ?? 'an upstream node'}`;
+    const reason =
+      s.cause === 'partition' ? 'Parapet lost sight of the network at its uplink' : `cut off behind ${names.get(s.rootNodeId) ?? 'an upstream node'}`;
     strandMoves.push({ ...node, from: node.state, to: 'stranded', reason, rootNodeId: s.rootNodeId, outageId, cause: s.cause });
   }
   const strandEvents = await recordDownMoves(sequelize, strandMoves, now, transaction);
@@ -93,7 +122,13 @@ export async function judgeSilentNodes(
         ORDER BY m.k
        ON CONFLICT (node_id) WHERE ended_at IS NULL DO NOTHING`,
       {
-        bind: [strandMoves.map((m) => m.nodeId), strandMoves.map((m) => m.rootNodeId), strandMoves.map((m) => m.outageId), strandMoves.map((m) => m.cause), now],
+        bind: [
+          strandMoves.map((m) => m.nodeId),
+          strandMoves.map((m) => m.rootNodeId),
+          strandMoves.map((m) => m.outageId),
+          strandMoves.map((m) => m.cause),
+          now,
+        ],
         transaction,
       },
     );

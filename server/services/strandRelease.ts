@@ -40,7 +40,8 @@ export async function releaseStranded(sequelize: Sequelize, config: Config, now:
   );
   const reason = 'still silent after the network upstream came back';
   const moves = due.map((d) => ({ ...d, from: 'stranded' as const, to: 'offline' as const, reason, outageStartedAt: new Date(d.releasedAt) }));
-  if (due.length) await sequelize.query('UPDATE stranded_nodes SET ended_at = $2 WHERE id = ANY($1::int[])', { bind: [due.map((d) => d.rowId), now], transaction });
+  if (due.length)
+    await sequelize.query('UPDATE stranded_nodes SET ended_at = $2 WHERE id = ANY($1::int[])', { bind: [due.map((d) => d.rowId), now], transaction });
   const events = await recordDownMoves(sequelize, moves, now, transaction);
   return events;
 }

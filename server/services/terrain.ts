@@ -4,7 +4,13 @@ import { geodesicDistanceKm, geodesicPoints, type GeoPoint } from '../../shared/
 import type { GroundPoint } from '../../shared/radio/lineOfSight';
 import { elevationM, tilesForPoint, type HgtTile } from '../../shared/terrain/hgt';
 
-export interface TileSummary { name: string; south: number; west: number; samplesPerSide: number; createdAt: string }
+export interface TileSummary {
+  name: string;
+  south: number;
+  west: number;
+  samplesPerSide: number;
+  createdAt: string;
+}
 
 /** Decoded tiles kept in memory by name and upload time, so a second budget over the same ground reads no bytea. */
 const cache = new Map<string, { createdAt: number; tile: HgtTile }>();
@@ -17,7 +23,10 @@ export async function saveTile(sequelize: Sequelize, tile: HgtTile, bytes: Uint8
     `INSERT INTO terrain_tiles (name, south, west, samples_per_side, data, uploaded_by) VALUES ($1, $2, $3, $4, $5, $6)
      ON CONFLICT (name) DO UPDATE SET data = EXCLUDED.data, samples_per_side = EXCLUDED.samples_per_side, uploaded_by = EXCLUDED.uploaded_by, created_at = now()
      RETURNING created_at AS "createdAt"`,
-    { bind: [tile.name, tile.south, tile.west, tile.samplesPerSide, Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength), userId], type: QueryTypes.SELECT },
+    {
+      bind: [tile.name, tile.south, tile.west, tile.samplesPerSide, Buffer.from(bytes.buffer, bytes.byteOffset, bytes.byteLength), userId],
+      type: QueryTypes.SELECT,
+    },
   );
   cache.delete(tile.name);
   return { name: tile.name, south: tile.south, west: tile.west, samplesPerSide: tile.samplesPerSide, createdAt: row.createdAt.toISOString() };
@@ -49,7 +58,10 @@ async function loadTiles(sequelize: Sequelize, names: string[]): Promise<Map<str
       out.set(s.name, hit.tile);
       continue;
     }
-    const [row] = await sequelize.query<{ data: Buffer; south: number; west: number }>(`SELECT data, south, west FROM terrain_tiles WHERE name = $1`, { bind: [s.name], type: QueryTypes.SELECT });
+    const [row] = await sequelize.query<{ data: Buffer; south: number; west: number }>(`SELECT data, south, west FROM terrain_tiles WHERE name = $1`, {
+      bind: [s.name],
+      type: QueryTypes.SELECT,
+    });
     const view = new DataView(row.data.buffer, row.data.byteOffset, row.data.byteLength);
     const samples = new Int16Array(s.samplesPerSide * s.samplesPerSide);
     for (let i = 0; i < samples.length; i++) samples[i] = view.getInt16(i * 2, false);
@@ -76,7 +88,11 @@ export async function terrainProfile(sequelize: Sequelize, a: GeoPoint, b: GeoPo
   const needed = [...new Set(points.flatMap((p) => tilesForPoint(p.lat, p.lon)))];
   const crossed = new Set(points.map((p) => tilesForPoint(p.lat, p.lon)[0]));
   if (crossed.size > MAX_TILES_PER_PATH) {
-    throw new PlanningError(400, 'terrain_path_too_long', `The path crosses ${crossed.size} elevation tiles; terrain profiles are drawn over at most ${MAX_TILES_PER_PATH} tiles. Plan it without terrain, or in shorter hops.`);
+    throw new PlanningError(
+      400,
+      'terrain_path_too_long',
+      `The path crosses ${crossed.size} elevation tiles; terrain profiles are drawn over at most ${MAX_TILES_PER_PATH} tiles. Plan it without terrain, or in shorter hops.`,
+    );
   }
   const tiles = await loadTiles(sequelize, needed);
   const missing = new Set<string>();
@@ -94,7 +110,11 @@ export async function terrainProfile(sequelize: Sequelize, a: GeoPoint, b: GeoPo
     }
     if (ground === null) {
       if (voidIn) {
-        throw new PlanningError(400, 'terrain_void', `Tile ${voidIn} has no data (void) at ${p.lat.toFixed(4)}, ${p.lon.toFixed(4)}, ${p.distanceKm.toFixed(2)} km from a; upload a void-filled version of ${voidIn}.hgt.`);
+        throw new PlanningError(
+          400,
+          'terrain_void',
+          `Tile ${voidIn} has no data (void) at ${p.lat.toFixed(4)}, ${p.lon.toFixed(4)}, ${p.distanceKm.toFixed(2)} km from a; upload a void-filled version of ${voidIn}.hgt.`,
+        );
       }
       missing.add(names[0]);
       continue;
@@ -103,7 +123,11 @@ export async function terrainProfile(sequelize: Sequelize, a: GeoPoint, b: GeoPo
   }
   if (missing.size > 0) {
     const list = [...missing].map((m) => `${m}.hgt`).join(', ');
-    throw new PlanningError(400, 'terrain_not_covered', `The path is not covered by the uploaded elevation tiles: missing ${list}. An admin can upload ${missing.size === 1 ? 'it' : 'them'} under Terrain tiles.`);
+    throw new PlanningError(
+      400,
+      'terrain_not_covered',
+      `The path is not covered by the uploaded elevation tiles: missing ${list}. An admin can upload ${missing.size === 1 ? 'it' : 'them'} under Terrain tiles.`,
+    );
   }
   return out;
 }

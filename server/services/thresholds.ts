@@ -7,7 +7,9 @@ let cached: { at: number; value: Partial<HealthThresholds> } | null = null;
 /** Network thresholds (admin setting) over the defaults; a node's own overrides on top. */
 export async function thresholdsFor(sequelize: Sequelize, nodeOverrides: Partial<HealthThresholds> | null): Promise<HealthThresholds> {
   if (!cached || Date.now() - cached.at >= ingestCacheMs()) {
-    const rows = await sequelize.query<{ thresholds: Partial<HealthThresholds> }>('SELECT thresholds FROM network_settings WHERE id = 1', { type: QueryTypes.SELECT });
+    const rows = await sequelize.query<{ thresholds: Partial<HealthThresholds> }>('SELECT thresholds FROM network_settings WHERE id = 1', {
+      type: QueryTypes.SELECT,
+    });
     cached = { at: Date.now(), value: rows[0]?.thresholds ?? {} };
   }
   return { ...DEFAULT_THRESHOLDS, ...cached.value, ...(nodeOverrides ?? {}) };

@@ -8,9 +8,16 @@ type LinkRow = { id: number; name: string | null; status: string; nodeAId: numbe
 };
 
 const end = (r: LinkRow, p: 'a' | 'b'): RadioEnd => ({
-  band: r[`${p}_band`], channel: r[`${p}_channel`], channelWidthMHz: r[`${p}_channelWidthMHz`], txPowerDbm: r[`${p}_txPowerDbm`],
-  antennaGainDbi: r[`${p}_antennaGainDbi`], cableLossDb: r[`${p}_cableLossDb`], latitude: r[`${p}_latitude`], longitude: r[`${p}_longitude`],
-  groundElevationM: r[`${p}_groundElevationM`], antennaHeightM: r[`${p}_antennaHeightM`],
+  band: r[`${p}_band`],
+  channel: r[`${p}_channel`],
+  channelWidthMHz: r[`${p}_channelWidthMHz`],
+  txPowerDbm: r[`${p}_txPowerDbm`],
+  antennaGainDbi: r[`${p}_antennaGainDbi`],
+  cableLossDb: r[`${p}_cableLossDb`],
+  latitude: r[`${p}_latitude`],
+  longitude: r[`${p}_longitude`],
+  groundElevationM: r[`${p}_groundElevationM`],
+  antennaHeightM: r[`${p}_antennaHeightM`],
 });
 
 const radioCols = (p: 'a' | 'b') => `
@@ -36,9 +43,16 @@ export async function linksWithPrediction(sequelize: Sequelize, nodeIds: number[
   return rows.map((r) => {
     const p = predictLink(end(r, 'a'), end(r, 'b'));
     return {
-      id: r.id, name: r.name, status: r.status, nodeAId: r.nodeAId, nodeBId: r.nodeBId,
-      distanceKm: p?.distanceKm ?? null, predictedSignalDbm: p?.rxSignalDbm ?? null, fadeMarginDb: p?.fadeMarginDb ?? null,
-      expectedRateMbps: p?.expectedRateMbps ?? null, measuredSignalDbm: r.measuredSignalDbm,
+      id: r.id,
+      name: r.name,
+      status: r.status,
+      nodeAId: r.nodeAId,
+      nodeBId: r.nodeBId,
+      distanceKm: p?.distanceKm ?? null,
+      predictedSignalDbm: p?.rxSignalDbm ?? null,
+      fadeMarginDb: p?.fadeMarginDb ?? null,
+      expectedRateMbps: p?.expectedRateMbps ?? null,
+      measuredSignalDbm: r.measuredSignalDbm,
     };
   });
 }
@@ -60,9 +74,15 @@ let cached: { signature: string; topology: Topology } | null = null;
 export async function currentTopology(sequelize: Sequelize, transaction?: Transaction): Promise<Topology> {
   const [{ sig }] = await sequelize.query<{ sig: string }>(SIGNATURE_SQL, { type: QueryTypes.SELECT, transaction });
   if (cached?.signature === sig) return cached.topology;
-  const nodes = await sequelize.query<{ id: number; isUplink: boolean }>('SELECT id, is_uplink AS "isUplink" FROM nodes', { type: QueryTypes.SELECT, transaction });
+  const nodes = await sequelize.query<{ id: number; isUplink: boolean }>('SELECT id, is_uplink AS "isUplink" FROM nodes', {
+    type: QueryTypes.SELECT,
+    transaction,
+  });
   const links = await linksWithPrediction(sequelize, null, transaction);
-  const graph = buildGraph(nodes, links.map((l) => ({ id: l.id, nodeAId: l.nodeAId, nodeBId: l.nodeBId, live: l.status === 'live', fadeMarginDb: l.fadeMarginDb })));
+  const graph = buildGraph(
+    nodes,
+    links.map((l) => ({ id: l.id, nodeAId: l.nodeAId, nodeBId: l.nodeBId, live: l.status === 'live', fadeMarginDb: l.fadeMarginDb })),
+  );
   const topology = { graph, paths: pathsToUplink(graph), liveReach: reachable(graph, { liveOnly: true }) };
   cached = { signature: sig, topology };
   return topology;

@@ -7,8 +7,19 @@ import { airView, maskMove, radioMoves } from './airObservations';
 import { linksWithPrediction } from './topologyGraph';
 
 export interface TopologyNodeRow {
-  id: number; name: string; siteId: number; siteName: string; neighbourhoodId: number; latitude: number; longitude: number;
-  state: NodeState; isUplink: boolean; lastSeenAt: Date | null; openOutageId: number | null; strandedBy: number | null; blastNodeCount: number;
+  id: number;
+  name: string;
+  siteId: number;
+  siteName: string;
+  neighbourhoodId: number;
+  latitude: number;
+  longitude: number;
+  state: NodeState;
+  isUplink: boolean;
+  lastSeenAt: Date | null;
+  openOutageId: number | null;
+  strandedBy: number | null;
+  blastNodeCount: number;
 }
 
 /** The nodes the caller may read, at their sites' coordinates, with their open outage and what it cuts off. */
@@ -44,8 +55,11 @@ export async function topologyFor(config: Config, sequelize: Sequelize, actor: A
   const links = predicted.map((l) => {
     const a = air.byLink.get(l.id);
     return {
-      ...l, status: l.status as LinkStatus,
-      observed: a?.observed ?? false, observedSignalDbm: a?.observedSignalDbm ?? null, lastObservedAt: a?.lastObservedAt ?? null,
+      ...l,
+      status: l.status as LinkStatus,
+      observed: a?.observed ?? false,
+      observedSignalDbm: a?.observedSignalDbm ?? null,
+      lastObservedAt: a?.lastObservedAt ?? null,
       plannedButSilent: a?.plannedButSilent ?? false,
     };
   });
@@ -54,7 +68,14 @@ export async function topologyFor(config: Config, sequelize: Sequelize, actor: A
   return { nodes, links, discoveredLinks, radioMoves: moves.map((m) => maskMove(m, ids)) };
 }
 
-export interface NeighbourhoodStateRow { neighbourhoodId: number; name: string; state: NodeState; count: number; latitude: number; longitude: number }
+export interface NeighbourhoodStateRow {
+  neighbourhoodId: number;
+  name: string;
+  state: NodeState;
+  count: number;
+  latitude: number;
+  longitude: number;
+}
 
 /**
  * Per neighbourhood holding nodes the caller may read, how many of those are in each state, with the mean

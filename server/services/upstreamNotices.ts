@@ -5,7 +5,16 @@ import { hostUpstream, partitionNotice } from '../mail/templates/upstream';
 import { consoleUrl, footerLinks, nodeAudience, recoveryUrl } from './alertAudience';
 import { enqueue } from './outbox';
 
-interface HostRow { userId: number; name: string; email: string; nodeName: string; siteName: string; quietStart: string | null; quietEnd: string | null; timeZone: string | null }
+interface HostRow {
+  userId: number;
+  name: string;
+  email: string;
+  nodeName: string;
+  siteName: string;
+  quietStart: string | null;
+  quietEnd: string | null;
+  timeZone: string | null;
+}
 
 /**
  * At most one `upstream-notice` per host and root outage, only to hosts who opted in, for nodes
@@ -33,11 +42,36 @@ export async function writeUpstreamNotices(sequelize: Sequelize, config: Config,
     if (told.has(h.userId)) continue;
     const timeZone = h.timeZone ?? 'UTC';
     const footer = footerLinks(config, h.userId, now);
-    const rendered = hostUpstream({ recipientName: h.name, nodeName: h.nodeName, siteName: h.siteName, since: new Date(outage.startedAt), timeZone, recoveryUrl: recoveryUrl(config, h.userId, outageId, now) }, footer);
-    if (await enqueue(sequelize, {
-      kind: 'upstream-notice', userId: h.userId, address: h.email, name: h.name, outageId, dedupeKey: `upstream:${outageId}:${h.userId}`,
-      rendered, unsubscribeUrl: footer.unsubscribeUrl, notBefore: quietUntil(now, timeZone, h.quietStart, h.quietEnd),
-    }, now, transaction)) written++;
+    const rendered = hostUpstream(
+      {
+        recipientName: h.name,
+        nodeName: h.nodeName,
+        siteName: h.siteName,
+        since: new Date(outage.startedAt),
+        timeZone,
+        recoveryUrl: recoveryUrl(config, h.userId, outageId, now),
+      },
+      footer,
+    );
+    if (
+      await enqueue(
+        sequelize,
+        {
+          kind: 'upstream-notice',
+          userId: h.userId,
+          address: h.email,
+          name: h.name,
+          outageId,
+          dedupeKey: `upstream:${outageId}:${h.userId}`,
+          rendered,
+          unsubscribeUrl: footer.unsubscribeUrl,
+          notBefore: quietUntil(now, timeZone, h.quietStart, h.quietEnd),
+        },
+        now,
+        transaction,
+      )
+    )
+      written++;
   }
   return written;
 }
@@ -45,7 +79,11 @@ export async function writeUpstreamNotices(sequelize: Sequelize, config: Config,
 /** One `self-check` per admin when the cut contains Parapet's own side (an uplink went silent with what hangs off it). */
 export async function writePartitionNotice(sequelize: Sequelize, config: Config, uplinkIds: number[], nodeCount: number, now: Date, transaction: Transaction) {
   if (!uplinkIds.length) return 0;
-  const uplinks = await sequelize.query<{ name: string }>('SELECT name FROM nodes WHERE id = ANY($1::int[]) ORDER BY name', { bind: [uplinkIds], type: QueryTypes.SELECT, transaction });
+  const uplinks = await sequelize.query<{ name: string }>('SELECT name FROM nodes WHERE id = ANY($1::int[]) ORDER BY name', {
+    bind: [uplinkIds],
+    type: QueryTypes.SELECT,
+    transaction,
+  });
   const admins = await sequelize.query<{ id: number; name: string; email: string; timeZone: string | null }>(
     `SELECT u.id, u.name, u.email, (SELECT time_zone FROM network_settings WHERE id = 1) AS "timeZone"
        FROM users u LEFT JOIN alert_preferences p ON p.user_id = u.id
@@ -55,9 +93,20 @@ export async function writePartitionNotice(sequelize: Sequelize, config: Config,
   let written = 0;
   for (const a of admins) {
     const footer = footerLinks(config, a.id, now);
-    const rendered = partitionNotice({ recipientName: a.name, uplinkNames: uplinks.map((u) => u.name), nodeCount, since: now, timeZone: a.timeZone ?? 'UTC', consoleUrl: consoleUrl(config) }, footer);
+    const rendered = partitionNotice(
+      { recipientName: a.name, uplinkNames: uplinks.map((u) => u.name), nodeCount, since: now, timeZone: a.timeZone ?? 'UTC', consoleUrl: consoleUrl(config) },
+      footer,
+    );
     const key = `partition:${[...uplinkIds].sort((x, y) => x - y).join(',')}:${now.toISOString()}:${a.id}`;
-    if (await enqueue(sequelize, { kind: 'self-check', userId: a.id, address: a.email, name: a.name, dedupeKey: key, rendered, unsubscribeUrl: footer.unsubscribeUrl }, now, transaction)) written++;
+    if (
+      await enqueue(
+        sequelize,
+        { kind: 'self-check', userId: a.id, address: a.email, name: a.name, dedupeKey: key, rendered, unsubscribeUrl: footer.unsubscribeUrl },
+        now,
+        transaction,
+      )
+    )
+      written++;
   }
   return written;
 }

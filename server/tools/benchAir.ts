@@ -20,7 +20,10 @@ const now = new Date();
 let hoodId = 0;
 try {
   [{ id: hoodId }] = await q<{ id: number }>('INSERT INTO neighbourhoods (name) VALUES ($1) RETURNING id', [tag]);
-  const [{ id: siteId }] = await q<{ id: number }>('INSERT INTO sites (neighbourhood_id, name, latitude, longitude) VALUES ($1, $2, 47.6, -38.4) RETURNING id', [hoodId, tag]);
+  const [{ id: siteId }] = await q<{ id: number }>(
+    'INSERT INTO sites (neighbourhood_id, name, latitude, longitude) VALUES ($1, $2, 47.6, -38.4) RETURNING id',
+    [hoodId, tag],
+  );
   const nodes = await q<{ id: number; n: number }>(
     `INSERT INTO nodes (site_id, neighbourhood_id, name) SELECT $1, $2, $3 || '-' || g FROM generate_series(1, $4) g RETURNING id, (regexp_replace(name, '.*-', ''))::int AS n`,
     [siteId, hoodId, tag, NODES],
@@ -37,7 +40,8 @@ try {
   }
   // Pairs (1,2), (3,4), …: the odd ones are in the inventory, the even ones only on the air.
   for (let n = 1; n + 1 <= NODES; n += 2) {
-    if ((n + 1) % 4 === 2) await sequelize.query(`INSERT INTO links (radio_a_id, radio_b_id, status) VALUES ($1, $2, 'live')`, { bind: [radios.get(n), radios.get(n + 1)] });
+    if ((n + 1) % 4 === 2)
+      await sequelize.query(`INSERT INTO links (radio_a_id, radio_b_id, status) VALUES ($1, $2, 'live')`, { bind: [radios.get(n), radios.get(n + 1)] });
   }
   const t0 = performance.now();
   await sequelize.query(
@@ -55,16 +59,25 @@ try {
   let result: Awaited<ReturnType<typeof airView>> | null = null;
   for (let i = 0; i < RUNS; i++) {
     const t = performance.now();
-    result = await airView(sequelize, now, { observedWindowS: 900, silentAfterS: 86_400 }, nodes.map((n) => n.id));
+    result = await airView(
+      sequelize,
+      now,
+      { observedWindowS: 900, silentAfterS: 86_400 },
+      nodes.map((n) => n.id),
+    );
     times.push(performance.now() - t);
   }
   times.sort((a, b) => a - b);
   const observed = [...result!.byLink.values()].filter((l) => l.observed).length;
-  console.log(`air view: p50 ${times[Math.floor(RUNS / 2)].toFixed(0)} ms, max ${times[RUNS - 1].toFixed(0)} ms over ${RUNS} runs; ${observed} links observed, ${result!.discoveredLinks.length} pairs discovered`);
+  console.log(
+    `air view: p50 ${times[Math.floor(RUNS / 2)].toFixed(0)} ms, max ${times[RUNS - 1].toFixed(0)} ms over ${RUNS} runs; ${observed} links observed, ${result!.discoveredLinks.length} pairs discovered`,
+  );
 } finally {
   if (hoodId) {
     await sequelize.query('DELETE FROM heartbeats WHERE node_id IN (SELECT id FROM nodes WHERE neighbourhood_id = $1)', { bind: [hoodId] });
-    await sequelize.query('DELETE FROM links WHERE radio_a_id IN (SELECT r.id FROM radios r JOIN nodes n ON n.id = r.node_id WHERE n.neighbourhood_id = $1)', { bind: [hoodId] });
+    await sequelize.query('DELETE FROM links WHERE radio_a_id IN (SELECT r.id FROM radios r JOIN nodes n ON n.id = r.node_id WHERE n.neighbourhood_id = $1)', {
+      bind: [hoodId],
+    });
     await sequelize.query('DELETE FROM radios WHERE node_id IN (SELECT id FROM nodes WHERE neighbourhood_id = $1)', { bind: [hoodId] });
     await sequelize.query('DELETE FROM nodes WHERE neighbourhood_id = $1', { bind: [hoodId] });
     await sequelize.query('DELETE FROM sites WHERE neighbourhood_id = $1', { bind: [hoodId] });

@@ -35,17 +35,34 @@ const seqs = nodes.map(() => 0);
 // BENCH_SERVER_URL loads a server you started yourself (e.g. under a profiler); its ingest rate limit must be high.
 const server = process.env.BENCH_SERVER_URL
   ? { url: process.env.BENCH_SERVER_URL, stop: async () => {} }
-  : await startServerProcess({ DATABASE_URL: databaseUrl, INGEST_RATE_LIMIT_PER_MIN: '100000000', JOBS_ENABLED: 'false', SESSION_SECRET: 'bench-secret-bench-secret', DATABASE_POOL_MAX: '20' });
+  : await startServerProcess({
+      DATABASE_URL: databaseUrl,
+      INGEST_RATE_LIMIT_PER_MIN: '100000000',
+      JOBS_ENABLED: 'false',
+      SESSION_SECRET: 'bench-secret-bench-secret',
+      DATABASE_POOL_MAX: '20',
+    });
 const bare = await startServerProcess({}, { args: ['--import', 'tsx', 'server/tools/benchBareServer.ts'] });
 
 const report = (i: number) => ({
-  seq: ++seqs[i], sentAt: new Date().toISOString(), uptimeS: 1000 + seqs[i], load1: 0.3, throughputMbps: 42.5, latencyMs: 12,
-  radios: [{ iface: 'wlan0', channel: 36, channelWidthMHz: 40, signalDbm: -62, noiseDbm: -95, txRateMbps: 150, rxRateMbps: 135 }, { iface: 'wlan1', clients: 5 }],
+  seq: ++seqs[i],
+  sentAt: new Date().toISOString(),
+  uptimeS: 1000 + seqs[i],
+  load1: 0.3,
+  throughputMbps: 42.5,
+  latencyMs: 12,
+  radios: [
+    { iface: 'wlan0', channel: 36, channelWidthMHz: 40, signalDbm: -62, noiseDbm: -95, txRateMbps: 150, rxRateMbps: 135 },
+    { iface: 'wlan1', clients: 5 },
+  ],
 });
 
 // Every (node, seq) the server answered 202 for, to look up afterwards.
 const answered = new Map<number, number[]>();
-interface Sent { i: number; seqs: number[] }
+interface Sent {
+  i: number;
+  seqs: number[];
+}
 
 async function phase(name: string, url: string, perRequest: number, connections: number) {
   let next = 0;
@@ -53,28 +70,32 @@ async function phase(name: string, url: string, perRequest: number, connections:
     url,
     connections,
     duration: DURATION_S,
-    requests: [{
-      method: 'POST',
-      path: '/api/v1/heartbeats',
-      setupRequest: (req, context) => {
-        const i = next++ % NODES;
-        const reports = Array.from({ length: perRequest }, () => report(i));
-        (context as { sent?: Sent }).sent = { i, seqs: reports.map((r) => r.seq) };
-        const body = perRequest === 1 ? reports[0] : { reports };
-        return { ...req, headers: { ...req.headers, authorization: `Bearer ${tokens[i]}`, 'content-type': 'application/json' }, body: JSON.stringify(body) };
+    requests: [
+      {
+        method: 'POST',
+        path: '/api/v1/heartbeats',
+        setupRequest: (req, context) => {
+          const i = next++ % NODES;
+          const reports = Array.from({ length: perRequest }, () => report(i));
+          (context as { sent?: Sent }).sent = { i, seqs: reports.map((r) => r.seq) };
+          const body = perRequest === 1 ? reports[0] : { reports };
+          return { ...req, headers: { ...req.headers, authorization: `Bearer ${tokens[i]}`, 'content-type': 'application/json' }, body: JSON.stringify(body) };
+        },
+        onResponse: (status, _body, context) => {
+          const sent = (context as { sent?: Sent }).sent;
+          if (status !== 202 || !sent || url !== server.url) return;
+          const id = nodes[sent.i].id;
+          if (!answered.has(id)) answered.set(id, []);
+          answered.get(id)!.push(...sent.seqs);
+        },
       },
-      onResponse: (status, _body, context) => {
-        const sent = (context as { sent?: Sent }).sent;
-        if (status !== 202 || !sent || url !== server.url) return;
-        const id = nodes[sent.i].id;
-        if (!answered.has(id)) answered.set(id, []);
-        answered.get(id)!.push(...sent.seqs);
-      },
-    }],
+    ],
   });
   const perS = result.requests.average * perRequest;
-  console.log(`${name}: ${perS.toFixed(0)} reports/s (${result.requests.average.toFixed(0)} requests/s), ` +
-    `latency p50 ${result.latency.p50} ms, p99 ${result.latency.p99} ms, ${result['2xx']} answered 2xx, ${result.non2xx} refused, ${result.errors} errors`);
+  console.log(
+    `${name}: ${perS.toFixed(0)} reports/s (${result.requests.average.toFixed(0)} requests/s), ` +
+      `latency p50 ${result.latency.p50} ms, p99 ${result.latency.p99} ms, ${result['2xx']} answered 2xx, ${result.non2xx} refused, ${result.errors} errors`,
+  );
   return { perS, p99: result.latency.p99 };
 }
 
@@ -122,13 +143,17 @@ async function countLost() {
  * its transition), which is not what steady ingest costs. */
 async function warmUp() {
   for (let start = 0; start < NODES; start += 10) {
-    await Promise.all(nodes.slice(start, start + 10).map(async (_n, k) => {
-      const i = start + k;
-      const res = await fetch(`${server.url}/api/v1/heartbeats`, {
-        method: 'POST', headers: { authorization: `Bearer ${tokens[i]}`, 'content-type': 'application/json' }, body: JSON.stringify(report(i)),
-      });
-      if (res.status !== 202) throw new Error(`warm-up report refused with ${res.status}: ${await res.text()}`);
-    }));
+    await Promise.all(
+      nodes.slice(start, start + 10).map(async (_n, k) => {
+        const i = start + k;
+        const res = await fetch(`${server.url}/api/v1/heartbeats`, {
+          method: 'POST',
+          headers: { authorization: `Bearer ${tokens[i]}`, 'content-type': 'application/json' },
+          body: JSON.stringify(report(i)),
+        });
+        if (res.status !== 202) throw new Error(`warm-up report refused with ${res.status}: ${await res.text()}`);
+      }),
+    );
   }
 }
 
@@ -143,12 +168,20 @@ try {
   const lost = await countLost();
   const answeredCount = [...answered.values()].reduce((n, s) => n + s.length, 0);
   console.log(`rows: ${answeredCount} reports answered 202, ${lost === 0 ? 'every one found in the database' : `${lost} not found in the database`}`);
-  console.log(`ratios: single reports ${ratio(single.perS, bareRun.perS)} × bare Express (goal ≥ 0.6, p99 ${single.p99} ms, goal < 100 ms); ` +
-    `batches ${ratio(batched.perS, copyPerS)} × COPY (goal ≥ 0.4)`);
-  console.log(JSON.stringify({
-    singleReportsPerS: Math.round(single.perS), singleP99Ms: single.p99, batchedReportsPerS: Math.round(batched.perS),
-    bareExpressPerS: Math.round(bareRun.perS), copyRowsPerS: Math.round(copyPerS), lost,
-  }));
+  console.log(
+    `ratios: single reports ${ratio(single.perS, bareRun.perS)} × bare Express (goal ≥ 0.6, p99 ${single.p99} ms, goal < 100 ms); ` +
+      `batches ${ratio(batched.perS, copyPerS)} × COPY (goal ≥ 0.4)`,
+  );
+  console.log(
+    JSON.stringify({
+      singleReportsPerS: Math.round(single.perS),
+      singleP99Ms: single.p99,
+      batchedReportsPerS: Math.round(batched.perS),
+      bareExpressPerS: Math.round(bareRun.perS),
+      copyRowsPerS: Math.round(copyPerS),
+      lost,
+    }),
+  );
 } finally {
   await server.stop();
   await bare.stop();

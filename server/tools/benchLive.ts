@@ -24,25 +24,38 @@ const site = await Site.create({ name: `Live bench site ${run}`, neighbourhoodId
 const nodes = await Node.bulkCreate(Array.from({ length: POSTS }, (_, i) => ({ name: `live-${run}-${i}`, siteId: site.id, neighbourhoodId: hood.id })));
 const tokens = await Promise.all(nodes.map((n) => rotateToken(sequelize, n.id, new Date())));
 const watcher = await User.create({ email: `bench-${run}@parapet.example`, name: 'Bench watcher', role: 'admin', passwordHash: await hashPassword(password) });
-const server = await startServerProcess({ DATABASE_URL: databaseUrl, JOBS_ENABLED: 'false', SESSION_SECRET: 'bench-secret-bench-secret', SIGNIN_LIMIT_PER_ADDRESS: '100000' });
+const server = await startServerProcess({
+  DATABASE_URL: databaseUrl,
+  JOBS_ENABLED: 'false',
+  SESSION_SECRET: 'bench-secret-bench-secret',
+  SIGNIN_LIMIT_PER_ADDRESS: '100000',
+});
 
 const sockets: Socket[] = [];
 try {
-  const signIn = await fetch(`${server.url}/api/v1/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email: watcher.email, password }) });
+  const signIn = await fetch(`${server.url}/api/v1/session`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email: watcher.email, password }),
+  });
   const cookie = sessionCookieOf(signIn);
   const sentAt = new Map<number, number>();
   const latencies: number[] = [];
   await Promise.all(
-    Array.from({ length: SOCKETS }, () => new Promise<void>((resolve, reject) => {
-      const s = connect(server.url, { transports: ['websocket'], extraHeaders: { cookie }, reconnection: false });
-      s.on('node:figures', (e: { nodeId: number }) => {
-        const t0 = sentAt.get(e.nodeId);
-        if (t0 !== undefined) latencies.push(performance.now() - t0);
-      });
-      s.on('connect', () => resolve());
-      s.on('connect_error', reject);
-      sockets.push(s);
-    })),
+    Array.from(
+      { length: SOCKETS },
+      () =>
+        new Promise<void>((resolve, reject) => {
+          const s = connect(server.url, { transports: ['websocket'], extraHeaders: { cookie }, reconnection: false });
+          s.on('node:figures', (e: { nodeId: number }) => {
+            const t0 = sentAt.get(e.nodeId);
+            if (t0 !== undefined) latencies.push(performance.now() - t0);
+          });
+          s.on('connect', () => resolve());
+          s.on('connect_error', reject);
+          sockets.push(s);
+        }),
+    ),
   );
   console.log(`bench: ${SOCKETS} sockets connected to ${server.url}; ${POSTS} reports from ${POSTS} nodes`);
   for (const [i, node] of nodes.entries()) {

@@ -114,7 +114,11 @@ const server = await startServerProcess({
   SIGNIN_LIMIT_PER_ADDRESS: '100000',
   SIGNIN_LIMIT_PER_ACCOUNT: '100000',
 });
-const browser = await chromium.launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', headless: true, args: ['--no-sandbox', '--disable-gpu', '--disable-quic'] });
+const browser = await chromium.launch({
+  executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
+  headless: true,
+  args: ['--no-sandbox', '--disable-gpu', '--disable-quic'],
+});
 try {
   const signedOut = await browser.newContext({ viewport: { width: 390, height: 844 } });
   const signedIn = await browser.newContext({ viewport: { width: 390, height: 844 } });

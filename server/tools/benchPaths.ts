@@ -17,7 +17,7 @@ const RUNS = 20;
  */
 function network() {
   let seed = 42;
-  const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+  const rand = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
   const links: GraphLink[] = [];
   const add = (a: number, b: number, live = true) => links.push({ id: links.length + 1, nodeAId: a, nodeBId: b, live, fadeMarginDb: 5 + rand() * 25 });
   const RELAYS = 10;
@@ -58,15 +58,28 @@ const topo = { graph, paths, liveReach };
 const root = 3;
 const silent = [root, ...dependants(graph, { nodeIds: [root], liveOnly: true })].slice(0, SILENT);
 const nowMs = Date.UTC(2026, 0, 1, 12);
-const watched = new Map<number, WatchedNode>(net.nodes.map((n) => [n.id, {
-  ...n, state: 'online', reportIntervalS: 60, offlineWindowS: 180, lastSeenAtMs: nowMs - (silent.includes(n.id) ? 181_000 : 30_000),
-}]));
+const watched = new Map<number, WatchedNode>(
+  net.nodes.map((n) => [
+    n.id,
+    {
+      ...n,
+      state: 'online',
+      reportIntervalS: 60,
+      offlineWindowS: 180,
+      lastSeenAtMs: nowMs - (silent.includes(n.id) ? 181_000 : 30_000),
+    },
+  ]),
+);
 
 console.log(`network: ${NODES} nodes, ${LINKS} links (${graph.uplinkIds.length} uplinks)`);
-console.log(`paths to the uplink, all nodes:       ${median(() => pathsToUplink(buildGraph(net.nodes, net.links))).toFixed(2)} ms (graph build + label-setting pass)`);
+console.log(
+  `paths to the uplink, all nodes:       ${median(() => pathsToUplink(buildGraph(net.nodes, net.links))).toFixed(2)} ms (graph build + label-setting pass)`,
+);
 console.log(`what one failure cuts off:            ${median(() => dependants(graph, { nodeIds: [root], liveOnly: true })).toFixed(2)} ms`);
 let a = attributeSilence(topo, watched, silent, nowMs, 120);
-console.log(`attribute a ${silent.length}-node silence (pure):   ${median(() => (a = attributeSilence(topo, watched, silent, nowMs, 120))).toFixed(2)} ms → ${a.roots.length} root(s), ${a.stranded.length} stranded`);
+console.log(
+  `attribute a ${silent.length}-node silence (pure):   ${median(() => (a = attributeSilence(topo, watched, silent, nowMs, 120))).toFixed(2)} ms → ${a.roots.length} root(s), ${a.stranded.length} stranded`,
+);
 
 if (process.env.DATABASE_URL) await benchDatabase(process.env.DATABASE_URL);
 
@@ -92,17 +105,31 @@ async function benchDatabase(url: string) {
   )) as { id: number }[];
   const nodeId = (i: number) => ids[i - 1].id;
   await q('UPDATE nodes SET is_uplink = true WHERE id = ANY($1::int[])', [[nodeId(1), nodeId(2)]]);
-  await q(`INSERT INTO radios (node_id, iface, band, channel, channel_width_mhz, tx_power_dbm, antenna_gain_dbi, role, encryption)
-           SELECT id, 'wlan' || k, '5', 36, 20, 18, 23, 'backhaul-ap', 'wpa2-ccmp' FROM unnest($1::int[]) id, generate_series(0, 15) k`, [ids.map((x) => x.id)]);
+  await q(
+    `INSERT INTO radios (node_id, iface, band, channel, channel_width_mhz, tx_power_dbm, antenna_gain_dbi, role, encryption)
+           SELECT id, 'wlan' || k, '5', 36, 20, 18, 23, 'backhaul-ap', 'wpa2-ccmp' FROM unnest($1::int[]) id, generate_series(0, 15) k`,
+    [ids.map((x) => x.id)],
+  );
   const used = new Map<number, number>();
-  const radio = (n: number) => { const k = used.get(n) ?? 0; used.set(n, k + 1); return k; };
+  const radio = (n: number) => {
+    const k = used.get(n) ?? 0;
+    used.set(n, k + 1);
+    return k;
+  };
   const rows = net.links.map((l) => [nodeId(l.nodeAId), radio(l.nodeAId), nodeId(l.nodeBId), radio(l.nodeBId), l.live ? 'live' : 'planned']);
-  await q(`INSERT INTO links (radio_a_id, radio_b_id, status)
+  await q(
+    `INSERT INTO links (radio_a_id, radio_b_id, status)
            SELECT ra.id, rb.id, x.status FROM jsonb_to_recordset($1::jsonb) x(a int, ka int, b int, kb int, status text)
              JOIN radios ra ON ra.node_id = x.a AND ra.iface = 'wlan' || x.ka JOIN radios rb ON rb.node_id = x.b AND rb.iface = 'wlan' || x.kb
-           WHERE x.ka < 16 AND x.kb < 16 ON CONFLICT DO NOTHING`, [JSON.stringify(rows.map(([a, ka, b, kb, status]) => ({ a, ka, b, kb, status })))]);
+           WHERE x.ka < 16 AND x.kb < 16 ON CONFLICT DO NOTHING`,
+    [JSON.stringify(rows.map(([a, ka, b, kb, status]) => ({ a, ka, b, kb, status })))],
+  );
   const checkAt = new Date(now.getTime() + 181_000);
-  await q(`UPDATE nodes SET last_seen_at = $2 WHERE neighbourhood_id = $3 AND NOT (id = ANY($1::int[]))`, [silent.map(nodeId), new Date(checkAt.getTime() - 30_000), hood]);
+  await q(`UPDATE nodes SET last_seen_at = $2 WHERE neighbourhood_id = $3 AND NOT (id = ANY($1::int[]))`, [
+    silent.map(nodeId),
+    new Date(checkAt.getTime() - 30_000),
+    hood,
+  ]);
   await runSilenceCheck(sequelize, config, new Date(now.getTime() - 1000), 1e9); // starts watching; earlier data in this database is judged here
   const { currentTopology } = await import('../services/topologyGraph');
   const tTopo = performance.now();
@@ -111,8 +138,13 @@ async function benchDatabase(url: string) {
   const t0 = performance.now();
   const result = await runSilenceCheck(sequelize, config, checkAt, 1e9);
   const ms = performance.now() - t0;
-  const [counts] = (await q(`SELECT count(*) FILTER (WHERE state = 'offline')::int AS offline, count(*) FILTER (WHERE state = 'stranded')::int AS stranded FROM nodes WHERE neighbourhood_id = $1`, [hood])) as { offline: number; stranded: number }[];
-  console.log(`silence check on PostgreSQL attributing ${result.silenced} silent nodes (topology cached): ${ms.toFixed(0)} ms → ${counts.offline} offline, ${counts.stranded} stranded`);
+  const [counts] = (await q(
+    `SELECT count(*) FILTER (WHERE state = 'offline')::int AS offline, count(*) FILTER (WHERE state = 'stranded')::int AS stranded FROM nodes WHERE neighbourhood_id = $1`,
+    [hood],
+  )) as { offline: number; stranded: number }[];
+  console.log(
+    `silence check on PostgreSQL attributing ${result.silenced} silent nodes (topology cached): ${ms.toFixed(0)} ms → ${counts.offline} offline, ${counts.stranded} stranded`,
+  );
   await q('DELETE FROM nodes WHERE neighbourhood_id = $1', [hood]);
   await q('DELETE FROM sites WHERE neighbourhood_id = $1', [hood]);
   await q('DELETE FROM neighbourhoods WHERE id = $1', [hood]);

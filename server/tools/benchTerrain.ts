@@ -14,5 +14,17 @@ const pts = geodesicPoints({ lat: 47.05, lon: 8.05 }, { lat: 47.95, lon: 8.95 },
 const prof = pts.map((p) => ({ distanceKm: p.distanceKm, groundM: elevationM(tile, p.lat, p.lon)! }));
 console.log('2000-point profile over', pts[2000].distanceKm.toFixed(1), 'km:', (performance.now() - t).toFixed(1), 'ms');
 t = performance.now();
-for (let i = 0; i < 20; i++) computeLinkBudget({ a: { lat: 47.05, lon: 8.05, heightM: 30, groundElevationM: 100 }, b: { lat: 47.95, lon: 8.95, heightM: 30, groundElevationM: 100 }, freqMHz: 5500, channelWidthMHz: 20, txPowerDbm: 18, txAntennaGainDbi: 30, txCableLossDb: 0, rxAntennaGainDbi: 30, rxCableLossDb: 0, terrainProfile: prof });
+for (let i = 0; i < 20; i++)
+  computeLinkBudget({
+    a: { lat: 47.05, lon: 8.05, heightM: 30, groundElevationM: 100 },
+    b: { lat: 47.95, lon: 8.95, heightM: 30, groundElevationM: 100 },
+    freqMHz: 5500,
+    channelWidthMHz: 20,
+    txPowerDbm: 18,
+    txAntennaGainDbi: 30,
+    txCableLossDb: 0,
+    rxAntennaGainDbi: 30,
+    rxCableLossDb: 0,
+    terrainProfile: prof,
+  });
 console.log('link budget with that profile:', ((performance.now() - t) / 20).toFixed(1), 'ms each');

@@ -48,12 +48,13 @@ async function startProxy(targets: { name: string; url: string }[]) {
   let output = '';
   child.stdout!.on('data', (d) => (output += d));
   child.stderr!.on('data', (d) => (output += d));
-  const stop = () => new Promise<void>((resolve) => {
-    if (child.exitCode !== null || child.signalCode !== null) return resolve();
-    child.once('exit', () => resolve());
-    child.kill('SIGTERM');
-    setTimeout(() => child.kill('SIGKILL'), 5000);
-  });
+  const stop = () =>
+    new Promise<void>((resolve) => {
+      if (child.exitCode !== null || child.signalCode !== null) return resolve();
+      child.once('exit', () => resolve());
+      child.kill('SIGTERM');
+      setTimeout(() => child.kill('SIGKILL'), 5000);
+    });
   started.push({ stop });
   const deadline = Date.now() + 60_000;
   while (!output.includes('proxy listening')) {
@@ -81,7 +82,8 @@ async function tableBytes(names: string[]) {
       // A partitioned table: the sum over its tree (partitions, indexes, TOAST); a plain one: pg_partition_tree has no rows for it.
       `SELECT coalesce((SELECT sum(pg_total_relation_size(relid)) FROM pg_partition_tree(to_regclass($1))),
                        pg_total_relation_size(to_regclass($1)), 0) AS bytes`,
-      { bind: [name], type: QueryTypes.SELECT });
+      { bind: [name], type: QueryTypes.SELECT },
+    );
     bytes += Number(row.bytes ?? 0);
   }
   return bytes;
@@ -101,22 +103,34 @@ try {
   const hash = await hashPassword(password);
   await sequelize.query(
     `INSERT INTO users (email, name, role, password_hash, created_at, updated_at) VALUES ($1, 'Town bench watcher', 'admin', $2, now(), now())
-     ON CONFLICT (email) DO UPDATE SET password_hash = EXCLUDED.password_hash, active = true`, { bind: [email, hash] });
+     ON CONFLICT (email) DO UPDATE SET password_hash = EXCLUDED.password_hash, active = true`,
+    { bind: [email, hash] },
+  );
 
   const env = {
-    DATABASE_URL: databaseUrl, NODE_ENV: 'production', SESSION_SECRET: randomBytes(24).toString('hex'), JOB_TIMINGS_LOG: 'true',
-    TRUST_PROXY: 'loopback', DATABASE_POOL_MAX: process.env.BENCH_TOWN_POOL_MAX ?? '20',
+    DATABASE_URL: databaseUrl,
+    NODE_ENV: 'production',
+    SESSION_SECRET: randomBytes(24).toString('hex'),
+    JOB_TIMINGS_LOG: 'true',
+    TRUST_PROXY: 'loopback',
+    DATABASE_POOL_MAX: process.env.BENCH_TOWN_POOL_MAX ?? '20',
     // Outage mail goes nowhere: a closed loopback port, never the demo's mail fake.
-    SMTP_HOST: '127.0.0.1', SMTP_PORT: String(await freePort()),
+    SMTP_HOST: '127.0.0.1',
+    SMTP_PORT: String(await freePort()),
   };
   const [a, b] = await Promise.all([startServerProcess(env, { timeoutMs: 180_000 }), startServerProcess(env, { timeoutMs: 180_000 })]);
   started.push(a, b);
   const instances: Record<string, ServerProcess> = { a, b };
-  const proxy = await startProxy([{ name: 'a', url: a.url }, { name: 'b', url: b.url }]);
+  const proxy = await startProxy([
+    { name: 'a', url: a.url },
+    { name: 'b', url: b.url },
+  ]);
   say(`instances a ${a.url} (pid ${a.child.pid}), b ${b.url} (pid ${b.child.pid}); proxy ${proxy.url}`);
 
   const signIn = await fetch(`${a.url}/api/v1/session`, {
-    method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password }),
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password }),
   });
   if (signIn.status !== 200) throw new Error(`bench sign-in failed with ${signIn.status}: ${await signIn.text()}`);
   const cookie = sessionCookieOf(signIn);
@@ -156,8 +170,10 @@ try {
     if (r.status === 202 && r.instance) lastInstance.set(r.nodeId, r.instance);
   });
   reporter.start();
-  say(`reporting: every node every ${TOWN_REPORT_INTERVAL_S} s (${(NODES / TOWN_REPORT_INTERVAL_S).toFixed(0)} posts/s); ${reporter.flakyCount} flaky nodes; ` +
-    `a power cut every ${DEFAULT_FAULTS.powerCutEveryS} s for ${DEFAULT_FAULTS.powerCutS} s`);
+  say(
+    `reporting: every node every ${TOWN_REPORT_INTERVAL_S} s (${(NODES / TOWN_REPORT_INTERVAL_S).toFixed(0)} posts/s); ${reporter.flakyCount} flaky nodes; ` +
+      `a power cut every ${DEFAULT_FAULTS.powerCutEveryS} s for ${DEFAULT_FAULTS.powerCutS} s`,
+  );
 
   const rss: { t: number; a: number | null; b: number | null; proxy: number | null }[] = [];
   let logged = 0;
@@ -168,9 +184,11 @@ try {
     reporter!.log.slice(logged).forEach((l) => say(`  ${l}`));
     logged = reporter!.log.length;
     const c = reporter!.counts;
-    say(`t=${t}s: ${c.posts} posts, ${c.accepted} reports accepted, ${c.refused} refused, ${c.failed} failed; ` +
-      `last ${SAMPLE_S} s p50 ${pct(recent, 0.5).toFixed(0)} ms p99 ${pct(recent, 0.99).toFixed(0)} ms; RSS a ${rss.at(-1)!.a} MB, b ${rss.at(-1)!.b} MB; ` +
-      `events a ${live.a.local}+${live.a.cross} cross, b ${live.b.local}+${live.b.cross} cross`);
+    say(
+      `t=${t}s: ${c.posts} posts, ${c.accepted} reports accepted, ${c.refused} refused, ${c.failed} failed; ` +
+        `last ${SAMPLE_S} s p50 ${pct(recent, 0.5).toFixed(0)} ms p99 ${pct(recent, 0.99).toFixed(0)} ms; RSS a ${rss.at(-1)!.a} MB, b ${rss.at(-1)!.b} MB; ` +
+        `events a ${live.a.local}+${live.a.cross} cross, b ${live.b.local}+${live.b.cross} cross`,
+    );
   };
   sample();
   const sampler = setInterval(sample, SAMPLE_S * 1000);
@@ -189,8 +207,10 @@ try {
     fs.mkdirSync(process.env.BENCH_TOWN_LOG_DIR, { recursive: true });
     for (const name of ['a', 'b'] as const) fs.writeFileSync(`${process.env.BENCH_TOWN_LOG_DIR}/instance-${name}.log`, instances[name].output());
   }
-  const [stored] = await sequelize.query<{ n: string }>('SELECT count(*) AS n FROM heartbeats WHERE node_id = ANY($1::int[]) AND received_at >= $2',
-    { bind: [ids, runStart], type: QueryTypes.SELECT });
+  const [stored] = await sequelize.query<{ n: string }>('SELECT count(*) AS n FROM heartbeats WHERE node_id = ANY($1::int[]) AND received_at >= $2', {
+    bind: [ids, runStart],
+    type: QueryTypes.SELECT,
+  });
   const accepted = reporter.counts.accepted;
   const found = Number(stored.n);
   const lost = Math.max(0, accepted - found);
@@ -207,7 +227,9 @@ try {
   const rawBytes = await tableBytes(['heartbeats']);
   const rollupBytes = await tableBytes(['heartbeat_rollups']);
   const [counts] = await sequelize.query<{ raw: string; rollups: string }>(
-    'SELECT (SELECT count(*) FROM heartbeats) AS raw, (SELECT count(*) FROM heartbeat_rollups) AS rollups', { type: QueryTypes.SELECT });
+    'SELECT (SELECT count(*) FROM heartbeats) AS raw, (SELECT count(*) FROM heartbeat_rollups) AS rollups',
+    { type: QueryTypes.SELECT },
+  );
   const rawPerReport = Number(counts.raw) ? rawBytes / Number(counts.raw) : NaN;
   const rollupPerRow = Number(counts.rollups) ? rollupBytes / Number(counts.rollups) : NaN;
   const reportsPerDay = 86_400 / TOWN_REPORT_INTERVAL_S;
@@ -224,42 +246,77 @@ try {
   const maxTick = allTicks.at(-1) ?? NaN;
   const cross = live.a.cross + live.b.cross;
   const result = {
-    nodes: NODES, durationS: DURATION_S, posts: reporter.counts.posts, statuses, perInstance,
-    reportsAccepted: accepted, rowsStored: found, reportsLost: lost,
+    nodes: NODES,
+    durationS: DURATION_S,
+    posts: reporter.counts.posts,
+    statuses,
+    perInstance,
+    reportsAccepted: accepted,
+    rowsStored: found,
+    reportsLost: lost,
     latencyMs: { p50: r1(pct(latencies, 0.5)), p95: r1(pct(latencies, 0.95)), p99: r1(p99), max: r1(latencies.at(-1) ?? NaN) },
     silenceCheckTicks: {
-      leaderTicks: allTicks.length, p50Ms: r1(pct(allTicks, 0.5)), maxMs: r1(maxTick), over2s: allTicks.filter((t) => t >= TICK_TARGET_MS).length,
+      leaderTicks: allTicks.length,
+      p50Ms: r1(pct(allTicks, 0.5)),
+      maxMs: r1(maxTick),
+      over2s: allTicks.filter((t) => t >= TICK_TARGET_MS).length,
     },
-    rssMb: rss, rssGrowthAfterWarmupMb: { a: growth('a'), b: growth('b') },
-    liveEvents: live, stateEventsOnA: stateCounts, powerCuts: reporter.counts.powerCuts, flakyDrops: reporter.counts.flakyDrops,
-    storage: { rawBytes, rawRows: Number(counts.raw), rawBytesPerReport: Math.round(rawPerReport), rawBytesPerNodePerDay: Math.round(rawPerNodeDay),
-      rollupBytes, rollupRows: Number(counts.rollups), rollupBytesPerRow: Math.round(rollupPerRow), rollupBytesPerNodePerDay: Math.round(rollupPerNodeDay),
-      rawRetentionDays: config.rawRetentionDays, rollupRetentionDays: config.rollupRetentionDays, fiftyThousandNodes: year50k },
+    rssMb: rss,
+    rssGrowthAfterWarmupMb: { a: growth('a'), b: growth('b') },
+    liveEvents: live,
+    stateEventsOnA: stateCounts,
+    powerCuts: reporter.counts.powerCuts,
+    flakyDrops: reporter.counts.flakyDrops,
+    storage: {
+      rawBytes,
+      rawRows: Number(counts.raw),
+      rawBytesPerReport: Math.round(rawPerReport),
+      rawBytesPerNodePerDay: Math.round(rawPerNodeDay),
+      rollupBytes,
+      rollupRows: Number(counts.rollups),
+      rollupBytesPerRow: Math.round(rollupPerRow),
+      rollupBytesPerNodePerDay: Math.round(rollupPerNodeDay),
+      rawRetentionDays: config.rawRetentionDays,
+      rollupRetentionDays: config.rollupRetentionDays,
+      fiftyThousandNodes: year50k,
+    },
   };
   const verdict = (ok: boolean) => (ok ? 'met' : 'MISSED');
   console.log('');
-  console.log(`reports: ${accepted} accepted (202), ${found} rows stored — ${lost === 0 ? 'nothing lost' : `${lost} LOST`}; ` +
-    `statuses ${JSON.stringify(statuses)}; ` +
-    `posts per instance ${JSON.stringify(perInstance)}`);
+  console.log(
+    `reports: ${accepted} accepted (202), ${found} rows stored — ${lost === 0 ? 'nothing lost' : `${lost} LOST`}; ` +
+      `statuses ${JSON.stringify(statuses)}; ` +
+      `posts per instance ${JSON.stringify(perInstance)}`,
+  );
   const l = result.latencyMs;
-  console.log(`latency through the proxy: p50 ${l.p50} ms, p95 ${l.p95} ms, p99 ${l.p99} ms, max ${l.max} ms ` +
-    `(target p99 < ${P99_TARGET_MS} ms: ${verdict(p99 < P99_TARGET_MS)})`);
+  console.log(
+    `latency through the proxy: p50 ${l.p50} ms, p95 ${l.p95} ms, p99 ${l.p99} ms, max ${l.max} ms ` +
+      `(target p99 < ${P99_TARGET_MS} ms: ${verdict(p99 < P99_TARGET_MS)})`,
+  );
   const st = result.silenceCheckTicks;
-  console.log(`silence check: ${allTicks.length} leader ticks (a ${ticks.a.length}, b ${ticks.b.length}), p50 ${st.p50Ms} ms, max ${st.maxMs} ms ` +
-    `(target every tick < ${TICK_TARGET_MS} ms: ${verdict(result.silenceCheckTicks.over2s === 0 && allTicks.length > 0)})`);
+  console.log(
+    `silence check: ${allTicks.length} leader ticks (a ${ticks.a.length}, b ${ticks.b.length}), p50 ${st.p50Ms} ms, max ${st.maxMs} ms ` +
+      `(target every tick < ${TICK_TARGET_MS} ms: ${verdict(result.silenceCheckTicks.over2s === 0 && allTicks.length > 0)})`,
+  );
   console.log(`memory (RSS MB every ${SAMPLE_S} s) a: ${rss.map((s) => s.a).join(' ')}`);
   console.log(`memory (RSS MB every ${SAMPLE_S} s) b: ${rss.map((s) => s.b).join(' ')}`);
   console.log(`memory growth after warm-up: a ${growth('a')} MB, b ${growth('b')} MB`);
-  console.log(`live events: socket on a got ${live.a.cross} figures events for reports ingested by b (${live.a.local} local); ` +
-    `socket on b got ${live.b.cross} for reports ingested by a (${live.b.local} local); ` +
-    `state events a ${live.a.states}, b ${live.b.states} ${JSON.stringify(stateCounts)} ` +
-    `(${verdict(live.a.cross > 0 && live.b.cross > 0)})`);
+  console.log(
+    `live events: socket on a got ${live.a.cross} figures events for reports ingested by b (${live.a.local} local); ` +
+      `socket on b got ${live.b.cross} for reports ingested by a (${live.b.local} local); ` +
+      `state events a ${live.a.states}, b ${live.b.states} ${JSON.stringify(stateCounts)} ` +
+      `(${verdict(live.a.cross > 0 && live.b.cross > 0)})`,
+  );
   for (const [kind, p] of reporter.problems) console.log(`problem ${kind}: ${p.count} times, first: ${p.example}`);
   console.log(`faults: ${reporter.counts.powerCuts} power cuts, ${reporter.counts.flakyDrops} flaky drop-outs`);
-  console.log(`storage: raw ${shown(rawPerReport)} B per report → ${shown(rawPerNodeDay / 1e6, 2)} MB per node per day at ${TOWN_REPORT_INTERVAL_S} s; ` +
-    `roll-ups ${shown(rollupPerRow)} B per row → ${shown(rollupPerNodeDay / 1e3, 1)} kB per node per day (5-min + hourly)`);
-  console.log(`50,000 nodes: raw held (${config.rawRetentionDays} days) ${year50k.rawHeldGB} GB; ` +
-    `roll-ups add ${year50k.rollupsPerYearGB} GB a year (kept ${config.rollupRetentionDays} days)`);
+  console.log(
+    `storage: raw ${shown(rawPerReport)} B per report → ${shown(rawPerNodeDay / 1e6, 2)} MB per node per day at ${TOWN_REPORT_INTERVAL_S} s; ` +
+      `roll-ups ${shown(rollupPerRow)} B per row → ${shown(rollupPerNodeDay / 1e3, 1)} kB per node per day (5-min + hourly)`,
+  );
+  console.log(
+    `50,000 nodes: raw held (${config.rawRetentionDays} days) ${year50k.rawHeldGB} GB; ` +
+      `roll-ups add ${year50k.rollupsPerYearGB} GB a year (kept ${config.rollupRetentionDays} days)`,
+  );
   if (cross === 0) console.log('note: no event crossed instances');
   console.log(JSON.stringify({ bench: 'town', ...result }));
   process.exitCode = 0;

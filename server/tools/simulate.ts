@@ -17,17 +17,34 @@ const FLAKY_NODE = process.env.SIMULATOR_FLAKY_NODE ?? DEMO_QUIRKS.flakyNode;
 const FLAKY_EVERY_S = 25 * 60;
 const FLAKY_DOWN_S = 5 * 60;
 
-interface TopologyLink { nodeAId: number; nodeBId: number; predictedSignalDbm: number | null; expectedRateMbps: number | null }
+interface TopologyLink {
+  nodeAId: number;
+  nodeBId: number;
+  predictedSignalDbm: number | null;
+  expectedRateMbps: number | null;
+}
 interface SimNode {
-  node: NodeDto; radios: RadioDto[]; token: string; bootId: string; seq: number; fadeDb: number;
-  predicted: Map<number, number>; peerOf: Map<number, number>; unsent: object[];
+  node: NodeDto;
+  radios: RadioDto[];
+  token: string;
+  bootId: string;
+  seq: number;
+  fadeDb: number;
+  predicted: Map<number, number>;
+  peerOf: Map<number, number>;
+  unsent: object[];
 }
 /** Like the agent: reports the server did not take (503, no answer) are kept and sent again, at most this many. */
 const BUFFER_MAX = 500;
-interface InventoryLink { radioAId: number; radioBId: number; status: string }
+interface InventoryLink {
+  radioAId: number;
+  radioBId: number;
+  status: string;
+}
 
 /** A made-up, locally administered MAC per radio (the 02: prefix), so reports name their peers as real radios do. */
-const simulatedMac = (radioId: number) => `02:50:61:${[(radioId >> 16) & 255, (radioId >> 8) & 255, radioId & 255].map((b) => b.toString(16).padStart(2, '0')).join(':')}`;
+const simulatedMac = (radioId: number) =>
+  `02:50:61:${[(radioId >> 16) & 255, (radioId >> 8) & 255, radioId & 255].map((b) => b.toString(16).padStart(2, '0')).join(':')}`;
 
 const api = new ApiClient(baseUrl);
 const tokens: Record<string, string> = fs.existsSync(tokenFile) ? JSON.parse(fs.readFileSync(tokenFile, 'utf8')) : {};
@@ -82,18 +99,32 @@ function reportFor(sim: SimNode, now: Date) {
     const driftDb = sim.node.name === DEMO_QUIRKS.driftingNode && r.role === 'backhaul-client' ? DEMO_QUIRKS.driftDb : 0;
     const signal = isBackhaul && backhaulSignal !== undefined ? backhaulSignal + sim.fadeDb - driftDb : -55 - Math.random() * 15;
     return {
-      iface: r.iface, role: r.role, band: r.band, channel: DEMO_QUIRKS.channels[sim.node.name]?.[r.iface] ?? r.channel, channelWidthMHz: r.channelWidthMHz, ssid: r.ssid ?? undefined,
-      signalDbm: round1(Math.max(-119, Math.min(-1, signal))), noiseDbm: round1(-95 + gauss() * 0.8),
-      txRateMbps: isBackhaul ? 150 : 72, rxRateMbps: isBackhaul ? 135 : 65,
+      iface: r.iface,
+      role: r.role,
+      band: r.band,
+      channel: DEMO_QUIRKS.channels[sim.node.name]?.[r.iface] ?? r.channel,
+      channelWidthMHz: r.channelWidthMHz,
+      ssid: r.ssid ?? undefined,
+      signalDbm: round1(Math.max(-119, Math.min(-1, signal))),
+      noiseDbm: round1(-95 + gauss() * 0.8),
+      txRateMbps: isBackhaul ? 150 : 72,
+      rxRateMbps: isBackhaul ? 135 : 65,
       clients: r.role === 'access-point' ? Math.round(2 + 10 * eveningLoad * Math.random()) : undefined,
       mac: simulatedMac(r.id),
       peerMac: isBackhaul && sim.peerOf.has(r.id) ? simulatedMac(sim.peerOf.get(r.id)!) : undefined,
     };
   });
   return {
-    seq: ++sim.seq, bootId: sim.bootId, sentAt: now.toISOString(), uptimeS: Math.round(process.uptime() + 86_400), load1: round1(0.1 + eveningLoad * 0.8),
-    memFreeKb: 30_000 + Math.round(Math.random() * 5000), firmware: DEMO_QUIRKS.firmware[sim.node.name] ?? sim.node.firmware ?? undefined,
-    throughputMbps: round1(Math.max(1, 60 * (1 - 0.6 * eveningLoad) + gauss() * 3)), latencyMs: round1(8 + 20 * eveningLoad + Math.abs(gauss()) * 4), radios,
+    seq: ++sim.seq,
+    bootId: sim.bootId,
+    sentAt: now.toISOString(),
+    uptimeS: Math.round(process.uptime() + 86_400),
+    load1: round1(0.1 + eveningLoad * 0.8),
+    memFreeKb: 30_000 + Math.round(Math.random() * 5000),
+    firmware: DEMO_QUIRKS.firmware[sim.node.name] ?? sim.node.firmware ?? undefined,
+    throughputMbps: round1(Math.max(1, 60 * (1 - 0.6 * eveningLoad) + gauss() * 3)),
+    latencyMs: round1(8 + 20 * eveningLoad + Math.abs(gauss()) * 4),
+    radios,
   };
 }
 
@@ -104,7 +135,8 @@ async function send(sim: SimNode) {
   sim.unsent.splice(0, Math.max(0, sim.unsent.length - BUFFER_MAX));
   const batch = sim.unsent.slice();
   const body = JSON.stringify(batch.length === 1 ? batch[0] : { reports: batch });
-  const post = () => fetch(`${baseUrl}/api/v1/heartbeats`, { method: 'POST', headers: { authorization: `Bearer ${sim.token}`, 'content-type': 'application/json' }, body });
+  const post = () =>
+    fetch(`${baseUrl}/api/v1/heartbeats`, { method: 'POST', headers: { authorization: `Bearer ${sim.token}`, 'content-type': 'application/json' }, body });
   let res: Response;
   try {
     res = await post();
@@ -117,19 +149,27 @@ async function send(sim: SimNode) {
     return;
   }
   if (res.status === 202 || res.status === 400) sim.unsent.splice(0, batch.length); // delivered, or refused for good
-  if (res.status !== 202) console.warn(`simulator: ${sim.node.name} got ${res.status}${res.status === 400 ? '' : `; keeping ${sim.unsent.length} report(s) to resend`}: ${await res.text()}`);
+  if (res.status !== 202)
+    console.warn(
+      `simulator: ${sim.node.name} got ${res.status}${res.status === 400 ? '' : `; keeping ${sim.unsent.length} report(s) to resend`}: ${await res.text()}`,
+    );
 }
 
 async function runDemo() {
   const sims = await load();
-  console.log(`simulator: ${sims.length} nodes reporting to ${baseUrl} (tokens in ${tokenFile}); ` +
-    `${FLAKY_NODE} drops for ${FLAKY_DOWN_S / 60} min every ${FLAKY_EVERY_S / 60} min`);
+  console.log(
+    `simulator: ${sims.length} nodes reporting to ${baseUrl} (tokens in ${tokenFile}); ` +
+      `${FLAKY_NODE} drops for ${FLAKY_DOWN_S / 60} min every ${FLAKY_EVERY_S / 60} min`,
+  );
   for (const [i, sim] of sims.entries()) {
     const intervalMs = (sim.node.reportIntervalS * 1000) / speedup;
-    setTimeout(() => {
-      void send(sim).catch((e) => console.warn(`simulator: ${sim.node.name}: ${(e as Error).message}`));
-      setInterval(() => void send(sim).catch((e) => console.warn(`simulator: ${sim.node.name}: ${(e as Error).message}`)), intervalMs);
-    }, (i * intervalMs) / sims.length); // spread the nodes over the interval
+    setTimeout(
+      () => {
+        void send(sim).catch((e) => console.warn(`simulator: ${sim.node.name}: ${(e as Error).message}`));
+        setInterval(() => void send(sim).catch((e) => console.warn(`simulator: ${sim.node.name}: ${(e as Error).message}`)), intervalMs);
+      },
+      (i * intervalMs) / sims.length,
+    ); // spread the nodes over the interval
   }
   process.on('SIGTERM', () => process.exit(0));
   process.on('SIGINT', () => process.exit(0));

@@ -15,7 +15,10 @@ export interface TownNode {
   northM: number;
   eastM: number;
 }
-export interface TownPlan { hoods: string[]; nodes: TownNode[] }
+export interface TownPlan {
+  hoods: string[];
+  nodes: TownNode[];
+}
 
 /** Nodes per neighbourhood: one hub with its own uplink, relays in two tiers, houses behind them. */
 export const HOOD_SIZE = 250;
@@ -25,8 +28,28 @@ const HOOD_SPACING_M = 3000;
 export const TOWN_REPORT_INTERVAL_S = 30;
 
 // Invented place names for the town's outer neighbourhoods; none is a real place or the demo's.
-const FIRST = ['Kestrel', 'Lantern', 'Cobble', 'Ropewalk', 'Heron', 'Tidewater', 'Brine', 'Gull', 'Anchor', 'Beacon',
-  'Net Loft', 'Oyster', 'Sailcloth', 'Pilot', 'Ferry', 'Mussel', 'Capstan', 'Driftwood', 'Slipway', 'Tarpot'];
+const FIRST = [
+  'Kestrel',
+  'Lantern',
+  'Cobble',
+  'Ropewalk',
+  'Heron',
+  'Tidewater',
+  'Brine',
+  'Gull',
+  'Anchor',
+  'Beacon',
+  'Net Loft',
+  'Oyster',
+  'Sailcloth',
+  'Pilot',
+  'Ferry',
+  'Mussel',
+  'Capstan',
+  'Driftwood',
+  'Slipway',
+  'Tarpot',
+];
 const SECOND = ['Steps', 'Row', 'Green', 'Yard', 'Reach', 'Hollow', 'Rise', 'Wharf', 'Lanes', 'End'];
 
 /** A small seeded generator (mulberry32), so a town and its faults come out the same on every run. */
@@ -63,7 +86,7 @@ export function planTown(nodeCount: number, seed = 1): TownPlan {
     const size = Math.min(HOOD_SIZE, nodeCount - h * HOOD_SIZE);
     // The demo town sits near (0, 0); the outer neighbourhoods start 6 km north of it.
     const centreN = 6000 + Math.floor(h / side) * HOOD_SPACING_M;
-    const centreE = (h % side - side / 2) * HOOD_SPACING_M;
+    const centreE = ((h % side) - side / 2) * HOOD_SPACING_M;
     const s = slug(hoods[h]);
     const hub = nodes.push({ name: `${s}-hub`, hood: h, role: 'hub', parent: null, northM: centreN, eastM: centreE }) - 1;
     const relayCount = Math.min(size - 1, Math.max(size > 1 ? 1 : 0, Math.round((size - 1) / (LEAVES_PER_RELAY + 1))));
@@ -74,16 +97,30 @@ export function planTown(nodeCount: number, seed = 1): TownPlan {
       const angle = random() * 2 * Math.PI;
       const dist = (tier1 ? 500 : 350) + random() * 250;
       const p = nodes[parent];
-      relays.push(nodes.push({ name: `${s}-r${String(r + 1).padStart(2, '0')}`, hood: h, role: 'relay', parent,
-        northM: p.northM + dist * Math.cos(angle), eastM: p.eastM + dist * Math.sin(angle) }) - 1);
+      relays.push(
+        nodes.push({
+          name: `${s}-r${String(r + 1).padStart(2, '0')}`,
+          hood: h,
+          role: 'relay',
+          parent,
+          northM: p.northM + dist * Math.cos(angle),
+          eastM: p.eastM + dist * Math.sin(angle),
+        }) - 1,
+      );
     }
     for (let l = 0; l < size - 1 - relayCount; l++) {
       const parent = relays[l % relays.length];
       const angle = random() * 2 * Math.PI;
       const dist = 80 + random() * 300;
       const p = nodes[parent];
-      nodes.push({ name: `${s}-h${String(l + 1).padStart(3, '0')}`, hood: h, role: 'leaf', parent,
-        northM: p.northM + dist * Math.cos(angle), eastM: p.eastM + dist * Math.sin(angle) });
+      nodes.push({
+        name: `${s}-h${String(l + 1).padStart(3, '0')}`,
+        hood: h,
+        role: 'leaf',
+        parent,
+        northM: p.northM + dist * Math.cos(angle),
+        eastM: p.eastM + dist * Math.sin(angle),
+      });
     }
   }
   return { hoods, nodes };
@@ -99,7 +136,12 @@ export function subtrees(plan: TownPlan): number[][] {
 }
 
 interface RadioPlan {
-  iface: string; role: 'backhaul-ap' | 'backhaul-client' | 'access-point'; band: '2.4' | '5'; channel: number; widthMHz: number; gainDbi: number;
+  iface: string;
+  role: 'backhaul-ap' | 'backhaul-client' | 'access-point';
+  band: '2.4' | '5';
+  channel: number;
+  widthMHz: number;
+  gainDbi: number;
 }
 const DOWN_CHANNELS = [36, 52, 100, 116, 132, 149];
 const AP_CHANNELS = [1, 6, 11];
@@ -110,15 +152,32 @@ function radiosFor(plan: TownPlan, i: number): RadioPlan[] {
   const n = plan.nodes[i];
   const down = (j: number) => DOWN_CHANNELS[j % DOWN_CHANNELS.length];
   const ap: RadioPlan = { iface: '', role: 'access-point', band: '2.4', channel: AP_CHANNELS[i % 3], widthMHz: 20, gainDbi: 5 };
-  if (n.role === 'hub') return [{ iface: 'wlan0', role: 'backhaul-ap', band: '5', channel: down(i), widthMHz: 40, gainDbi: 16 }, { ...ap, iface: 'wlan1' }];
+  if (n.role === 'hub')
+    return [
+      { iface: 'wlan0', role: 'backhaul-ap', band: '5', channel: down(i), widthMHz: 40, gainDbi: 16 },
+      { ...ap, iface: 'wlan1' },
+    ];
   const up: RadioPlan = { iface: 'wlan0', role: 'backhaul-client', band: '5', channel: down(n.parent!), widthMHz: 40, gainDbi: 23 };
   const downlink: RadioPlan = { iface: 'wlan1', role: 'backhaul-ap', band: '5', channel: down(i), widthMHz: 40, gainDbi: 16 };
   if (n.role === 'relay') return [up, downlink, { ...ap, iface: 'wlan2' }];
   return [up, { ...ap, iface: 'wlan1' }];
 }
 
-export interface SeededRadio { id: number; iface: string; role: string; band: string; channel: number; widthMHz: number; peerRadioId: number | null }
-export interface SeededNode { id: number; index: number; token: string; radios: SeededRadio[] }
+export interface SeededRadio {
+  id: number;
+  iface: string;
+  role: string;
+  band: string;
+  channel: number;
+  widthMHz: number;
+  peerRadioId: number | null;
+}
+export interface SeededNode {
+  id: number;
+  index: number;
+  token: string;
+  radios: SeededRadio[];
+}
 
 const chunks = <T>(xs: T[], size: number) => Array.from({ length: Math.ceil(xs.length / size) }, (_, i) => xs.slice(i * size, (i + 1) * size));
 
@@ -131,7 +190,9 @@ export async function seedTown(sequelize: Sequelize, plan: TownPlan, now = new D
   const q = <T extends object>(sql: string, bind: unknown[]) => sequelize.query<T>(sql, { bind, type: QueryTypes.SELECT });
   await sequelize.query(
     `INSERT INTO neighbourhoods (name, description) SELECT unnest($1::text[]), 'Synthetic neighbourhood of the load simulator'
-     ON CONFLICT DO NOTHING`, { bind: [plan.hoods] });
+     ON CONFLICT DO NOTHING`,
+    { bind: [plan.hoods] },
+  );
   const hoodRows = await q<{ id: number; name: string }>('SELECT id, name FROM neighbourhoods WHERE name = ANY($1::text[])', [plan.hoods]);
   const hoodId = new Map(hoodRows.map((r) => [r.name, r.id]));
   const names = plan.nodes.map((n) => n.name);
@@ -148,15 +209,37 @@ export async function seedTown(sequelize: Sequelize, plan: TownPlan, now = new D
         `INSERT INTO sites (neighbourhood_id, name, latitude, longitude, ground_elevation_m, antenna_height_m)
          SELECT * FROM unnest($1::int[], $2::text[], $3::float8[], $4::float8[], $5::float8[], $6::float8[])
          ON CONFLICT (neighbourhood_id, lower(name)) DO UPDATE SET updated_at = now() RETURNING id, name`,
-        { bind: [cols.map((c) => c.hood), cols.map((c) => c.name), cols.map((c) => c.latitude), cols.map((c) => c.longitude),
-          cols.map(() => 10), cols.map((c) => c.height)], type: QueryTypes.SELECT, transaction });
+        {
+          bind: [
+            cols.map((c) => c.hood),
+            cols.map((c) => c.name),
+            cols.map((c) => c.latitude),
+            cols.map((c) => c.longitude),
+            cols.map(() => 10),
+            cols.map((c) => c.height),
+          ],
+          type: QueryTypes.SELECT,
+          transaction,
+        },
+      );
       const siteId = new Map(sites.map((s) => [s.name, s.id]));
       const created = await sequelize.query<{ id: number; name: string }>(
         `INSERT INTO nodes (site_id, neighbourhood_id, name, hardware, firmware, report_interval_s, is_uplink)
          SELECT * FROM unnest($1::int[], $2::int[], $3::text[], $4::text[], $5::text[], $6::int[], $7::bool[]) RETURNING id, name`,
-        { bind: [cols.map((c) => siteId.get(c.name)!), cols.map((c) => c.hood), part.map(({ n }) => n.name),
-          part.map(({ n }) => (n.role === 'leaf' ? 'Tilecrest Roof Mini' : 'Tilecrest Relay Duo')), part.map(() => 'Tilecrest 5.1.2'),
-          part.map(() => TOWN_REPORT_INTERVAL_S), part.map(({ n }) => n.role === 'hub')], type: QueryTypes.SELECT, transaction });
+        {
+          bind: [
+            cols.map((c) => siteId.get(c.name)!),
+            cols.map((c) => c.hood),
+            part.map(({ n }) => n.name),
+            part.map(({ n }) => (n.role === 'leaf' ? 'Tilecrest Roof Mini' : 'Tilecrest Relay Duo')),
+            part.map(() => 'Tilecrest 5.1.2'),
+            part.map(() => TOWN_REPORT_INTERVAL_S),
+            part.map(({ n }) => n.role === 'hub'),
+          ],
+          type: QueryTypes.SELECT,
+          transaction,
+        },
+      );
       created.forEach((c) => nodeId.set(c.name, c.id));
       const radios = part.flatMap(({ n, i }) => radiosFor(plan, i).map((r) => ({ ...r, nodeId: nodeId.get(n.name)! })));
       await sequelize.query(
@@ -164,23 +247,47 @@ export async function seedTown(sequelize: Sequelize, plan: TownPlan, now = new D
          SELECT node_id, iface, band, channel, width, 20, gain, role, ssid, 'wpa2-ccmp', 'town-shares-the-sky'
            FROM unnest($1::int[], $2::text[], $3::text[], $4::int[], $5::int[], $6::float8[], $7::text[], $8::text[])
              AS r(node_id, iface, band, channel, width, gain, role, ssid)`,
-        { bind: [radios.map((r) => r.nodeId), radios.map((r) => r.iface), radios.map((r) => r.band), radios.map((r) => r.channel),
-          radios.map((r) => r.widthMHz), radios.map((r) => r.gainDbi), radios.map((r) => r.role),
-          radios.map((r) => (r.role === 'access-point' ? 'Lindenfall-Town' : null))], transaction });
+        {
+          bind: [
+            radios.map((r) => r.nodeId),
+            radios.map((r) => r.iface),
+            radios.map((r) => r.band),
+            radios.map((r) => r.channel),
+            radios.map((r) => r.widthMHz),
+            radios.map((r) => r.gainDbi),
+            radios.map((r) => r.role),
+            radios.map((r) => (r.role === 'access-point' ? 'Lindenfall-Town' : null)),
+          ],
+          transaction,
+        },
+      );
     });
   }
   const ids = plan.nodes.map((n) => nodeId.get(n.name)!);
   const radioRows = await q<{ id: number; nodeId: number; iface: string; role: string; band: string; channel: number; widthMHz: number }>(
     `SELECT id, node_id AS "nodeId", iface, role, band, channel, channel_width_mhz AS "widthMHz"
-       FROM radios WHERE node_id = ANY($1::int[]) ORDER BY id`, [ids]);
+       FROM radios WHERE node_id = ANY($1::int[]) ORDER BY id`,
+    [ids],
+  );
   const radioOf = new Map(radioRows.map((r) => [`${r.nodeId}/${r.iface}`, r]));
   // Every child's backhaul client links live to its parent's backhaul AP (one AP serves many clients).
-  const pairs = plan.nodes.flatMap((n, i) => (n.parent === null ? [] : [{
-    a: radioOf.get(`${ids[n.parent]}/${downlinkIface(plan.nodes[n.parent].role)}`)!.id, b: radioOf.get(`${ids[i]}/wlan0`)!.id, name: `${n.name} uplink` }]));
+  const pairs = plan.nodes.flatMap((n, i) =>
+    n.parent === null
+      ? []
+      : [
+          {
+            a: radioOf.get(`${ids[n.parent]}/${downlinkIface(plan.nodes[n.parent].role)}`)!.id,
+            b: radioOf.get(`${ids[i]}/wlan0`)!.id,
+            name: `${n.name} uplink`,
+          },
+        ],
+  );
   for (const part of chunks(pairs, 5000)) {
     await sequelize.query(
       `INSERT INTO links (name, radio_a_id, radio_b_id, status) SELECT name, a, b, 'live' FROM unnest($1::text[], $2::int[], $3::int[]) AS l(name, a, b)
-       ON CONFLICT DO NOTHING`, { bind: [part.map((p) => p.name), part.map((p) => p.a), part.map((p) => p.b)] });
+       ON CONFLICT DO NOTHING`,
+      { bind: [part.map((p) => p.name), part.map((p) => p.a), part.map((p) => p.b)] },
+    );
   }
   const peer = new Map<number, number>();
   for (const p of pairs) {
@@ -190,8 +297,10 @@ export async function seedTown(sequelize: Sequelize, plan: TownPlan, now = new D
   const tokens = ids.map((id) => newToken(id));
   await sequelize.transaction(async (transaction) => {
     await sequelize.query('UPDATE node_tokens SET revoked_at = $2 WHERE node_id = ANY($1::int[]) AND revoked_at IS NULL', { bind: [ids, now], transaction });
-    await sequelize.query('INSERT INTO node_tokens (node_id, token_hash, created_at) SELECT n, h, $3 FROM unnest($1::int[], $2::text[]) AS t(n, h)',
-      { bind: [ids, tokens.map(hashToken), now], transaction });
+    await sequelize.query('INSERT INTO node_tokens (node_id, token_hash, created_at) SELECT n, h, $3 FROM unnest($1::int[], $2::text[]) AS t(n, h)', {
+      bind: [ids, tokens.map(hashToken), now],
+      transaction,
+    });
   });
   forgetTokens(); // this process's cached lookups; other instances see the rotation within their cache lifetime
   const byNode = new Map<number, SeededRadio[]>();
@@ -217,9 +326,24 @@ export interface TownFaults {
 }
 export const DEFAULT_FAULTS: TownFaults = { powerCutEveryS: 180, powerCutS: 150, flakyShare: 0.01 };
 
-export interface PostResult { nodeId: number; status: number; accepted: number; ms: number; instance: string | null; error?: string }
+export interface PostResult {
+  nodeId: number;
+  status: number;
+  accepted: number;
+  ms: number;
+  instance: string | null;
+  error?: string;
+}
 
-interface NodeState { seq: number; bootId: string; unsent: object[]; busy: boolean; poweredOffUntil: number; flaky: boolean; fadeDb: number }
+interface NodeState {
+  seq: number;
+  bootId: string;
+  unsent: object[];
+  busy: boolean;
+  poweredOffUntil: number;
+  flaky: boolean;
+  fadeDb: number;
+}
 /** Like the agent: reports the server did not take are kept and sent again, at most this many. */
 const BUFFER_MAX = 500;
 
@@ -256,7 +380,13 @@ export class TownReporter {
     this.random = seededRandom(seed);
     this.below = subtrees(plan);
     this.state = nodes.map(() => ({
-      seq: 0, bootId: randomUUID(), unsent: [], busy: false, poweredOffUntil: 0, flaky: this.random() < faults.flakyShare, fadeDb: 0,
+      seq: 0,
+      bootId: randomUUID(),
+      unsent: [],
+      busy: false,
+      poweredOffUntil: 0,
+      flaky: this.random() < faults.flakyShare,
+      fadeDb: 0,
     }));
   }
 
@@ -267,10 +397,13 @@ export class TownReporter {
   start() {
     const intervalMs = this.intervalS * 1000;
     this.nodes.forEach((_, i) => {
-      const first = setTimeout(() => {
-        this.tick(i);
-        this.timers.push(setInterval(() => this.tick(i), intervalMs));
-      }, (i * intervalMs) / this.nodes.length);
+      const first = setTimeout(
+        () => {
+          this.tick(i);
+          this.timers.push(setInterval(() => this.tick(i), intervalMs));
+        },
+        (i * intervalMs) / this.nodes.length,
+      );
       this.timers.push(first);
     });
     if (this.faults.powerCutEveryS > 0) this.timers.push(setInterval(() => this.powerCut(), this.faults.powerCutEveryS * 1000));
@@ -330,18 +463,30 @@ export class TownReporter {
     const hour = now.getUTCHours() + now.getUTCMinutes() / 60;
     const evening = 0.5 + 0.5 * Math.cos(((hour - 21) / 24) * 2 * Math.PI);
     return {
-      seq: ++s.seq, bootId: s.bootId, sentAt: now.toISOString(), uptimeS: s.seq * this.intervalS, load1: round1(0.1 + evening * 0.8),
-      memFreeKb: 30_000 + Math.round(this.random() * 5000), firmware: 'Tilecrest 5.1.2',
+      seq: ++s.seq,
+      bootId: s.bootId,
+      sentAt: now.toISOString(),
+      uptimeS: s.seq * this.intervalS,
+      load1: round1(0.1 + evening * 0.8),
+      memFreeKb: 30_000 + Math.round(this.random() * 5000),
+      firmware: 'Tilecrest 5.1.2',
       throughputMbps: round1(Math.max(1, (role === 'leaf' ? 40 : 120) * (1 - 0.5 * evening) + gauss(this.random) * 3)),
       latencyMs: round1(6 + 18 * evening + Math.abs(gauss(this.random)) * 4),
       radios: node.radios.map((r) => {
         const backhaul = r.role !== 'access-point';
         return {
-          iface: r.iface, role: r.role, band: r.band, channel: r.channel, channelWidthMHz: r.widthMHz,
-          signalDbm: round1(backhaul ? -58 + s.fadeDb : -55 - this.random() * 15), noiseDbm: round1(-95 + gauss(this.random) * 0.8),
-          txRateMbps: backhaul ? 150 : 72, rxRateMbps: backhaul ? 135 : 65,
+          iface: r.iface,
+          role: r.role,
+          band: r.band,
+          channel: r.channel,
+          channelWidthMHz: r.widthMHz,
+          signalDbm: round1(backhaul ? -58 + s.fadeDb : -55 - this.random() * 15),
+          noiseDbm: round1(-95 + gauss(this.random) * 0.8),
+          txRateMbps: backhaul ? 150 : 72,
+          rxRateMbps: backhaul ? 135 : 65,
           clients: backhaul ? undefined : Math.round(2 + 10 * evening * this.random()),
-          mac: macOf(r.id), peerMac: backhaul && r.peerRadioId !== null ? macOf(r.peerRadioId) : undefined,
+          mac: macOf(r.id),
+          peerMac: backhaul && r.peerRadioId !== null ? macOf(r.peerRadioId) : undefined,
         };
       }),
     };
@@ -400,13 +545,17 @@ export async function runTownSimulator(nodeCount: number, baseUrl: string, seque
   const t0 = Date.now();
   const plan = planTown(nodeCount);
   const nodes = await seedTown(sequelize, plan);
-  console.log(`simulator: town of ${nodes.length} nodes in ${plan.hoods.length} neighbourhoods ready in ${((Date.now() - t0) / 1000).toFixed(1)} s ` +
-    '(inventory written straight to the database; reports go through the HTTP API)');
+  console.log(
+    `simulator: town of ${nodes.length} nodes in ${plan.hoods.length} neighbourhoods ready in ${((Date.now() - t0) / 1000).toFixed(1)} s ` +
+      '(inventory written straight to the database; reports go through the HTTP API)',
+  );
   const latencies: number[] = [];
   const reporter = new TownReporter(baseUrl, plan, nodes, (r) => latencies.push(r.ms));
   reporter.start();
-  console.log(`simulator: reporting to ${baseUrl} every ${TOWN_REPORT_INTERVAL_S} s; ${reporter.flakyCount} flaky nodes; ` +
-    `a power cut every ${DEFAULT_FAULTS.powerCutEveryS} s for ${DEFAULT_FAULTS.powerCutS} s`);
+  console.log(
+    `simulator: reporting to ${baseUrl} every ${TOWN_REPORT_INTERVAL_S} s; ${reporter.flakyCount} flaky nodes; ` +
+      `a power cut every ${DEFAULT_FAULTS.powerCutEveryS} s for ${DEFAULT_FAULTS.powerCutS} s`,
+  );
   let logged = 0;
   const summary = setInterval(() => {
     const sorted = latencies.splice(0).sort((a, b) => a - b);
@@ -414,8 +563,10 @@ export async function runTownSimulator(nodeCount: number, baseUrl: string, seque
     reporter.log.slice(logged).forEach((l) => console.log(`simulator: ${l}`));
     logged = reporter.log.length;
     const c = reporter.counts;
-    console.log(`simulator: ${c.posts} posts, ${c.accepted} reports accepted, ${c.refused} refused, ${c.failed} failed; ` +
-      `last 30 s p50 ${pct(0.5)} ms, p99 ${pct(0.99)} ms`);
+    console.log(
+      `simulator: ${c.posts} posts, ${c.accepted} reports accepted, ${c.refused} refused, ${c.failed} failed; ` +
+        `last 30 s p50 ${pct(0.5)} ms, p99 ${pct(0.99)} ms`,
+    );
   }, 30_000);
   const stop = async () => {
     clearInterval(summary);

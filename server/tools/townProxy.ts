@@ -5,10 +5,13 @@ import http from 'node:http';
 import type { Duplex } from 'node:stream';
 import httpProxy from 'http-proxy';
 
-const targets = (process.env.PROXY_TARGETS ?? '').split(',').filter(Boolean).map((t) => {
-  const [name, url] = t.split('=');
-  return { name, url };
-});
+const targets = (process.env.PROXY_TARGETS ?? '')
+  .split(',')
+  .filter(Boolean)
+  .map((t) => {
+    const [name, url] = t.split('=');
+    return { name, url };
+  });
 if (!targets.length || targets.some((t) => !t.name || !t.url?.startsWith('http://127.0.0.1:'))) {
   console.error('PROXY_TARGETS must list name=http://127.0.0.1:PORT pairs, comma-separated (loopback only)');
   process.exit(2);

@@ -11,7 +11,14 @@ export interface PlannedSubnet {
   staticAddresses?: string[];
 }
 export interface AddressFinding {
-  code: 'subnet_overlap' | 'gateway_outside_subnet' | 'dhcp_outside_subnet' | 'dhcp_range_reversed' | 'dhcp_includes_gateway' | 'dhcp_collides_static' | 'static_outside_subnet';
+  code:
+    | 'subnet_overlap'
+    | 'gateway_outside_subnet'
+    | 'dhcp_outside_subnet'
+    | 'dhcp_range_reversed'
+    | 'dhcp_includes_gateway'
+    | 'dhcp_collides_static'
+    | 'static_outside_subnet';
   label: string;
   message: string;
   /** Positions in the checked list of the subnets the finding is about (two for an overlap). */
@@ -50,28 +57,49 @@ function checkOne(s: PlannedSubnet, c: Cidr): Omit<AddressFinding, 'subnets'>[] 
   const isHost = (a: number) => containsAddress(c, a) && (c.prefixLength >= 31 || (a !== lo && a !== hi));
   const gateway = s.gateway === undefined ? undefined : address(s.gateway, 'gateway', s.label);
   if (gateway !== undefined && !isHost(gateway)) {
-    out.push({ code: 'gateway_outside_subnet', label: s.label, message: `${s.label}: gateway ${s.gateway} is not a host of ${info.cidr} (${hosts}); use ${info.gateway}.` });
+    out.push({
+      code: 'gateway_outside_subnet',
+      label: s.label,
+      message: `${s.label}: gateway ${s.gateway} is not a host of ${info.cidr} (${hosts}); use ${info.gateway}.`,
+    });
   }
   const statics = (s.staticAddresses ?? []).map((t) => [t, address(t, 'static address', s.label)] as const);
   for (const [text, a] of statics) {
-    if (!isHost(a)) out.push({ code: 'static_outside_subnet', label: s.label, message: `${s.label}: static address ${text} is not a host of ${info.cidr} (${hosts}).` });
+    if (!isHost(a))
+      out.push({ code: 'static_outside_subnet', label: s.label, message: `${s.label}: static address ${text} is not a host of ${info.cidr} (${hosts}).` });
   }
   if (s.dhcpStart === undefined || s.dhcpEnd === undefined) return out;
   const start = address(s.dhcpStart, 'DHCP start', s.label);
   const end = address(s.dhcpEnd, 'DHCP end', s.label);
   if (start > end) {
-    out.push({ code: 'dhcp_range_reversed', label: s.label, message: `${s.label}: DHCP range starts (${s.dhcpStart}) after it ends (${s.dhcpEnd}); swap them.` });
+    out.push({
+      code: 'dhcp_range_reversed',
+      label: s.label,
+      message: `${s.label}: DHCP range starts (${s.dhcpStart}) after it ends (${s.dhcpEnd}); swap them.`,
+    });
     return out;
   }
   if (!isHost(start) || !isHost(end)) {
-    out.push({ code: 'dhcp_outside_subnet', label: s.label, message: `${s.label}: DHCP range ${s.dhcpStart}–${s.dhcpEnd} crosses the edge of ${info.cidr}; keep it within ${hosts}.` });
+    out.push({
+      code: 'dhcp_outside_subnet',
+      label: s.label,
+      message: `${s.label}: DHCP range ${s.dhcpStart}–${s.dhcpEnd} crosses the edge of ${info.cidr}; keep it within ${hosts}.`,
+    });
   }
   if (gateway !== undefined && gateway >= start && gateway <= end) {
-    out.push({ code: 'dhcp_includes_gateway', label: s.label, message: `${s.label}: DHCP range ${s.dhcpStart}–${s.dhcpEnd} includes the gateway ${s.gateway}; start the range after it.` });
+    out.push({
+      code: 'dhcp_includes_gateway',
+      label: s.label,
+      message: `${s.label}: DHCP range ${s.dhcpStart}–${s.dhcpEnd} includes the gateway ${s.gateway}; start the range after it.`,
+    });
   }
   const clashes = statics.filter(([, a]) => a >= start && a <= end).map(([t]) => t);
   if (clashes.length > 0) {
-    out.push({ code: 'dhcp_collides_static', label: s.label, message: `${s.label}: DHCP range ${s.dhcpStart}–${s.dhcpEnd} includes static address${clashes.length > 1 ? 'es' : ''} ${clashes.join(', ')}; move the range or the addresses.` });
+    out.push({
+      code: 'dhcp_collides_static',
+      label: s.label,
+      message: `${s.label}: DHCP range ${s.dhcpStart}–${s.dhcpEnd} includes static address${clashes.length > 1 ? 'es' : ''} ${clashes.join(', ')}; move the range or the addresses.`,
+    });
   }
   return out;
 }

@@ -108,9 +108,16 @@ export function allocateSubnets(pool: string, prefixLength: number, count: numbe
   const p = parseCidr(pool);
   if (!Number.isInteger(prefixLength) || prefixLength < 0 || prefixLength > 32) throw invalid(`prefixLength ${prefixLength} must be a whole number 0–32.`);
   if (prefixLength < p.prefixLength) {
-    throw new PlanningError(400, 'prefix_shorter_than_pool', `A /${prefixLength} does not fit in the pool ${formatCidr(p)}; ask for /${p.prefixLength} or longer.`);
+    throw new PlanningError(
+      400,
+      'prefix_shorter_than_pool',
+      `A /${prefixLength} does not fit in the pool ${formatCidr(p)}; ask for /${p.prefixLength} or longer.`,
+    );
   }
-  const blocks = taken.map(parseCidr).map(rangeOf).sort((x, y) => x[0] - y[0]);
+  const blocks = taken
+    .map(parseCidr)
+    .map(rangeOf)
+    .sort((x, y) => x[0] - y[0]);
   const size = blockSize(prefixLength);
   const [, poolEnd] = rangeOf(p);
   const out: Cidr[] = [];
@@ -128,7 +135,11 @@ export function allocateSubnets(pool: string, prefixLength: number, count: numbe
     }
   }
   if (out.length < count) {
-    throw new PlanningError(409, 'pool_exhausted', `The pool ${formatCidr(p)} has only ${out.length} free /${prefixLength} subnets; ${count} were asked for. Free some or use a larger pool.`);
+    throw new PlanningError(
+      409,
+      'pool_exhausted',
+      `The pool ${formatCidr(p)} has only ${out.length} free /${prefixLength} subnets; ${count} were asked for. Free some or use a larger pool.`,
+    );
   }
   return out;
 }

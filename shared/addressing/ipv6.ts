@@ -30,11 +30,17 @@ export function formatIpv6(value: bigint): string {
   const groups = Array.from({ length: 8 }, (_, i) => Number((value >> BigInt(112 - 16 * i)) & 0xffffn));
   let bestStart = -1;
   let bestLen = 1; // a single zero group is not shortened (RFC 5952 §4.2.2)
-  for (let i = 0; i < 8; ) {
-    if (groups[i] !== 0) { i++; continue; }
+  for (let i = 0; i < 8;) {
+    if (groups[i] !== 0) {
+      i++;
+      continue;
+    }
     let j = i;
     while (j < 8 && groups[j] === 0) j++;
-    if (j - i > bestLen) { bestStart = i; bestLen = j - i; }
+    if (j - i > bestLen) {
+      bestStart = i;
+      bestLen = j - i;
+    }
     i = j;
   }
   const hex = groups.map((g) => g.toString(16));
@@ -42,7 +48,10 @@ export function formatIpv6(value: bigint): string {
   return `${hex.slice(0, bestStart).join(':')}::${hex.slice(bestStart + bestLen).join(':')}`;
 }
 
-export interface Cidr6 { network: bigint; prefixLength: number }
+export interface Cidr6 {
+  network: bigint;
+  prefixLength: number;
+}
 
 export function parseCidr6(text: string): Cidr6 {
   const m = /^([^/]+)\/(\d{1,3})$/.exec(text.trim());
@@ -76,7 +85,12 @@ export function describeSubnet6(c: Cidr6): Subnet6Description {
   const last = c.network + size6(c.prefixLength) - 1n;
   const first = c.prefixLength === 128 ? c.network : c.network + 1n;
   return {
-    cidr: formatCidr6(c), netmask: null, gateway: formatIpv6(first), firstHost: formatIpv6(first), lastHost: formatIpv6(last), broadcast: null,
+    cidr: formatCidr6(c),
+    netmask: null,
+    gateway: formatIpv6(first),
+    firstHost: formatIpv6(first),
+    lastHost: formatIpv6(last),
+    broadcast: null,
     usableHosts: c.prefixLength >= 127 ? Number(size6(c.prefixLength)) : Number(size6(c.prefixLength) - 1n),
   };
 }
@@ -85,7 +99,11 @@ export function describeSubnet6(c: Cidr6): Subnet6Description {
 export function allocateSubnets6(pool: string, prefixLength: number, count: number, taken: string[] = []): Cidr6[] {
   const p = parseCidr6(pool);
   if (prefixLength < p.prefixLength) {
-    throw new PlanningError(400, 'prefix_shorter_than_pool', `A /${prefixLength} does not fit in the pool ${formatCidr6(p)}; ask for /${p.prefixLength} or longer.`);
+    throw new PlanningError(
+      400,
+      'prefix_shorter_than_pool',
+      `A /${prefixLength} does not fit in the pool ${formatCidr6(p)}; ask for /${p.prefixLength} or longer.`,
+    );
   }
   const blocks = taken.map(parseCidr6).map((t) => [t.network, t.network + size6(t.prefixLength) - 1n] as const);
   const size = size6(prefixLength);
@@ -104,7 +122,11 @@ export function allocateSubnets6(pool: string, prefixLength: number, count: numb
     }
   }
   if (out.length < count) {
-    throw new PlanningError(409, 'pool_exhausted', `The pool ${formatCidr6(p)} has only ${out.length} free /${prefixLength} subnets; ${count} were asked for. Free some or use a larger pool.`);
+    throw new PlanningError(
+      409,
+      'pool_exhausted',
+      `The pool ${formatCidr6(p)} has only ${out.length} free /${prefixLength} subnets; ${count} were asked for. Free some or use a larger pool.`,
+    );
   }
   return out;
 }
@@ -119,5 +141,7 @@ export function ipv6PoolWarnings(pool: string): string[] {
       : [`${formatCidr6(p)} is not a unique local pool (fd00::/8, RFC 4193): use it only if your upstream delegated it to you.`];
   }
   const globalId = (p.network >> 80n) & 0xffffffffffn;
-  return globalId === 0n ? ['The global ID of this fd…/48 is all zeros: RFC 4193 §3.2 asks for 40 random bits, so two networks that later join do not clash.'] : [];
+  return globalId === 0n
+    ? ['The global ID of this fd…/48 is all zeros: RFC 4193 §3.2 asks for 40 random bits, so two networks that later join do not clash.']
+    : [];
 }

@@ -29,7 +29,13 @@ export function dhcpSizing(expectedClients: number, requestedPrefixLength: numbe
   return { expectedClients, addressesNeeded, suggestedPrefixLength, fitsRequested: usableHosts(requestedPrefixLength) >= addressesNeeded };
 }
 
-export interface AddressPlanInput { pool: string; prefixLength: number; count: number; taken?: string[]; expectedClients?: number }
+export interface AddressPlanInput {
+  pool: string;
+  prefixLength: number;
+  count: number;
+  taken?: string[];
+  expectedClients?: number;
+}
 export interface AddressPlanAnswer {
   subnets: (SubnetDescription | Subnet6Description)[];
   warnings: string[];
@@ -41,13 +47,23 @@ export function planAddressPool(input: AddressPlanInput): AddressPlanAnswer {
   if (input.pool.includes(':')) {
     const subnets = allocateSubnets6(input.pool, input.prefixLength, input.count, input.taken ?? []).map(describeSubnet6);
     const warnings = ipv6PoolWarnings(input.pool);
-    if (input.prefixLength !== 64) warnings.push(`/${input.prefixLength} subnets: SLAAC needs a /64 per link (RFC 4291 §2.5.1, RFC 4862); hand out /64s unless you know you do not need it.`);
+    if (input.prefixLength !== 64)
+      warnings.push(
+        `/${input.prefixLength} subnets: SLAAC needs a /64 per link (RFC 4291 §2.5.1, RFC 4862); hand out /64s unless you know you do not need it.`,
+      );
     return { subnets, warnings };
   }
   const subnets = allocateSubnets(input.pool, input.prefixLength, input.count, input.taken ?? []).map(describeSubnet);
-  const warnings = isPrivateIpv4Pool(input.pool) ? [] : [`${input.pool} is neither private (RFC 1918: 10/8, 172.16/12, 192.168/16) nor shared space (RFC 6598: 100.64/10): use it only if it is assigned to your network.`];
+  const warnings = isPrivateIpv4Pool(input.pool)
+    ? []
+    : [
+        `${input.pool} is neither private (RFC 1918: 10/8, 172.16/12, 192.168/16) nor shared space (RFC 6598: 100.64/10): use it only if it is assigned to your network.`,
+      ];
   if (input.expectedClients === undefined) return { subnets, warnings };
   const dhcp = dhcpSizing(input.expectedClients, input.prefixLength);
-  if (!dhcp.fitsRequested) warnings.push(`A /${input.prefixLength} has ${usableHosts(input.prefixLength)} usable addresses; ${input.expectedClients} clients with 50 % headroom and the gateway need ${dhcp.addressesNeeded}: use a /${dhcp.suggestedPrefixLength} or shorter.`);
+  if (!dhcp.fitsRequested)
+    warnings.push(
+      `A /${input.prefixLength} has ${usableHosts(input.prefixLength)} usable addresses; ${input.expectedClients} clients with 50 % headroom and the gateway need ${dhcp.addressesNeeded}: use a /${dhcp.suggestedPrefixLength} or shorter.`,
+    );
   return { subnets, warnings, dhcp };
 }

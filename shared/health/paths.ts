@@ -1,8 +1,17 @@
 // Paths from every node to an uplink, and what a failure cuts off. Pure; no I/O.
 import { PriorityQueue } from '@datastructures-js/priority-queue';
 
-export interface GraphNode { id: number; isUplink: boolean }
-export interface GraphLink { id: number; nodeAId: number; nodeBId: number; live: boolean; fadeMarginDb: number | null }
+export interface GraphNode {
+  id: number;
+  isUplink: boolean;
+}
+export interface GraphLink {
+  id: number;
+  nodeAId: number;
+  nodeBId: number;
+  live: boolean;
+  fadeMarginDb: number | null;
+}
 
 export interface NodePath {
   nodeId: number;
@@ -16,7 +25,12 @@ export interface NodePath {
   weakestMarginDb: number;
 }
 
-interface Edge { to: number; linkId: number; live: boolean; marginDb: number }
+interface Edge {
+  to: number;
+  linkId: number;
+  live: boolean;
+  marginDb: number;
+}
 export interface Graph {
   nodes: Map<number, GraphNode>;
   adjacency: Map<number, Edge[]>;
@@ -36,15 +50,33 @@ export function buildGraph(nodes: GraphNode[], links: GraphLink[]): Graph {
     adjacency.get(l.nodeAId)!.push({ to: l.nodeBId, linkId: l.id, live: l.live, marginDb });
     adjacency.get(l.nodeBId)!.push({ to: l.nodeAId, linkId: l.id, live: l.live, marginDb });
   }
-  const uplinkIds = nodes.filter((n) => n.isUplink).map((n) => n.id).sort((a, b) => a - b);
+  const uplinkIds = nodes
+    .filter((n) => n.isUplink)
+    .map((n) => n.id)
+    .sort((a, b) => a - b);
   return { nodes: byId, adjacency, uplinkIds };
 }
 
-interface Label { node: number; planned: number; weakest: number; hops: number; uplink: number; via: number; viaLink: number }
+interface Label {
+  node: number;
+  planned: number;
+  weakest: number;
+  hops: number;
+  uplink: number;
+  via: number;
+  viaLink: number;
+}
 
 /** Lexicographic order: fewer planned links, then the larger weakest margin, fewer hops, lower uplink id, lower next-node id. */
 function compareLabels(a: Label, b: Label) {
-  return a.planned - b.planned || (b.weakest === a.weakest ? 0 : b.weakest > a.weakest ? 1 : -1) || a.hops - b.hops || a.uplink - b.uplink || a.via - b.via || a.node - b.node;
+  return (
+    a.planned - b.planned ||
+    (b.weakest === a.weakest ? 0 : b.weakest > a.weakest ? 1 : -1) ||
+    a.hops - b.hops ||
+    a.uplink - b.uplink ||
+    a.via - b.via ||
+    a.node - b.node
+  );
 }
 
 /**
@@ -68,14 +100,24 @@ export function pathsToUplink(graph: Graph): Map<number, NodePath> {
     const cur = queue.dequeue()!;
     if (settled.has(cur.node) || best.get(cur.node) !== cur) continue;
     settled.set(cur.node, {
-      nodeId: cur.node, uplinkId: cur.uplink, nextNodeId: cur.via < 0 ? null : cur.via, nextLinkId: cur.viaLink < 0 ? null : cur.viaLink,
-      hops: cur.hops, plannedLinks: cur.planned, weakestMarginDb: cur.weakest,
+      nodeId: cur.node,
+      uplinkId: cur.uplink,
+      nextNodeId: cur.via < 0 ? null : cur.via,
+      nextLinkId: cur.viaLink < 0 ? null : cur.viaLink,
+      hops: cur.hops,
+      plannedLinks: cur.planned,
+      weakestMarginDb: cur.weakest,
     });
     for (const e of graph.adjacency.get(cur.node) ?? []) {
       if (settled.has(e.to)) continue;
       const next: Label = {
-        node: e.to, planned: cur.planned + (e.live ? 0 : 1), weakest: Math.min(cur.weakest, e.marginDb), hops: cur.hops + 1,
-        uplink: cur.uplink, via: cur.node, viaLink: e.linkId,
+        node: e.to,
+        planned: cur.planned + (e.live ? 0 : 1),
+        weakest: Math.min(cur.weakest, e.marginDb),
+        hops: cur.hops + 1,
+        uplink: cur.uplink,
+        via: cur.node,
+        viaLink: e.linkId,
       };
       const old = best.get(e.to);
       if (!old || compareLabels(next, old) < 0) {
@@ -97,7 +139,11 @@ export function pathNodes(paths: Map<number, NodePath>, nodeId: number): number[
   return out;
 }
 
-export interface Failure { nodeIds?: Iterable<number>; linkIds?: Iterable<number>; liveOnly?: boolean }
+export interface Failure {
+  nodeIds?: Iterable<number>;
+  linkIds?: Iterable<number>;
+  liveOnly?: boolean;
+}
 
 /**
  * The nodes still joined to a working uplink when the given nodes and links have failed: one

@@ -62,9 +62,7 @@ export function afterReport(prev: HealthMemory, f: ReportFigures, t: HealthThres
   if (prev.state === 'maintenance') return { state: 'maintenance', streak: 0, reason: 'inside a maintenance window' };
   const weakNow = weaknesses(f, t);
   if (prev.state !== 'online' && prev.state !== 'degraded') {
-    return weakNow.length
-      ? { state: 'degraded', streak: 0, reason: weakNow.join('; ') }
-      : { state: 'online', streak: 0, reason: 'reporting' };
+    return weakNow.length ? { state: 'degraded', streak: 0, reason: weakNow.join('; ') } : { state: 'online', streak: 0, reason: 'reporting' };
   }
   if (prev.state === 'online') {
     if (!weakNow.length) return { state: 'online', streak: 0, reason: 'reporting' };
@@ -97,5 +95,4 @@ export function isSilent(now: Date, lastSeenAt: Date | null, watchingSince: Date
 }
 
 /** SNR from signal and noise when both are known (REFERENCES.md: SNR = Prx − N). */
-export const snrDb = (signalDbm?: number | null, noiseDbm?: number | null) =>
-  signalDbm != null && noiseDbm != null ? signalDbm - noiseDbm : null;
+export const snrDb = (signalDbm?: number | null, noiseDbm?: number | null) => (signalDbm != null && noiseDbm != null ? signalDbm - noiseDbm : null);

@@ -64,7 +64,10 @@ export function congestionMwByChannel(band: Band, allowed: number[], survey: Obs
   const out = new Map<number, number>();
   for (const ch of allowed) {
     const span = { centerMHz: channelCenterMHz(band, ch), widthMHz: 20 };
-    out.set(ch, survey.reduce((sum, n) => sum + surveyCostMw(band, span, n), 0));
+    out.set(
+      ch,
+      survey.reduce((sum, n) => sum + surveyCostMw(band, span, n), 0),
+    );
   }
   return out;
 }
@@ -137,13 +140,19 @@ export function recommendChannels(input: ChannelPlanInput): ChannelAssignment[] 
   for (const radio of order) {
     const list = candidates(input.region, radio.band, radio.channelWidthMHz);
     if (list.length === 0) {
-      throw new PlanningError(400, 'no_channel_for_width', `No ${radio.channelWidthMHz} MHz channel is allowed on ${radio.band} GHz in ${input.region}; choose a narrower width.`);
+      throw new PlanningError(
+        400,
+        'no_channel_for_width',
+        `No ${radio.channelWidthMHz} MHz channel is allowed on ${radio.band} GHz in ${input.region}; choose a narrower width.`,
+      );
     }
     let best: ChannelAssignment | null = null;
     for (const channel of list) {
       const span = planningSpan(radio.band, channel, radio.channelWidthMHz);
       const cost = candidateCost(radio, span, onAir, input.survey?.[radio.band] ?? []);
-      const better = !best || cost.ownNodeOverlapMHz < best.ownNodeOverlapMHz ||
+      const better =
+        !best ||
+        cost.ownNodeOverlapMHz < best.ownNodeOverlapMHz ||
         (cost.ownNodeOverlapMHz === best.ownNodeOverlapMHz && cost.interferenceMw < best.interferenceMw * (1 - 1e-12));
       if (better) best = { radioId: radio.id, channel, centerMHz: span.centerMHz, channelWidthMHz: radio.channelWidthMHz, ...cost };
     }

@@ -31,7 +31,8 @@ export function channelCenterMHz(band: Band, channel: number): number {
 
 const range = (from: number, to: number, step: number) => Array.from({ length: Math.floor((to - from) / step) + 1 }, (_, i) => from + i * step);
 // DFS times: ETSI EN 301 893 (EU) and 47 CFR §15.407(h) (US); see dfs.ts.
-const DFS_NOTE = 'DFS: radar detection required before and during use (60 s check before transmitting, 30 min off after radar); prefer a channel without DFS for backhaul';
+const DFS_NOTE =
+  'DFS: radar detection required before and during use (60 s check before transmitting, 30 min off after radar); prefer a channel without DFS for backhaul';
 const DFS_WEATHER_NOTE = 'DFS with weather radar (5600–5650 MHz): 10 min check before transmitting, 30 min off after radar; avoid for backhaul';
 const INDOOR_NOTE = 'indoor use only';
 
@@ -44,12 +45,22 @@ const TABLES: Record<ChannelRegion, Record<Band, Spec[]>> = {
   EU: {
     '2.4': [[range(1, 13, 1)]],
     // ECC/DEC/(04)08: 5150–5350 MHz indoors; 5470–5725 MHz ends at channel 140 for a 20 MHz channel.
-    '5': [[range(36, 48, 4), INDOOR_NOTE], [range(52, 64, 4), `${INDOOR_NOTE}; ${DFS_NOTE}`], [range(100, 116, 4), DFS_NOTE], [range(120, 128, 4), DFS_WEATHER_NOTE], [range(132, 140, 4), DFS_NOTE]],
+    '5': [
+      [range(36, 48, 4), INDOOR_NOTE],
+      [range(52, 64, 4), `${INDOOR_NOTE}; ${DFS_NOTE}`],
+      [range(100, 116, 4), DFS_NOTE],
+      [range(120, 128, 4), DFS_WEATHER_NOTE],
+      [range(132, 140, 4), DFS_NOTE],
+    ],
   },
   JP: {
     '2.4': [[range(1, 13, 1)], [[14], '802.11b only (DSSS/CCK), not OFDM']],
     // From memory: Japan's W52/W53/W56 blocks; channel 144 is left out until a source confirms it.
-    '5': [[range(36, 48, 4), INDOOR_NOTE], [range(52, 64, 4), `${INDOOR_NOTE}; ${DFS_NOTE}`], [range(100, 140, 4), DFS_NOTE]],
+    '5': [
+      [range(36, 48, 4), INDOOR_NOTE],
+      [range(52, 64, 4), `${INDOOR_NOTE}; ${DFS_NOTE}`],
+      [range(100, 140, 4), DFS_NOTE],
+    ],
   },
 };
 

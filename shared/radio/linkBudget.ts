@@ -35,7 +35,13 @@ export const MIN_SENSITIVITY_DBM: Record<ChannelWidthMHz, readonly number[]> = {
 };
 
 // PHY data rate, IEEE 802.11 HT: N_SD·N_BPSCS·R·N_SS / T_SYM (bits per µs = Mb/s).
-export function phyRateMbps(dataSubcarriers: number, bitsPerSubcarrier: number, codeRate: number, spatialStreams = 1, symbolTimeUs = SYMBOL_TIME_LONG_GI_US): number {
+export function phyRateMbps(
+  dataSubcarriers: number,
+  bitsPerSubcarrier: number,
+  codeRate: number,
+  spatialStreams = 1,
+  symbolTimeUs = SYMBOL_TIME_LONG_GI_US,
+): number {
   return (dataSubcarriers * bitsPerSubcarrier * codeRate * spatialStreams) / symbolTimeUs;
 }
 
@@ -52,7 +58,14 @@ export function eirpDbm(txPowerDbm: number, antennaGainDbi: number, cableLossDb:
 }
 
 // Received power, the link budget: Prx = Ptx + Gtx − Ltx − L + Grx − Lrx.
-export function rxSignalDbm(p: { txPowerDbm: number; txAntennaGainDbi: number; txCableLossDb: number; pathLossDb: number; rxAntennaGainDbi: number; rxCableLossDb: number }): number {
+export function rxSignalDbm(p: {
+  txPowerDbm: number;
+  txAntennaGainDbi: number;
+  txCableLossDb: number;
+  pathLossDb: number;
+  rxAntennaGainDbi: number;
+  rxCableLossDb: number;
+}): number {
   return eirpDbm(p.txPowerDbm, p.txAntennaGainDbi, p.txCableLossDb) - p.pathLossDb + p.rxAntennaGainDbi - p.rxCableLossDb;
 }
 

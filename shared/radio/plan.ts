@@ -4,7 +4,19 @@ import { freeSpacePathLossDb } from './pathLoss';
 import { clearanceNeededM, EFFECTIVE_EARTH_K, midPathEarthBulgeM, midPathFresnelRadiusM } from './fresnel';
 import { antennaTiltDeg, geodesicInverse, normaliseBearingDeg, type MastPoint } from './geodesy';
 import { DEFAULT_NOISE_FIGURE_DB, eirpDbm, noiseFloorDbm, rxSignalDbm } from './linkBudget';
-import { ackDistanceSettingKm, ACK_DISTANCE_WARNING_KM, lineOfSight, radioHorizonKm, roundTripUs, worstKnifeEdge, WORST_CASE_K, type GroundPoint, type LineOfSight, type Obstacle, type PathInput } from './lineOfSight';
+import {
+  ackDistanceSettingKm,
+  ACK_DISTANCE_WARNING_KM,
+  lineOfSight,
+  radioHorizonKm,
+  roundTripUs,
+  worstKnifeEdge,
+  WORST_CASE_K,
+  type GroundPoint,
+  type LineOfSight,
+  type Obstacle,
+  type PathInput,
+} from './lineOfSight';
 import { bestRate, marginForTargetDb, rateTable, type GuardInterval, type RateRow, type SpatialStreams } from './rates';
 import { computeRegulatory } from './regulatory';
 import { isPlanningError } from './errors';
@@ -94,7 +106,11 @@ function geometry(input: LinkBudgetInput) {
       throw new PlanningError(400, 'sites_too_close', 'Sites a and b are less than 1 m apart; pick two different sites.');
     }
     if (g.distanceKm > MAX_LINK_DISTANCE_KM) {
-      throw new PlanningError(400, 'sites_too_far', `Sites a and b are ${Math.round(g.distanceKm).toLocaleString('en')} km apart; links are planned up to ${MAX_LINK_DISTANCE_KM} km. Check the coordinates (a sign or a swapped latitude and longitude?).`);
+      throw new PlanningError(
+        400,
+        'sites_too_far',
+        `Sites a and b are ${Math.round(g.distanceKm).toLocaleString('en')} km apart; links are planned up to ${MAX_LINK_DISTANCE_KM} km. Check the coordinates (a sign or a swapped latitude and longitude?).`,
+      );
     }
     return { ...g, tiltDeg: antennaTiltDeg(input.a, input.b, g.distanceKm) };
   }
@@ -110,7 +126,11 @@ function geometry(input: LinkBudgetInput) {
 function checkObstacles(obstacles: Obstacle[], distanceKm: number) {
   obstacles.forEach((o, i) => {
     if (!(o.distanceKm > 0 && o.distanceKm < distanceKm)) {
-      throw new PlanningError(400, 'obstacle_off_path', `obstacles.${i}.distanceKm ${o.distanceKm} km is not between the two ends (0–${round(distanceKm, 3)} km); give its distance from end a.`);
+      throw new PlanningError(
+        400,
+        'obstacle_off_path',
+        `obstacles.${i}.distanceKm ${o.distanceKm} km is not between the two ends (0–${round(distanceKm, 3)} km); give its distance from end a.`,
+      );
     }
   });
 }
@@ -144,8 +164,15 @@ export function computeLinkBudget(input: LinkBudgetInput): LinkBudgetAnswer {
   let path: PathInput | null = null;
   if (input.a && input.b) {
     path = {
-      distanceKm: D, freqMHz: input.freqMHz, kFactor: k, obstacles, terrain: input.terrainProfile,
-      aGroundM: input.a.groundElevationM ?? 0, aHeightM: input.a.heightM, bGroundM: input.b.groundElevationM ?? 0, bHeightM: input.b.heightM,
+      distanceKm: D,
+      freqMHz: input.freqMHz,
+      kFactor: k,
+      obstacles,
+      terrain: input.terrainProfile,
+      aGroundM: input.a.groundElevationM ?? 0,
+      aHeightM: input.a.heightM,
+      bGroundM: input.b.groundElevationM ?? 0,
+      bHeightM: input.b.heightM,
     };
   } else if (obstacles.length > 0) {
     warnings.push('Obstacles need both sites (a and b with heights) to be placed against the line of sight; they were not counted.');
@@ -169,18 +196,38 @@ export function computeLinkBudget(input: LinkBudgetInput): LinkBudgetAnswer {
 
   const kText = Math.abs(k - 4 / 3) < 0.001 ? '4/3' : Math.abs(k - 2 / 3) < 0.001 ? '2/3' : String(round(k, 3));
   if (los && !los.clear) warnings.push(losWarning(los, kText));
-  if (los?.clear && losWorst && !losWorst.clear) warnings.push(`${losWarning(losWorst, '2/3')} Clear at k = 4/3 but not in worst-case refraction (ITU-R P.530): expect fades on some days.`);
-  if (horizon !== null && D > horizon && !input.terrainProfile) warnings.push(`The path (${fmt1(D)} km) is longer than the radio horizon for these antenna heights (${fmt1(horizon)} km): raise the antennas.`);
-  if (diffractionLossDb > 0 && knife.obstacle) warnings.push(`The obstacle ${knife.obstacle.distanceKm} km from a costs ${fmt1(diffractionLossDb)} dB of knife-edge diffraction loss (ITU-R P.526); it is included in the received signal.`);
-  if (target === null && input.targetRateMbps !== undefined) warnings.push(`No rate at ${input.channelWidthMHz} MHz with ${streams} stream(s) reaches ${input.targetRateMbps} Mb/s; use more streams or a wider channel.`);
-  else if (target && target.marginDb < FADE_MARGIN_TARGET_DB) warnings.push(`Only ${fmt1(target.marginDb)} dB of margin at the target ${target.row.rateMbps} Mb/s (MCS${target.row.mcs}); ${FADE_MARGIN_TARGET_DB} dB or more is the usual aim (common practice).`);
+  if (los?.clear && losWorst && !losWorst.clear)
+    warnings.push(`${losWarning(losWorst, '2/3')} Clear at k = 4/3 but not in worst-case refraction (ITU-R P.530): expect fades on some days.`);
+  if (horizon !== null && D > horizon && !input.terrainProfile)
+    warnings.push(`The path (${fmt1(D)} km) is longer than the radio horizon for these antenna heights (${fmt1(horizon)} km): raise the antennas.`);
+  if (diffractionLossDb > 0 && knife.obstacle)
+    warnings.push(
+      `The obstacle ${knife.obstacle.distanceKm} km from a costs ${fmt1(diffractionLossDb)} dB of knife-edge diffraction loss (ITU-R P.526); it is included in the received signal.`,
+    );
+  if (target === null && input.targetRateMbps !== undefined)
+    warnings.push(
+      `No rate at ${input.channelWidthMHz} MHz with ${streams} stream(s) reaches ${input.targetRateMbps} Mb/s; use more streams or a wider channel.`,
+    );
+  else if (target && target.marginDb < FADE_MARGIN_TARGET_DB)
+    warnings.push(
+      `Only ${fmt1(target.marginDb)} dB of margin at the target ${target.row.rateMbps} Mb/s (MCS${target.row.mcs}); ${FADE_MARGIN_TARGET_DB} dB or more is the usual aim (common practice).`,
+    );
   if (streams === 2) warnings.push('Two spatial streams need two antenna chains (usually both polarisations) and a clean path on each.');
-  if (D > ACK_DISTANCE_WARNING_KM) warnings.push(`Long link: the round trip is ${fmt1(roundTripUs(D))} µs; set the radios' distance (ACK timeout) setting to at least ${ackDistanceSettingKm(D)} km on both ends, or throughput drops sharply.`);
+  if (D > ACK_DISTANCE_WARNING_KM)
+    warnings.push(
+      `Long link: the round trip is ${fmt1(roundTripUs(D))} µs; set the radios' distance (ACK timeout) setting to at least ${ackDistanceSettingKm(D)} km on both ends, or throughput drops sharply.`,
+    );
   if (input.region) {
     try {
       const reg = computeRegulatory({
-        region: input.region, freqMHz: input.freqMHz, channelWidthMHz: input.channelWidthMHz, antennaGainDbi: input.txAntennaGainDbi,
-        txPowerDbm: input.txPowerDbm, cableLossDb: input.txCableLossDb, linkType: 'point-to-point', deployment: 'outdoor',
+        region: input.region,
+        freqMHz: input.freqMHz,
+        channelWidthMHz: input.channelWidthMHz,
+        antennaGainDbi: input.txAntennaGainDbi,
+        txPowerDbm: input.txPowerDbm,
+        cableLossDb: input.txCableLossDb,
+        linkType: 'point-to-point',
+        deployment: 'outdoor',
       });
       for (const p of reg.problems) warnings.push(`${input.region} rules: ${p}`);
       if (reg.dfs) warnings.push(reg.dfs.advice);
@@ -190,13 +237,26 @@ export function computeLinkBudget(input: LinkBudgetInput): LinkBudgetAnswer {
     }
   }
 
-  const widthOptions: WidthOption[] = ([20, 40, 80] as const).filter((w) => !(is24 && w === 80)).map((w) => {
-    const t = rateTable(w, streams, guardInterval, noiseFigure);
-    const r = bestRate(rx, t);
-    return { channelWidthMHz: w, noiseFloorDbm: round(noiseFloorDbm(w, noiseFigure), 2), expectedRateMbps: r?.rateMbps ?? 0, mcs: r?.mcs ?? null, fadeMarginDb: round(rx - t[0].sensitivityDbm, 2) };
-  });
+  const widthOptions: WidthOption[] = ([20, 40, 80] as const)
+    .filter((w) => !(is24 && w === 80))
+    .map((w) => {
+      const t = rateTable(w, streams, guardInterval, noiseFigure);
+      const r = bestRate(rx, t);
+      return {
+        channelWidthMHz: w,
+        noiseFloorDbm: round(noiseFloorDbm(w, noiseFigure), 2),
+        expectedRateMbps: r?.rateMbps ?? 0,
+        mcs: r?.mcs ?? null,
+        fadeMarginDb: round(rx - t[0].sensitivityDbm, 2),
+      };
+    });
 
-  const r2 = (l: LineOfSight) => ({ ...l, worstClearanceM: round(l.worstClearanceM, 2), requiredClearanceM: round(l.requiredClearanceM, 2), atDistanceKm: round(l.atDistanceKm, 3) });
+  const r2 = (l: LineOfSight) => ({
+    ...l,
+    worstClearanceM: round(l.worstClearanceM, 2),
+    requiredClearanceM: round(l.requiredClearanceM, 2),
+    atDistanceKm: round(l.atDistanceKm, 3),
+  });
   return {
     distanceKm: round(D, 4),
     azimuthDeg: g.azimuthDeg === null ? null : bearing(g.azimuthDeg),

@@ -48,7 +48,12 @@ export interface RateRow {
 const round1 = (x: number) => Math.round(x * 10) / 10;
 
 /** The rates a link may use at a width, stream count and guard interval, slowest first. */
-export function rateTable(channelWidthMHz: ChannelWidthMHz, streams: SpatialStreams = 1, guardInterval: GuardInterval = 'long', noiseFigureDb = SENSITIVITY_REFERENCE_NOISE_FIGURE_DB): RateRow[] {
+export function rateTable(
+  channelWidthMHz: ChannelWidthMHz,
+  streams: SpatialStreams = 1,
+  guardInterval: GuardInterval = 'long',
+  noiseFigureDb = SENSITIVITY_REFERENCE_NOISE_FIGURE_DB,
+): RateRow[] {
   const vht = channelWidthMHz === 80;
   const symbolUs = guardInterval === 'short' ? 3.6 : 4.0;
   const receiverPenalty = Math.max(0, noiseFigureDb - SENSITIVITY_REFERENCE_NOISE_FIGURE_DB);

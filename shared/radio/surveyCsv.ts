@@ -81,7 +81,10 @@ export function parseSurveyCsv(text: string): SurveyParseResult {
         const missing = ['channel', 'signaldbm'].filter((c) => !header!.includes(c));
         const unknown = header.filter((c) => !KNOWN.includes(c));
         if (missing.length > 0 || unknown.length > 0) {
-          errors.push({ line: thisLine, message: `the header must name ssid, channel, channelWidthMHz, signalDbm (band optional); ${missing.length ? `missing ${missing.join(', ')}` : `unknown ${unknown.join(', ')}`}` });
+          errors.push({
+            line: thisLine,
+            message: `the header must name ssid, channel, channelWidthMHz, signalDbm (band optional); ${missing.length ? `missing ${missing.join(', ')}` : `unknown ${unknown.join(', ')}`}`,
+          });
           parser.abort();
         }
         return;

@@ -10,9 +10,7 @@ export const outboxListQuerySchema = listQuerySchema.extend({
   kind: z.enum(OUTBOX_KINDS, { error: `must be one of ${OUTBOX_KINDS.join(', ')}` }).optional(),
 });
 
-const clockTime = z
-  .string({ error: 'must be a time like 22:00' })
-  .regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'must be a time like 22:00 (24-hour clock)');
+const clockTime = z.string({ error: 'must be a time like 22:00' }).regex(/^([01]\d|2[0-3]):[0-5]\d$/, 'must be a time like 22:00 (24-hour clock)');
 const flag = z.boolean({ error: 'must be true or false' });
 
 /** What a person may change about the mail they get; quiet hours are both set or both cleared. */

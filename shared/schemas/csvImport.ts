@@ -20,7 +20,10 @@ export const IMPORT_KINDS = ['sites', 'nodes'] as const;
 export type ImportKind = (typeof IMPORT_KINDS)[number];
 
 export const importQuerySchema = z.object({
-  dryRun: z.enum(['true', 'false'], { error: 'must be true or false' }).default('false').transform((v) => v === 'true'),
+  dryRun: z
+    .enum(['true', 'false'], { error: 'must be true or false' })
+    .default('false')
+    .transform((v) => v === 'true'),
 });
 
 export interface ImportRowPreview {

@@ -9,7 +9,11 @@ export const MAX_BATCH_REPORTS = 500;
 
 // PostgreSQL text cannot hold NUL; a router's odd SSID or firmware string is kept, the NUL shown as U+FFFD.
 // eslint-disable-next-line no-control-regex -- NUL is the one character PostgreSQL text refuses
-const storableText = (max: number) => z.string().max(max, `must be at most ${max} characters`).transform((s) => s.replace(/\u0000/g, '\uFFFD'));
+const storableText = (max: number) =>
+  z
+    .string()
+    .max(max, `must be at most ${max} characters`)
+    .transform((s) => s.replace(/\u0000/g, '\uFFFD'));
 
 const macSchema = z
   .string({ error: 'must be a MAC address like 02:00:5e:10:00:01' })
@@ -36,7 +40,11 @@ export const heartbeatRadioSchema = z.object({
 });
 
 export const heartbeatReportSchema = z.object({
-  seq: z.number({ error: 'must be a number' }).int('must be a whole number').min(0, 'must be 0 or more').max(2 ** 53 - 1, 'must be at most 2^53 - 1'),
+  seq: z
+    .number({ error: 'must be a number' })
+    .int('must be a whole number')
+    .min(0, 'must be 0 or more')
+    .max(2 ** 53 - 1, 'must be at most 2^53 - 1'),
   /** The kernel's boot id (/proc/sys/kernel/random/boot_id): with it, (bootId, seq) identifies a report. */
   bootId: z
     .string({ error: 'must be text' })

@@ -11,7 +11,11 @@ const nodeFields = {
   hardware: lineSchema(120).optional(),
   firmware: lineSchema(120).optional(),
   managementAddress: z.string().trim().regex(ipv4, 'must be an IPv4 address like 10.20.1.1').optional().nullable(),
-  reportIntervalS: z.number({ error: 'must be a number' }).int('must be a whole number of seconds').min(10, 'must be at least 10 s').max(3600, 'must be at most 3600 s'),
+  reportIntervalS: z
+    .number({ error: 'must be a number' })
+    .int('must be a whole number of seconds')
+    .min(10, 'must be at least 10 s')
+    .max(3600, 'must be at most 3600 s'),
   isUplink: z.boolean({ error: 'must be true or false' }).optional(),
 };
 export const nodeCreateSchema = z.object({ ...nodeFields, reportIntervalS: nodeFields.reportIntervalS.default(60) });

@@ -8,13 +8,21 @@ export const outageListQuerySchema = listQuerySchema.extend({
   nodeId: idSchema.optional(),
 });
 export const outageNotesSchema = z.object({
-  notes: z.string({ error: 'must be text' }).trim().max(4000, 'must be at most 4000 characters').refine((s) => !hasHiddenCharacters(s, true), 'must not contain control characters (other than line breaks) or text-direction characters'),
+  notes: z
+    .string({ error: 'must be text' })
+    .trim()
+    .max(4000, 'must be at most 4000 characters')
+    .refine((s) => !hasHiddenCharacters(s, true), 'must not contain control characters (other than line breaks) or text-direction characters'),
 });
 
 export const hostStepSchema = z.object({
   step: z.enum(HOST_STEPS, { error: `must be one of ${HOST_STEPS.join(', ')}` }),
-  note: z.string({ error: 'must be text' }).trim().max(500, 'must be at most 500 characters')
-    .refine((s) => !hasHiddenCharacters(s, true), 'must not contain control characters (other than line breaks) or text-direction characters').optional(),
+  note: z
+    .string({ error: 'must be text' })
+    .trim()
+    .max(500, 'must be at most 500 characters')
+    .refine((s) => !hasHiddenCharacters(s, true), 'must not contain control characters (other than line breaks) or text-direction characters')
+    .optional(),
 });
 export type HostStepInput = z.infer<typeof hostStepSchema>;
 

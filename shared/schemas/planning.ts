@@ -37,12 +37,18 @@ export const linkBudgetBodySchema = z
     streams: z.union([z.literal(1), z.literal(2)], { error: 'streams must be 1 or 2' }).default(1),
     guardInterval: z.enum(['long', 'short'], { error: 'guardInterval must be long or short' }).default('long'),
     // ITU-R P.530: 4/3 median; 2/3 worst case in temperate climates; below 0.5 or above 10 is not a planning value.
-    kFactor: num('kFactor').min(0.5, 'kFactor must be at least 0.5').max(10, 'kFactor must be at most 10').default(4 / 3),
+    kFactor: num('kFactor')
+      .min(0.5, 'kFactor must be at least 0.5')
+      .max(10, 'kFactor must be at most 10')
+      .default(4 / 3),
     obstacles: z
-      .array(z.object({
-        distanceKm: num('distanceKm').positive('distanceKm must be greater than 0 km (distance from end a)'),
-        heightM: between('heightM', -450, 9000, 'm'),
-      }), { error: 'obstacles must be a list of {distanceKm, heightM}' })
+      .array(
+        z.object({
+          distanceKm: num('distanceKm').positive('distanceKm must be greater than 0 km (distance from end a)'),
+          heightM: between('heightM', -450, 9000, 'm'),
+        }),
+        { error: 'obstacles must be a list of {distanceKm, heightM}' },
+      )
       .max(50, 'obstacles may list at most 50 entries')
       .default([]),
     region: z.enum(['US', 'EU'], { error: 'region must be US or EU' }).optional(),
@@ -116,10 +122,17 @@ export const anyCidrSchema = z.string({ error: 'must be a CIDR like 10.20.0.0/16
 export const addressPlanBodySchema = z
   .object({
     pool: anyCidrSchema,
-    prefixLength: num('prefixLength').int('prefixLength must be a whole number').min(1, 'prefixLength must be 1–32 (IPv4) or 1–128 (IPv6)').max(128, 'prefixLength must be 1–32 (IPv4) or 1–128 (IPv6)'),
+    prefixLength: num('prefixLength')
+      .int('prefixLength must be a whole number')
+      .min(1, 'prefixLength must be 1–32 (IPv4) or 1–128 (IPv6)')
+      .max(128, 'prefixLength must be 1–32 (IPv4) or 1–128 (IPv6)'),
     count: num('count').int('count must be a whole number').min(1, 'count must be 1–4096').max(4096, 'count must be 1–4096'),
     taken: z.array(anyCidrSchema).max(65536, 'taken may list at most 65536 blocks').optional(),
-    expectedClients: num('expectedClients').int('expectedClients must be a whole number').min(1, 'expectedClients must be 1–100000').max(100000, 'expectedClients must be 1–100000').optional(),
+    expectedClients: num('expectedClients')
+      .int('expectedClients must be a whole number')
+      .min(1, 'expectedClients must be 1–100000')
+      .max(100000, 'expectedClients must be 1–100000')
+      .optional(),
   })
   .superRefine((body, ctx) => {
     let poolPrefix: number;
@@ -132,11 +145,17 @@ export const addressPlanBodySchema = z
     if (!v6 && body.prefixLength > 32) {
       ctx.addIssue({ code: 'custom', path: ['prefixLength'], message: 'prefixLength must be 1–32 for an IPv4 pool' });
     } else if (body.prefixLength < poolPrefix) {
-      ctx.addIssue({ code: 'custom', path: ['prefixLength'], message: `prefixLength /${body.prefixLength} is shorter than the pool's /${poolPrefix}; use /${poolPrefix} or longer` });
+      ctx.addIssue({
+        code: 'custom',
+        path: ['prefixLength'],
+        message: `prefixLength /${body.prefixLength} is shorter than the pool's /${poolPrefix}; use /${poolPrefix} or longer`,
+      });
     }
     body.taken?.forEach((t, i) => {
-      if (typeof t === 'string' && t.includes(':') !== v6) ctx.addIssue({ code: 'custom', path: ['taken', i], message: `must be ${v6 ? 'IPv6' : 'IPv4'} like the pool` });
+      if (typeof t === 'string' && t.includes(':') !== v6)
+        ctx.addIssue({ code: 'custom', path: ['taken', i], message: `must be ${v6 ? 'IPv6' : 'IPv4'} like the pool` });
     });
-    if (v6 && body.expectedClients !== undefined) ctx.addIssue({ code: 'custom', path: ['expectedClients'], message: 'expectedClients sizes IPv4 DHCP pools; an IPv6 /64 holds any number of clients' });
+    if (v6 && body.expectedClients !== undefined)
+      ctx.addIssue({ code: 'custom', path: ['expectedClients'], message: 'expectedClients sizes IPv4 DHCP pools; an IPv6 /64 holds any number of clients' });
   });
 export type AddressPlanBody = z.infer<typeof addressPlanBodySchema>;

@@ -7,14 +7,20 @@ import { cidrSchema } from './planning';
 import { checkChannelFields } from './radio';
 
 const oneOf = (values: readonly (string | number)[]) => `must be one of ${values.join(', ')}`;
-const ipv4Schema = z.string({ error: 'must be an IPv4 address like 10.64.1.1' }).trim().refine((t) => parseIpv4(t) !== null, 'must be an IPv4 address like 10.64.1.1 (four numbers 0–255, no leading zeros)');
+const ipv4Schema = z
+  .string({ error: 'must be an IPv4 address like 10.64.1.1' })
+  .trim()
+  .refine((t) => parseIpv4(t) !== null, 'must be an IPv4 address like 10.64.1.1 (four numbers 0–255, no leading zeros)');
 
 /** Network settings an admin changes; every field optional. */
 export const networkSettingsUpdateSchema = z
   .object({
     name: nameSchema,
     region: z.enum(['US', 'EU', 'JP'], { error: 'must be US, EU or JP' }),
-    timeZone: z.string().trim().refine((tz) => tz !== '' && isTimeZone(tz), 'must be an IANA time zone like Europe/Lisbon'),
+    timeZone: z
+      .string()
+      .trim()
+      .refine((tz) => tz !== '' && isTimeZone(tz), 'must be an IANA time zone like Europe/Lisbon'),
     addressPool: cidrSchema.nullable(),
   })
   .partial()
@@ -30,16 +36,20 @@ export interface NetworkSettingsDto {
 }
 
 /** One end of a link to save: an inventory radio, or a new radio on a node. */
-const newRadioSchema = z.object({
-  nodeId: idSchema,
-  band: z.enum(BANDS, { error: oneOf(BANDS) }),
-  channel: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(196, 'must be at most 196'),
-  channelWidthMHz: z.union(CHANNEL_WIDTHS_MHZ.map((w) => z.literal(w)) as [z.ZodLiteral<20>, z.ZodLiteral<40>, z.ZodLiteral<80>], { error: oneOf(CHANNEL_WIDTHS_MHZ) }),
-  txPowerDbm: z.number({ error: 'must be a number' }).min(-10, 'must be at least -10 dBm').max(36, 'must be at most 36 dBm'),
-  antennaGainDbi: z.number({ error: 'must be a number' }).min(-10, 'must be at least -10 dBi').max(45, 'must be at most 45 dBi'),
-  cableLossDb: z.number({ error: 'must be a number' }).min(0, 'must be 0 dB or more').max(30, 'must be at most 30 dB').default(0),
-  role: z.enum(RADIO_ROLES, { error: oneOf(RADIO_ROLES) }).default('backhaul-ap'),
-}).superRefine(checkChannelFields);
+const newRadioSchema = z
+  .object({
+    nodeId: idSchema,
+    band: z.enum(BANDS, { error: oneOf(BANDS) }),
+    channel: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(196, 'must be at most 196'),
+    channelWidthMHz: z.union(CHANNEL_WIDTHS_MHZ.map((w) => z.literal(w)) as [z.ZodLiteral<20>, z.ZodLiteral<40>, z.ZodLiteral<80>], {
+      error: oneOf(CHANNEL_WIDTHS_MHZ),
+    }),
+    txPowerDbm: z.number({ error: 'must be a number' }).min(-10, 'must be at least -10 dBm').max(36, 'must be at most 36 dBm'),
+    antennaGainDbi: z.number({ error: 'must be a number' }).min(-10, 'must be at least -10 dBi').max(45, 'must be at most 45 dBi'),
+    cableLossDb: z.number({ error: 'must be a number' }).min(0, 'must be 0 dB or more').max(30, 'must be at most 30 dB').default(0),
+    role: z.enum(RADIO_ROLES, { error: oneOf(RADIO_ROLES) }).default('backhaul-ap'),
+  })
+  .superRefine(checkChannelFields);
 const linkEndSchema = z.union([z.object({ radioId: idSchema }).strict(), newRadioSchema], {
   error: 'must name an inventory radio ({radioId}) or a new radio ({nodeId, band, channel, channelWidthMHz, txPowerDbm, antennaGainDbi})',
 });
@@ -58,20 +68,27 @@ export const channelPlanQuerySchema = z.object({
 
 export const channelApplySchema = z.object({
   assignments: z
-    .array(z.object({ radioId: idSchema, channel: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(196, 'must be at most 196') }))
+    .array(
+      z.object({
+        radioId: idSchema,
+        channel: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(196, 'must be at most 196'),
+      }),
+    )
     .min(1, 'must list at least one radio')
     .max(500, 'may list at most 500 radios')
     .refine((list) => new Set(list.map((a) => a.radioId)).size === list.length, 'must list each radio once'),
 });
 export type ChannelApplyBody = z.infer<typeof channelApplySchema>;
 
-export const nodeAddressPlanSchema = z.object({
-  cidr: cidrSchema,
-  gateway: ipv4Schema,
-  dhcpStart: ipv4Schema.nullable().optional(),
-  dhcpEnd: ipv4Schema.nullable().optional(),
-  staticAddresses: z.array(ipv4Schema).max(256, 'may list at most 256 addresses').default([]),
-}).refine((p) => (p.dhcpStart == null) === (p.dhcpEnd == null), { message: 'give both dhcpStart and dhcpEnd, or neither', path: ['dhcpEnd'] });
+export const nodeAddressPlanSchema = z
+  .object({
+    cidr: cidrSchema,
+    gateway: ipv4Schema,
+    dhcpStart: ipv4Schema.nullable().optional(),
+    dhcpEnd: ipv4Schema.nullable().optional(),
+    staticAddresses: z.array(ipv4Schema).max(256, 'may list at most 256 addresses').default([]),
+  })
+  .refine((p) => (p.dhcpStart == null) === (p.dhcpEnd == null), { message: 'give both dhcpStart and dhcpEnd, or neither', path: ['dhcpEnd'] });
 export type NodeAddressPlanBody = z.infer<typeof nodeAddressPlanSchema>;
 
 export const addressAllocateSchema = z.object({
@@ -82,11 +99,32 @@ export type AddressAllocateBody = z.infer<typeof addressAllocateSchema>;
 
 /** One node's subnet and DHCP range, as the address plan page reads it. */
 export interface AddressPlanDto {
-  nodeId: number; nodeName: string; neighbourhoodId: number; cidr: string; gateway: string; dhcpStart: string | null; dhcpEnd: string | null;
-  staticAddresses: string[]; abilities: { update: boolean; delete: boolean };
+  nodeId: number;
+  nodeName: string;
+  neighbourhoodId: number;
+  cidr: string;
+  gateway: string;
+  dhcpStart: string | null;
+  dhcpEnd: string | null;
+  staticAddresses: string[];
+  abilities: { update: boolean; delete: boolean };
 }
 /** A plan-wide check's result; `code` says what kind (subnet_overlap, outside_pool, …) so callers never read the text. */
-export interface AddressFindingDto { code: string; label: string; message: string }
-export interface UnplannedNodeDto { nodeId: number; nodeName: string; neighbourhoodId: number; abilities: { allocate: boolean } }
+export interface AddressFindingDto {
+  code: string;
+  label: string;
+  message: string;
+}
+export interface UnplannedNodeDto {
+  nodeId: number;
+  nodeName: string;
+  neighbourhoodId: number;
+  abilities: { allocate: boolean };
+}
 /** GET /api/address-plans */
-export interface AddressPlansDto { pool: string | null; plans: AddressPlanDto[]; findings: AddressFindingDto[]; unplannedNodes: UnplannedNodeDto[] }
+export interface AddressPlansDto {
+  pool: string | null;
+  plans: AddressPlanDto[];
+  findings: AddressFindingDto[];
+  unplannedNodes: UnplannedNodeDto[];
+}

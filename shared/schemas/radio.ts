@@ -8,7 +8,10 @@ const oneOf = (values: readonly string[]) => `must be one of ${values.join(', ')
 /** Every radio field, without defaults (see radioUpdateSchema for why). */
 const radioFields = {
   nodeId: idSchema,
-  iface: z.string().trim().regex(/^[A-Za-z0-9._-]{1,15}$/, 'must be an interface name like wlan0'),
+  iface: z
+    .string()
+    .trim()
+    .regex(/^[A-Za-z0-9._-]{1,15}$/, 'must be an interface name like wlan0'),
   band: z.enum(BANDS, { error: oneOf(BANDS) }),
   channel: z.number({ error: 'must be a number' }).int('must be a whole number').min(1, 'must be 1 or more').max(196, 'must be at most 196'),
   channelWidthMHz: z.union(CHANNEL_WIDTHS_MHZ.map((w) => z.literal(w)) as [z.ZodLiteral<20>, z.ZodLiteral<40>, z.ZodLiteral<80>], {
@@ -35,7 +38,11 @@ const radioFields = {
     .refine((k) => /^[\x20-\x7e]{8,63}$/.test(k) || /^[0-9a-fA-F]{64}$/.test(k), 'must be 8–63 printable characters or 64 hex digits')
     .optional()
     .nullable(),
-  groupRekeyS: z.number({ error: 'must be a number' }).int('must be a whole number of seconds').min(0, 'must be 0 or more').max(604800, 'must be at most one week'),
+  groupRekeyS: z
+    .number({ error: 'must be a number' })
+    .int('must be a whole number of seconds')
+    .min(0, 'must be 0 or more')
+    .max(604800, 'must be at most one week'),
 };
 
 export const radioBaseSchema = z.object({

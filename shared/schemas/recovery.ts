@@ -4,7 +4,10 @@ import { hostStepSchema, type TimelineEntryDto } from './outage';
 
 /** A step from the recovery page: the signed link from the mail is the permission. */
 export const recoveryStepSchema = hostStepSchema.extend({
-  t: z.string({ error: 'is required: open the page from the link in your e-mail' }).min(1, 'is required: open the page from the link in your e-mail').max(200, 'is not a Parapet link'),
+  t: z
+    .string({ error: 'is required: open the page from the link in your e-mail' })
+    .min(1, 'is required: open the page from the link in your e-mail')
+    .max(200, 'is not a Parapet link'),
 });
 
 /** What the host's phone page shows: their node, whether the cause is elsewhere, what they did, what happens next. */

@@ -8,7 +8,10 @@ export const availabilityReportQuerySchema = z.object({
   month: z
     .string({ error: 'is required, like 2026-11' })
     .regex(/^\d{4}-(0[1-9]|1[0-2])$/, 'must be a month like 2026-11')
-    .refine((m) => Number(m.slice(0, 4)) >= MONTH_MIN_YEAR && Number(m.slice(0, 4)) <= MONTH_MAX_YEAR, `must be a month between ${MONTH_MIN_YEAR} and ${MONTH_MAX_YEAR}, like 2026-11`),
+    .refine(
+      (m) => Number(m.slice(0, 4)) >= MONTH_MIN_YEAR && Number(m.slice(0, 4)) <= MONTH_MAX_YEAR,
+      `must be a month between ${MONTH_MIN_YEAR} and ${MONTH_MAX_YEAR}, like 2026-11`,
+    ),
   format: z.enum(['json', 'csv'], { error: 'must be json or csv' }).default('json'),
   /** Which table the CSV holds: availability per neighbourhood and node, or the outages. */
   table: z.enum(['availability', 'outages'], { error: 'must be availability or outages' }).default('availability'),

@@ -4,8 +4,17 @@ import type { RadioMove } from './radio';
 
 /** GET /api/topology: the map's graph, as the server answers it (server/presenters/topology.ts). */
 export interface TopologyNodeDto {
-  id: number; name: string; siteId: number; siteName: string; neighbourhoodId: number; latitude: number; longitude: number;
-  state: NodeState; isUplink: boolean; lastSeenAt: string | null; openOutageId: number | null;
+  id: number;
+  name: string;
+  siteId: number;
+  siteName: string;
+  neighbourhoodId: number;
+  latitude: number;
+  longitude: number;
+  state: NodeState;
+  isUplink: boolean;
+  lastSeenAt: string | null;
+  openOutageId: number | null;
   /** On a stranded node: the open outage of the root it is cut off behind (null when the cut contains Parapet's own side). */
   strandedBy: number | null;
   /** On the root of an open outage: how many nodes sit behind it. */
@@ -13,22 +22,41 @@ export interface TopologyNodeDto {
 }
 
 export interface TopologyLinkDto {
-  id: number; name: string | null; status: LinkStatus; nodeAId: number; nodeBId: number;
-  distanceKm: number | null; predictedSignalDbm: number | null; fadeMarginDb: number | null; expectedRateMbps: number | null;
+  id: number;
+  name: string | null;
+  status: LinkStatus;
+  nodeAId: number;
+  nodeBId: number;
+  distanceKm: number | null;
+  predictedSignalDbm: number | null;
+  fadeMarginDb: number | null;
+  expectedRateMbps: number | null;
   measuredSignalDbm: number | null;
   /** A report named the other end as its peer within the observed window. */
-  observed: boolean; observedSignalDbm: number | null; lastObservedAt: string | null;
+  observed: boolean;
+  observedSignalDbm: number | null;
+  lastObservedAt: string | null;
   /** At least one end's MAC known, yet nobody has named the other end for the silent window. */
   plannedButSilent: boolean;
 }
 
 /** Two radios the reports show talking to each other, with no link in the inventory. */
 export interface DiscoveredLinkDto {
-  nodeAId: number; nodeBId: number; radioAId: number; radioBId: number; signalDbm: number | null; lastSeenAt: string;
+  nodeAId: number;
+  nodeBId: number;
+  radioAId: number;
+  radioBId: number;
+  signalDbm: number | null;
+  lastSeenAt: string;
   abilities: { add: boolean };
 }
 
-export interface TopologyDto { nodes: TopologyNodeDto[]; links: TopologyLinkDto[]; discoveredLinks: DiscoveredLinkDto[]; radioMoves: RadioMove[] }
+export interface TopologyDto {
+  nodes: TopologyNodeDto[];
+  links: TopologyLinkDto[];
+  discoveredLinks: DiscoveredLinkDto[];
+  radioMoves: RadioMove[];
+}
 
 /**
  * GET /api/v1/topology/neighbourhoods: per readable neighbourhood how many of the caller's readable nodes are

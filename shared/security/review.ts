@@ -41,22 +41,40 @@ function ssidWords(ssid: string | null | undefined): string[] {
 function keyFindings(radio: RadioSecurityInput, ids: number[] | undefined): SecurityFinding[] {
   const psk = radio.preSharedKey ?? '';
   if (psk === '') {
-    return [{ code: 'psk_missing', severity: 'high', message: 'The radio is set to encrypt but has no pre-shared key recorded.', fix: 'Set a pre-shared key of 12 or more random characters, or a passphrase of several unrelated words.', radioIds: ids }];
+    return [
+      {
+        code: 'psk_missing',
+        severity: 'high',
+        message: 'The radio is set to encrypt but has no pre-shared key recorded.',
+        fix: 'Set a pre-shared key of 12 or more random characters, or a passphrase of several unrelated words.',
+        radioIds: ids,
+      },
+    ];
   }
   const problem = radio.encryption === 'wpa3-sae' ? null : pskProblem(psk);
   if (problem) {
-    return [{ code: 'psk_invalid', severity: 'high', message: `The pre-shared key ${problem} (IEEE 802.11i), so devices will refuse it.`, fix: 'Use 8–63 printable characters or 64 hex digits; 12 or more random characters is safer.', radioIds: ids }];
+    return [
+      {
+        code: 'psk_invalid',
+        severity: 'high',
+        message: `The pre-shared key ${problem} (IEEE 802.11i), so devices will refuse it.`,
+        fix: 'Use 8–63 printable characters or 64 hex digits; 12 or more random characters is safer.',
+        radioIds: ids,
+      },
+    ];
   }
   if (/^[0-9a-fA-F]{64}$/.test(psk)) return [];
   const { score } = passphraseStrength(psk, ssidWords(radio.ssid));
   if (score >= 3) return [];
-  return [{
-    code: 'psk_weak',
-    severity: score <= 1 ? 'high' : 'medium',
-    message: `The pre-shared key is easy to guess (strength ${score} of 4): anyone who captures one handshake can try it offline.`,
-    fix: 'Choose a longer key: 12 or more random characters, or four or more unrelated words, not containing the network name.',
-    radioIds: ids,
-  }];
+  return [
+    {
+      code: 'psk_weak',
+      severity: score <= 1 ? 'high' : 'medium',
+      message: `The pre-shared key is easy to guess (strength ${score} of 4): anyone who captures one handshake can try it offline.`,
+      fix: 'Choose a longer key: 12 or more random characters, or four or more unrelated words, not containing the network name.',
+      radioIds: ids,
+    },
+  ];
 }
 
 /** Findings for one radio: cipher, key and group rekey. */
@@ -77,17 +95,35 @@ export function reviewRadio(radio: RadioSecurityInput): SecurityFinding[] {
       });
       return out;
     case 'wep':
-      out.push({ code: 'wep', severity: 'critical', message: 'WEP is broken and deprecated (IEEE 802.11-2012): its key can be recovered from captured traffic in minutes.', fix: USE_CCMP, radioIds: ids });
+      out.push({
+        code: 'wep',
+        severity: 'critical',
+        message: 'WEP is broken and deprecated (IEEE 802.11-2012): its key can be recovered from captured traffic in minutes.',
+        fix: USE_CCMP,
+        radioIds: ids,
+      });
       break;
     case 'wpa-tkip':
-      out.push({ code: 'tkip', severity: 'high', message: 'TKIP is deprecated (IEEE 802.11-2012) and has known attacks; newer devices may refuse it.', fix: USE_CCMP, radioIds: ids });
+      out.push({
+        code: 'tkip',
+        severity: 'high',
+        message: 'TKIP is deprecated (IEEE 802.11-2012) and has known attacks; newer devices may refuse it.',
+        fix: USE_CCMP,
+        radioIds: ids,
+      });
       break;
     default:
       break;
   }
   if (radio.encryption !== 'wep') out.push(...keyFindings(radio, ids));
   if (radio.groupRekeyS === 0) {
-    out.push({ code: 'group_rekey_disabled', severity: 'low', message: 'Group-key rekeying is off (interval 0), so the broadcast key never changes.', fix: 'Set the group rekey interval to 600 s (a common default); some clients drop briefly at each rekey.', radioIds: ids });
+    out.push({
+      code: 'group_rekey_disabled',
+      severity: 'low',
+      message: 'Group-key rekeying is off (interval 0), so the broadcast key never changes.',
+      fix: 'Set the group rekey interval to 600 s (a common default); some clients drop briefly at each rekey.',
+      radioIds: ids,
+    });
   }
   return out;
 }
@@ -117,8 +153,10 @@ export function reviewKeyReuse(radios: { id: number; neighbourhoodId: number; pr
 
 /** Most severe first; within a severity by code, then by first radio id, so the order is stable. */
 export function sortFindings<T extends SecurityFinding>(findings: T[]): T[] {
-  return [...findings].sort((a, b) =>
-    SEVERITY_ORDER.indexOf(a.severity) - SEVERITY_ORDER.indexOf(b.severity) ||
-    a.code.localeCompare(b.code) ||
-    (a.radioIds?.[0] ?? 0) - (b.radioIds?.[0] ?? 0));
+  return [...findings].sort(
+    (a, b) =>
+      SEVERITY_ORDER.indexOf(a.severity) - SEVERITY_ORDER.indexOf(b.severity) ||
+      a.code.localeCompare(b.code) ||
+      (a.radioIds?.[0] ?? 0) - (b.radioIds?.[0] ?? 0),
+  );
 }

@@ -9,6 +9,9 @@ let factory: ZxcvbnFactory | null = null;
  */
 export function passphraseStrength(passphrase: string, knownWords: string[] = []): { score: 0 | 1 | 2 | 3 | 4; guessesLog10: number } {
   factory ??= new ZxcvbnFactory({ dictionary: { ...zxcvbnCommon.dictionary }, graphs: zxcvbnCommon.adjacencyGraphs });
-  const result = factory.check(passphrase, knownWords.filter((w) => w.length > 0));
+  const result = factory.check(
+    passphrase,
+    knownWords.filter((w) => w.length > 0),
+  );
   return { score: result.score, guessesLog10: result.guessesLog10 };
 }

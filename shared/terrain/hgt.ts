@@ -40,7 +40,11 @@ export function parseHgt(fileName: string, bytes: Uint8Array): HgtTile {
   const { name, south, west } = parseTileName(fileName);
   const side = HGT_SIDES.find((n) => n * n * 2 === bytes.length);
   if (!side) {
-    throw new PlanningError(400, 'bad_tile_size', `${name}.hgt is ${bytes.length.toLocaleString('en')} bytes; an SRTM tile is 2,884,802 bytes (1201 × 1201 samples, 3″) or 25,934,402 bytes (3601 × 3601, 1″). Upload the unzipped .hgt file.`);
+    throw new PlanningError(
+      400,
+      'bad_tile_size',
+      `${name}.hgt is ${bytes.length.toLocaleString('en')} bytes; an SRTM tile is 2,884,802 bytes (1201 × 1201 samples, 3″) or 25,934,402 bytes (3601 × 3601, 1″). Upload the unzipped .hgt file.`,
+    );
   }
   const view = new DataView(bytes.buffer, bytes.byteOffset, bytes.byteLength);
   const samples = new Int16Array(side * side);
@@ -53,9 +57,14 @@ export function parseHgt(fileName: string, bytes: Uint8Array): HgtTile {
     valid++;
     if (v < PLAUSIBLE_M[0] || v > PLAUSIBLE_M[1]) implausible++;
   }
-  if (valid === 0) throw new PlanningError(400, 'tile_all_void', `${name}.hgt holds no elevation at all (every sample is void, −32768); use a void-filled tile.`);
+  if (valid === 0)
+    throw new PlanningError(400, 'tile_all_void', `${name}.hgt holds no elevation at all (every sample is void, −32768); use a void-filled tile.`);
   if (implausible > valid / 100) {
-    throw new PlanningError(400, 'tile_implausible', `${name}.hgt has ${implausible.toLocaleString('en')} heights outside −500 to 9000 m: it is not a big-endian SRTM tile (byte order swapped, or another format).`);
+    throw new PlanningError(
+      400,
+      'tile_implausible',
+      `${name}.hgt has ${implausible.toLocaleString('en')} heights outside −500 to 9000 m: it is not a big-endian SRTM tile (byte order swapped, or another format).`,
+    );
   }
   return { name, south, west, samplesPerSide: side, samples };
 }

@@ -59,12 +59,20 @@ function collector(queryClient: QueryClient) {
     },
     figures(e: NodeFiguresEvent) {
       const cached = queryClient.getQueryData<NodeDto>(nodeKeys.detail(e.nodeId));
-      if (cached && !cached.lastReport) pending.refetchNodes.add(e.nodeId); // a first report: radios and drift come with the record
+      if (cached && !cached.lastReport)
+        pending.refetchNodes.add(e.nodeId); // a first report: radios and drift come with the record
       else
         changeNode(e.nodeId, (node) => ({
           ...node,
           lastSeenAt: e.at,
-          lastReport: { ...node.lastReport, signalDbm: e.signalDbm, snrDb: e.snrDb, throughputMbps: e.throughputMbps, latencyMs: e.latencyMs, receivedAt: e.at },
+          lastReport: {
+            ...node.lastReport,
+            signalDbm: e.signalDbm,
+            snrDb: e.snrDb,
+            throughputMbps: e.throughputMbps,
+            latencyMs: e.latencyMs,
+            receivedAt: e.at,
+          },
         }));
       schedule();
     },
@@ -98,7 +106,8 @@ export function useLiveUpdates(userId: number) {
     const onConnect = () => {
       // Events sent while the connection was down are lost: read afresh what they would have changed.
       if (connectedBefore) {
-        for (const queryKey of [topologyKeys.all, overviewKeys.all, nodeKeys.all, outageKeys.all, neighbourhoodKeys.all]) void queryClient.invalidateQueries({ queryKey });
+        for (const queryKey of [topologyKeys.all, overviewKeys.all, nodeKeys.all, outageKeys.all, neighbourhoodKeys.all])
+          void queryClient.invalidateQueries({ queryKey });
       }
       connectedBefore = true;
     };

@@ -47,7 +47,14 @@ export function TextAreaField({ label, errors, hint, ...input }: Frame & Compone
   const id = useId();
   return (
     <FieldFrame id={id} label={label} errors={errors} hint={hint}>
-      <textarea id={id} rows={3} className={CONTROL} aria-invalid={errors?.length ? true : undefined} aria-describedby={describedBy(id, hint, errors)} {...input} />
+      <textarea
+        id={id}
+        rows={3}
+        className={CONTROL}
+        aria-invalid={errors?.length ? true : undefined}
+        aria-describedby={describedBy(id, hint, errors)}
+        {...input}
+      />
     </FieldFrame>
   );
 }

@@ -64,7 +64,19 @@ export function ListToolbar({ q, onSearch, searchLabel, sortOptions, sort, onSor
   );
 }
 
-export function FilterSelect({ label, value, onChange, options, allLabel = 'All' }: { label: string; value: string | undefined; onChange: (value: string | undefined) => void; options: { value: string; label: string }[]; allLabel?: string }) {
+export function FilterSelect({
+  label,
+  value,
+  onChange,
+  options,
+  allLabel = 'All',
+}: {
+  label: string;
+  value: string | undefined;
+  onChange: (value: string | undefined) => void;
+  options: { value: string; label: string }[];
+  allLabel?: string;
+}) {
   const id = useId();
   return (
     <div>

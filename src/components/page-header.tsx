@@ -1,6 +1,16 @@
 import type { ReactNode } from 'react';
 
-export function PageHeader({ title, subtitle, actions, documentTitle }: { title: ReactNode; subtitle?: ReactNode; actions?: ReactNode; documentTitle?: string }) {
+export function PageHeader({
+  title,
+  subtitle,
+  actions,
+  documentTitle,
+}: {
+  title: ReactNode;
+  subtitle?: ReactNode;
+  actions?: ReactNode;
+  documentTitle?: string;
+}) {
   const tabTitle = documentTitle ?? (typeof title === 'string' ? title : undefined);
   return (
     <div className="mb-5 flex flex-wrap items-end justify-between gap-3">

@@ -16,9 +16,7 @@ export function Pagination({ pagination, onPage, onPageSize, noun }: PaginationP
   const last = Math.min(total, page * pageSize);
   return (
     <nav aria-label={`${noun} pages`} className="mt-3 flex flex-wrap items-center justify-between gap-3 text-sm text-muted">
-      <p aria-live="polite">
-        {total === 0 ? `No ${noun}` : `${first}–${last} of ${total} ${noun}`}
-      </p>
+      <p aria-live="polite">{total === 0 ? `No ${noun}` : `${first}–${last} of ${total} ${noun}`}</p>
       <div className="flex flex-wrap items-center gap-2">
         <label className="flex items-center gap-1.5">
           <span>Per page</span>
@@ -27,11 +25,13 @@ export function Pagination({ pagination, onPage, onPageSize, noun }: PaginationP
             value={pageSize}
             onChange={(event) => onPageSize(Number(event.target.value))}
           >
-            {[...new Set([...PAGE_SIZES, pageSize])].sort((a, b) => a - b).map((size) => (
-              <option key={size} value={size}>
-                {size}
-              </option>
-            ))}
+            {[...new Set([...PAGE_SIZES, pageSize])]
+              .sort((a, b) => a - b)
+              .map((size) => (
+                <option key={size} value={size}>
+                  {size}
+                </option>
+              ))}
           </select>
         </label>
         <Button disabled={page <= 1} onClick={() => onPage(page - 1)}>

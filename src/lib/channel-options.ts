@@ -35,4 +35,3 @@ export function channelOptions(region: ChannelRegion, band: Band, widthMHz: Chan
   }
   return options;
 }
-

@@ -31,15 +31,11 @@ export function useListParams(filterKeys: readonly string[], defaultSort?: strin
   // Serialised so the memo below changes only when a filter's value does.
   const filterJson = JSON.stringify(filterKeys.map((key) => [key, searchParams.get(key) ?? '']));
   const filters = useMemo(
-    () =>
-      Object.fromEntries((JSON.parse(filterJson) as [string, string][]).map(([key, value]) => [key, value || undefined])),
+    () => Object.fromEntries((JSON.parse(filterJson) as [string, string][]).map(([key, value]) => [key, value || undefined])),
     [filterJson],
   );
 
-  const apiParams = useMemo<ListParams>(
-    () => ({ page, pageSize, sort, q: q.trim() || undefined, ...filters }),
-    [page, pageSize, sort, q, filters],
-  );
+  const apiParams = useMemo<ListParams>(() => ({ page, pageSize, sort, q: q.trim() || undefined, ...filters }), [page, pageSize, sort, q, filters]);
 
   const update = useCallback<ListState['update']>(
     (changes, options) => {

@@ -9,7 +9,10 @@ export const paths = {
   acceptInvitation: { pattern: '/invite/:token', to: (token: string) => `/invite/${encodeURIComponent(token)}` },
   account: { pattern: '/account', to: () => '/account' },
   myNodes: { pattern: '/my-nodes', to: () => '/my-nodes' },
-  history: { pattern: '/history', to: (filter?: { table: string; recordId: number }) => (filter ? `/history?table=${filter.table}&recordId=${filter.recordId}` : '/history') },
+  history: {
+    pattern: '/history',
+    to: (filter?: { table: string; recordId: number }) => (filter ? `/history?table=${filter.table}&recordId=${filter.recordId}` : '/history'),
+  },
   overview: { pattern: '/', to: () => '/' },
   sites: { pattern: '/sites', to: () => '/sites' },
   siteNew: { pattern: '/sites/new', to: () => '/sites/new' },

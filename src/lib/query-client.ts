@@ -24,7 +24,10 @@ export function checkListShape(data: unknown, query: Pick<Query, 'queryKey'>): b
   if (query.queryKey[1] !== 'list') return true;
   const body = data as { data?: unknown; pagination?: unknown } | null;
   const ok = typeof body === 'object' && body !== null && Array.isArray(body.data) && typeof body.pagination === 'object' && body.pagination !== null;
-  if (!ok) console.error(`The query ${JSON.stringify(query.queryKey)} holds something other than a list envelope {data, pagination}: read it through listQuery (lib/resource.ts).`);
+  if (!ok)
+    console.error(
+      `The query ${JSON.stringify(query.queryKey)} holds something other than a list envelope {data, pagination}: read it through listQuery (lib/resource.ts).`,
+    );
   return ok;
 }
 

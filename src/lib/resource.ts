@@ -24,7 +24,7 @@ export function listQuery<Dto>(path: string, keys: Pick<ResourceKeys, 'list'>, p
 }
 
 /** The rows of a list envelope, for `select`. */
-export const rowsOf = <Dto,>(body: ListResponse<Dto>): Dto[] => body.data;
+export const rowsOf = <Dto>(body: ListResponse<Dto>): Dto[] => body.data;
 
 /**
  * The read and write hooks every inventory resource shares. `related` are the keys whose
@@ -33,8 +33,7 @@ export const rowsOf = <Dto,>(body: ListResponse<Dto>): Dto[] => body.data;
 export function resourceHooks<Dto, Create, Update>(path: string, keys: ResourceKeys, related: readonly (readonly unknown[])[]) {
   function useInvalidate() {
     const queryClient = useQueryClient();
-    return () =>
-      Promise.all([keys.all, ...related].map((queryKey) => queryClient.invalidateQueries({ queryKey: [...queryKey] })));
+    return () => Promise.all([keys.all, ...related].map((queryKey) => queryClient.invalidateQueries({ queryKey: [...queryKey] })));
   }
 
   return {

@@ -12,12 +12,18 @@ export function AcceptInvitationPage() {
       {accept.isSuccess ? (
         <p role="status" data-testid="invitation-accepted" className="text-sm">
           {accept.data}{' '}
-          <Link to={paths.signIn.to()} className="text-accent hover:underline">Sign in</Link>
+          <Link to={paths.signIn.to()} className="text-accent hover:underline">
+            Sign in
+          </Link>
         </p>
       ) : (
         <>
           <p className="mb-4 text-sm text-muted">You were invited to the community network’s console. Choose a password to finish setting up your account.</p>
-          <NewPasswordForm submitLabel="Set my password" pending={accept.isPending} onSubmit={(password, showError) => accept.mutate({ token, password }, { onError: showError })} />
+          <NewPasswordForm
+            submitLabel="Set my password"
+            pending={accept.isPending}
+            onSubmit={(password, showError) => accept.mutate({ token, password }, { onError: showError })}
+          />
         </>
       )}
     </AccountCard>

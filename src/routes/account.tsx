@@ -24,7 +24,11 @@ export function AccountPage() {
             <ChangePasswordForm />
           </Section>
           <p className="mt-6 text-sm">
-            What Parapet mails you, and quiet hours: <Link to={paths.preferences.to()} className="text-accent underline">mail preferences</Link>.
+            What Parapet mails you, and quiet hours:{' '}
+            <Link to={paths.preferences.to()} className="text-accent underline">
+              mail preferences
+            </Link>
+            .
           </p>
         </>
       )}

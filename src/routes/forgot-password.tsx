@@ -15,7 +15,9 @@ export function ForgotPasswordPage() {
   return (
     <AccountCard title="Forgot your password?">
       {request.isSuccess ? (
-        <p role="status" data-testid="reset-requested" className="text-sm">{request.data}</p>
+        <p role="status" data-testid="reset-requested" className="text-sm">
+          {request.data}
+        </p>
       ) : (
         <form noValidate className="space-y-4" onFocus={() => void loadSchema().catch(() => undefined)} onSubmit={submit}>
           <p className="text-sm text-muted">Give the e-mail address you sign in with. If it has an account, we mail it a link to choose a new password.</p>

@@ -12,11 +12,25 @@ export function HistoryPage() {
   const history = useHistory({ ...list.apiParams, sort: undefined, q: undefined });
   return (
     <>
-      <PageHeader title="History" subtitle="Every change to sites, nodes, radios, links, neighbourhoods and people: who, when and what. Keys and passwords are never shown." />
+      <PageHeader
+        title="History"
+        subtitle="Every change to sites, nodes, radios, links, neighbourhoods and people: who, when and what. Keys and passwords are never shown."
+      />
       <div className="mb-4 max-w-xs">
-        <FilterSelect label="Kind of record" value={list.filters.table} onChange={(table) => list.update({ table, recordId: undefined })} options={AUDITED_TABLE_NAMES.map((t) => ({ value: t, label: t }))} />
+        <FilterSelect
+          label="Kind of record"
+          value={list.filters.table}
+          onChange={(table) => list.update({ table, recordId: undefined })}
+          options={AUDITED_TABLE_NAMES.map((t) => ({ value: t, label: t }))}
+        />
       </div>
-      <ListBody query={history} noun="changes" emptyTitle="No changes recorded" onPage={(page) => list.update({ page })} onPageSize={(pageSize) => list.update({ pageSize })}>
+      <ListBody
+        query={history}
+        noun="changes"
+        emptyTitle="No changes recorded"
+        onPage={(page) => list.update({ page })}
+        onPageSize={(pageSize) => list.update({ pageSize })}
+      >
         {(rows) => <HistoryList entries={rows} showRecord />}
       </ListBody>
     </>

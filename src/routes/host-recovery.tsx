@@ -12,13 +12,17 @@ const clock = (iso: string) => new Intl.DateTimeFormat('en-GB', { hour: '2-digit
 
 /** Heard from the node after the outage began (live, or already when the page loaded). */
 function lastHeard(page: RecoveryDto, liveAt: string | null): string | null {
-  const loaded = page.node.lastSeenAt && page.node.lastSeenAt > page.startedAt && (page.endedAt || page.node.state === 'online' || page.node.state === 'degraded') ? page.node.lastSeenAt : null;
+  const loaded =
+    page.node.lastSeenAt && page.node.lastSeenAt > page.startedAt && (page.endedAt || page.node.state === 'online' || page.node.state === 'degraded')
+      ? page.node.lastSeenAt
+      : null;
   if (liveAt && (!loaded || liveAt > loaded)) return liveAt;
   return loaded;
 }
 
 /** "12 s ago" while it is fresh, then minutes and hours, so a page opened later still reads plainly. */
-const ago = (seconds: number) => (seconds < 120 ? `${seconds} s ago` : seconds < 7200 ? `${Math.round(seconds / 60)} min ago` : `${Math.round(seconds / 3600)} h ago`);
+const ago = (seconds: number) =>
+  seconds < 120 ? `${seconds} s ago` : seconds < 7200 ? `${Math.round(seconds / 60)} min ago` : `${Math.round(seconds / 3600)} h ago`;
 
 function BackBanner({ at }: { at: string }) {
   const seconds = useSecondsSince(at) ?? 0;
@@ -45,8 +49,7 @@ export function HostRecoveryPage() {
   const data = page.data;
   const backAt = data ? lastHeard(data, heard.at) : null;
 
-  const tell = (input: Parameters<typeof record.mutate>[0], next: number) =>
-    record.mutate(input, { onSuccess: () => setScreen(next) });
+  const tell = (input: Parameters<typeof record.mutate>[0], next: number) => record.mutate(input, { onSuccess: () => setScreen(next) });
 
   return (
     <div className="min-h-screen bg-bg text-lg">
@@ -80,7 +83,10 @@ export function HostRecoveryPage() {
             {!backAt && data.upstream && (
               <section className="space-y-3" data-testid="recovery-upstream">
                 <h2 className="text-2xl font-semibold">Nothing to do at your place</h2>
-                <p>The problem is at {data.upstream.siteName}, further up the network; operators are on it. Please leave everything plugged in: your node will come back by itself.</p>
+                <p>
+                  The problem is at {data.upstream.siteName}, further up the network; operators are on it. Please leave everything plugged in: your node will
+                  come back by itself.
+                </p>
                 <p className="text-base text-muted">{data.whatNext}</p>
               </section>
             )}
@@ -102,8 +108,12 @@ export function HostRecoveryPage() {
                     <h2 className="text-2xl font-semibold">{gaveUp ? 'Thank you for trying' : 'Still not back?'}</h2>
                     {!gaveUp && <p>If it has been a few minutes since the last step, it will not come back by itself.</p>}
                     {!gaveUp && (
-                      <Button variant="primary" className="w-full py-3 text-lg" disabled={record.isPending}
-                        onClick={() => record.mutate({ step: 'cannot-reach', note: 'Tried the steps; it is still down' }, { onSuccess: () => setGaveUp(true) })}>
+                      <Button
+                        variant="primary"
+                        className="w-full py-3 text-lg"
+                        disabled={record.isPending}
+                        onClick={() => record.mutate({ step: 'cannot-reach', note: 'Tried the steps; it is still down' }, { onSuccess: () => setGaveUp(true) })}
+                      >
                         I could not fix it
                       </Button>
                     )}
@@ -115,13 +125,21 @@ export function HostRecoveryPage() {
             )}
             {data.steps.length > 0 && (
               <section aria-labelledby="told-title" className="border-t border-line pt-4">
-                <h2 id="told-title" className="text-base font-semibold">What you told the volunteers</h2>
+                <h2 id="told-title" className="text-base font-semibold">
+                  What you told the volunteers
+                </h2>
                 <ul className="mt-1 space-y-1 text-base text-muted">
-                  {data.steps.map((s) => <li key={`${s.at}-${s.text}`}>{clock(s.at)}: {s.text}</li>)}
+                  {data.steps.map((s) => (
+                    <li key={`${s.at}-${s.text}`}>
+                      {clock(s.at)}: {s.text}
+                    </li>
+                  ))}
                 </ul>
               </section>
             )}
-            <p className="text-sm text-muted">This link works until {clock(data.linkExpiresAt)} on {new Date(data.linkExpiresAt).toLocaleDateString('en-GB')} and only for this outage.</p>
+            <p className="text-sm text-muted">
+              This link works until {clock(data.linkExpiresAt)} on {new Date(data.linkExpiresAt).toLocaleDateString('en-GB')} and only for this outage.
+            </p>
           </>
         )}
       </main>

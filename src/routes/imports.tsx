@@ -31,21 +31,42 @@ export function ImportsPage() {
       <PageHeader title="Import from CSV" subtitle="Add many sites or nodes at once. Nothing is saved until every row is right." />
       <div className="mb-4 flex flex-wrap gap-2" role="group" aria-label="What to import">
         {(['sites', 'nodes'] as const).map((k) => (
-          <Button key={k} variant={k === kind ? 'primary' : 'secondary'} aria-pressed={k === kind} onClick={() => { setSearch({ kind: k }); choose(null); }}>
+          <Button
+            key={k}
+            variant={k === kind ? 'primary' : 'secondary'}
+            aria-pressed={k === kind}
+            onClick={() => {
+              setSearch({ kind: k });
+              choose(null);
+            }}
+          >
             {k === 'sites' ? 'Sites' : 'Nodes'}
           </Button>
         ))}
       </div>
       <p className="mb-2 text-sm">
         The first line names the columns: <code className="rounded bg-sunken px-1">{LAYOUT[kind].join(',')}</code>.{' '}
-        {kind === 'sites' ? 'Name the neighbourhood; latitude and longitude in decimal degrees; heights in metres.' : 'Name the site; the node joins the site’s neighbourhood. Report interval in seconds (default 60).'}
+        {kind === 'sites'
+          ? 'Name the neighbourhood; latitude and longitude in decimal degrees; heights in metres.'
+          : 'Name the site; the node joins the site’s neighbourhood. Report interval in seconds (default 60).'}
       </p>
       <label className="mb-4 block text-sm font-medium">
         CSV file
-        <input key={kind} type="file" accept=".csv,text/csv" className="mt-1 block w-full text-sm" data-testid="import-file" onChange={(e) => choose(e.target.files?.[0] ?? null)} />
+        <input
+          key={kind}
+          type="file"
+          accept=".csv,text/csv"
+          className="mt-1 block w-full text-sm"
+          data-testid="import-file"
+          onChange={(e) => choose(e.target.files?.[0] ?? null)}
+        />
       </label>
       <FormMessage message={message(preview.error) ?? message(commit.error)} />
-      {preview.isPending && <p role="status" className="text-sm text-muted">Checking the file…</p>}
+      {preview.isPending && (
+        <p role="status" className="text-sm text-muted">
+          Checking the file…
+        </p>
+      )}
       {commit.isSuccess ? (
         <div role="status" className="rounded-md border border-line bg-accent-soft px-3 py-2 text-sm" data-testid="import-done">
           Imported {commit.data.created} {kind}.{' '}

@@ -25,7 +25,8 @@ const fraction = (s: string) => {
   const m = /^\s*(\d+(?:\.\d+)?)\s*\/\s*(\d+(?:\.\d+)?)\s*$/.exec(s);
   return m ? Number(m[1]) / Number(m[2]) : num(s);
 };
-const errorText = (e: unknown) => (e instanceof ApiError ? [e.message, ...e.details.slice(1).map((d) => d.message)].join(' ') : 'Something went wrong. Try again.');
+const errorText = (e: unknown) =>
+  e instanceof ApiError ? [e.message, ...e.details.slice(1).map((d) => d.message)].join(' ') : 'Something went wrong. Try again.';
 
 export function LinkBudgetPage() {
   const settings = useNetworkSettings();
@@ -39,7 +40,16 @@ export function LinkBudgetPage() {
   const [radio, setRadio] = useState({ band: '5' as '2.4' | '5', channel: '100', channelWidthMHz: '20', noiseFigureDb: '5' });
   const [adv, setAdv] = useState({ streams: '1', guardInterval: 'long', kFactor: '4/3', targetRateMbps: '', terrain: false, tpc: true });
   const [obstacles, setObstacles] = useState<ObstacleRow[]>([]);
-  const [result, setResult] = useState<{ answer: LinkBudgetAnswer; freqMHz: number; width: number; a: LinkEnd; b: LinkEnd; obstacles: { distanceKm: number; heightM: number }[]; reg: RegulatoryAnswer | null; regError: string | null } | null>(null);
+  const [result, setResult] = useState<{
+    answer: LinkBudgetAnswer;
+    freqMHz: number;
+    width: number;
+    a: LinkEnd;
+    b: LinkEnd;
+    obstacles: { distanceKm: number; heightM: number }[];
+    reg: RegulatoryAnswer | null;
+    regError: string | null;
+  } | null>(null);
   const [message, setMessage] = useState<string | null>(null);
   const region = settings.data?.region ?? 'EU';
   const band = radioA?.band ?? radio.band;
@@ -59,7 +69,11 @@ export function LinkBudgetPage() {
     // The same channel rule as stored radios (shared/radio/channels.ts); the region's own limits come back as warnings.
     const problem = Number.isInteger(channel) ? channelProblem(band, channel, width) : null;
     if (!Number.isInteger(channel) || problem) {
-      setMessage(problem ? `Channel ${channel} at ${width} MHz: ${problem.field === 'channel' ? 'the channel' : 'the width'} ${problem.message}.` : `Channel ${radio.channel} is not a ${band} GHz channel.`);
+      setMessage(
+        problem
+          ? `Channel ${channel} at ${width} MHz: ${problem.field === 'channel' ? 'the channel' : 'the width'} ${problem.message}.`
+          : `Channel ${radio.channel} is not a ${band} GHz channel.`,
+      );
       return;
     }
     const freqMHz = channelCenterMHz(band, channel);
@@ -69,11 +83,21 @@ export function LinkBudgetPage() {
     const obstacleBody = obstacles.map((o) => ({ distanceKm: num(o.distanceKm), heightM: num(o.heightM) }));
     try {
       const answer = await budget.mutateAsync({
-        a: end(a), b: end(b), freqMHz, channelWidthMHz: width as 20 | 40 | 80, noiseFigureDb: num(radio.noiseFigureDb),
-        txPowerDbm: num(a.txPowerDbm), txAntennaGainDbi: num(a.antennaGainDbi), txCableLossDb: num(a.cableLossDb),
-        rxAntennaGainDbi: num(b.antennaGainDbi), rxCableLossDb: num(b.cableLossDb),
-        streams: adv.streams === '2' ? 2 : 1, guardInterval: adv.guardInterval === 'short' ? 'short' : 'long', kFactor: fraction(adv.kFactor),
-        obstacles: obstacleBody, terrain: adv.terrain,
+        a: end(a),
+        b: end(b),
+        freqMHz,
+        channelWidthMHz: width as 20 | 40 | 80,
+        noiseFigureDb: num(radio.noiseFigureDb),
+        txPowerDbm: num(a.txPowerDbm),
+        txAntennaGainDbi: num(a.antennaGainDbi),
+        txCableLossDb: num(a.cableLossDb),
+        rxAntennaGainDbi: num(b.antennaGainDbi),
+        rxCableLossDb: num(b.cableLossDb),
+        streams: adv.streams === '2' ? 2 : 1,
+        guardInterval: adv.guardInterval === 'short' ? 'short' : 'long',
+        kFactor: fraction(adv.kFactor),
+        obstacles: obstacleBody,
+        terrain: adv.terrain,
         ...(adv.targetRateMbps.trim() ? { targetRateMbps: num(adv.targetRateMbps) } : {}),
         ...(region === 'US' || region === 'EU' ? { region } : {}),
       });
@@ -82,8 +106,15 @@ export function LinkBudgetPage() {
       if (region === 'US' || region === 'EU') {
         try {
           reg = await regulatory.mutateAsync({
-            region, freqMHz, antennaGainDbi: num(a.antennaGainDbi), txPowerDbm: num(a.txPowerDbm), cableLossDb: num(a.cableLossDb), linkType: 'point-to-point',
-            channelWidthMHz: width as 20 | 40 | 80, tpc: adv.tpc, deployment: 'outdoor',
+            region,
+            freqMHz,
+            antennaGainDbi: num(a.antennaGainDbi),
+            txPowerDbm: num(a.txPowerDbm),
+            cableLossDb: num(a.cableLossDb),
+            linkType: 'point-to-point',
+            channelWidthMHz: width as 20 | 40 | 80,
+            tpc: adv.tpc,
+            deployment: 'outdoor',
           });
         } catch (err) {
           regError = errorText(err);
@@ -99,7 +130,16 @@ export function LinkBudgetPage() {
   function endSpec(x: LinkEnd): PlannedLinkEnd | null {
     if (x.radioId) return { radioId: Number(x.radioId) };
     if (!x.nodeId) return null;
-    return { nodeId: Number(x.nodeId), band, channel, channelWidthMHz: width as 20 | 40 | 80, txPowerDbm: num(x.txPowerDbm), antennaGainDbi: num(x.antennaGainDbi), cableLossDb: num(x.cableLossDb), role: 'backhaul-ap' };
+    return {
+      nodeId: Number(x.nodeId),
+      band,
+      channel,
+      channelWidthMHz: width as 20 | 40 | 80,
+      txPowerDbm: num(x.txPowerDbm),
+      antennaGainDbi: num(x.antennaGainDbi),
+      cableLossDb: num(x.cableLossDb),
+      role: 'backhaul-ap',
+    };
   }
   const specA = result ? endSpec(result.a) : null;
   const specB = result ? endSpec(result.b) : null;
@@ -121,7 +161,13 @@ export function LinkBudgetPage() {
             onChange={(e) => isBand(e.target.value) && chooseBand(e.target.value)}
             options={bandOptions}
           />
-          <TextField label="Channel" inputMode="numeric" value={radioA ? String(radioA.channel) : radio.channel} readOnly={!!radioA} onChange={(e) => setRadio({ ...radio, channel: e.target.value })} />
+          <TextField
+            label="Channel"
+            inputMode="numeric"
+            value={radioA ? String(radioA.channel) : radio.channel}
+            readOnly={!!radioA}
+            onChange={(e) => setRadio({ ...radio, channel: e.target.value })}
+          />
           <SelectField
             label="Channel width"
             value={String(width)}
@@ -129,17 +175,61 @@ export function LinkBudgetPage() {
             onChange={(e) => setRadio({ ...radio, channelWidthMHz: e.target.value })}
             options={widthOptions(channelRegion, band)}
           />
-          <TextField label="Receiver noise figure (dB)" inputMode="decimal" value={radio.noiseFigureDb} onChange={(e) => setRadio({ ...radio, noiseFigureDb: e.target.value })} />
-          <SelectField label="Spatial streams" value={adv.streams} onChange={(e) => setAdv({ ...adv, streams: e.target.value })} options={[{ value: '1', label: '1 stream' }, { value: '2', label: '2 streams' }]} />
-          <SelectField label="Guard interval" value={adv.guardInterval} onChange={(e) => setAdv({ ...adv, guardInterval: e.target.value })} options={[{ value: 'long', label: 'Long (0.8 µs)' }, { value: 'short', label: 'Short (0.4 µs)' }]} />
-          <TextField label="Target rate (Mb/s, optional)" inputMode="decimal" value={adv.targetRateMbps} onChange={(e) => setAdv({ ...adv, targetRateMbps: e.target.value })} />
-          <TextField label="Effective earth factor k" inputMode="decimal" value={adv.kFactor} hint="4/3 is the median; 2/3 is checked too" onChange={(e) => setAdv({ ...adv, kFactor: e.target.value })} />
-          <CheckboxField label="Ground from terrain tiles" checked={adv.terrain} hint="Uses the elevation tiles an admin uploaded" onChange={(e) => setAdv({ ...adv, terrain: e.target.checked })} />
-          <CheckboxField label="Radio has TPC (EU 5 GHz)" checked={adv.tpc} hint="Without transmit power control the EU limit is 3 dB lower" onChange={(e) => setAdv({ ...adv, tpc: e.target.checked })} />
+          <TextField
+            label="Receiver noise figure (dB)"
+            inputMode="decimal"
+            value={radio.noiseFigureDb}
+            onChange={(e) => setRadio({ ...radio, noiseFigureDb: e.target.value })}
+          />
+          <SelectField
+            label="Spatial streams"
+            value={adv.streams}
+            onChange={(e) => setAdv({ ...adv, streams: e.target.value })}
+            options={[
+              { value: '1', label: '1 stream' },
+              { value: '2', label: '2 streams' },
+            ]}
+          />
+          <SelectField
+            label="Guard interval"
+            value={adv.guardInterval}
+            onChange={(e) => setAdv({ ...adv, guardInterval: e.target.value })}
+            options={[
+              { value: 'long', label: 'Long (0.8 µs)' },
+              { value: 'short', label: 'Short (0.4 µs)' },
+            ]}
+          />
+          <TextField
+            label="Target rate (Mb/s, optional)"
+            inputMode="decimal"
+            value={adv.targetRateMbps}
+            onChange={(e) => setAdv({ ...adv, targetRateMbps: e.target.value })}
+          />
+          <TextField
+            label="Effective earth factor k"
+            inputMode="decimal"
+            value={adv.kFactor}
+            hint="4/3 is the median; 2/3 is checked too"
+            onChange={(e) => setAdv({ ...adv, kFactor: e.target.value })}
+          />
+          <CheckboxField
+            label="Ground from terrain tiles"
+            checked={adv.terrain}
+            hint="Uses the elevation tiles an admin uploaded"
+            onChange={(e) => setAdv({ ...adv, terrain: e.target.checked })}
+          />
+          <CheckboxField
+            label="Radio has TPC (EU 5 GHz)"
+            checked={adv.tpc}
+            hint="Without transmit power control the EU limit is 3 dB lower"
+            onChange={(e) => setAdv({ ...adv, tpc: e.target.checked })}
+          />
         </fieldset>
         <ObstacleList value={obstacles} onChange={setObstacles} />
         <FormMessage message={message} />
-        <Button type="submit" variant="primary" disabled={budget.isPending}>{budget.isPending ? 'Computing…' : 'Compute link budget'}</Button>
+        <Button type="submit" variant="primary" disabled={budget.isPending}>
+          {budget.isPending ? 'Computing…' : 'Compute link budget'}
+        </Button>
       </form>
 
       {result && (
@@ -150,27 +240,40 @@ export function LinkBudgetPage() {
             <LinkBudgetFigures answer={result.answer} />
             <WidthTradeOff answer={result.answer} currentWidth={result.width} />
             <RegulatoryVerdict region={region} answer={result.reg} error={result.regError} />
-            <PathProfile distanceKm={result.answer.distanceKm} freqMHz={result.freqMHz} kFactor={result.answer.kFactor}
-              obstacles={result.obstacles} terrain={result.answer.profile} worst={result.answer.lineOfSight}
+            <PathProfile
+              distanceKm={result.answer.distanceKm}
+              freqMHz={result.freqMHz}
+              kFactor={result.answer.kFactor}
+              obstacles={result.obstacles}
+              terrain={result.answer.profile}
+              worst={result.answer.lineOfSight}
               a={{ label: 'A', groundM: result.answer.profile?.[0]?.groundM ?? num(result.a.groundElevationM), heightM: num(result.a.heightM) }}
-              b={{ label: 'B', groundM: result.answer.profile?.at(-1)?.groundM ?? num(result.b.groundElevationM), heightM: num(result.b.heightM) }} />
+              b={{ label: 'B', groundM: result.answer.profile?.at(-1)?.groundM ?? num(result.b.groundElevationM), heightM: num(result.b.heightM) }}
+            />
             <div className="flex flex-wrap items-center gap-3">
-              <Button variant="primary" disabled={!specA || !specB || save.isPending || save.isSuccess}
-                onClick={() => specA && specB && save.mutate({ a: specA, b: specB })}>
+              <Button
+                variant="primary"
+                disabled={!specA || !specB || save.isPending || save.isSuccess}
+                onClick={() => specA && specB && save.mutate({ a: specA, b: specB })}
+              >
                 {save.isPending ? 'Saving…' : 'Save as planned link'}
               </Button>
               {(!specA || !specB) && <p className="text-sm text-muted">To save, choose a site and a node for both ends.</p>}
               {save.isSuccess && (
                 <p role="status" data-testid="saved-link" className="text-sm">
-                  Saved “{save.data.name}” as a planned link. <Link className="underline" to={paths.topology.to(save.data.nodeAId)}>See it on the map</Link> (drawn dashed).
+                  Saved “{save.data.name}” as a planned link.{' '}
+                  <Link className="underline" to={paths.topology.to(save.data.nodeAId)}>
+                    See it on the map
+                  </Link>{' '}
+                  (drawn dashed).
                 </p>
               )}
               {save.isError && <FormMessage message={errorText(save.error)} />}
             </div>
             <Caution title="Working at height">
-              Mast and roof work can kill: never climb alone, use fall protection, keep clear of power lines, and stay out of the beam of
-              high-gain antennas while they transmit (RF exposure is highest right in front of the dish). Check PoE and mains wiring is
-              done to local code. Regulatory figures are guidance; local codes, the regulator and licensed practice decide.
+              Mast and roof work can kill: never climb alone, use fall protection, keep clear of power lines, and stay out of the beam of high-gain antennas
+              while they transmit (RF exposure is highest right in front of the dish). Check PoE and mains wiring is done to local code. Regulatory figures are
+              guidance; local codes, the regulator and licensed practice decide.
             </Caution>
           </div>
         </Section>

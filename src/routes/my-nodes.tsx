@@ -33,7 +33,9 @@ export function MyNodesPage() {
                     <div key={node.id} className="space-y-4">
                       <HostedNode node={node} />
                       <div className="border-t border-line pt-3">
-                        <p className="mb-2 text-sm text-muted">Switching it off for a while (building work, a holiday)? Say when below, and no one is alarmed while it is off.</p>
+                        <p className="mb-2 text-sm text-muted">
+                          Switching it off for a while (building work, a holiday)? Say when below, and no one is alarmed while it is off.
+                        </p>
                         <MaintenanceWindows nodeId={node.id} />
                       </div>
                     </div>
@@ -45,9 +47,13 @@ export function MyNodesPage() {
         </div>
       )}
       <p className="mt-6 text-sm">
-        <Link to={paths.preferences.to()} className="text-accent hover:underline">Quiet hours and mail</Link>
+        <Link to={paths.preferences.to()} className="text-accent hover:underline">
+          Quiet hours and mail
+        </Link>
         {' · '}
-        <Link to={paths.account.to()} className="text-accent hover:underline">Your contact details</Link>
+        <Link to={paths.account.to()} className="text-accent hover:underline">
+          Your contact details
+        </Link>
       </p>
     </>
   );

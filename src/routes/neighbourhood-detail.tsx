@@ -8,7 +8,13 @@ import { PageHeader, Section } from '../components/page-header';
 import { LoadError, Loading } from '../components/query-state';
 import { useCurrentUser } from '../features/auth/api/session';
 import { HistorySection } from '../features/history/components/history-section';
-import { useDeleteNeighbourhood, useNeighbourhood, useNeighbourhoods, useNeighbourhoodSummary, useUpdateNeighbourhood } from '../features/neighbourhoods/api/neighbourhoods';
+import {
+  useDeleteNeighbourhood,
+  useNeighbourhood,
+  useNeighbourhoods,
+  useNeighbourhoodSummary,
+  useUpdateNeighbourhood,
+} from '../features/neighbourhoods/api/neighbourhoods';
 import { BulkNodeAssign } from '../features/neighbourhoods/components/bulk-node-assign';
 import { AvailabilityFigures, NeighbourhoodHosts, NeighbourhoodNodes } from '../features/neighbourhoods/components/neighbourhood-summary';
 import { NeighbourhoodForm } from '../features/neighbourhoods/components/neighbourhood-form';
@@ -108,15 +114,19 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
       )}
 
       <Section title="Availability">
-        {summary.isSuccess ? <AvailabilityFigures availability={summary.data.availability} /> : summary.isError ? <LoadError error={summary.error} /> : <Loading />}
+        {summary.isSuccess ? (
+          <AvailabilityFigures availability={summary.data.availability} />
+        ) : summary.isError ? (
+          <LoadError error={summary.error} />
+        ) : (
+          <Loading />
+        )}
       </Section>
 
       <Section
         title="Nodes"
         actions={
-          record.abilities.update && !record.retiredAt && (
-            <Button onClick={() => setMoving((m) => !m)}>{moving ? 'Done moving' : 'Move nodes here'}</Button>
-          )
+          record.abilities.update && !record.retiredAt && <Button onClick={() => setMoving((m) => !m)}>{moving ? 'Done moving' : 'Move nodes here'}</Button>
         }
       >
         {moving && allHoods.isSuccess && (
@@ -131,10 +141,7 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
 
       <Section title="Operators">
         {operators.isSuccess && record.abilities.update ? (
-          <OperatorAssignment
-            neighbourhood={record}
-            operators={operatorRows.map((person) => ({ id: person.id, name: person.name, email: person.email }))}
-          />
+          <OperatorAssignment neighbourhood={record} operators={operatorRows.map((person) => ({ id: person.id, name: person.name, email: person.email }))} />
         ) : operators.isSuccess ? (
           assigned.length === 0 ? (
             <EmptyState title="No operators assigned" />
@@ -145,20 +152,18 @@ function NeighbourhoodDetail({ neighbourhoodId }: { neighbourhoodId: number }) {
               ))}
             </ul>
           )
+        ) : summary.isSuccess && summary.data.operators.length > 0 ? (
+          <ul className="list-inside list-disc text-sm">
+            {summary.data.operators.map((person) => (
+              <li key={person.id}>{person.name}</li>
+            ))}
+          </ul>
         ) : (
-          summary.isSuccess && summary.data.operators.length > 0 ? (
-            <ul className="list-inside list-disc text-sm">
-              {summary.data.operators.map((person) => (
-                <li key={person.id}>{person.name}</li>
-              ))}
-            </ul>
-          ) : (
           <p className="text-sm text-muted">
             {record.operatorIds.length === 0
               ? 'No operators are assigned yet.'
               : `${record.operatorIds.length} operator${record.operatorIds.length === 1 ? ' is' : 's are'} on the rota here. An admin can change who.`}
           </p>
-          )
         )}
       </Section>
 

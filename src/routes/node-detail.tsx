@@ -154,7 +154,9 @@ function NodeDetail({ nodeId }: { nodeId: number }) {
         ) : outages.isError ? (
           <LoadError error={outages.error} />
         ) : outages.data.data.length === 0 ? (
-          <EmptyState title="No outages recorded">{record.lastSeenAt ? 'This node has not missed its reports so far.' : 'Outages are tracked once the node reports.'}</EmptyState>
+          <EmptyState title="No outages recorded">
+            {record.lastSeenAt ? 'This node has not missed its reports so far.' : 'Outages are tracked once the node reports.'}
+          </EmptyState>
         ) : (
           <OutagesTable outages={outages.data.data} showNode={false} testId="node-outages-table" />
         )}

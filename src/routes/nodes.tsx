@@ -63,8 +63,18 @@ export function NodesPage() {
         sort={list.sort}
         onSort={(sort) => list.update({ sort })}
       >
-        <FilterSelect label="State" value={list.filters.state} onChange={(state) => list.update({ state })} options={NODE_STATES.map((state) => ({ value: state, label: stateWord(state) }))} />
-        <FilterSelect label="Neighbourhood" value={list.filters.neighbourhoodId} onChange={(neighbourhoodId) => list.update({ neighbourhoodId })} options={toOptions(neighbourhoods.data?.data)} />
+        <FilterSelect
+          label="State"
+          value={list.filters.state}
+          onChange={(state) => list.update({ state })}
+          options={NODE_STATES.map((state) => ({ value: state, label: stateWord(state) }))}
+        />
+        <FilterSelect
+          label="Neighbourhood"
+          value={list.filters.neighbourhoodId}
+          onChange={(neighbourhoodId) => list.update({ neighbourhoodId })}
+          options={toOptions(neighbourhoods.data?.data)}
+        />
         <FilterSelect label="Site" value={list.filters.siteId} onChange={(siteId) => list.update({ siteId })} options={toOptions(sites.data?.data)} />
       </ListToolbar>
       <ListBody

@@ -25,8 +25,20 @@ export function OutageDetailPage() {
     <>
       <PageHeader
         title={o ? `Outage of ${o.nodeName}` : 'Outage'}
-        subtitle={o ? (o.endedAt ? `Down for ${formatDuration(o.durationS)}, from ${formatDateTime(o.startedAt)}` : `Down since ${formatDateTime(o.startedAt)}`) : undefined}
-        actions={o && <Link to={paths.nodeDetail.to(o.nodeId)} className="text-sm font-medium text-accent hover:underline">The node</Link>}
+        subtitle={
+          o
+            ? o.endedAt
+              ? `Down for ${formatDuration(o.durationS)}, from ${formatDateTime(o.startedAt)}`
+              : `Down since ${formatDateTime(o.startedAt)}`
+            : undefined
+        }
+        actions={
+          o && (
+            <Link to={paths.nodeDetail.to(o.nodeId)} className="text-sm font-medium text-accent hover:underline">
+              The node
+            </Link>
+          )
+        }
       />
       {outage.isPending && <Loading label="Loading the outage…" />}
       {outage.isError && <LoadError error={outage.error} />}
@@ -43,7 +55,9 @@ export function OutageDetailPage() {
             <ol data-testid="outage-timeline" aria-live="polite" className="divide-y divide-line rounded-lg border border-line bg-surface text-sm">
               {(o.timeline ?? []).map((e, i) => (
                 <li key={`${e.at}-${i}`} className="grid gap-1 px-3 py-2 sm:grid-cols-[11rem_7rem_1fr]" data-kind={e.kind}>
-                  <time dateTime={e.at} className="text-muted">{formatDateTime(e.at)}</time>
+                  <time dateTime={e.at} className="text-muted">
+                    {formatDateTime(e.at)}
+                  </time>
                   <span className={e.kind === 'host-step' ? 'font-semibold' : 'text-muted'}>{KIND_WORD[e.kind]}</span>
                   <span className="break-words">{e.text}</span>
                 </li>

@@ -23,10 +23,27 @@ export function OutagesPage() {
     <>
       <PageHeader title="Outages" subtitle="When nodes went down, for how long, and who is on it. New outages appear as they open." />
       <div className="mb-3 flex flex-wrap items-end gap-3">
-        <FilterSelect label="Status" value={list.filters.status} onChange={(status) => list.update({ status })} options={STATUS_OPTIONS} allLabel="Open and closed" />
-        <FilterSelect label="Neighbourhood" value={list.filters.neighbourhoodId} onChange={(neighbourhoodId) => list.update({ neighbourhoodId })} options={toOptions(neighbourhoods.data?.data)} />
+        <FilterSelect
+          label="Status"
+          value={list.filters.status}
+          onChange={(status) => list.update({ status })}
+          options={STATUS_OPTIONS}
+          allLabel="Open and closed"
+        />
+        <FilterSelect
+          label="Neighbourhood"
+          value={list.filters.neighbourhoodId}
+          onChange={(neighbourhoodId) => list.update({ neighbourhoodId })}
+          options={toOptions(neighbourhoods.data?.data)}
+        />
         <div className="sm:hidden">
-          <FilterSelect label="Sort by" value={list.sort} onChange={(sort) => list.update({ sort })} options={sortChoices(OUTAGE_SORT_FIELDS)} allLabel="Newest first" />
+          <FilterSelect
+            label="Sort by"
+            value={list.sort}
+            onChange={(sort) => list.update({ sort })}
+            options={sortChoices(OUTAGE_SORT_FIELDS)}
+            allLabel="Newest first"
+          />
         </div>
         {list.filters.nodeId && (
           <p className="pb-1.5 text-sm">
@@ -45,7 +62,9 @@ export function OutagesPage() {
         onPage={(page) => list.update({ page })}
         onPageSize={(pageSize) => list.update({ pageSize })}
       >
-        {(rows) => <OutagesTable outages={rows} neighbourhoodNames={nameLookup(neighbourhoods.data?.data)} sort={list.sort} onSort={(sort) => list.update({ sort })} />}
+        {(rows) => (
+          <OutagesTable outages={rows} neighbourhoodNames={nameLookup(neighbourhoods.data?.data)} sort={list.sort} onSort={(sort) => list.update({ sort })} />
+        )}
       </ListBody>
     </>
   );

@@ -18,12 +18,27 @@ export function OutboxPage() {
 
   return (
     <>
-      <PageHeader title="Outbox" subtitle="Mail Parapet has written: it is kept here until the mail server accepts it, and retried with growing pauses if not." />
+      <PageHeader
+        title="Outbox"
+        subtitle="Mail Parapet has written: it is kept here until the mail server accepts it, and retried with growing pauses if not."
+      />
       <div className="mb-3 flex flex-wrap items-end gap-3">
-        <FilterSelect label="Status" value={list.filters.status} onChange={(status) => list.update({ status })} options={STATUS_OPTIONS} allLabel="Every status" />
+        <FilterSelect
+          label="Status"
+          value={list.filters.status}
+          onChange={(status) => list.update({ status })}
+          options={STATUS_OPTIONS}
+          allLabel="Every status"
+        />
         <FilterSelect label="Kind" value={list.filters.kind} onChange={(kind) => list.update({ kind })} options={KIND_OPTIONS} allLabel="Every kind" />
         <div className="sm:hidden">
-          <FilterSelect label="Sort by" value={list.sort} onChange={(sort) => list.update({ sort })} options={sortChoices(OUTBOX_SORT_FIELDS)} allLabel="Newest first" />
+          <FilterSelect
+            label="Sort by"
+            value={list.sort}
+            onChange={(sort) => list.update({ sort })}
+            options={sortChoices(OUTBOX_SORT_FIELDS)}
+            allLabel="Newest first"
+          />
         </div>
         {inbox.data && (
           <a className="pb-1.5 text-sm font-medium text-accent hover:underline" href={inbox.data.url} target="_blank" rel="noreferrer">

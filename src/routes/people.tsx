@@ -88,7 +88,12 @@ export function PeoplePage() {
         sort={list.sort}
         onSort={(sort) => list.update({ sort })}
       >
-        <FilterSelect label="Role" value={list.filters.role} onChange={(role) => list.update({ role })} options={ROLES.map((role) => ({ value: role, label: capitalise(role) }))} />
+        <FilterSelect
+          label="Role"
+          value={list.filters.role}
+          onChange={(role) => list.update({ role })}
+          options={ROLES.map((role) => ({ value: role, label: capitalise(role) }))}
+        />
       </ListToolbar>
       <ListBody
         query={people}

@@ -4,8 +4,16 @@ import { paths } from '../lib/paths';
 import { PlanningCaution } from '../features/planning/components/planning-caution';
 
 const PAGES = [
-  { to: paths.linkBudget.to(), title: 'Link budget', text: 'Will a link between two masts close? Loss, signal, fade margin, Fresnel zone and the legal power limit.' },
-  { to: paths.channelPlan.to(), title: 'Channel plan', text: 'Upload site surveys, see congestion per channel and apply a recommended channel for every radio.' },
+  {
+    to: paths.linkBudget.to(),
+    title: 'Link budget',
+    text: 'Will a link between two masts close? Loss, signal, fade margin, Fresnel zone and the legal power limit.',
+  },
+  {
+    to: paths.channelPlan.to(),
+    title: 'Channel plan',
+    text: 'Upload site surveys, see congestion per channel and apply a recommended channel for every radio.',
+  },
   { to: paths.addressPlan.to(), title: 'Address plan', text: 'Give each node a subnet and DHCP range from the network’s pool, with overlap and range checks.' },
   { to: paths.securityReview.to(), title: 'Security review', text: 'Open networks, WEP, TKIP, weak or reused keys and disabled rekeying, most severe first.' },
 ];
@@ -24,7 +32,9 @@ export function PlanningPage() {
           </li>
         ))}
       </ul>
-      <p className="mt-6 text-sm text-muted">Each node’s provisioning sheet (every setting to type into its router) opens from the address plan and at /nodes/&lt;id&gt;/provisioning.</p>
+      <p className="mt-6 text-sm text-muted">
+        Each node’s provisioning sheet (every setting to type into its router) opens from the address plan and at /nodes/&lt;id&gt;/provisioning.
+      </p>
       <PlanningCaution />
     </>
   );

@@ -7,7 +7,10 @@ export function PreferencesPage() {
   const preferences = usePreferences();
   return (
     <>
-      <PageHeader title="Mail preferences" subtitle="What Parapet mails you about outages. Every message also carries a link back here and a one-click unsubscribe." />
+      <PageHeader
+        title="Mail preferences"
+        subtitle="What Parapet mails you about outages. Every message also carries a link back here and a one-click unsubscribe."
+      />
       {preferences.isPending ? <Loading /> : preferences.isError ? <LoadError error={preferences.error} /> : <PreferencesForm preferences={preferences.data} />}
     </>
   );

@@ -7,7 +7,11 @@ import { NeighbourhoodStatus } from '../features/public-status/components/neighb
 export function PublicStatusPage() {
   const status = usePublicStatus();
   const data = status.data;
-  const updated = data ? new Intl.DateTimeFormat('en-GB', { timeZone: data.network.timeZone, hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }).format(new Date(data.generatedAt)) : null;
+  const updated = data
+    ? new Intl.DateTimeFormat('en-GB', { timeZone: data.network.timeZone, hour: '2-digit', minute: '2-digit', hourCycle: 'h23' }).format(
+        new Date(data.generatedAt),
+      )
+    : null;
   const down = data?.neighbourhoods.reduce((n, h) => n + h.counts.down, 0) ?? 0;
 
   return (
@@ -30,7 +34,9 @@ export function PublicStatusPage() {
         ) : (
           <>
             <p className="mb-4 text-base" data-testid="public-summary">
-              {down === 0 ? 'Every neighbourhood is working as far as we can tell.' : `${down === 1 ? 'One node is' : `${down} nodes are`} down right now. Volunteers are told automatically.`}{' '}
+              {down === 0
+                ? 'Every neighbourhood is working as far as we can tell.'
+                : `${down === 1 ? 'One node is' : `${down} nodes are`} down right now. Volunteers are told automatically.`}{' '}
               <span className="text-muted">Updated at {updated}.</span>
             </p>
             {data.neighbourhoods.length === 0 ? (
@@ -46,7 +52,11 @@ export function PublicStatusPage() {
               <p>Times are shown in the network’s time zone ({data.network.timeZone}).</p>
               <p>“Up” means the share of time the neighbourhood’s nodes were answering, counted from when each node was first heard from.</p>
               <p>
-                Run this network? <a href="/sign-in" className="underline">Sign in</a>.
+                Run this network?{' '}
+                <a href="/sign-in" className="underline">
+                  Sign in
+                </a>
+                .
               </p>
             </footer>
           </>

@@ -38,7 +38,13 @@ export function ReportsPage() {
       />
       <label className="mb-4 inline-block text-sm font-medium">
         Month
-        <input type="month" value={month} max={thisMonth()} onChange={(e) => e.target.value && setSearch({ month: e.target.value })} className="mt-1 block rounded-md border border-line-strong bg-surface px-2 py-1" />
+        <input
+          type="month"
+          value={month}
+          max={thisMonth()}
+          onChange={(e) => e.target.value && setSearch({ month: e.target.value })}
+          className="mt-1 block rounded-md border border-line-strong bg-surface px-2 py-1"
+        />
       </label>
       {report.isPending ? (
         <Loading label="Working out the month…" />
@@ -48,7 +54,8 @@ export function ReportsPage() {
         r && (
           <>
             <p className="text-sm" data-testid="report-overall">
-              Overall <strong>{formatPercent(r.overall.availabilityPct)}</strong> up, {r.overall.outageCount} outages. Month boundaries are midnight in {r.timeZone}; time is counted from when each node was first heard from.
+              Overall <strong>{formatPercent(r.overall.availabilityPct)}</strong> up, {r.overall.outageCount} outages. Month boundaries are midnight in{' '}
+              {r.timeZone}; time is counted from when each node was first heard from.
             </p>
             <Section title="Day by day">
               <TimeChart

@@ -12,10 +12,16 @@ export function ResetPasswordPage() {
       {complete.isSuccess ? (
         <p role="status" className="text-sm">
           {complete.data}{' '}
-          <Link to={paths.signIn.to()} className="text-accent hover:underline">Sign in</Link>
+          <Link to={paths.signIn.to()} className="text-accent hover:underline">
+            Sign in
+          </Link>
         </p>
       ) : (
-        <NewPasswordForm submitLabel="Set the new password" pending={complete.isPending} onSubmit={(password, showError) => complete.mutate({ token, password }, { onError: showError })} />
+        <NewPasswordForm
+          submitLabel="Set the new password"
+          pending={complete.isPending}
+          onSubmit={(password, showError) => complete.mutate({ token, password }, { onError: showError })}
+        />
       )}
     </AccountCard>
   );

@@ -90,9 +90,20 @@ function SiteDetail({ siteId }: { siteId: number }) {
       )}
       {record.abilities.update && (
         <div className="mt-4">
-          {invited && <p role="status" className="mb-2 text-sm">Invitation sent to {invited}; they become this site’s host once they accept it.</p>}
+          {invited && (
+            <p role="status" className="mb-2 text-sm">
+              Invitation sent to {invited}; they become this site’s host once they accept it.
+            </p>
+          )}
           {inviting ? (
-            <InviteHostForm siteId={record.id} onSent={(email) => { setInvited(email); setInviting(false); }} onCancel={() => setInviting(false)} />
+            <InviteHostForm
+              siteId={record.id}
+              onSent={(email) => {
+                setInvited(email);
+                setInviting(false);
+              }}
+              onCancel={() => setInviting(false)}
+            />
           ) : (
             <Button onClick={() => setInviting(true)}>Invite a new host by e-mail</Button>
           )}

@@ -58,7 +58,9 @@ export function SitesPage() {
         onPage={(page) => list.update({ page })}
         onPageSize={(pageSize) => list.update({ pageSize })}
       >
-        {(rows) => <SitesTable sites={rows} neighbourhoodNames={nameLookup(neighbourhoods.data?.data)} sort={list.sort} onSort={(sort) => list.update({ sort })} />}
+        {(rows) => (
+          <SitesTable sites={rows} neighbourhoodNames={nameLookup(neighbourhoods.data?.data)} sort={list.sort} onSort={(sort) => list.update({ sort })} />
+        )}
       </ListBody>
     </>
   );

@@ -225,7 +225,10 @@ for (const rt of runtimes) {
     const bufferFile = () => join(stateDir, 'buffer.jsonl');
     const bufferedSeqs = () =>
       existsSync(bufferFile())
-        ? readFileSync(bufferFile(), 'utf8').split('\n').filter(Boolean).map((l) => (JSON.parse(l) as { seq: number }).seq)
+        ? readFileSync(bufferFile(), 'utf8')
+            .split('\n')
+            .filter(Boolean)
+            .map((l) => (JSON.parse(l) as { seq: number }).seq)
         : [];
 
     const env = (extra: Record<string, string | undefined> = {}) => {
@@ -398,7 +401,10 @@ for (const rt of runtimes) {
       );
       expect(bufferedSeqs()).toEqual([]);
       expect((await run()).code).toBe(0);
-      expect(server.requests.map((r) => [seqsIn(r), r.status])).toEqual([[[1], 400], [[2], 202]]);
+      expect(server.requests.map((r) => [seqsIn(r), r.status])).toEqual([
+        [[1], 400],
+        [[2], 202],
+      ]);
     });
 
     it('on 400 for a batch drops only the report the server refuses and delivers the rest in the same run', async () => {
@@ -416,8 +422,16 @@ for (const rt of runtimes) {
       // without it, it halves the batch until the bad report stands alone
       expect(server.requests.slice(2).map((r) => [seqsIn(r), r.status])).toEqual(
         rt.readsErrorBody
-          ? [[[1, 2, 3], 400], [[1, 3], 202]]
-          : [[[1, 2, 3], 400], [[1], 202], [[2], 400], [[3], 202]],
+          ? [
+              [[1, 2, 3], 400],
+              [[1, 3], 202],
+            ]
+          : [
+              [[1, 2, 3], 400],
+              [[1], 202],
+              [[2], 400],
+              [[3], 202],
+            ],
       );
     });
 
@@ -437,7 +451,7 @@ for (const rt of runtimes) {
 
     it('names the firmware from os-release NAME and VERSION_ID, and takes only the version from the version file', async () => {
       const osRelease = join(stateDir, 'os-release');
-      writeFileSync(osRelease, "NAME='Tilecrest'\nID=tilecrest\nVERSION_ID=\"5.0.4\"\n");
+      writeFileSync(osRelease, 'NAME=\'Tilecrest\'\nID=tilecrest\nVERSION_ID="5.0.4"\n');
       expect((await run({ PARAPET_OS_RELEASE: osRelease })).code).toBe(0);
       expect(bodyOf(server.requests[0]).firmware).toBe('Tilecrest 5.0.4');
 

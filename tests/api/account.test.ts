@@ -108,7 +108,13 @@ describe('own account, role changes and deactivation', () => {
       expect(res.body.data).toHaveLength(1);
       expect(res.body.data[0]).toMatchObject({ id: mine.id, name: 'Quay Chandlery', neighbourhoodName: hood.name });
       expect(res.body.data[0].nodes).toEqual([
-        expect.objectContaining({ name: 'qc-1', state: 'online', summary: 'Your node on Quay Chandlery is working normally.', recentOutages: [], availability: { h24Pct: null, d30Pct: null } }),
+        expect.objectContaining({
+          name: 'qc-1',
+          state: 'online',
+          summary: 'Your node on Quay Chandlery is working normally.',
+          recentOutages: [],
+          availability: { h24Pct: null, d30Pct: null },
+        }),
       ]);
     });
 

@@ -31,7 +31,14 @@ describe('address plans API', () => {
     const res = await call(op, 'post', '/api/v1/address-plans/allocate', { nodeIds: [node.id, second.id], prefixLength: 24 });
     expect(res.status).toBe(201);
     const [p1, p2] = res.body.data;
-    expect(p1).toMatchObject({ nodeId: node.id, cidr: '10.64.0.0/24', gateway: '10.64.0.1', dhcpStart: '10.64.0.11', dhcpEnd: '10.64.0.254', staticAddresses: [] });
+    expect(p1).toMatchObject({
+      nodeId: node.id,
+      cidr: '10.64.0.0/24',
+      gateway: '10.64.0.1',
+      dhcpStart: '10.64.0.11',
+      dhcpEnd: '10.64.0.254',
+      staticAddresses: [],
+    });
     expect(p2.cidr).toBe('10.64.1.0/24');
     // Reference library: netmask's first host is the gateway, its last host the end of the DHCP range (RFC 4632).
     const block = new Netmask(p2.cidr);
@@ -64,19 +71,31 @@ describe('address plans API', () => {
     const second = await buildNode({ neighbourhoodId: hood.id });
     const third = await buildNode({ neighbourhoodId: hood.id });
     const put = (id: number, body: object) => call(op, 'put', `/api/v1/address-plans/${id}`, body);
-    expect((await put(node.id, { cidr: '10.64.20.0/24', gateway: '10.64.21.1', dhcpStart: '10.64.20.100', dhcpEnd: '10.64.20.200', staticAddresses: ['10.64.20.150'] })).status).toBe(201);
+    expect(
+      (
+        await put(node.id, {
+          cidr: '10.64.20.0/24',
+          gateway: '10.64.21.1',
+          dhcpStart: '10.64.20.100',
+          dhcpEnd: '10.64.20.200',
+          staticAddresses: ['10.64.20.150'],
+        })
+      ).status,
+    ).toBe(201);
     expect((await put(second.id, { cidr: '10.64.20.128/25', gateway: '10.64.20.129', dhcpStart: '10.64.20.200', dhcpEnd: '10.64.21.10' })).status).toBe(201);
     expect((await put(third.id, { cidr: '192.168.5.0/24', gateway: '192.168.5.1' })).status).toBe(201);
     const res = await call(op, 'get', '/api/v1/address-plans');
     expect(res.status).toBe(200);
     const codes = res.body.data.findings.map((f: { code: string; label: string }) => `${f.code}:${f.label}`).sort();
-    expect(codes).toEqual([
-      `dhcp_collides_static:${node.name}`,
-      `dhcp_outside_subnet:${second.name}`,
-      `gateway_outside_subnet:${node.name}`,
-      `outside_pool:${third.name}`,
-      `subnet_overlap:${node.name}`,
-    ].sort());
+    expect(codes).toEqual(
+      [
+        `dhcp_collides_static:${node.name}`,
+        `dhcp_outside_subnet:${second.name}`,
+        `gateway_outside_subnet:${node.name}`,
+        `outside_pool:${third.name}`,
+        `subnet_overlap:${node.name}`,
+      ].sort(),
+    );
     const update = await put(third.id, { cidr: '10.64.30.0/24', gateway: '10.64.30.1' });
     expect(update.status).toBe(200);
     expect(update.body.findings).toEqual([]);

@@ -31,12 +31,17 @@ async function pairScene(ctx: TestContext) {
   const b = await buildNode({ neighbourhoodId: hood.id, name: unique('Chapel roof') });
   const radioA = await buildRadio({ nodeId: a.id, iface: 'wlan0' });
   const radioB = await buildRadio({ nodeId: b.id, iface: 'wlan0' });
-  const tokens = new Map([[a.id, await tokenFor(ctx, a.id)], [b.id, await tokenFor(ctx, b.id)]]);
+  const tokens = new Map([
+    [a.id, await tokenFor(ctx, a.id)],
+    [b.id, await tokenFor(ctx, b.id)],
+  ]);
   const seqs = new Map<number, number>();
   const report = async (nodeId: number, radio: object) => {
     const seq = (seqs.get(nodeId) ?? 0) + 1;
     seqs.set(nodeId, seq);
-    const res = await request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${tokens.get(nodeId)}`)
+    const res = await request(ctx.app)
+      .post('/api/v1/heartbeats')
+      .set('Authorization', `Bearer ${tokens.get(nodeId)}`)
       .send({ seq, sentAt: clock.now().toISOString(), radios: [{ iface: 'wlan0', ...radio }] });
     expect(res.status).toBe(202);
   };
@@ -67,7 +72,15 @@ describe('radios learn their MAC and links are discovered from reports', () => {
     const before = await topology(s.agent);
     expect(before.links).toEqual([]);
     expect(before.discoveredLinks).toEqual([
-      { nodeAId: s.a.id, nodeBId: s.b.id, radioAId: s.radioA.id, radioBId: s.radioB.id, signalDbm: -64, lastSeenAt: clock.now().toISOString(), abilities: { add: true } },
+      {
+        nodeAId: s.a.id,
+        nodeBId: s.b.id,
+        radioAId: s.radioA.id,
+        radioBId: s.radioB.id,
+        signalDbm: -64,
+        lastSeenAt: clock.now().toISOString(),
+        abilities: { add: true },
+      },
     ]);
 
     // The map's "add to the inventory" posts exactly the pair it shows.
@@ -123,7 +136,9 @@ describe('radios learn their MAC and links are discovered from reports', () => {
     await s.report(s.a.id, { mac: MAC_A });
     clock.advance(3600);
     // The radio that was on the mill now reports from the bakery, on another interface name.
-    const res = await request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${tokenC}`)
+    const res = await request(ctx.app)
+      .post('/api/v1/heartbeats')
+      .set('Authorization', `Bearer ${tokenC}`)
       .send({ seq: 1, sentAt: clock.now().toISOString(), radios: [{ iface: 'wlan1', mac: MAC_A }] });
     expect(res.status).toBe(202);
 
@@ -131,14 +146,25 @@ describe('radios learn their MAC and links are discovered from reports', () => {
     expect((await Radio.findByPk(radioC.id))!.mac).toBe(MAC_A);
     const moves = (await topology(s.agent)).radioMoves.filter((m: { mac: string }) => m.mac === MAC_A);
     expect(moves).toEqual([
-      expect.objectContaining({ mac: MAC_A, fromNodeId: s.a.id, fromNodeName: s.a.name, fromIface: 'wlan0', toNodeId: c.id, toNodeName: c.name, toIface: 'wlan1', at: clock.now().toISOString() }),
+      expect.objectContaining({
+        mac: MAC_A,
+        fromNodeId: s.a.id,
+        fromNodeName: s.a.name,
+        fromIface: 'wlan0',
+        toNodeId: c.id,
+        toNodeName: c.name,
+        toIface: 'wlan1',
+        at: clock.now().toISOString(),
+      }),
     ]);
 
     const overview = await call(s.agent, 'get', '/api/v1/overview');
     expect(overview.body.data.radioMoves.map((m: { mac: string; toNodeId: number }) => [m.mac, m.toNodeId])).toContainEqual([MAC_A, c.id]);
 
     // Reported again by the bakery: the move is recorded once.
-    await request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${tokenC}`)
+    await request(ctx.app)
+      .post('/api/v1/heartbeats')
+      .set('Authorization', `Bearer ${tokenC}`)
       .send({ seq: 2, sentAt: clock.now().toISOString(), radios: [{ iface: 'wlan1', mac: MAC_A }] });
     expect((await topology(s.agent)).radioMoves.filter((m: { mac: string }) => m.mac === MAC_A)).toHaveLength(1);
   });
@@ -160,16 +186,23 @@ describe('radios learn their MAC and links are discovered from reports', () => {
     const [MAC_A] = macPair();
     const s = await pairScene(ctx);
     const token = await tokenFor(ctx, s.a.id);
-    const res = await request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${token}`).send({
-      reports: [
-        { seq: 1, sentAt: clock.now().toISOString(), radios: [{ iface: 'wlan0', mac: MAC_A }] },
-        { seq: 2, sentAt: clock.now().toISOString(), radios: [{ iface: 'wlan0', mac: '02:00:5e:10:00' }] },
-      ],
-    });
+    const res = await request(ctx.app)
+      .post('/api/v1/heartbeats')
+      .set('Authorization', `Bearer ${token}`)
+      .send({
+        reports: [
+          { seq: 1, sentAt: clock.now().toISOString(), radios: [{ iface: 'wlan0', mac: MAC_A }] },
+          { seq: 2, sentAt: clock.now().toISOString(), radios: [{ iface: 'wlan0', mac: '02:00:5e:10:00' }] },
+        ],
+      });
     expect(res.status).toBe(400);
-    expect(res.body.error.details).toEqual([{ path: 'reports.1.radios.0.mac', message: 'reports.1.radios.0.mac must be a MAC address like 02:00:5e:10:00:01' }]);
+    expect(res.body.error.details).toEqual([
+      { path: 'reports.1.radios.0.mac', message: 'reports.1.radios.0.mac must be a MAC address like 02:00:5e:10:00:01' },
+    ]);
     expect((await Radio.findByPk(s.radioA.id))!.mac).toBeNull();
-    const numeric = await request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${token}`)
+    const numeric = await request(ctx.app)
+      .post('/api/v1/heartbeats')
+      .set('Authorization', `Bearer ${token}`)
       .send({ seq: 3, sentAt: clock.now().toISOString(), radios: [{ iface: 'wlan0', mac: 42 }] });
     expect(numeric.status).toBe(400);
     expect(numeric.body.error.details[0].path).toBe('radios.0.mac');

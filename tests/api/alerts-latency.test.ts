@@ -28,14 +28,18 @@ describe('time from the last report to the outage mail', () => {
       expect(arrivedAt).toBeGreaterThan(0);
       const delayS = (arrivedAt - lastReportAt) / 1000;
       const thresholdS = 10 * 3;
-      console.log(`[alert latency] last report → operator mail in the inbox: ${delayS.toFixed(1)} s ` +
-        `(offline threshold ${thresholdS} s = 3 × 10 s report interval; ${(delayS - thresholdS).toFixed(1)} s of detection and delivery)`);
+      console.log(
+        `[alert latency] last report → operator mail in the inbox: ${delayS.toFixed(1)} s ` +
+          `(offline threshold ${thresholdS} s = 3 × 10 s report interval; ${(delayS - thresholdS).toFixed(1)} s of detection and delivery)`,
+      );
       const [row] = await ctx.sequelize.query<{ created: Date; sent: Date }>(
         `SELECT min(created_at) AS created, max(sent_at) AS sent FROM outbox WHERE node_id = $1`,
         { bind: [s.node.id], type: QueryTypes.SELECT },
       );
-      console.log(`[alert latency] written to the outbox ${((new Date(row.created).getTime() - lastReportAt) / 1000).toFixed(1)} s after the last report; ` +
-        `both mails accepted by SMTP ${((new Date(row.sent).getTime() - new Date(row.created).getTime()) / 1000).toFixed(1)} s after that`);
+      console.log(
+        `[alert latency] written to the outbox ${((new Date(row.created).getTime() - lastReportAt) / 1000).toFixed(1)} s after the last report; ` +
+          `both mails accepted by SMTP ${((new Date(row.sent).getTime() - new Date(row.created).getTime()) / 1000).toFixed(1)} s after that`,
+      );
       expect(await mailTo([s.host.email])).toHaveLength(1);
     } finally {
       jobs.stop();

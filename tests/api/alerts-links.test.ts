@@ -99,7 +99,10 @@ describe('links in outage mail', () => {
     expect(confirm.text).toContain('Acknowledge outage');
     expect((await outage.reload()).acknowledgedAt).toBeNull();
 
-    const done = await request(ctx.app).post('/api/v1/mail-links/acknowledge').type('form').send({ t: new URL(`http://x${ack}`).searchParams.get('t') });
+    const done = await request(ctx.app)
+      .post('/api/v1/mail-links/acknowledge')
+      .type('form')
+      .send({ t: new URL(`http://x${ack}`).searchParams.get('t') });
     expect(done.status).toBe(200);
     await outage.reload();
     expect(outage.acknowledgedBy).toBe(s.operator.id);
@@ -154,7 +157,10 @@ describe('links in outage mail', () => {
       expect(m.subject).toContain('Bcc: intruder@evil.test'); // kept as harmless text on one line
     }
     // The address with a line break is refused outright: nothing is written for it.
-    const [{ n }] = await ctx.sequelize.query<{ n: string }>('SELECT count(*) AS n FROM outbox WHERE recipient_user_id = $1', { bind: [sneaky.id], type: QueryTypes.SELECT });
+    const [{ n }] = await ctx.sequelize.query<{ n: string }>('SELECT count(*) AS n FROM outbox WHERE recipient_user_id = $1', {
+      bind: [sneaky.id],
+      type: QueryTypes.SELECT,
+    });
     expect(Number(n)).toBe(0);
   });
 

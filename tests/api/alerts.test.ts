@@ -205,13 +205,19 @@ describe('outage mail', () => {
     const mail = await mailTo(s.addresses(...s.everyone, secondAdmin));
     expect(mail.map((m) => m.to[0].address).sort()).toEqual([s.admin.email, secondAdmin.email].sort());
     expect(mail[0].subject).toBe('Parapet’s health check was not running for 2 h'.replace('’', "'"));
-    const [{ n }] = await ctx.sequelize.query<{ n: string }>(`SELECT count(*) AS n FROM outbox WHERE kind = 'self-check' AND recipient_user_id = $1`, { bind: [s.admin.id], type: QueryTypes.SELECT });
+    const [{ n }] = await ctx.sequelize.query<{ n: string }>(`SELECT count(*) AS n FROM outbox WHERE kind = 'self-check' AND recipient_user_id = $1`, {
+      bind: [s.admin.id],
+      type: QueryTypes.SELECT,
+    });
     expect(Number(n)).toBe(1);
   });
 
   it('sends operators a daily digest of nodes degraded for hours, not an alarm', async () => {
     const s = await alertScene(ctx);
-    await Node.update({ state: 'degraded', stateSince: new Date(clock.now().getTime() - 5 * 3600_000), healthReason: 'SNR 9 dB below 15 dB' }, { where: { id: s.node.id } });
+    await Node.update(
+      { state: 'degraded', stateSince: new Date(clock.now().getTime() - 5 * 3600_000), healthReason: 'SNR 9 dB below 15 dB' },
+      { where: { id: s.node.id } },
+    );
     clock.set(clock.now().toISOString().slice(0, 11) + '07:30:00Z');
     clock.advance(86_400); // the next morning, before the digest hour (08:00 UTC)
     await runAlertSweep(ctx.sequelize, ctx.config, clock.now());

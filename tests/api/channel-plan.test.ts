@@ -55,7 +55,12 @@ describe('channel plan API', () => {
     await Radio.update(ap24(1), { where: { id: mine.id } });
     const theirs = await buildRadio({ nodeId: otherNode.id });
 
-    const notReadable = await call(op, 'post', '/api/v1/planning/channel-plan/apply', { assignments: [{ radioId: mine.id, channel: 6 }, { radioId: theirs.id, channel: 44 }] });
+    const notReadable = await call(op, 'post', '/api/v1/planning/channel-plan/apply', {
+      assignments: [
+        { radioId: mine.id, channel: 6 },
+        { radioId: theirs.id, channel: 44 },
+      ],
+    });
     expect(notReadable.status).toBe(404);
     expect((await Radio.findByPk(mine.id))!.channel).toBe(1); // nothing changed: one transaction
 
@@ -64,9 +69,17 @@ describe('channel plan API', () => {
 
     const disallowed = await call(op, 'post', '/api/v1/planning/channel-plan/apply', { assignments: [{ radioId: mine.id, channel: 14 }] });
     expect(disallowed.status).toBe(400);
-    expect(disallowed.body.error.details[0]).toEqual({ path: 'assignments.0.channel', message: 'assignments.0.channel 14 is not allowed for this radio in EU' });
+    expect(disallowed.body.error.details[0]).toEqual({
+      path: 'assignments.0.channel',
+      message: 'assignments.0.channel 14 is not allowed for this radio in EU',
+    });
 
-    const twice = await call(op, 'post', '/api/v1/planning/channel-plan/apply', { assignments: [{ radioId: mine.id, channel: 6 }, { radioId: mine.id, channel: 11 }] });
+    const twice = await call(op, 'post', '/api/v1/planning/channel-plan/apply', {
+      assignments: [
+        { radioId: mine.id, channel: 6 },
+        { radioId: mine.id, channel: 11 },
+      ],
+    });
     expect(twice.status).toBe(400);
 
     const ok = await call(op, 'post', '/api/v1/planning/channel-plan/apply', { assignments: [{ radioId: mine.id, channel: 13 }] });

@@ -46,7 +46,7 @@ describe('CSV export API', () => {
     expect(res.headers['content-disposition']).toMatch(/^attachment; filename="parapet-sites-\d{4}-\d{2}-\d{2}\.csv"$/);
     const rows = rowsOf(res.text);
     const names = rows.map((r) => r.name);
-    expect(names).toEqual(expect.arrayContaining(["'=HYPERLINK(\"http://evil.example\",\"click\")", "'+1 Roof", "'-2+3 Roof", "'\tTabbed Roof"]));
+    expect(names).toEqual(expect.arrayContaining(['\'=HYPERLINK("http://evil.example","click")', "'+1 Roof", "'-2+3 Roof", "'\tTabbed Roof"]));
     const evil = rows.find((r) => r.name.startsWith("'=HYPERLINK"))!;
     expect(evil.accessNotes).toBe("'@SUM(1+1)");
     expect(evil.longitude).toBe('-38.41');
@@ -72,7 +72,7 @@ describe('CSV export API', () => {
     expect(mineRows.map((r) => r.name)).not.toContain('Elsewhere Roof');
     expect(rowsOf((await call(admin, 'get', '/api/v1/exports/sites.csv')).text).map((r) => r.name)).toContain('Elsewhere Roof');
     const hosted = rowsOf((await call(host, 'get', '/api/v1/exports/sites.csv')).text);
-    expect(hosted.map((r) => r.name)).toEqual(["'=HYPERLINK(\"http://evil.example\",\"click\")"]);
+    expect(hosted.map((r) => r.name)).toEqual(['\'=HYPERLINK("http://evil.example","click")']);
     expect(rowsOf((await call(host, 'get', '/api/v1/exports/nodes.csv')).text).map((r) => r.name)).toEqual(['lf-export']);
     const hostLinks = await call(host, 'get', '/api/v1/exports/links.csv');
     expect(hostLinks.status).toBe(200);

@@ -25,7 +25,10 @@ describe('CSV import API', () => {
   });
 
   const send = (agent: Agent, kind: string, csv: string | Buffer, query = '', filename = 'import.csv') =>
-    agent.post(`/api/v1/imports/${kind}${query}`).set('X-CSRF-Token', agent.csrf).attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv), { filename, contentType: 'text/csv' });
+    agent
+      .post(`/api/v1/imports/${kind}${query}`)
+      .set('X-CSRF-Token', agent.csrf)
+      .attach('file', Buffer.isBuffer(csv) ? csv : Buffer.from(csv), { filename, contentType: 'text/csv' });
 
   it('refuses signed-out callers (401) and hosts (403)', async () => {
     const out = await request(ctx.app).post('/api/v1/imports/sites').attach('file', Buffer.from(SITE_HEADER), 'a.csv');
@@ -83,10 +86,13 @@ describe('CSV import API', () => {
       [3, [{ path: 'rows.3.latitude', message: 'rows.3.latitude must be between -90 and 90' }]],
       [4, [{ path: 'rows.4.neighbourhood', message: 'rows.4.neighbourhood "Gull Point" is not a neighbourhood you can see; check the spelling' }]],
       [5, [{ path: 'rows.5.name', message: 'rows.5.name "Lantern Roof" is already a site in Ferry Lane (or earlier in this file); choose another name' }]],
-      [6, [
-        { path: 'rows.6.latitude', message: 'rows.6.latitude must be a number' },
-        { path: 'rows.6.antennaHeightM', message: 'rows.6.antennaHeightM must be 0 m or more' },
-      ]],
+      [
+        6,
+        [
+          { path: 'rows.6.latitude', message: 'rows.6.latitude must be a number' },
+          { path: 'rows.6.antennaHeightM', message: 'rows.6.antennaHeightM must be 0 m or more' },
+        ],
+      ],
     ]);
     expect(rows[0].values).toMatchObject({ name: 'Lantern Roof', neighbourhood: 'Ferry Lane', latitude: '47.61' });
     expect(await Site.count()).toBe(before);
@@ -94,22 +100,38 @@ describe('CSV import API', () => {
 
   it('imports nothing when one row is bad, and says which row and field', async () => {
     const before = await Site.count();
-    const oneBad = [SITE_HEADER, 'Lantern Roof,Ferry Lane,47.61,-38.41,12,9,', 'Kite Loft,Ferry Lane,47.62,-38.42,,,', 'Bell Attic,Ferry Lane,97.5,-38.4,,,'].join('\n');
+    const oneBad = [
+      SITE_HEADER,
+      'Lantern Roof,Ferry Lane,47.61,-38.41,12,9,',
+      'Kite Loft,Ferry Lane,47.62,-38.42,,,',
+      'Bell Attic,Ferry Lane,97.5,-38.4,,,',
+    ].join('\n');
     const res = await send(operator, 'sites', oneBad);
     expect(res.status).toBe(400);
-    expect(res.body.error.message).toBe('Nothing was imported: 1 of 3 rows has an error. First: rows.3.latitude must be between -90 and 90. Fix the file and send it again.');
+    expect(res.body.error.message).toBe(
+      'Nothing was imported: 1 of 3 rows has an error. First: rows.3.latitude must be between -90 and 90. Fix the file and send it again.',
+    );
     expect(res.body.error.details).toEqual([{ path: 'rows.3.latitude', message: 'rows.3.latitude must be between -90 and 90' }]);
     expect(await Site.count()).toBe(before);
     expect(await Site.findOne({ where: { name: 'Lantern Roof' } })).toBeNull();
   });
 
   it('imports every row of a clean file in one go', async () => {
-    const clean = [SITE_HEADER, 'Lantern Roof,Ferry Lane,47.61,-38.41,12,9,"Key with the neighbour, ring twice"', 'Kite Loft,Ferry Lane,47.62,-38.42,,,'].join('\n');
+    const clean = [SITE_HEADER, 'Lantern Roof,Ferry Lane,47.61,-38.41,12,9,"Key with the neighbour, ring twice"', 'Kite Loft,Ferry Lane,47.62,-38.42,,,'].join(
+      '\n',
+    );
     const res = await send(operator, 'sites', clean);
     expect(res.status).toBe(201);
     expect(res.body.data).toMatchObject({ kind: 'sites', created: 2 });
     const lantern = await Site.findOne({ where: { name: 'Lantern Roof' } });
-    expect(lantern).toMatchObject({ neighbourhoodId: hoodId, latitude: 47.61, longitude: -38.41, groundElevationM: 12, antennaHeightM: 9, accessNotes: 'Key with the neighbour, ring twice' });
+    expect(lantern).toMatchObject({
+      neighbourhoodId: hoodId,
+      latitude: 47.61,
+      longitude: -38.41,
+      groundElevationM: 12,
+      antennaHeightM: 9,
+      accessNotes: 'Key with the neighbour, ring twice',
+    });
     expect((await Site.findOne({ where: { name: 'Kite Loft' } }))!.antennaHeightM).toBe(0); // the schema's default
     const again = await send(operator, 'sites', clean);
     expect(again.status).toBe(400);
@@ -120,11 +142,20 @@ describe('CSV import API', () => {
     await buildNode({ name: 'lf-taken' });
     const otherSite = await buildSite({ name: 'Far Tower' }); // in a neighbourhood the operator does not run
     const header = 'name,site,hardware,firmware,managementAddress,reportIntervalS';
-    const bad = [header, 'lf-lantern,Lantern Roof,CPE,Tilecrest 5.1.2,10.9.0.1,60', 'lf-taken,Kite Loft,,,,', 'lf-kite,Kite Loft,,,10.9.0.300,abc', `lf-far,${otherSite.name},,,,`].join('\n');
+    const bad = [
+      header,
+      'lf-lantern,Lantern Roof,CPE,Tilecrest 5.1.2,10.9.0.1,60',
+      'lf-taken,Kite Loft,,,,',
+      'lf-kite,Kite Loft,,,10.9.0.300,abc',
+      `lf-far,${otherSite.name},,,,`,
+    ].join('\n');
     const res = await send(operator, 'nodes', bad);
     expect(res.status).toBe(400);
     expect(res.body.error.details).toEqual([
-      { path: 'rows.2.name', message: 'rows.2.name "lf-taken" is already a node name (or appears earlier in this file); node names are unique across the network' },
+      {
+        path: 'rows.2.name',
+        message: 'rows.2.name "lf-taken" is already a node name (or appears earlier in this file); node names are unique across the network',
+      },
       { path: 'rows.3.managementAddress', message: 'rows.3.managementAddress must be an IPv4 address like 10.20.1.1' },
       { path: 'rows.3.reportIntervalS', message: 'rows.3.reportIntervalS must be a number' },
       { path: 'rows.4.site', message: 'rows.4.site "Far Tower" is not a site you can see; check the spelling' },

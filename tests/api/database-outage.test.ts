@@ -90,7 +90,8 @@ describe('while PostgreSQL is unreachable', () => {
     const node = await buildNode({ siteId: (await buildSite({ neighbourhoodId: hood.id, hostUserId: host.id })).id });
     await Node.update({ reportIntervalS: 10, thresholds: { offlineAfterIntervals: 1 } }, { where: { id: node.id } });
     const nodeToken = await rotateToken(sequelize, node.id, new Date());
-    const send = () => request(made.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${nodeToken}`).send({ seq: 1, sentAt: new Date().toISOString() });
+    const send = () =>
+      request(made.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${nodeToken}`).send({ seq: 1, sentAt: new Date().toISOString() });
     expect((await send()).status).toBe(202);
     const jobs = startJobs({ ...config, healthCheckIntervalMs: 200 }, sequelize, made.databaseWatch);
     try {

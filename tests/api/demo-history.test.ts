@@ -11,7 +11,12 @@ import { User } from '../../server/models';
 const clock = manualClock('2026-06-15T10:00:00Z');
 const LOAD_TIMEOUT_MS = 600_000; // a shared, busy machine: the load writes about a million report rows
 
-interface ReportBody { overall: { availabilityPct: number; outageCount: number }; nodes: { name: string; availabilityPct: number | null; outageCount: number }[]; outages: { node: string; acknowledgedAt: string | null }[]; days: { availabilityPct: number | null }[] }
+interface ReportBody {
+  overall: { availabilityPct: number; outageCount: number };
+  nodes: { name: string; availabilityPct: number | null; outageCount: number }[];
+  outages: { node: string; acknowledgedAt: string | null }[];
+  days: { availabilityPct: number | null }[];
+}
 
 describe('the demo town with a past', () => {
   const ctx = useApi({ now: clock.now });
@@ -71,7 +76,8 @@ describe('the demo town with a past', () => {
     const points = res.body.data.points as { t: string; availabilityPct: number; throughputAvgMbps: number | null }[];
     expect(points.length).toBeGreaterThan(700);
     expect(points.some((p) => p.availabilityPct < 100)).toBe(true);
-    const at = (hourUtc: number) => points.filter((p) => new Date(p.t).getUTCHours() === hourUtc && p.throughputAvgMbps !== null).map((p) => p.throughputAvgMbps!);
+    const at = (hourUtc: number) =>
+      points.filter((p) => new Date(p.t).getUTCHours() === hourUtc && p.throughputAvgMbps !== null).map((p) => p.throughputAvgMbps!);
     const mean = (xs: number[]) => xs.reduce((a, b) => a + b, 0) / xs.length;
     expect(mean(at(10))).toBeGreaterThan(mean(at(22)) + 10); // quiet mid-morning against the busy evening (21:00 local = 22:00 UTC in winter, 21:00 in summer)
   });
@@ -105,18 +111,22 @@ describe('the demo town with a past', () => {
     expect(surveyed[0]).toHaveLength(4);
   }, 180_000); // the whole network's channel plan on a busy shared machine
 
-  it('reloads fresh on reset without touching a neighbourhood of its own', async () => {
-    const kept = await buildNeighbourhood({ name: 'Not Part Of The Demo' });
-    const before = await ctx.sequelize.query<{ n: string }>('SELECT count(*) AS n FROM outages', { type: 'SELECT' as never });
-    const again = await loadDemo({ ...ctx.config, demoPassword: PASSWORD });
-    expect(again.result).toBe('already-loaded'); // without reset nothing changes
-    const reset = await loadDemo({ ...ctx.config, demoPassword: PASSWORD }, () => {}, { reset: true });
-    expect(reset.result).toBe('loaded');
-    const after = await ctx.sequelize.query<{ n: string }>('SELECT count(*) AS n FROM outages', { type: 'SELECT' as never });
-    expect(after[0].n).toBe(before[0].n);
-    const hoods = await request(ctx.app).get('/api/v1/public/status');
-    expect(hoods.body.data.neighbourhoods.map((h: { name: string }) => h.name)).toContain('Not Part Of The Demo');
-    expect(await User.count({ where: { email: PEOPLE.map((p) => p.email) } })).toBe(PEOPLE.length);
-    expect(kept.id).toBeGreaterThan(0);
-  }, LOAD_TIMEOUT_MS);
+  it(
+    'reloads fresh on reset without touching a neighbourhood of its own',
+    async () => {
+      const kept = await buildNeighbourhood({ name: 'Not Part Of The Demo' });
+      const before = await ctx.sequelize.query<{ n: string }>('SELECT count(*) AS n FROM outages', { type: 'SELECT' as never });
+      const again = await loadDemo({ ...ctx.config, demoPassword: PASSWORD });
+      expect(again.result).toBe('already-loaded'); // without reset nothing changes
+      const reset = await loadDemo({ ...ctx.config, demoPassword: PASSWORD }, () => {}, { reset: true });
+      expect(reset.result).toBe('loaded');
+      const after = await ctx.sequelize.query<{ n: string }>('SELECT count(*) AS n FROM outages', { type: 'SELECT' as never });
+      expect(after[0].n).toBe(before[0].n);
+      const hoods = await request(ctx.app).get('/api/v1/public/status');
+      expect(hoods.body.data.neighbourhoods.map((h: { name: string }) => h.name)).toContain('Not Part Of The Demo');
+      expect(await User.count({ where: { email: PEOPLE.map((p) => p.email) } })).toBe(PEOPLE.length);
+      expect(kept.id).toBeGreaterThan(0);
+    },
+    LOAD_TIMEOUT_MS,
+  );
 });

@@ -64,13 +64,26 @@ describe('fault drills', () => {
     return out;
   }
   const storedSeqs = async (nodeId: number, bootId: string) =>
-    new Set((await sequelize.query<{ seq: string }>("SELECT seq::text FROM heartbeats WHERE node_id = $1 AND coalesce(boot_id, '') = $2", {
-      bind: [nodeId, bootId], type: QueryTypes.SELECT,
-    })).map((r) => Number(r.seq)));
+    new Set(
+      (
+        await sequelize.query<{ seq: string }>("SELECT seq::text FROM heartbeats WHERE node_id = $1 AND coalesce(boot_id, '') = $2", {
+          bind: [nodeId, bootId],
+          type: QueryTypes.SELECT,
+        })
+      ).map((r) => Number(r.seq)),
+    );
   const post = async (url: string, token: string, body: unknown) => {
     try {
-      const res = await fetch(`${url}/api/v1/heartbeats`, { method: 'POST', headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' }, body: JSON.stringify(body) });
-      return { status: res.status, body: (await res.json().catch(() => null)) as { accepted?: number; duplicates?: number; error?: { code: string } } | null, retryAfter: res.headers.get('retry-after') };
+      const res = await fetch(`${url}/api/v1/heartbeats`, {
+        method: 'POST',
+        headers: { authorization: `Bearer ${token}`, 'content-type': 'application/json' },
+        body: JSON.stringify(body),
+      });
+      return {
+        status: res.status,
+        body: (await res.json().catch(() => null)) as { accepted?: number; duplicates?: number; error?: { code: string } } | null,
+        retryAfter: res.headers.get('retry-after'),
+      };
     } catch {
       return { status: 0, body: null, retryAfter: null }; // no answer (the process is gone)
     }
@@ -177,7 +190,9 @@ describe('fault drills', () => {
     const sendBatches = async (n: (typeof nodes)[number], rounds: number) => {
       for (let r = 0; r < rounds; r++) {
         const seqs = Array.from({ length: 50 }, (_, i) => n.seq + 1 + i);
-        const body = { reports: seqs.map((seq) => ({ seq, bootId: n.bootId, sentAt: new Date().toISOString(), radios: [{ iface: 'wlan0', signalDbm: -61 }] })) };
+        const body = {
+          reports: seqs.map((seq) => ({ seq, bootId: n.bootId, sentAt: new Date().toISOString(), radios: [{ iface: 'wlan0', signalDbm: -61 }] })),
+        };
         for (let attempt = 0; ; attempt++) {
           const res = await post(current.url, n.token, body);
           if (res.status === 202) {
@@ -196,13 +211,21 @@ describe('fault drills', () => {
     // Kill once the sender has claimed the mail and hangs on the wedged SMTP server, with batches in flight.
     const claimDeadline = Date.now() + 30_000;
     const claimed = async () =>
-      (await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM outbox WHERE dedupe_key = ANY($1) AND attempts > 0', { bind: [dedupeKeys], type: QueryTypes.SELECT }))[0].n;
+      (
+        await sequelize.query<{ n: number }>('SELECT count(*)::int AS n FROM outbox WHERE dedupe_key = ANY($1) AND attempts > 0', {
+          bind: [dedupeKeys],
+          type: QueryTypes.SELECT,
+        })
+      )[0].n;
     while ((await claimed()) === 0 && Date.now() < claimDeadline) await sleep(100);
     await sleep(300);
     const killedAt = Date.now();
     current.child.kill('SIGKILL');
     await new Promise((r) => current.child.once('exit', r));
-    const outboxAtKill = await sequelize.query<{ status: string; attempts: number }>('SELECT status, attempts FROM outbox WHERE dedupe_key = ANY($1)', { bind: [dedupeKeys], type: QueryTypes.SELECT });
+    const outboxAtKill = await sequelize.query<{ status: string; attempts: number }>('SELECT status, attempts FROM outbox WHERE dedupe_key = ANY($1)', {
+      bind: [dedupeKeys],
+      type: QueryTypes.SELECT,
+    });
     smtp.set('pass');
     current = await start(env());
     server = current;

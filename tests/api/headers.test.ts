@@ -31,7 +31,10 @@ describe('security headers', () => {
   it('lets the page connect only to its own origin (CSP connect-src self, no bare ws: or wss:)', async () => {
     const res = await request(ctx.app).get('/api/health');
     const csp = res.headers['content-security-policy'] as string;
-    const connect = csp.split(';').map((d) => d.trim()).find((d) => d.startsWith('connect-src'));
+    const connect = csp
+      .split(';')
+      .map((d) => d.trim())
+      .find((d) => d.startsWith('connect-src'));
     expect(connect).toBe("connect-src 'self'");
   });
 });

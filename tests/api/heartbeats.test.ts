@@ -30,7 +30,10 @@ describe('node ingest tokens', () => {
     const node = await buildNode();
     const first = await tokenFor(ctx, node.id);
     expect(first).toMatch(/^ppt_\d+_[A-Za-z0-9_-]{43}$/);
-    const [row] = await ctx.sequelize.query<{ token_hash: string }>('SELECT token_hash FROM node_tokens WHERE node_id = $1', { bind: [node.id], type: QueryTypes.SELECT });
+    const [row] = await ctx.sequelize.query<{ token_hash: string }>('SELECT token_hash FROM node_tokens WHERE node_id = $1', {
+      bind: [node.id],
+      type: QueryTypes.SELECT,
+    });
     expect(row.token_hash).toMatch(/^[0-9a-f]{64}$/);
     expect(row.token_hash).not.toContain(first.slice(-43));
     expect((await post(ctx, first, report(1))).status).toBe(202);
@@ -118,9 +121,17 @@ describe('heartbeat ingest', () => {
   });
 
   it('rejects Infinity smuggled as a huge number and a non-JSON body with 400', async () => {
-    const huge = await request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${token}`).set('content-type', 'application/json').send('{"seq":1,"sentAt":"2026-06-01T12:00:00Z","uptimeS":1e400}');
+    const huge = await request(ctx.app)
+      .post('/api/v1/heartbeats')
+      .set('Authorization', `Bearer ${token}`)
+      .set('content-type', 'application/json')
+      .send('{"seq":1,"sentAt":"2026-06-01T12:00:00Z","uptimeS":1e400}');
     expect(huge.status).toBe(400);
-    const notJson = await request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${token}`).set('content-type', 'application/json').send('{"seq":');
+    const notJson = await request(ctx.app)
+      .post('/api/v1/heartbeats')
+      .set('Authorization', `Bearer ${token}`)
+      .set('content-type', 'application/json')
+      .send('{"seq":');
     expect(notJson.status).toBe(400);
     expect(await stored(ctx, node.id)).toEqual({ heartbeats: 0, radios: 0, seqs: 0 });
   });
@@ -133,12 +144,24 @@ describe('heartbeat ingest', () => {
   });
 
   it('stores one report with its radios and answers 202 with counts', async () => {
-    const res = await post(ctx, token, report(1, { uptimeS: 3600, radios: [{ iface: 'wlan0', signalDbm: -62, noiseDbm: -95 }, { iface: 'wlan1', clients: 4 }] }));
+    const res = await post(
+      ctx,
+      token,
+      report(1, {
+        uptimeS: 3600,
+        radios: [
+          { iface: 'wlan0', signalDbm: -62, noiseDbm: -95 },
+          { iface: 'wlan1', clients: 4 },
+        ],
+      }),
+    );
     expect(res.status).toBe(202);
     expect(res.body).toEqual({ accepted: 1, duplicates: 0 });
     expect(await stored(ctx, node.id)).toEqual({ heartbeats: 1, radios: 2, seqs: 1 });
-    const [radio] = await ctx.sequelize.query<{ signal_dbm: number }>(
-      "SELECT signal_dbm FROM heartbeat_radio_rows WHERE node_id = $1 AND iface = 'wlan0'", { bind: [node.id], type: QueryTypes.SELECT });
+    const [radio] = await ctx.sequelize.query<{ signal_dbm: number }>("SELECT signal_dbm FROM heartbeat_radio_rows WHERE node_id = $1 AND iface = 'wlan0'", {
+      bind: [node.id],
+      type: QueryTypes.SELECT,
+    });
     expect(radio.signal_dbm).toBe(-62);
   });
 
@@ -173,7 +196,10 @@ describe('heartbeat ingest', () => {
 
   it('uses the server clock for receive time and stores a 1970 node clock as unknown (API.md: plainly wrong)', async () => {
     await post(ctx, token, report(1, { sentAt: '1970-01-01T00:00:42Z' }));
-    const [row] = await ctx.sequelize.query<{ received_at: Date; sent_at: Date | null }>('SELECT received_at, sent_at FROM heartbeats WHERE node_id = $1', { bind: [node.id], type: QueryTypes.SELECT });
+    const [row] = await ctx.sequelize.query<{ received_at: Date; sent_at: Date | null }>('SELECT received_at, sent_at FROM heartbeats WHERE node_id = $1', {
+      bind: [node.id],
+      type: QueryTypes.SELECT,
+    });
     expect(row.sent_at).toBeNull();
     expect(new Date(row.received_at).getTime()).toBe(clock.now().getTime());
   });
@@ -194,7 +220,11 @@ describe('heartbeat ingest', () => {
     await buildRadio({ nodeId: node.id, iface: 'wlan0' }); // inventory: channel 36, 40 MHz, ssid test-backhaul
     await Node.update({ firmware: 'Tilecrest 5.1.2' }, { where: { id: node.id } });
     const freshToken = await tokenFor(ctx, node.id);
-    await post(ctx, freshToken, report(1, { firmware: 'Tilecrest 5.0.4', radios: [{ iface: 'wlan0', channel: 44, channelWidthMHz: 40, ssid: 'someone-else' }] }));
+    await post(
+      ctx,
+      freshToken,
+      report(1, { firmware: 'Tilecrest 5.0.4', radios: [{ iface: 'wlan0', channel: 44, channelWidthMHz: 40, ssid: 'someone-else' }] }),
+    );
     const res = await request(ctx.app).get(`/api/v1/nodes/${node.id}`);
     expect(res.status).toBe(401); // drift is shown to signed-in people only
     const admin = await signIn(ctx, await buildUser({ role: 'admin' }));
@@ -249,16 +279,25 @@ describe('silence check and outages', () => {
     const run = await runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1_000_000);
     expect(run.silenced).toBeGreaterThanOrEqual(1);
     expect((await Node.findByPk(node.id))!.state).toBe('offline');
-    const [outage] = await ctx.sequelize.query<{ id: number; started_at: Date; ended_at: Date | null }>('SELECT id, started_at, ended_at FROM outages WHERE node_id = $1', { bind: [node.id], type: QueryTypes.SELECT });
+    const [outage] = await ctx.sequelize.query<{ id: number; started_at: Date; ended_at: Date | null }>(
+      'SELECT id, started_at, ended_at FROM outages WHERE node_id = $1',
+      { bind: [node.id], type: QueryTypes.SELECT },
+    );
     expect(outage.ended_at).toBeNull();
     expect(new Date(outage.started_at).toISOString()).toBe('2026-06-02T08:01:00.000Z'); // the first missed report
 
     clock.advance(600);
     await post(ctx, token, report(2));
     expect((await Node.findByPk(node.id))!.state).toBe('online');
-    const [closed] = await ctx.sequelize.query<{ ended_at: Date }>('SELECT ended_at FROM outages WHERE id = $1', { bind: [outage.id], type: QueryTypes.SELECT });
+    const [closed] = await ctx.sequelize.query<{ ended_at: Date }>('SELECT ended_at FROM outages WHERE id = $1', {
+      bind: [outage.id],
+      type: QueryTypes.SELECT,
+    });
     expect(new Date(closed.ended_at).getTime()).toBe(clock.now().getTime());
-    const transitions = await ctx.sequelize.query<{ from_state: string; to_state: string }>('SELECT from_state, to_state FROM node_transitions WHERE node_id = $1 ORDER BY id', { bind: [node.id], type: QueryTypes.SELECT });
+    const transitions = await ctx.sequelize.query<{ from_state: string; to_state: string }>(
+      'SELECT from_state, to_state FROM node_transitions WHERE node_id = $1 ORDER BY id',
+      { bind: [node.id], type: QueryTypes.SELECT },
+    );
     expect(transitions.map((t) => `${t.from_state}>${t.to_state}`)).toEqual(['unknown>online', 'online>offline', 'offline>online']);
   });
 
@@ -284,7 +323,10 @@ describe('silence check and outages', () => {
     const results = await Promise.all([1, 2, 3].map(() => runSilenceCheck(ctx.sequelize, ctx.config, clock.now(), 1_000_000)));
     expect(results.filter((r) => r.leader).length).toBeGreaterThanOrEqual(1);
     // Whoever ran, no node got two open outages (a unique index allows one).
-    const [row] = await ctx.sequelize.query<{ n: string }>('SELECT count(*) AS n FROM (SELECT node_id FROM outages WHERE ended_at IS NULL GROUP BY node_id HAVING count(*) > 1) x', { type: QueryTypes.SELECT });
+    const [row] = await ctx.sequelize.query<{ n: string }>(
+      'SELECT count(*) AS n FROM (SELECT node_id FROM outages WHERE ended_at IS NULL GROUP BY node_id HAVING count(*) > 1) x',
+      { type: QueryTypes.SELECT },
+    );
     expect(Number(row.n)).toBe(0);
   });
 });

@@ -4,7 +4,14 @@ import { Node } from '../../server/models';
 import { buildUser, call, signIn, unique, useApi, type Agent } from '../helpers/api';
 import { buildLink, buildNeighbourhood, buildNode, buildRadio, buildSite } from '../helpers/factories';
 
-interface Entry { table: string; recordId: string; action: string; changedBy: { id: number; name: string } | null; before: Record<string, unknown> | null; after: Record<string, unknown> | null }
+interface Entry {
+  table: string;
+  recordId: string;
+  action: string;
+  changedBy: { id: number; name: string } | null;
+  before: Record<string, unknown> | null;
+  after: Record<string, unknown> | null;
+}
 
 describe('audit trail (change history)', () => {
   const ctx = useApi();
@@ -34,7 +41,11 @@ describe('audit trail (change history)', () => {
 
     const hoodTrail = await trail(agent, 'neighbourhoods', hoodId);
     expect(hoodTrail.map((e) => e.action)).toEqual(['update', 'create']);
-    expect(hoodTrail[0]).toMatchObject({ changedBy: { id: user.id, name: user.name }, before: { description: null }, after: { description: 'Old tannery yards' } });
+    expect(hoodTrail[0]).toMatchObject({
+      changedBy: { id: user.id, name: user.name },
+      before: { description: null },
+      after: { description: 'Old tannery yards' },
+    });
     const siteTrail = await trail(agent, 'sites', site.body.data.id);
     expect(siteTrail[0]).toMatchObject({ action: 'update', before: { antennaHeightM: 0 }, after: { antennaHeightM: 12 } });
     expect(Object.keys(siteTrail[0].after!)).toEqual(['antennaHeightM']);
@@ -64,7 +75,12 @@ describe('audit trail (change history)', () => {
 
   it('records people’s changes with the password hash masked, and operator assignments', async () => {
     const { agent } = await admin();
-    const created = await call(agent, 'post', '/api/v1/users', { email: `${unique('ula')}@example.test`, name: 'Ula Penhaligon', role: 'operator', password: 'moorland-cobble-lantern-fig' });
+    const created = await call(agent, 'post', '/api/v1/users', {
+      email: `${unique('ula')}@example.test`,
+      name: 'Ula Penhaligon',
+      role: 'operator',
+      password: 'moorland-cobble-lantern-fig',
+    });
     const id = created.body.data.id;
     await call(agent, 'patch', `/api/v1/users/${id}`, { role: 'host' });
     const people = await trail(agent, 'users', id);

@@ -36,7 +36,13 @@ describe('who an operator may make a site’s host', () => {
       expect(res.text).not.toContain(person.email);
       if (person.phone) expect(res.text).not.toContain(person.phone);
       // Creating a site names the host the same way.
-      const created = await call(s.agent, 'post', '/api/v1/sites', { name: `New ${person.id}`, neighbourhoodId: s.hood.id, latitude: 47.6, longitude: -38.4, hostUserId: person.id });
+      const created = await call(s.agent, 'post', '/api/v1/sites', {
+        name: `New ${person.id}`,
+        neighbourhoodId: s.hood.id,
+        latitude: 47.6,
+        longitude: -38.4,
+        hostUserId: person.id,
+      });
       expect(created.status).toBe(400);
       expect(created.body.error).toEqual(REFUSED);
     }

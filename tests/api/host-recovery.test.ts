@@ -15,10 +15,10 @@ const OFFLINE_AFTER_S = 181;
 
 /** The link in a person's outage mail for this outage (recovery or acknowledge). */
 async function linkInMail(ctx: TestContext, outageId: number, userId: number, kind: 'recover' | 'acknowledge') {
-  const rows = await ctx.sequelize.query<{ text_body: string }>(
-    'SELECT text_body FROM outbox WHERE outage_id = $1 AND recipient_user_id = $2 ORDER BY id',
-    { bind: [outageId, userId], type: QueryTypes.SELECT },
-  );
+  const rows = await ctx.sequelize.query<{ text_body: string }>('SELECT text_body FROM outbox WHERE outage_id = $1 AND recipient_user_id = $2 ORDER BY id', {
+    bind: [outageId, userId],
+    type: QueryTypes.SELECT,
+  });
   const pattern = kind === 'recover' ? /\/recover\?t=([A-Za-z0-9._-]+)/ : /\/acknowledge\?t=([A-Za-z0-9._-]+)/;
   const found = rows.map((r) => pattern.exec(r.text_body)?.[1]).find(Boolean);
   if (!found) throw new Error(`no ${kind} link in the mail to user ${userId}`);
@@ -69,7 +69,10 @@ describe('host recovery steps on an outage', () => {
     const mine = await call(host, 'post', url, { step: 'replugged-injector', note: '  the light came on  ' });
     expect(mine.status).toBe(201);
     expect(mine.body.data).toEqual({
-      at: clock.now().toISOString(), kind: 'host-step', step: 'replugged-injector', byUserId: s.host.id,
+      at: clock.now().toISOString(),
+      kind: 'host-step',
+      step: 'replugged-injector',
+      byUserId: s.host.id,
       text: 'Ada Quist (host) unplugged the PoE injector, waited 10 s and plugged it back in: the light came on',
     });
     clock.advance(30);
@@ -77,7 +80,9 @@ describe('host recovery steps on an outage', () => {
     expect(byOperator.status).toBe(201);
 
     // A cap keeps a leaked link from filling the timeline.
-    await ctx.sequelize.query(`INSERT INTO outage_host_steps (outage_id, step, by_user_id, at) SELECT $1, 'other', $2, $3 FROM generate_series(1, 98)`, { bind: [s.outage.id, s.host.id, clock.now()] });
+    await ctx.sequelize.query(`INSERT INTO outage_host_steps (outage_id, step, by_user_id, at) SELECT $1, 'other', $2, $3 FROM generate_series(1, 98)`, {
+      bind: [s.outage.id, s.host.id, clock.now()],
+    });
     const capped = await call(host, 'post', url, { step: 'checked-power' });
     expect(capped.status).toBe(409);
     expect(capped.body.error.message).toMatch(/already has 100 recorded steps/);
@@ -98,8 +103,14 @@ describe('host recovery steps on an outage', () => {
     expect(page.status).toBe(200);
     expect(page.headers['cache-control']).toBe('no-store');
     expect(page.body.data).toMatchObject({
-      outageId: s.outage.id, node: { id: s.node.id, name: s.node.name, state: 'offline' }, siteName: s.site.name,
-      upstream: null, steps: [], endedAt: null, operators: [{ name: s.operator.name }], acknowledgedBy: null,
+      outageId: s.outage.id,
+      node: { id: s.node.id, name: s.node.name, state: 'offline' },
+      siteName: s.site.name,
+      upstream: null,
+      steps: [],
+      endedAt: null,
+      operators: [{ name: s.operator.name }],
+      acknowledgedBy: null,
     });
     expect(page.body.data.whatNext).toContain(s.operator.name);
 
@@ -143,7 +154,10 @@ describe('host recovery steps on an outage', () => {
     const t = await linkInMail(ctx, root.id, leaf.host.id, 'recover');
     const page = await request(ctx.app).get('/api/v1/recovery').query({ t });
     expect(page.status).toBe(200);
-    expect(page.body.data).toMatchObject({ node: { id: leaf.node.id, state: 'stranded' }, upstream: { nodeName: s.backhaul.node.name, siteName: `${s.backhaul.node.name} roof` } });
+    expect(page.body.data).toMatchObject({
+      node: { id: leaf.node.id, state: 'stranded' },
+      upstream: { nodeName: s.backhaul.node.name, siteName: `${s.backhaul.node.name} roof` },
+    });
     const step = await request(ctx.app).post('/api/v1/recovery/host-steps').send({ t, step: 'checked-power' });
     expect(step.status).toBe(409);
     expect(step.body.error.message).toMatch(/^Nothing is needed at your place/);

@@ -111,6 +111,10 @@ describe('ingest caches', () => {
         WHERE h.node_id = ANY($1::int[]) GROUP BY h.node_id, n.last_seq ORDER BY h.node_id`,
       { bind: [nodes.map((n) => n.id)], type: QueryTypes.SELECT },
     );
-    expect(rows.map((r) => [Number(r.n), r.last_seq])).toEqual([[20, '20'], [20, '20'], [20, '20']]);
+    expect(rows.map((r) => [Number(r.n), r.last_seq])).toEqual([
+      [20, '20'],
+      [20, '20'],
+      [20, '20'],
+    ]);
   });
 });

@@ -50,11 +50,18 @@ describe('inputs refused before they reach the database', () => {
     for (const [name, field, body] of [
       ['bell', 'name', { name: 'Roof\u0007', neighbourhoodId: hood.id, latitude: 1, longitude: 1 }],
       ['C1 control', 'name', { name: 'Roof\u0085x', neighbourhoodId: hood.id, latitude: 1, longitude: 1 }],
-      ['line break in notes is fine, NUL is not', 'accessNotes', { name: 'Roof', neighbourhoodId: hood.id, latitude: 1, longitude: 1, accessNotes: 'a\nb\u0000' }],
+      [
+        'line break in notes is fine, NUL is not',
+        'accessNotes',
+        { name: 'Roof', neighbourhoodId: hood.id, latitude: 1, longitude: 1, accessNotes: 'a\nb\u0000' },
+      ],
     ] as const) {
       const res = await call(admin, 'post', '/api/v1/sites', body);
       expect(res.status, name).toBe(400);
-      expect(res.body.error.details.map((d: { path: string }) => d.path), name).toEqual([field]);
+      expect(
+        res.body.error.details.map((d: { path: string }) => d.path),
+        name,
+      ).toEqual([field]);
     }
   });
 

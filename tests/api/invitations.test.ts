@@ -73,13 +73,17 @@ describe('invitations API', () => {
       await call(await signedIn('admin'), 'post', '/api/v1/invitations', body);
       const [mail] = await accountMails(ctx.sequelize, body.email, 'invitation');
 
-      const bad = await request(ctx.app).post('/api/v1/invitations/accept').send({ token: tampered(mail.token), password: STRONG });
+      const bad = await request(ctx.app)
+        .post('/api/v1/invitations/accept')
+        .send({ token: tampered(mail.token), password: STRONG });
       expect(bad.status).toBe(400);
       expect(bad.body.error.code).toBe('bad_link');
       const garbage = await request(ctx.app).post('/api/v1/invitations/accept').send({ token: 'not-a-link', password: STRONG });
       expect(garbage.status).toBe(400);
       // A reset link is not an invitation, even when genuine in shape.
-      const wrongPurpose = await request(ctx.app).post('/api/v1/invitations/accept').send({ token: mail.token.replace(/^invitation/, 'password-reset'), password: STRONG });
+      const wrongPurpose = await request(ctx.app)
+        .post('/api/v1/invitations/accept')
+        .send({ token: mail.token.replace(/^invitation/, 'password-reset'), password: STRONG });
       expect(wrongPurpose.status).toBe(400);
 
       clock.advance(72 * 3600 + 1);

@@ -31,13 +31,16 @@ describe('link health API', () => {
   async function report(node: Node, signals: number[], nowSignal: number) {
     const now = Date.now();
     for (const [i, s] of signals.entries()) {
-      await ctx.sequelize.query(`INSERT INTO heartbeats (node_id, seq, received_at, radios)
+      await ctx.sequelize.query(
+        `INSERT INTO heartbeats (node_id, seq, received_at, radios)
         VALUES ($1, $2, $3, jsonb_build_array(jsonb_build_object('iface', 'wlan0', 'signalDbm', $4::float8)))`,
-        { bind: [node.id, i + 1, new Date(now - (i + 1) * 6 * HOUR_MS).toISOString(), s] });
+        { bind: [node.id, i + 1, new Date(now - (i + 1) * 6 * HOUR_MS).toISOString(), s] },
+      );
     }
     // A reading older than the 7-day window must not count.
-    await ctx.sequelize.query(`INSERT INTO heartbeats (node_id, seq, received_at, radios) VALUES ($1, 999, $2, '[{"iface": "wlan0", "signalDbm": -20}]')`,
-      { bind: [node.id, new Date(now - 8 * 24 * HOUR_MS).toISOString()] });
+    await ctx.sequelize.query(`INSERT INTO heartbeats (node_id, seq, received_at, radios) VALUES ($1, 999, $2, '[{"iface": "wlan0", "signalDbm": -20}]')`, {
+      bind: [node.id, new Date(now - 8 * 24 * HOUR_MS).toISOString()],
+    });
     await node.update({ lastReport: { receivedAt: new Date(now).toISOString(), radios: [{ iface: 'wlan0', signalDbm: nowSignal }] } });
   }
 

@@ -4,7 +4,6 @@ import { Link } from '../../server/models';
 import { buildUser, call, ids, SIGNED_OUT, signIn, useApi } from '../helpers/api';
 import { buildLink, buildNeighbourhood, buildNode, buildOperatorWithHood, buildRadio, buildSite } from '../helpers/factories';
 
-
 describe('links API', () => {
   const ctx = useApi();
   const admin = async () => signIn(ctx, await buildUser({ role: 'admin' }));
@@ -88,7 +87,10 @@ describe('links API', () => {
     it('hides links from hosts, even between radios on the site they host', async () => {
       const host = await buildUser({ role: 'host' });
       const site = await buildSite({ hostUserId: host.id });
-      const [a, b] = [await buildRadio({ nodeId: (await buildNode({ siteId: site.id })).id }), await buildRadio({ nodeId: (await buildNode({ siteId: site.id })).id })];
+      const [a, b] = [
+        await buildRadio({ nodeId: (await buildNode({ siteId: site.id })).id }),
+        await buildRadio({ nodeId: (await buildNode({ siteId: site.id })).id }),
+      ];
       const link = await buildLink({ radioAId: a.id, radioBId: b.id });
       const agent = await signIn(ctx, host);
       expect((await agent.get(`/api/v1/links/${link.id}`)).status).toBe(404);

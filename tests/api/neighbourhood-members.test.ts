@@ -63,7 +63,13 @@ describe('neighbourhoods: retiring, moving nodes in bulk, and the summary', () =
       const operator = await buildUser({ role: 'operator' });
       const hood = await buildNeighbourhood({ operators: [operator] });
       const node = await buildNode();
-      expect((await request(ctx.app).post(`/api/v1/neighbourhoods/${hood.id}/nodes`).send({ nodeIds: [node.id] })).status).toBe(401);
+      expect(
+        (
+          await request(ctx.app)
+            .post(`/api/v1/neighbourhoods/${hood.id}/nodes`)
+            .send({ nodeIds: [node.id] })
+        ).status,
+      ).toBe(401);
       const forbidden = await call(await signIn(ctx, operator), 'post', `/api/v1/neighbourhoods/${hood.id}/nodes`, { nodeIds: [node.id] });
       expect(forbidden.status).toBe(403);
       expect(forbidden.body.error.message).toBe('Only admins move nodes between neighbourhoods.');
@@ -93,14 +99,22 @@ describe('neighbourhoods: retiring, moving nodes in bulk, and the summary', () =
       const site = await buildSite({ neighbourhoodId: hood.id, hostUserId: host.id, name: 'Net Loft' });
       await buildSite({ neighbourhoodId: hood.id, name: 'Chapel Tower' });
       // Seen for the whole 30 days; down for 6 h of the last 24 h.
-      const node = await Node.create({ name: 'nl-1', siteId: site.id, neighbourhoodId: hood.id, state: 'online', firstSeenAt: new Date('2026-04-01T00:00:00Z') });
+      const node = await Node.create({
+        name: 'nl-1',
+        siteId: site.id,
+        neighbourhoodId: hood.id,
+        state: 'online',
+        firstSeenAt: new Date('2026-04-01T00:00:00Z'),
+      });
       await Outage.create({ nodeId: node.id, startedAt: new Date('2026-06-01T00:00:00Z'), endedAt: new Date('2026-06-01T06:00:00Z') } as never);
 
       const res = await (await admin()).get(`/api/v1/neighbourhoods/${hood.id}/summary`);
       expect(res.status).toBe(200);
       // 24 h: 18 of 24 h up = 75 %; 30 d: (720 − 6) ÷ 720 h = 99.17 % (availability = up ÷ observed, REFERENCES.md "Availability").
       expect(res.body.data.availability).toEqual({ h24Pct: 75, d30Pct: 99.17 });
-      expect(res.body.data.nodes).toEqual([{ id: node.id, name: 'nl-1', state: 'online', siteId: site.id, siteName: 'Net Loft', availability: { h24Pct: 75, d30Pct: 99.17 } }]);
+      expect(res.body.data.nodes).toEqual([
+        { id: node.id, name: 'nl-1', state: 'online', siteId: site.id, siteName: 'Net Loft', availability: { h24Pct: 75, d30Pct: 99.17 } },
+      ]);
       expect(res.body.data.operators).toEqual([{ id: operator.id, name: 'Piran Code' }]);
       expect(res.body.data.hosts).toEqual([
         { siteId: expect.any(Number), siteName: 'Chapel Tower', host: null },

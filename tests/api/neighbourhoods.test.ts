@@ -4,7 +4,6 @@ import { Neighbourhood } from '../../server/models';
 import { buildUser, call, ids, SIGNED_OUT, signIn, useApi } from '../helpers/api';
 import { buildNeighbourhood, buildNode, buildOperatorWithHood, buildSite } from '../helpers/factories';
 
-
 describe('neighbourhoods API', () => {
   const ctx = useApi();
   const admin = async () => signIn(ctx, await buildUser({ role: 'admin' }));
@@ -58,9 +57,19 @@ describe('neighbourhoods API', () => {
     });
 
     it.each([
-      ['sort=size', 'Cannot sort by "size". Sort by one of: name, createdAt, id.', 'sort', 'sort must be one of name, createdAt, id (prefix with - for descending)'],
+      [
+        'sort=size',
+        'Cannot sort by "size". Sort by one of: name, createdAt, id.',
+        'sort',
+        'sort must be one of name, createdAt, id (prefix with - for descending)',
+      ],
       ['pageSize=501', 'The query is invalid: pageSize must be at most 500.', 'pageSize', 'pageSize must be at most 500'],
-      ['sort=name;drop', 'The query is invalid: sort must be a field name, optionally prefixed with -.', 'sort', 'sort must be a field name, optionally prefixed with -'],
+      [
+        'sort=name;drop',
+        'The query is invalid: sort must be a field name, optionally prefixed with -.',
+        'sort',
+        'sort must be a field name, optionally prefixed with -',
+      ],
     ])('refuses the list query %s with 400', async (query, message, path, detail) => {
       const res = await (await admin()).get(`/api/v1/neighbourhoods?${query}`);
       expect(res.status).toBe(400);
@@ -232,7 +241,11 @@ describe('neighbourhoods API', () => {
   describe('pagination, sorting and search on the server', () => {
     it('pageSize=2&sort=-name gives the right two and the total; q narrows by name', async () => {
       const tag = `t${Date.now()}`;
-      const [a, b, c] = [await buildNeighbourhood({ name: `${tag} Ashgrove` }), await buildNeighbourhood({ name: `${tag} Brookside` }), await buildNeighbourhood({ name: `${tag} Copperfield` })];
+      const [a, b, c] = [
+        await buildNeighbourhood({ name: `${tag} Ashgrove` }),
+        await buildNeighbourhood({ name: `${tag} Brookside` }),
+        await buildNeighbourhood({ name: `${tag} Copperfield` }),
+      ];
       const agent = await admin();
       const page1 = await agent.get(`/api/v1/neighbourhoods?q=${tag}&pageSize=2&sort=-name`);
       expect(ids(page1.body)).toEqual([c.id, b.id]);

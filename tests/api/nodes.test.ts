@@ -63,7 +63,11 @@ describe('nodes API', () => {
     it.each(['get', 'patch', 'delete'] as const)('answers 400 to %s with a non-numeric id in the path', async (method) => {
       const res = await call(await admin(), method, '/api/v1/nodes/node-7', method === 'patch' ? { name: 'x' } : undefined);
       expect(res.status).toBe(400);
-      expect(res.body.error).toEqual({ code: 'invalid_input', message: 'The address is invalid: id must be a number.', details: [{ path: 'id', message: 'id must be a number' }] });
+      expect(res.body.error).toEqual({
+        code: 'invalid_input',
+        message: 'The address is invalid: id must be a number.',
+        details: [{ path: 'id', message: 'id must be a number' }],
+      });
     });
 
     it.each([
@@ -241,7 +245,11 @@ describe('nodes API', () => {
   describe('pagination, sorting, filters and search on the server', () => {
     it('pageSize=2&sort=-name within a site gives the right two and a total of 3', async () => {
       const site = await buildSite();
-      const [a, b, c] = [await buildNode({ siteId: site.id, name: 'aa-node' }), await buildNode({ siteId: site.id, name: 'bb-node' }), await buildNode({ siteId: site.id, name: 'cc-node' })];
+      const [a, b, c] = [
+        await buildNode({ siteId: site.id, name: 'aa-node' }),
+        await buildNode({ siteId: site.id, name: 'bb-node' }),
+        await buildNode({ siteId: site.id, name: 'cc-node' }),
+      ];
       await buildNode();
       const agent = await admin();
       const res = await agent.get(`/api/v1/nodes?siteId=${site.id}&pageSize=2&sort=-name`);

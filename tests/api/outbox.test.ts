@@ -93,7 +93,13 @@ describe('outbox delivery', () => {
     const list = await call(admin, 'get', '/api/v1/outbox?status=failed&kind=node-offline');
     expect(list.status).toBe(200);
     const item = list.body.data.find((m: { id: number }) => m.id === Number(failed.id));
-    expect(item).toMatchObject({ kind: 'node-offline', status: 'failed', attempts: 5, recipient: { userId: s.operator.id, address: s.operator.email }, abilities: { retry: true } });
+    expect(item).toMatchObject({
+      kind: 'node-offline',
+      status: 'failed',
+      attempts: 5,
+      recipient: { userId: s.operator.id, address: s.operator.email },
+      abilities: { retry: true },
+    });
     expect(item.subject).toMatch(/^Offline: /);
     expect(typeof item.createdAt).toBe('string');
     expect(item.sentAt).toBeNull();
@@ -119,7 +125,13 @@ describe('outbox delivery', () => {
        VALUES ('invitation', 'someone@example.test', 'Someone', 'Invitation', 'text', '<p>text</p>', $1, $2, $2, $2)`,
       { bind: [key, clock.now()] },
     );
-    const row = async () => (await ctx.sequelize.query<{ status: string; attempts: number; next_attempt_at: Date }>('SELECT status, attempts, next_attempt_at FROM outbox WHERE dedupe_key = $1', { bind: [key], type: QueryTypes.SELECT }))[0];
+    const row = async () =>
+      (
+        await ctx.sequelize.query<{ status: string; attempts: number; next_attempt_at: Date }>(
+          'SELECT status, attempts, next_attempt_at FROM outbox WHERE dedupe_key = $1',
+          { bind: [key], type: QueryTypes.SELECT },
+        )
+      )[0];
     const gapsS: number[] = [];
     for (let i = 0; i < 3; i++) {
       const before = clock.now().getTime();
@@ -228,7 +240,12 @@ describe('outbox, inbox and preference routes', () => {
     expect((await request(ctx.app).patch('/api/v1/me/preferences').send({ operatorMode: 'off' })).status).toBe(401);
     const agent = await signIn(ctx, await buildUser({ role: 'operator' }));
     const initial = await call(agent, 'get', '/api/v1/me/preferences');
-    expect(initial.body.data).toMatchObject({ operatorMode: 'immediate', hostMail: true, quietStart: null, applies: { operator: true, host: false, admin: false } });
+    expect(initial.body.data).toMatchObject({
+      operatorMode: 'immediate',
+      hostMail: true,
+      quietStart: null,
+      applies: { operator: true, host: false, admin: false },
+    });
     const cases: [object, string, string][] = [
       [{ operatorMode: 'sometimes' }, 'operatorMode', 'operatorMode must be immediate, hourly or off'],
       [{ quietStart: '22:00' }, 'quietEnd', 'quietEnd quiet hours need both a start and an end (or both cleared)'],
@@ -261,7 +278,11 @@ describe('maintenance windows', () => {
     const s = await alertScene(ctx);
     await s.report();
     const host = await signIn(ctx, s.host);
-    const created = await call(host, 'post', `/api/v1/nodes/${s.node.id}/maintenance-windows`, { startsAt: at(-1), endsAt: at(3600), reason: 'New roof membrane' });
+    const created = await call(host, 'post', `/api/v1/nodes/${s.node.id}/maintenance-windows`, {
+      startsAt: at(-1),
+      endsAt: at(3600),
+      reason: 'New roof membrane',
+    });
     expect(created.status).toBe(201);
     expect(created.body.data).toMatchObject({ status: 'active', reason: 'New roof membrane', createdBy: { id: s.host.id }, abilities: { cancel: true } });
     expect((await call(host, 'get', `/api/v1/nodes/${s.node.id}`)).body.data.state).toBe('maintenance');
@@ -271,7 +292,10 @@ describe('maintenance windows', () => {
     }
     clock.advance(600); // the window is over; the node never reported during it
     await silenceCheck(ctx);
-    const outages = await ctx.sequelize.query<{ started_at: Date }>('SELECT started_at FROM outages WHERE node_id = $1', { bind: [s.node.id], type: QueryTypes.SELECT });
+    const outages = await ctx.sequelize.query<{ started_at: Date }>('SELECT started_at FROM outages WHERE node_id = $1', {
+      bind: [s.node.id],
+      type: QueryTypes.SELECT,
+    });
     expect(outages).toHaveLength(1);
     expect(new Date(outages[0].started_at).toISOString()).toBe(created.body.data.endsAt);
     // Only the mail for after the window: nothing during it.

@@ -72,14 +72,32 @@ describe('overview API', () => {
   it('counts only what a host hosts', async () => {
     const { host } = await twoNeighbourhoods();
     const res = await (await signIn(ctx, host)).get('/api/v1/overview');
-    expect(res.body.data).toEqual({ countsByState: { ...NO_NODES, online: 1 }, nodeCount: 1, siteCount: 1, neighbourhoodCount: 1, openOutages: [], driftNodes: [], weakestLinks: [], ...NOTHING_ON_THE_AIR });
+    expect(res.body.data).toEqual({
+      countsByState: { ...NO_NODES, online: 1 },
+      nodeCount: 1,
+      siteCount: 1,
+      neighbourhoodCount: 1,
+      openOutages: [],
+      driftNodes: [],
+      weakestLinks: [],
+      ...NOTHING_ON_THE_AIR,
+    });
   });
 
   it('shows all zeros to a host who hosts nothing, and ignores stray query parameters', async () => {
     await twoNeighbourhoods();
     const res = await (await signIn(ctx, await buildUser({ role: 'host' }))).get('/api/v1/overview?neighbourhoodId=1');
     expect(res.status).toBe(200);
-    expect(res.body.data).toEqual({ countsByState: NO_NODES, nodeCount: 0, siteCount: 0, neighbourhoodCount: 0, openOutages: [], driftNodes: [], weakestLinks: [], ...NOTHING_ON_THE_AIR });
+    expect(res.body.data).toEqual({
+      countsByState: NO_NODES,
+      nodeCount: 0,
+      siteCount: 0,
+      neighbourhoodCount: 0,
+      openOutages: [],
+      driftNodes: [],
+      weakestLinks: [],
+      ...NOTHING_ON_THE_AIR,
+    });
   });
 
   it('ranks live links by predicted fade margin, thinnest first, only among readable nodes', async () => {
@@ -90,7 +108,12 @@ describe('overview API', () => {
     const mid = await buildSite({ neighbourhoodId: hood.id, latitude: 47.61, longitude: -38.4 });
     const far = await buildSite({ neighbourhoodId: hood.id, latitude: 47.65, longitude: -38.4 });
     const [a, b, c] = await Promise.all([near, mid, far].map((s) => buildNode({ siteId: s.id })));
-    const [ra, rb, rc, ra2] = await Promise.all([buildRadio({ nodeId: a.id }), buildRadio({ nodeId: b.id }), buildRadio({ nodeId: c.id }), buildRadio({ nodeId: a.id, iface: 'wlan1' })]);
+    const [ra, rb, rc, ra2] = await Promise.all([
+      buildRadio({ nodeId: a.id }),
+      buildRadio({ nodeId: b.id }),
+      buildRadio({ nodeId: c.id }),
+      buildRadio({ nodeId: a.id, iface: 'wlan1' }),
+    ]);
     const short = await buildLink({ radioAId: ra.id, radioBId: rb.id });
     const long = await buildLink({ radioAId: ra2.id, radioBId: rc.id });
     await short.update({ status: 'live' });

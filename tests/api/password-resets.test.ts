@@ -21,7 +21,9 @@ describe('password resets API', () => {
       expect(res.status).toBe(202);
       expect(res.body).toEqual(answers[0].body);
     }
-    expect(answers[0].body.data.message).toBe('If that address belongs to an active Parapet account, a link to choose a new password is on its way. It works once, within 60 minutes.');
+    expect(answers[0].body.data.message).toBe(
+      'If that address belongs to an active Parapet account, a link to choose a new password is on its way. It works once, within 60 minutes.',
+    );
     expect(await accountMails(ctx.sequelize, known.email, 'password-reset')).toHaveLength(1);
     expect(await accountMails(ctx.sequelize, stranger, 'password-reset')).toHaveLength(0);
     expect(await accountMails(ctx.sequelize, inactive.email, 'password-reset')).toHaveLength(0);
@@ -48,7 +50,10 @@ describe('password resets API', () => {
 
     const reused = await complete(mail.token, 'yet-another-quiet-phrase');
     expect(reused.status).toBe(410);
-    expect(reused.body.error).toEqual({ code: 'link_used', message: 'This password-reset link was already used or replaced by a newer one. Ask for a new one from the sign-in page.' });
+    expect(reused.body.error).toEqual({
+      code: 'link_used',
+      message: 'This password-reset link was already used or replaced by a newer one. Ask for a new one from the sign-in page.',
+    });
   });
 
   it('refuses a tampered link (400) and an expired one (410) and keeps the old password', async () => {

@@ -17,7 +17,13 @@ describe('export and erasure of a person’s data', () => {
     const hood = await buildNeighbourhood({ operators: [person] });
     const site = await buildSite({ neighbourhoodId: hood.id, hostUserId: person.id, name: 'Ropewalk Loft' });
     const node = await buildNode({ siteId: site.id });
-    const outage = await Outage.create({ nodeId: node.id, startedAt: new Date('2026-05-01T10:00:00Z'), endedAt: new Date('2026-05-01T11:00:00Z'), acknowledgedAt: new Date('2026-05-01T10:05:00Z'), acknowledgedBy: person.id } as never);
+    const outage = await Outage.create({
+      nodeId: node.id,
+      startedAt: new Date('2026-05-01T10:00:00Z'),
+      endedAt: new Date('2026-05-01T11:00:00Z'),
+      acknowledgedAt: new Date('2026-05-01T10:05:00Z'),
+      acknowledgedBy: person.id,
+    } as never);
     const agent = await signIn(ctx, person);
     expect((await call(agent, 'patch', `/api/v1/sites/${site.id}`, { accessNotes: 'Key with the harbourmaster' })).status).toBe(200);
     expect((await call(agent, 'patch', '/api/v1/me', { name: `${name}-Hale`, phone: `+00 ${digits}2` })).status).toBe(200);
@@ -25,7 +31,10 @@ describe('export and erasure of a person’s data', () => {
   }
 
   describe('who may', () => {
-    it.each([['get', 'export'], ['post', 'erase']] as const)('%s /users/:id/%s: 401 signed out, 403 for operators and hosts, 404 for no one, 400 for a bad id', async (method, what) => {
+    it.each([
+      ['get', 'export'],
+      ['post', 'erase'],
+    ] as const)('%s /users/:id/%s: 401 signed out, 403 for operators and hosts, 404 for no one, 400 for a bad id', async (method, what) => {
       const person = await buildUser();
       expect((await call(request(ctx.app), method, `/api/v1/users/${person.id}/${what}`)).status).toBe(401);
       for (const role of ['operator', 'host'] as const) {
@@ -66,7 +75,14 @@ describe('export and erasure of a person’s data', () => {
     const adminAgent = await admin();
     const res = await call(adminAgent, 'post', `/api/v1/users/${person.id}/erase`);
     expect(res.status).toBe(200);
-    expect(res.body.data).toMatchObject({ id: person.id, name: `Former member #${person.id}`, email: `erased-${person.id}@erased.invalid`, phone: null, active: false, erased: true });
+    expect(res.body.data).toMatchObject({
+      id: person.id,
+      name: `Former member #${person.id}`,
+      email: `erased-${person.id}@erased.invalid`,
+      phone: null,
+      active: false,
+      erased: true,
+    });
 
     const row = await User.findByPk(person.id);
     expect(row!.passwordHash).toBeNull();
@@ -86,10 +102,10 @@ describe('export and erasure of a person’s data', () => {
     const byThem = trail.body.data.find((e: { after: Record<string, unknown> | null }) => e.after?.accessNotes === 'Key with the harbourmaster');
     expect(byThem.changedBy).toEqual({ id: person.id, name: `Former member #${person.id}` });
     // No old name, address or phone is left anywhere in the history.
-    const leftovers = await ctx.sequelize.query(
-      `SELECT id FROM change_history WHERE concat(before::text, after::text) LIKE ANY($1::text[])`,
-      { bind: [[`%${name}%`, `%${person.email}%`, `%${digits}%`]], type: QueryTypes.SELECT },
-    );
+    const leftovers = await ctx.sequelize.query(`SELECT id FROM change_history WHERE concat(before::text, after::text) LIKE ANY($1::text[])`, {
+      bind: [[`%${name}%`, `%${person.email}%`, `%${digits}%`]],
+      type: QueryTypes.SELECT,
+    });
     expect(leftovers).toEqual([]);
 
     const twice = await call(adminAgent, 'post', `/api/v1/users/${person.id}/erase`);

@@ -19,7 +19,9 @@ const photosDir = path.join(dataDir, 'photos');
 const filesOnDisk = () => (fs.existsSync(photosDir) ? fs.readdirSync(photosDir).sort() : []);
 
 const image = (format: 'jpeg' | 'png' | 'webp') =>
-  sharp({ create: { width: 64, height: 48, channels: 3, background: '#0a7' } })[format]().toBuffer();
+  sharp({ create: { width: 64, height: 48, channels: 3, background: '#0a7' } })
+    [format]()
+    .toBuffer();
 
 /**
  * The tag ids of a TIFF/EXIF block's first IFD (TIFF 6.0 §2: byte order "II"/"MM", magic 42, offset of IFD0;
@@ -38,13 +40,24 @@ const GPS_IFD_TAG = 0x8825; // CIPA DC-008 (Exif 2.32) §4.6.3: GPS Info IFD poi
 
 /** A phone-like photo: 64 × 32 pixels stored sideways (EXIF orientation 6), with its owner's name and a GPS position. */
 const phonePhoto = (format: 'jpeg' | 'png' | 'webp' = 'jpeg') =>
-  sharp({ create: { width: 64, height: 32, channels: 3, background: '#0a7' } })[format]()
+  sharp({ create: { width: 64, height: 32, channels: 3, background: '#0a7' } })
+    [format]()
     .withMetadata({ orientation: 6 })
-    .withExifMerge({ IFD0: { Artist: 'Odile Brenner' }, IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '52/1 4/1 12/1', GPSLongitudeRef: 'E', GPSLongitude: '4/1 18/1 3/1' } })
+    .withExifMerge({
+      IFD0: { Artist: 'Odile Brenner' },
+      IFD3: { GPSLatitudeRef: 'N', GPSLatitude: '52/1 4/1 12/1', GPSLongitudeRef: 'E', GPSLongitude: '4/1 18/1 3/1' },
+    })
     .toBuffer();
 
 const bytesOf = (agent: Agent, url: string) =>
-  agent.get(url).buffer(true).parse((r, cb) => { const c: Buffer[] = []; r.on('data', (d: Buffer) => c.push(d)); r.on('end', () => cb(null, Buffer.concat(c))); });
+  agent
+    .get(url)
+    .buffer(true)
+    .parse((r, cb) => {
+      const c: Buffer[] = [];
+      r.on('data', (d: Buffer) => c.push(d));
+      r.on('end', () => cb(null, Buffer.concat(c)));
+    });
 
 describe('site photos API', () => {
   const ctx = useApi();
@@ -82,64 +95,83 @@ describe('site photos API', () => {
   const snapshot = async () => ({ rows: await Photo.count(), files: filesOnDisk() });
 
   it('refuses signed-out callers with 401', async () => {
-    for (const [method, url] of [['get', `/api/v1/sites/${siteId}/photos`], ['post', `/api/v1/sites/${siteId}/photos`], ['get', '/api/v1/photos/1'], ['get', '/api/v1/photos/1/thumbnail'], ['delete', '/api/v1/photos/1']] as const) {
+    for (const [method, url] of [
+      ['get', `/api/v1/sites/${siteId}/photos`],
+      ['post', `/api/v1/sites/${siteId}/photos`],
+      ['get', '/api/v1/photos/1'],
+      ['get', '/api/v1/photos/1/thumbnail'],
+      ['delete', '/api/v1/photos/1'],
+    ] as const) {
       const res = await request(ctx.app)[method](url);
       expect(res.status, `${method} ${url}`).toBe(401);
     }
   });
 
-  it.each(['jpeg', 'png', 'webp'] as const)('stores a %s under a random name with a thumbnail, whatever the name and type the client claimed', async (format) => {
-    const bytes = await image(format);
-    const res = await upload(hoodOperator, siteId, bytes, 'holiday.gif', 'application/octet-stream').field('caption', 'Mast from the north');
-    expect(res.status).toBe(201);
-    const expectedType = { jpeg: 'image/jpeg', png: 'image/png', webp: 'image/webp' }[format];
-    expect(res.body.data).toMatchObject({ siteId, contentType: expectedType, widthPx: 64, heightPx: 48, caption: 'Mast from the north', abilities: { delete: true } });
-    expect(JSON.stringify(res.body)).not.toMatch(/holiday|storageKey/);
-    const row = await Photo.findByPk(res.body.data.id);
-    expect(row!.storageKey).toMatch(/^[0-9a-f]{32}$/);
-    expect(filesOnDisk()).toEqual(expect.arrayContaining([row!.storageKey, `${row!.storageKey}.thumb.webp`]));
-    const stored = fs.readFileSync(path.join(photosDir, row!.storageKey));
-    expect(res.body.data.sizeBytes).toBe(stored.length);
+  it.each(['jpeg', 'png', 'webp'] as const)(
+    'stores a %s under a random name with a thumbnail, whatever the name and type the client claimed',
+    async (format) => {
+      const bytes = await image(format);
+      const res = await upload(hoodOperator, siteId, bytes, 'holiday.gif', 'application/octet-stream').field('caption', 'Mast from the north');
+      expect(res.status).toBe(201);
+      const expectedType = { jpeg: 'image/jpeg', png: 'image/png', webp: 'image/webp' }[format];
+      expect(res.body.data).toMatchObject({
+        siteId,
+        contentType: expectedType,
+        widthPx: 64,
+        heightPx: 48,
+        caption: 'Mast from the north',
+        abilities: { delete: true },
+      });
+      expect(JSON.stringify(res.body)).not.toMatch(/holiday|storageKey/);
+      const row = await Photo.findByPk(res.body.data.id);
+      expect(row!.storageKey).toMatch(/^[0-9a-f]{32}$/);
+      expect(filesOnDisk()).toEqual(expect.arrayContaining([row!.storageKey, `${row!.storageKey}.thumb.webp`]));
+      const stored = fs.readFileSync(path.join(photosDir, row!.storageKey));
+      expect(res.body.data.sizeBytes).toBe(stored.length);
 
-    // Downloads work from a store under a dot-directory, and give back exactly the stored picture.
-    const original = await bytesOf(hoodOperator, res.body.data.url);
-    expect(original.status).toBe(200);
-    expect(original.headers['content-type']).toBe(expectedType);
-    expect(original.headers['content-disposition']).toMatch(new RegExp(`filename="site-${siteId}-photo-${row!.id}\\.`));
-    expect(Buffer.compare(original.body as Buffer, stored)).toBe(0);
-    expect(await sharp(original.body as Buffer).metadata()).toMatchObject({ format: format, width: 64, height: 48 });
-    const thumb = await bytesOf(hoodOperator, res.body.data.thumbnailUrl);
-    expect(thumb.status).toBe(200);
-    expect(thumb.headers['content-type']).toBe('image/webp');
-    expect(await sharp(thumb.body as Buffer).metadata()).toMatchObject({ format: 'webp' });
-  });
+      // Downloads work from a store under a dot-directory, and give back exactly the stored picture.
+      const original = await bytesOf(hoodOperator, res.body.data.url);
+      expect(original.status).toBe(200);
+      expect(original.headers['content-type']).toBe(expectedType);
+      expect(original.headers['content-disposition']).toMatch(new RegExp(`filename="site-${siteId}-photo-${row!.id}\\.`));
+      expect(Buffer.compare(original.body as Buffer, stored)).toBe(0);
+      expect(await sharp(original.body as Buffer).metadata()).toMatchObject({ format: format, width: 64, height: 48 });
+      const thumb = await bytesOf(hoodOperator, res.body.data.thumbnailUrl);
+      expect(thumb.status).toBe(200);
+      expect(thumb.headers['content-type']).toBe('image/webp');
+      expect(await sharp(thumb.body as Buffer).metadata()).toMatchObject({ format: 'webp' });
+    },
+  );
 
-  it.each(['jpeg', 'png', 'webp'] as const)('keeps no EXIF of a %s upload (owner, GPS position), and turns the picture upright from its orientation', async (format) => {
-    const upload0 = await phonePhoto(format);
-    const sent = await sharp(upload0).metadata();
-    // The fixture really carries what must go: orientation 6, the owner's name and a GPS block.
-    expect(sent).toMatchObject({ width: 64, height: 32, orientation: 6 });
-    expect(ifd0Tags(sent.exif!)).toEqual(expect.arrayContaining([ARTIST_TAG, GPS_IFD_TAG]));
-    expect(upload0.toString('latin1')).toContain('Odile Brenner');
+  it.each(['jpeg', 'png', 'webp'] as const)(
+    'keeps no EXIF of a %s upload (owner, GPS position), and turns the picture upright from its orientation',
+    async (format) => {
+      const upload0 = await phonePhoto(format);
+      const sent = await sharp(upload0).metadata();
+      // The fixture really carries what must go: orientation 6, the owner's name and a GPS block.
+      expect(sent).toMatchObject({ width: 64, height: 32, orientation: 6 });
+      expect(ifd0Tags(sent.exif!)).toEqual(expect.arrayContaining([ARTIST_TAG, GPS_IFD_TAG]));
+      expect(upload0.toString('latin1')).toContain('Odile Brenner');
 
-    const res = await upload(hoodOperator, siteId, upload0, `IMG_2041.${format}`, `image/${format}`);
-    expect(res.status).toBe(201);
-    // Orientation 6 is "rotate 90° clockwise to view" (CIPA DC-008 tag 274), so 64 × 32 stands up as 32 × 64.
-    expect(res.body.data).toMatchObject({ contentType: `image/${format}`, widthPx: 32, heightPx: 64 });
-    const row = await Photo.findByPk(res.body.data.id);
-    for (const file of [row!.storageKey, `${row!.storageKey}.thumb.webp`]) {
-      const bytes = fs.readFileSync(path.join(photosDir, file));
-      const meta = await sharp(bytes).metadata();
-      expect(meta.exif, file).toBeUndefined();
-      expect(meta.xmp, file).toBeUndefined();
-      expect(meta.orientation, file).toBeUndefined();
-      expect(bytes.toString('latin1'), file).not.toContain('Odile Brenner');
-      expect([meta.width, meta.height], file).toEqual([32, 64]);
-    }
-    const downloaded = await bytesOf(hoodOperator, res.body.data.url);
-    expect(downloaded.status).toBe(200);
-    expect((await sharp(downloaded.body as Buffer).metadata()).exif).toBeUndefined();
-  });
+      const res = await upload(hoodOperator, siteId, upload0, `IMG_2041.${format}`, `image/${format}`);
+      expect(res.status).toBe(201);
+      // Orientation 6 is "rotate 90° clockwise to view" (CIPA DC-008 tag 274), so 64 × 32 stands up as 32 × 64.
+      expect(res.body.data).toMatchObject({ contentType: `image/${format}`, widthPx: 32, heightPx: 64 });
+      const row = await Photo.findByPk(res.body.data.id);
+      for (const file of [row!.storageKey, `${row!.storageKey}.thumb.webp`]) {
+        const bytes = fs.readFileSync(path.join(photosDir, file));
+        const meta = await sharp(bytes).metadata();
+        expect(meta.exif, file).toBeUndefined();
+        expect(meta.xmp, file).toBeUndefined();
+        expect(meta.orientation, file).toBeUndefined();
+        expect(bytes.toString('latin1'), file).not.toContain('Odile Brenner');
+        expect([meta.width, meta.height], file).toEqual([32, 64]);
+      }
+      const downloaded = await bytesOf(hoodOperator, res.body.data.url);
+      expect(downloaded.status).toBe(200);
+      expect((await sharp(downloaded.body as Buffer).metadata()).exif).toBeUndefined();
+    },
+  );
 
   it('answers a photo whose file went missing with a JSON 404, not an empty picture', async () => {
     const res = await upload(hoodOperator, siteId, jpeg);
@@ -152,7 +184,10 @@ describe('site photos API', () => {
       expect(missing.status, url).toBe(404);
       expect(missing.headers['content-type'], url).toMatch(/^application\/json/);
       expect(missing.headers['content-disposition'], url).toBeUndefined();
-      expect(missing.body.error).toMatchObject({ code: 'photo_file_missing', message: expect.stringMatching(/missing on the server.*restore it from a backup/) });
+      expect(missing.body.error).toMatchObject({
+        code: 'photo_file_missing',
+        message: expect.stringMatching(/missing on the server.*restore it from a backup/),
+      });
     }
     expect((await call(hoodOperator, 'delete', res.body.data.url)).status).toBe(204);
   });
@@ -178,7 +213,13 @@ describe('site photos API', () => {
 
   it('refuses a GIF, and a file that starts like a PNG but is not one, with 415', async () => {
     const before = await snapshot();
-    await expectRefused(await upload(hoodOperator, siteId, Buffer.from('GIF89a\x01\x00\x01\x00\x00\x00\x00;'), 'a.png', 'image/png'), 415, 'unsupported_media_type', /JPEG, PNG or WebP/, before);
+    await expectRefused(
+      await upload(hoodOperator, siteId, Buffer.from('GIF89a\x01\x00\x01\x00\x00\x00\x00;'), 'a.png', 'image/png'),
+      415,
+      'unsupported_media_type',
+      /JPEG, PNG or WebP/,
+      before,
+    );
     const fakePng = Buffer.concat([Buffer.from([0x89, 0x50, 0x4e, 0x47, 0x0d, 0x0a, 0x1a, 0x0a]), Buffer.alloc(200, 7)]);
     await expectRefused(await upload(hoodOperator, siteId, fakePng, 'b.png', 'image/png'), 415, 'unreadable_image', /could not be read/, before);
   });
@@ -208,7 +249,8 @@ describe('site photos API', () => {
     expect(del.status).toBe(403);
     expect(del.body.error.message).toBe('Only admins and the operators of its neighbourhood remove photos of this site.');
 
-    for (const url of [`/api/v1/sites/${siteId}/photos`, `/api/v1/photos/${id}`, `/api/v1/photos/${id}/thumbnail`]) expect((await call(otherOperator, 'get', url)).status, url).toBe(404);
+    for (const url of [`/api/v1/sites/${siteId}/photos`, `/api/v1/photos/${id}`, `/api/v1/photos/${id}/thumbnail`])
+      expect((await call(otherOperator, 'get', url)).status, url).toBe(404);
     expect((await call(otherOperator, 'delete', `/api/v1/photos/${id}`)).status).toBe(404);
     const before = await snapshot();
     await expectRefused(await upload(otherOperator, siteId, jpeg), 404, 'not_found', /Site \d+ was not found/, before);

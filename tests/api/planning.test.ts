@@ -40,13 +40,18 @@ describe('planning routes', () => {
     expect(res.body.expectedRateMbps).toBe(65);
     expect(res.body.fadeMarginDb).toBeCloseTo(-57.23 + 82, 1);
     expect(res.body.azimuthDeg).toBeNull();
-    for (const key of ['distanceKm', 'reverseAzimuthDeg', 'tiltDeg', 'snrDb', 'fresnelRadiusM', 'earthBulgeM', 'clearanceNeededM']) expect(res.body).toHaveProperty(key);
+    for (const key of ['distanceKm', 'reverseAzimuthDeg', 'tiltDeg', 'snrDb', 'fresnelRadiusM', 'earthBulgeM', 'clearanceNeededM'])
+      expect(res.body).toHaveProperty(key);
   });
 
   it('computes distance and bearings between two sites', async () => {
     const op = await signIn(ctx, await buildUser({ role: 'admin' }));
     const { distanceKm: _d, ...rest } = linkBody;
-    const res = await call(op, 'post', '/api/v1/planning/link-budget', { ...rest, a: { lat: 47.6, lon: -38.4, heightM: 20 }, b: { lat: 47.62, lon: -38.4, heightM: 10 } });
+    const res = await call(op, 'post', '/api/v1/planning/link-budget', {
+      ...rest,
+      a: { lat: 47.6, lon: -38.4, heightM: 20 },
+      b: { lat: 47.62, lon: -38.4, heightM: 10 },
+    });
     expect(res.status).toBe(200);
     expect(res.body.distanceKm).toBeGreaterThan(2.2);
     expect(res.body.distanceKm).toBeLessThan(2.3);
@@ -72,9 +77,15 @@ describe('planning routes', () => {
     const op = await signIn(ctx, await buildUser({ role: 'operator' }));
     const wide = await call(op, 'post', '/api/v1/planning/link-budget', { ...linkBody, freqMHz: 2437, channelWidthMHz: 80 });
     expect(wide.status).toBe(400);
-    expect(wide.body.error.details).toEqual([{ path: 'channelWidthMHz', message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' }]);
+    expect(wide.body.error.details).toEqual([
+      { path: 'channelWidthMHz', message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' },
+    ]);
     const { distanceKm: _d, ...rest } = linkBody;
-    const far = await call(op, 'post', '/api/v1/planning/link-budget', { ...rest, a: { lat: 47.6, lon: 8.5, heightM: 20 }, b: { lat: 10, lon: 60, heightM: 20 } });
+    const far = await call(op, 'post', '/api/v1/planning/link-budget', {
+      ...rest,
+      a: { lat: 47.6, lon: 8.5, heightM: 20 },
+      b: { lat: 10, lon: 60, heightM: 20 },
+    });
     expect(far.status).toBe(400);
     expect(far.body.error.code).toBe('sites_too_far');
     const badObstacle = await call(op, 'post', '/api/v1/planning/link-budget', { ...linkBody, obstacles: [{ distanceKm: 'near', heightM: 3 }] });
@@ -89,8 +100,13 @@ describe('planning routes', () => {
     const { distanceKm: _d, ...rest } = linkBody;
     // 2.224 km due north (GeographicLib), masts 10 m on flat ground, a tree line 14 m tall 1.1 km from a.
     const res = await call(op, 'post', '/api/v1/planning/link-budget', {
-      ...rest, a: { lat: 47.6, lon: -38.4, heightM: 10, groundElevationM: 0 }, b: { lat: 47.62, lon: -38.4, heightM: 10, groundElevationM: 0 },
-      obstacles: [{ distanceKm: 1.1, heightM: 14 }], streams: 2, guardInterval: 'short', region: 'EU',
+      ...rest,
+      a: { lat: 47.6, lon: -38.4, heightM: 10, groundElevationM: 0 },
+      b: { lat: 47.62, lon: -38.4, heightM: 10, groundElevationM: 0 },
+      obstacles: [{ distanceKm: 1.1, heightM: 14 }],
+      streams: 2,
+      guardInterval: 'short',
+      region: 'EU',
     });
     expect(res.status).toBe(200);
     expect(res.body.lineOfSight).toMatchObject({ clear: false, atDistanceKm: 1.1, blockedBy: 'obstacle' });
@@ -120,7 +136,14 @@ describe('planning routes', () => {
 
   it('checks the US 2.4 GHz point-to-point rule (47 CFR §15.247 worked example: 24 dBi → 24 dBm, 48 dBm EIRP)', async () => {
     const op = await signIn(ctx, await buildUser({ role: 'operator' }));
-    const res = await call(op, 'post', '/api/v1/planning/regulatory', { region: 'US', freqMHz: 2437, antennaGainDbi: 24, txPowerDbm: 24, cableLossDb: 0, linkType: 'point-to-point' });
+    const res = await call(op, 'post', '/api/v1/planning/regulatory', {
+      region: 'US',
+      freqMHz: 2437,
+      antennaGainDbi: 24,
+      txPowerDbm: 24,
+      cableLossDb: 0,
+      linkType: 'point-to-point',
+    });
     expect(res.status).toBe(200);
     expect(res.body.maxTxPowerDbm).toBeCloseTo(24, 5);
     expect(res.body.maxEirpDbm).toBeCloseTo(48, 5);
@@ -130,7 +153,14 @@ describe('planning routes', () => {
 
   it('caps EU 2.4 GHz at 20 dBm EIRP whatever the antenna (ETSI EN 300 328)', async () => {
     const op = await signIn(ctx, await buildUser({ role: 'operator' }));
-    const res = await call(op, 'post', '/api/v1/planning/regulatory', { region: 'EU', freqMHz: 2437, antennaGainDbi: 8, txPowerDbm: 20, cableLossDb: 1, linkType: 'point-to-multipoint' });
+    const res = await call(op, 'post', '/api/v1/planning/regulatory', {
+      region: 'EU',
+      freqMHz: 2437,
+      antennaGainDbi: 8,
+      txPowerDbm: 20,
+      cableLossDb: 1,
+      linkType: 'point-to-multipoint',
+    });
     expect(res.body.maxEirpDbm).toBeCloseTo(20, 5);
     expect(res.body.eirpDbm).toBeCloseTo(27, 5);
     expect(res.body.compliant).toBe(false);
@@ -170,14 +200,25 @@ describe('planning routes', () => {
     const res = await call(op, 'post', '/api/v1/planning/address-plan', { pool: '10.64.0.0/16', prefixLength: 24, count: 2, taken: ['10.64.0.0/24'] });
     expect(res.status).toBe(200);
     expect(res.body.subnets[0]).toEqual({
-      cidr: '10.64.1.0/24', netmask: '255.255.255.0', gateway: '10.64.1.1', firstHost: '10.64.1.1', lastHost: '10.64.1.254', broadcast: '10.64.1.255', usableHosts: 254,
+      cidr: '10.64.1.0/24',
+      netmask: '255.255.255.0',
+      gateway: '10.64.1.1',
+      firstHost: '10.64.1.1',
+      lastHost: '10.64.1.254',
+      broadcast: '10.64.1.255',
+      usableHosts: 254,
     });
     expect(res.body.subnets[1].cidr).toBe('10.64.2.0/24');
   });
 
   it('plans IPv6 /64s from a RFC 4193 /48 and warns about a public IPv4 pool (RFC 1918, RFC 6598)', async () => {
     const op = await signIn(ctx, await buildUser({ role: 'operator' }));
-    const v6 = await call(op, 'post', '/api/v1/planning/address-plan', { pool: 'fd12:3456:789a::/48', prefixLength: 64, count: 2, taken: ['fd12:3456:789a::/64'] });
+    const v6 = await call(op, 'post', '/api/v1/planning/address-plan', {
+      pool: 'fd12:3456:789a::/48',
+      prefixLength: 64,
+      count: 2,
+      taken: ['fd12:3456:789a::/64'],
+    });
     expect(v6.status).toBe(200);
     expect(v6.body.subnets.map((s: { cidr: string }) => s.cidr)).toEqual(['fd12:3456:789a:1::/64', 'fd12:3456:789a:2::/64']);
     expect(v6.body.subnets[0]).toMatchObject({ netmask: null, broadcast: null, gateway: 'fd12:3456:789a:1::1' });
@@ -188,13 +229,18 @@ describe('planning routes', () => {
     expect(pub.status).toBe(200);
     expect(pub.body.warnings[0]).toMatch(/neither private \(RFC 1918/);
     expect(pub.body.dhcp).toMatchObject({ addressesNeeded: 151, suggestedPrefixLength: 24, fitsRequested: false });
-    expect((await call(op, 'post', '/api/v1/planning/address-plan', { pool: '10.0.0.0/8', prefixLength: 40, count: 1 })).body.error.details[0].path).toBe('prefixLength');
+    expect((await call(op, 'post', '/api/v1/planning/address-plan', { pool: '10.0.0.0/8', prefixLength: 40, count: 1 })).body.error.details[0].path).toBe(
+      'prefixLength',
+    );
   });
 
   it('gives /31 two usable hosts and no broadcast (RFC 3021)', async () => {
     const op = await signIn(ctx, await buildUser({ role: 'operator' }));
     const res = await call(op, 'post', '/api/v1/planning/address-plan', { pool: '10.0.0.0/30', prefixLength: 31, count: 2 });
-    expect(res.body.subnets.map((s: { broadcast: null; usableHosts: number }) => [s.broadcast, s.usableHosts])).toEqual([[null, 2], [null, 2]]);
+    expect(res.body.subnets.map((s: { broadcast: null; usableHosts: number }) => [s.broadcast, s.usableHosts])).toEqual([
+      [null, 2],
+      [null, 2],
+    ]);
   });
 
   it('answers 409 when the pool is exhausted and 400 for a prefix shorter than the pool or a malformed CIDR', async () => {

@@ -25,21 +25,37 @@ type Cell = [boolean, boolean];
 
 const TABLE: Record<What, Record<Who, Cell>> = {
   node: {
-    admin: [true, true], operatorOfHood: [true, true], operatorOfOther: [false, false],
-    hostOfSite: [true, false], hostOfOther: [false, false], deactivated: [false, false],
+    admin: [true, true],
+    operatorOfHood: [true, true],
+    operatorOfOther: [false, false],
+    hostOfSite: [true, false],
+    hostOfOther: [false, false],
+    deactivated: [false, false],
   },
   radio: {
-    admin: [true, true], operatorOfHood: [true, true], operatorOfOther: [false, false],
-    hostOfSite: [true, false], hostOfOther: [false, false], deactivated: [false, false],
+    admin: [true, true],
+    operatorOfHood: [true, true],
+    operatorOfOther: [false, false],
+    hostOfSite: [true, false],
+    hostOfOther: [false, false],
+    deactivated: [false, false],
   },
   // Links are infrastructure: a host reads none, not even the one on their roof.
   link: {
-    admin: [true, true], operatorOfHood: [true, true], operatorOfOther: [false, false],
-    hostOfSite: [false, false], hostOfOther: [false, false], deactivated: [false, false],
+    admin: [true, true],
+    operatorOfHood: [true, true],
+    operatorOfOther: [false, false],
+    hostOfSite: [false, false],
+    hostOfOther: [false, false],
+    deactivated: [false, false],
   },
   plan: {
-    admin: [true, true], operatorOfHood: [true, true], operatorOfOther: [false, false],
-    hostOfSite: [false, false], hostOfOther: [false, false], deactivated: [false, false],
+    admin: [true, true],
+    operatorOfHood: [true, true],
+    operatorOfOther: [false, false],
+    hostOfSite: [false, false],
+    hostOfOther: [false, false],
+    deactivated: [false, false],
   },
 };
 const WHO: Who[] = ['admin', 'operatorOfHood', 'operatorOfOther', 'hostOfSite', 'hostOfOther', 'deactivated'];
@@ -91,8 +107,7 @@ describe('policy table: role × resource × action', () => {
 
   const live = WHO.filter((w) => w !== 'deactivated');
   const ends = () => ({ neighbourhoodAId: link.radioA!.node!.neighbourhoodId, neighbourhoodBId: link.radioB!.node!.neighbourhoodId });
-  const sqlCount = async (sql: string, bind: unknown[]) =>
-    Number((await ctx.sequelize.query<{ c: string }>(sql, { bind, type: QueryTypes.SELECT }))[0].c);
+  const sqlCount = async (sql: string, bind: unknown[]) => Number((await ctx.sequelize.query<{ c: string }>(sql, { bind, type: QueryTypes.SELECT }))[0].c);
 
   describe.each(live)('%s', (who) => {
     const actor = () => actors[who]!;

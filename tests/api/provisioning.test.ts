@@ -21,15 +21,36 @@ describe('provisioning sheet API', () => {
     const { op, admin, node } = await planningCast(ctx);
     const r = await buildRadio({ nodeId: node.id });
     await Radio.update({ preSharedKey: KEY, ssid: 'quay-ap' }, { where: { id: r.id } });
-    await call(admin, 'put', `/api/v1/address-plans/${node.id}`, { cidr: '10.64.7.0/24', gateway: '10.64.7.1', dhcpStart: '10.64.7.11', dhcpEnd: '10.64.7.254' });
+    await call(admin, 'put', `/api/v1/address-plans/${node.id}`, {
+      cidr: '10.64.7.0/24',
+      gateway: '10.64.7.1',
+      dhcpStart: '10.64.7.11',
+      dhcpEnd: '10.64.7.254',
+    });
     for (const who of [op, admin]) {
       const res = await call(who, 'get', `/api/v1/nodes/${node.id}/provisioning`);
       expect(res.status).toBe(200);
       expect(res.headers['cache-control']).toBe('no-store');
-      expect(res.body.data.radios[0]).toMatchObject({ iface: 'wlan0', band: '5', channel: 36, centerMHz: 5180, channelWidthMHz: 40, ssid: 'quay-ap', encryption: 'wpa2-ccmp', preSharedKey: KEY });
+      expect(res.body.data.radios[0]).toMatchObject({
+        iface: 'wlan0',
+        band: '5',
+        channel: 36,
+        centerMHz: 5180,
+        channelWidthMHz: 40,
+        ssid: 'quay-ap',
+        encryption: 'wpa2-ccmp',
+        preSharedKey: KEY,
+      });
       // EIRP = Ptx + G − L (REFERENCES.md "Link budget"): 18 + 23 − 0
       expect(res.body.data.radios[0].eirpDbm).toBe(41);
-      expect(res.body.data.addresses).toMatchObject({ cidr: '10.64.7.0/24', netmask: '255.255.255.0', gateway: '10.64.7.1', broadcast: '10.64.7.255', dhcpStart: '10.64.7.11', dhcpEnd: '10.64.7.254' });
+      expect(res.body.data.addresses).toMatchObject({
+        cidr: '10.64.7.0/24',
+        netmask: '255.255.255.0',
+        gateway: '10.64.7.1',
+        broadcast: '10.64.7.255',
+        dhcpStart: '10.64.7.11',
+        dhcpEnd: '10.64.7.254',
+      });
       expect(res.body.data.node.reportIntervalS).toBe(60);
       expect(res.body.data.agent.scriptPath).toBe('/agent/parapet-agent.sh');
     }

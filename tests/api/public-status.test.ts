@@ -21,16 +21,24 @@ describe('public status API', () => {
     expect(res.status).toBe(200);
     return res;
   }
-  const hood = (body: { data: { neighbourhoods: { name: string }[] } }, name: string) => body.data.neighbourhoods.find((h) => h.name === name) as never as {
-    name: string; sentence: string; counts: Record<string, number>; availability: { h24Pct: number | null; d30Pct: number | null };
-    openOutages: { state: string; since: string; sentence: string }[];
-  };
+  const hood = (body: { data: { neighbourhoods: { name: string }[] } }, name: string) =>
+    body.data.neighbourhoods.find((h) => h.name === name) as never as {
+      name: string;
+      sentence: string;
+      counts: Record<string, number>;
+      availability: { h24Pct: number | null; d30Pct: number | null };
+      openOutages: { state: string; since: string; sentence: string }[];
+    };
 
   it('answers signed out, sets no cookie and says how long it may be cached', async () => {
     const res = await freshStatus();
     expect(res.headers['set-cookie']).toBeUndefined();
     expect(res.headers['cache-control']).toBe('public, max-age=30');
-    expect(res.body.data).toEqual({ network: { name: expect.any(String), timeZone: expect.any(String) }, generatedAt: clock.now().toISOString(), neighbourhoods: [] });
+    expect(res.body.data).toEqual({
+      network: { name: expect.any(String), timeZone: expect.any(String) },
+      generatedAt: clock.now().toISOString(),
+      neighbourhoods: [],
+    });
   });
 
   it('counts nodes per neighbourhood, says since when they are down, and leaves retired neighbourhoods out', async () => {
@@ -47,7 +55,10 @@ describe('public status API', () => {
     const millNode = await Node.findOne({ where: { neighbourhoodId: millbrook!.id, isUplink: false }, order: [['id', 'DESC']] });
     await millNode!.update({ state: 'stranded' });
     await Outage.create({ nodeId: millNode!.id, startedAt: new Date('2026-05-31T22:05:00Z') });
-    await Node.update({ state: 'unknown', firstSeenAt: null }, { where: { neighbourhoodId: (await Neighbourhood.findOne({ where: { name: 'Chapel Hill' } }))!.id } });
+    await Node.update(
+      { state: 'unknown', firstSeenAt: null },
+      { where: { neighbourhoodId: (await Neighbourhood.findOne({ where: { name: 'Chapel Hill' } }))!.id } },
+    );
     await buildNeighbourhood({ name: 'Closed Estate' }).then((h) => h.update({ retiredAt: ago(DAY_S) }));
 
     const { body } = await freshStatus();

@@ -84,7 +84,11 @@ describe('radios API', () => {
       const radio = await buildRadio(); // 5 GHz, channel 36
       const res = await call(await admin(), 'patch', `/api/v1/radios/${radio.id}`, { band: '2.4' });
       expect(res.status).toBe(400);
-      expect(res.body.error).toEqual({ code: 'invalid_input', message: 'The channel does not fit the band.', details: [{ path: 'channel', message: BAND_CHANNEL }] });
+      expect(res.body.error).toEqual({
+        code: 'invalid_input',
+        message: 'The channel does not fit the band.',
+        details: [{ path: 'channel', message: BAND_CHANNEL }],
+      });
       expect((await Radio.findByPk(radio.id))!.band).toBe('5');
     });
 
@@ -92,7 +96,9 @@ describe('radios API', () => {
       const node = await buildNode();
       const res = await call(await admin(), 'post', '/api/v1/radios', validRadio(node.id, { channel, channelWidthMHz: 20 }));
       expect(res.status).toBe(400);
-      expect(res.body.error.details).toEqual([{ path: 'channel', message: 'channel must be a 5 GHz channel on the IEEE 802.11 raster: 36–64, 100–144, 149–165 in steps of 4' }]);
+      expect(res.body.error.details).toEqual([
+        { path: 'channel', message: 'channel must be a 5 GHz channel on the IEEE 802.11 raster: 36–64, 100–144, 149–165 in steps of 4' },
+      ]);
       expect(await Radio.count({ where: { nodeId: node.id } })).toBe(0);
     });
 
@@ -101,12 +107,16 @@ describe('radios API', () => {
       const agent = await admin();
       const res = await call(agent, 'post', '/api/v1/radios', validRadio(node.id, { band: '2.4', channel: 6, channelWidthMHz: 80 }));
       expect(res.status).toBe(400);
-      expect(res.body.error.details).toEqual([{ path: 'channelWidthMHz', message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' }]);
+      expect(res.body.error.details).toEqual([
+        { path: 'channelWidthMHz', message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' },
+      ]);
       const wide = await call(agent, 'post', '/api/v1/radios', validRadio(node.id, { channel: 36, channelWidthMHz: 80 }));
       expect(wide.status).toBe(201);
       const moved = await call(agent, 'patch', `/api/v1/radios/${wide.body.data.id}`, { band: '2.4', channel: 6 });
       expect(moved.status).toBe(400);
-      expect(moved.body.error.details).toEqual([{ path: 'channelWidthMHz', message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' }]);
+      expect(moved.body.error.details).toEqual([
+        { path: 'channelWidthMHz', message: 'channelWidthMHz must be 20 or 40 on 2.4 GHz: the band has no 80 MHz channel' },
+      ]);
       expect((await Radio.findByPk(wide.body.data.id))!.band).toBe('5');
     });
 
@@ -216,7 +226,12 @@ describe('radios API', () => {
 
     it('accepts a 2.4 GHz radio on channel 11 at 20 MHz', async () => {
       const node = await buildNode();
-      const res = await call(await admin(), 'post', '/api/v1/radios', validRadio(node.id, { band: '2.4', channel: 11, channelWidthMHz: 20, role: 'access-point' }));
+      const res = await call(
+        await admin(),
+        'post',
+        '/api/v1/radios',
+        validRadio(node.id, { band: '2.4', channel: 11, channelWidthMHz: 20, role: 'access-point' }),
+      );
       expect(res.status).toBe(201);
       expect(res.body.data).toMatchObject({ band: '2.4', channel: 11, channelWidthMHz: 20 });
     });
@@ -224,7 +239,12 @@ describe('radios API', () => {
     it('changes only what is sent: a new channel keeps the interface, cable loss and rekey interval', async () => {
       const node = await buildNode();
       const agent = await admin();
-      const made = await call(agent, 'post', '/api/v1/radios', validRadio(node.id, { iface: 'wlan2', cableLossDb: 1.5, groupRekeyS: 3600, polarisation: 'dual' }));
+      const made = await call(
+        agent,
+        'post',
+        '/api/v1/radios',
+        validRadio(node.id, { iface: 'wlan2', cableLossDb: 1.5, groupRekeyS: 3600, polarisation: 'dual' }),
+      );
       const res = await call(agent, 'patch', `/api/v1/radios/${made.body.data.id}`, { channel: 149 });
       expect(res.status).toBe(200);
       expect(res.body.data).toMatchObject({ channel: 149, iface: 'wlan2', cableLossDb: 1.5, groupRekeyS: 3600, polarisation: 'dual', hasPreSharedKey: true });
@@ -286,7 +306,11 @@ describe('radios API', () => {
       const node = await buildNode();
       const agent = await admin();
       const made: Record<number, number> = {};
-      for (const [iface, band, channel, ssid] of [['wlan0', '2.4', 6, 'porch-ap'], ['wlan1', '5', 100, 'ridge-link'], ['wlan2', '5', 36, 'ridge-mesh']] as const) {
+      for (const [iface, band, channel, ssid] of [
+        ['wlan0', '2.4', 6, 'porch-ap'],
+        ['wlan1', '5', 100, 'ridge-link'],
+        ['wlan2', '5', 36, 'ridge-mesh'],
+      ] as const) {
         const res = await call(agent, 'post', '/api/v1/radios', validRadio(node.id, { iface, band, channel, ssid, channelWidthMHz: 20 }));
         expect(res.status).toBe(201);
         made[channel] = res.body.data.id;

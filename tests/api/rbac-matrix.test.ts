@@ -30,11 +30,34 @@ const WHAT: Record<Resource, Record<Action, string>> = {
   nodes: { list: 'nodes', read: 'a node in hood A', create: 'a node on a site in hood A', update: 'a node in hood A', delete: 'a node in hood A' },
   radios: { list: 'radios', read: 'a radio in hood A', create: 'a radio on a node in hood A', update: 'a radio in hood A', delete: 'a radio in hood A' },
   links: { list: 'links', read: 'a link inside hood A', create: 'a link inside hood A', update: 'a link inside hood A', delete: 'a link inside hood A' },
-  users: { list: 'people', read: 'the host of a site in hood A', create: 'a person', update: 'the host of a site in hood A', delete: 'the host of a site in hood A' },
+  users: {
+    list: 'people',
+    read: 'the host of a site in hood A',
+    create: 'a person',
+    update: 'the host of a site in hood A',
+    delete: 'the host of a site in hood A',
+  },
 };
 
 /** Records every list may return, by name; lists below name the ones each role reads. */
-type Named = 'hoodA' | 'hoodB' | 'siteA' | 'siteA2' | 'siteB' | 'nodeA1' | 'nodeA2' | 'nodeB' | 'radioA1' | 'radioA2' | 'radioA3' | 'radioB1' | 'radioB2' | 'linkA' | 'linkB' | 'linkAB' | Role;
+type Named =
+  | 'hoodA'
+  | 'hoodB'
+  | 'siteA'
+  | 'siteA2'
+  | 'siteB'
+  | 'nodeA1'
+  | 'nodeA2'
+  | 'nodeB'
+  | 'radioA1'
+  | 'radioA2'
+  | 'radioA3'
+  | 'radioB1'
+  | 'radioB2'
+  | 'linkA'
+  | 'linkB'
+  | 'linkAB'
+  | Role;
 
 // [list (ids or a status), read, create, update, delete] per role; lists name what comes back with 200.
 type Row = [Named[] | number, number, number, number, number];
@@ -170,7 +193,17 @@ describe('role-based access matrix', () => {
       radios: {
         model: Radio,
         id: action === 'delete' ? r.radioA3.id : r.radioA1.id,
-        create: { nodeId: r.nodeA1.id, iface: 'wlan5', band: '5', channel: 36, channelWidthMHz: 20, txPowerDbm: 10, antennaGainDbi: 5, role: 'mesh', encryption: 'none' },
+        create: {
+          nodeId: r.nodeA1.id,
+          iface: 'wlan5',
+          band: '5',
+          channel: 36,
+          channelWidthMHz: 20,
+          txPowerDbm: 10,
+          antennaGainDbi: 5,
+          role: 'mesh',
+          encryption: 'none',
+        },
         update: { txPowerDbm: 12 },
       },
       links: { model: Link, id: r.linkA.id, create: { radioAId: r.radioA1.id, radioBId: r.radioA3.id }, update: { status: 'live' } },
@@ -190,11 +223,15 @@ describe('role-based access matrix', () => {
     const { model, id, create, update } = target(world, resource, action);
     const base = `/api/v1/${resource}`;
     const res =
-      action === 'list' ? await call(agent, 'get', `${base}?pageSize=500`)
-      : action === 'read' ? await call(agent, 'get', `${base}/${id}`)
-      : action === 'create' ? await call(agent, 'post', base, create)
-      : action === 'update' ? await call(agent, 'patch', `${base}/${id}`, update)
-      : await call(agent, 'delete', `${base}/${id}`);
+      action === 'list'
+        ? await call(agent, 'get', `${base}?pageSize=500`)
+        : action === 'read'
+          ? await call(agent, 'get', `${base}/${id}`)
+          : action === 'create'
+            ? await call(agent, 'post', base, create)
+            : action === 'update'
+              ? await call(agent, 'patch', `${base}/${id}`, update)
+              : await call(agent, 'delete', `${base}/${id}`);
 
     expect(res.status, JSON.stringify(res.body)).toBe(status);
     const code = { 401: 'not_signed_in', 403: 'forbidden', 404: 'not_found', 409: 'in_use' }[status];

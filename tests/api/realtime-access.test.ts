@@ -10,12 +10,26 @@ import { startServerProcess, type ServerProcess } from '../../server/tools/serve
  * PostgreSQL adapter; the change is made on one, the person's socket lives on the other.
  */
 
-interface Session { cookie: string; csrf: string }
-interface Event { name: string; body: { nodeId?: number; neighbourhoodIds?: number[] } }
-interface Listener { socket: Socket; events: Event[]; disconnected: () => string | null }
+interface Session {
+  cookie: string;
+  csrf: string;
+}
+interface Event {
+  name: string;
+  body: { nodeId?: number; neighbourhoodIds?: number[] };
+}
+interface Listener {
+  socket: Socket;
+  events: Event[];
+  disconnected: () => string | null;
+}
 
 async function signInAt(url: string, email: string): Promise<Session> {
-  const res = await fetch(`${url}/api/v1/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: PASSWORD }) });
+  const res = await fetch(`${url}/api/v1/session`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password: PASSWORD }),
+  });
   if (res.status !== 200) throw new Error(`sign-in failed: ${res.status}`);
   return { cookie: sessionCookieOf(res), csrf: (await res.json()).csrfToken };
 }
@@ -54,7 +68,11 @@ const waitFor = async (check: () => boolean, ms = 10_000) => {
 };
 
 async function send(url: string, s: Session, method: string, path: string, body?: unknown) {
-  const res = await fetch(`${url}${path}`, { method, headers: { cookie: s.cookie, 'x-csrf-token': s.csrf, 'content-type': 'application/json' }, body: body === undefined ? undefined : JSON.stringify(body) });
+  const res = await fetch(`${url}${path}`, {
+    method,
+    headers: { cookie: s.cookie, 'x-csrf-token': s.csrf, 'content-type': 'application/json' },
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
   return { status: res.status, body: res.status === 204 ? null : await res.json() };
 }
 

@@ -8,7 +8,11 @@ import { startServerProcess, type ServerProcess } from '../../server/tools/serve
 
 /** Signs in over HTTP and returns the session cookie and CSRF token. */
 async function signInAt(url: string, email: string) {
-  const res = await fetch(`${url}/api/v1/session`, { method: 'POST', headers: { 'content-type': 'application/json' }, body: JSON.stringify({ email, password: PASSWORD }) });
+  const res = await fetch(`${url}/api/v1/session`, {
+    method: 'POST',
+    headers: { 'content-type': 'application/json' },
+    body: JSON.stringify({ email, password: PASSWORD }),
+  });
   if (res.status !== 200) throw new Error(`sign-in failed: ${res.status}`);
   const cookie = sessionCookieOf(res);
   return { cookie, csrf: (await res.json()).csrfToken as string };
@@ -68,7 +72,10 @@ describe('live updates across two server processes', () => {
 
     const admin = await buildUser({ role: 'admin' });
     const adminSession = await signInAt(a.url, admin.email);
-    const tokenRes = await fetch(`${a.url}/api/v1/nodes/${node.id}/ingest-token`, { method: 'POST', headers: { cookie: adminSession.cookie, 'x-csrf-token': adminSession.csrf } });
+    const tokenRes = await fetch(`${a.url}/api/v1/nodes/${node.id}/ingest-token`, {
+      method: 'POST',
+      headers: { cookie: adminSession.cookie, 'x-csrf-token': adminSession.csrf },
+    });
     const { token } = await tokenRes.json();
 
     const opSock = await listen(b.url, (await signInAt(b.url, operator.email)).cookie);
@@ -83,7 +90,8 @@ describe('live updates across two server processes', () => {
     });
     expect(post.status).toBe(202);
 
-    const stateFor = (evs: { name: string; body: { nodeId: number; state?: string } }[]) => evs.find((e) => e.name === 'node:state' && e.body.nodeId === node.id);
+    const stateFor = (evs: { name: string; body: { nodeId: number; state?: string } }[]) =>
+      evs.find((e) => e.name === 'node:state' && e.body.nodeId === node.id);
     expect(await waitFor(() => !!stateFor(opSock.events) && !!stateFor(hostSock.events))).toBe(true);
     expect(stateFor(opSock.events)!.body.state).toBe('online');
     expect(opSock.events.some((e) => e.name === 'node:figures' && e.body.nodeId === node.id)).toBe(true);

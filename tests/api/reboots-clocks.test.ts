@@ -110,7 +110,10 @@ describe('a node whose clock is plainly wrong', () => {
     const res = await post(ctx, token, report(1, { sentAt }));
     expect(res.status).toBe(202);
     expect(res.body).toEqual({ accepted: 1, duplicates: 0 });
-    const [row] = await ctx.sequelize.query<{ sent_at: Date | null }>('SELECT sent_at FROM heartbeats WHERE node_id = $1', { bind: [node.id], type: QueryTypes.SELECT });
+    const [row] = await ctx.sequelize.query<{ sent_at: Date | null }>('SELECT sent_at FROM heartbeats WHERE node_id = $1', {
+      bind: [node.id],
+      type: QueryTypes.SELECT,
+    });
     expect(row.sent_at).toBeNull();
     const admin = await signIn(ctx, await buildUser({ role: 'admin' }));
     const shown = await call(admin, 'get', `/api/v1/nodes/${node.id}`);
@@ -125,7 +128,10 @@ describe('a node whose clock is plainly wrong', () => {
     const token = await tokenFor(ctx, node.id);
     expect((await post(ctx, token, report(1, { sentAt: '2026-06-02T12:00:00Z' }))).status).toBe(202);
     expect((await post(ctx, token, report(2, { sentAt: '2026-06-01T13:30:00+01:30' }))).status).toBe(202);
-    const rows = await ctx.sequelize.query<{ sent_at: Date }>('SELECT sent_at FROM heartbeats WHERE node_id = $1 ORDER BY seq', { bind: [node.id], type: QueryTypes.SELECT });
+    const rows = await ctx.sequelize.query<{ sent_at: Date }>('SELECT sent_at FROM heartbeats WHERE node_id = $1 ORDER BY seq', {
+      bind: [node.id],
+      type: QueryTypes.SELECT,
+    });
     expect(rows.map((r) => new Date(r.sent_at).toISOString())).toEqual(['2026-06-02T12:00:00.000Z', '2026-06-01T12:00:00.000Z']);
     expect(((await Node.findByPk(node.id))!.lastReport as { clockTrouble: unknown }).clockTrouble).toBeNull();
   });

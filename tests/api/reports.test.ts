@@ -29,9 +29,19 @@ describe('availability report API', () => {
     const steady = await buildNode({ neighbourhoodId: hood.id, name: 'lf-steady' });
     await steady.update({ firstSeenAt: new Date('2026-02-01T00:00:00Z') });
     // 43.2 minutes down (the SRE availability table's 99.9 % of 30 days), acknowledged after 10 minutes.
-    await Outage.create({ nodeId, startedAt: new Date('2026-03-10T10:00:00Z'), endedAt: new Date('2026-03-10T10:43:12Z'), acknowledgedAt: new Date('2026-03-10T10:10:00Z') });
+    await Outage.create({
+      nodeId,
+      startedAt: new Date('2026-03-10T10:00:00Z'),
+      endedAt: new Date('2026-03-10T10:43:12Z'),
+      acknowledgedAt: new Date('2026-03-10T10:10:00Z'),
+    });
     // Straddles the month's end at 23:00 UTC: 30 minutes count in March, 2 hours to recover.
-    await Outage.create({ nodeId, startedAt: new Date('2026-03-31T22:30:00Z'), endedAt: new Date('2026-04-01T00:30:00Z'), acknowledgedAt: new Date('2026-03-31T22:45:00Z') });
+    await Outage.create({
+      nodeId,
+      startedAt: new Date('2026-03-31T22:30:00Z'),
+      endedAt: new Date('2026-04-01T00:30:00Z'),
+      acknowledgedAt: new Date('2026-03-31T22:45:00Z'),
+    });
     // Ended at 23:30 UTC on 28 February = still February in Lisbon (WET = UTC): not in March.
     await Outage.create({ nodeId, startedAt: new Date('2026-02-28T23:00:00Z'), endedAt: new Date('2026-02-28T23:30:00Z') });
     const elsewhere = await buildNode({ name: 'lf-elsewhere' });
@@ -74,7 +84,16 @@ describe('availability report API', () => {
     expect(ferry).toMatchObject({ observedS: MARCH_S, downS, outageCount: 2 });
     expect(ferry.availabilityPct).toBeCloseTo(100 * (1 - downS / MARCH_S), 2);
     // Pooled over both nodes of the neighbourhood: node-seconds up ÷ node-seconds observed.
-    expect(r.neighbourhoods).toEqual([{ id: expect.any(Number), name: 'Ferry Lane', observedS: 2 * MARCH_S, downS, outageCount: 2, availabilityPct: expect.closeTo(100 * (1 - downS / (2 * MARCH_S)), 2) }]);
+    expect(r.neighbourhoods).toEqual([
+      {
+        id: expect.any(Number),
+        name: 'Ferry Lane',
+        observedS: 2 * MARCH_S,
+        downS,
+        outageCount: 2,
+        availabilityPct: expect.closeTo(100 * (1 - downS / (2 * MARCH_S)), 2),
+      },
+    ]);
     expect(r.nodes.map((n: { name: string }) => n.name)).toEqual(['lf-ferry', 'lf-steady']); // not the other neighbourhood's node
     expect(r.outages).toEqual([
       expect.objectContaining({ node: 'lf-ferry', startedAt: '2026-03-10T10:00:00.000Z', timeToAcknowledgeS: 600, timeToRecoverS: 2592, downInMonthS: 2592 }),
@@ -109,6 +128,9 @@ describe('availability report API', () => {
     ]);
     const outages = await call(operator, 'get', '/api/v1/reports/availability?month=2026-03&format=csv&table=outages');
     const orows = Papa.parse<Record<string, string>>(outages.text.replace(/^\uFEFF/, ''), { header: true, skipEmptyLines: true }).data;
-    expect(orows.map((r) => [r.node, r.timeToAcknowledgeS, r.timeToRecoverS])).toEqual([['lf-ferry', '600', '2592'], ['lf-ferry', '900', '7200']]);
+    expect(orows.map((r) => [r.node, r.timeToAcknowledgeS, r.timeToRecoverS])).toEqual([
+      ['lf-ferry', '600', '2592'],
+      ['lf-ferry', '900', '7200'],
+    ]);
   });
 });

@@ -106,7 +106,12 @@ describe('session', () => {
     const user = await buildUser();
     const stored = (await User.findByPk(user.id))!.passwordHash!;
     expect(stored).toMatch(/^\$argon2id\$v=19\$/);
-    const params = Object.fromEntries(stored.split('$')[3].split(',').map((kv) => kv.split('=')));
+    const params = Object.fromEntries(
+      stored
+        .split('$')[3]
+        .split(',')
+        .map((kv) => kv.split('=')),
+    );
     // OWASP Password Storage Cheat Sheet: argon2id, m=19 MiB, t=2, p=1 at least
     expect(Number(params.m)).toBeGreaterThanOrEqual(19456);
     expect(Number(params.t)).toBeGreaterThanOrEqual(2);
@@ -144,7 +149,13 @@ describe('sign-in rate limits', () => {
   it('limits failed attempts per address across accounts', async () => {
     // The test above left 4 failures on this address (3 wrong passwords and the refused 4th); one more reaches 5.
     for (let i = 0; i < 1; i++) {
-      expect((await request(ctx.app).post('/api/v1/session').send({ email: `x${i}@example.test`, password: 'wrong-password' })).status).toBe(401);
+      expect(
+        (
+          await request(ctx.app)
+            .post('/api/v1/session')
+            .send({ email: `x${i}@example.test`, password: 'wrong-password' })
+        ).status,
+      ).toBe(401);
     }
     const other = await buildUser();
     expect((await request(ctx.app).post('/api/v1/session').send({ email: other.email, password: PASSWORD })).status).toBe(429);

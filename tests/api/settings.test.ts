@@ -31,7 +31,11 @@ describe('network settings API', () => {
   it.each([
     [{ region: 'AU' }, 'region', 'region must be US, EU or JP'],
     [{ addressPool: '10.64.1.0/16' }, 'addressPool', 'addressPool 10.64.1.0/16 has host bits set; the network is 10.64.0.0/16.'],
-    [{ addressPool: '010.1.0.0/16' }, 'addressPool', 'addressPool "010.1.0.0" is not an IPv4 address; use four numbers 0–255 without leading zeros, like 10.20.0.0.'],
+    [
+      { addressPool: '010.1.0.0/16' },
+      'addressPool',
+      'addressPool "010.1.0.0" is not an IPv4 address; use four numbers 0–255 without leading zeros, like 10.20.0.0.',
+    ],
     [{ timeZone: 'Mars/Olympus' }, 'timeZone', 'timeZone must be an IANA time zone like Europe/Lisbon'],
     [{ colour: 'blue' }, '', 'Unrecognized key: "colour"'],
   ])('refuses %j with a message on the field (400)', async (body, path, message) => {
@@ -47,7 +51,9 @@ describe('network settings API', () => {
     const res = await call(admin, 'patch', '/api/v1/settings/network', { region: 'US', addressPool: '10.80.0.0/16' });
     expect(res.status).toBe(200);
     expect(res.body.data).toMatchObject({ region: 'US', addressPool: '10.80.0.0/16' });
-    const [rows] = await ctx.sequelize.query(`SELECT before, after, changed_by FROM change_history WHERE table_name = 'network_settings' ORDER BY id DESC LIMIT 1`);
+    const [rows] = await ctx.sequelize.query(
+      `SELECT before, after, changed_by FROM change_history WHERE table_name = 'network_settings' ORDER BY id DESC LIMIT 1`,
+    );
     const row = (rows as { before: Record<string, unknown>; after: Record<string, unknown>; changed_by: number }[])[0];
     expect(row.before).toMatchObject({ region: 'EU', addressPool: null });
     expect(row.after).toMatchObject({ region: 'US', addressPool: '10.80.0.0/16' });

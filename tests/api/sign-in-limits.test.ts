@@ -29,7 +29,9 @@ describe('sign-in limits a stranger cannot turn against the owner', () => {
     const browser = request.agent(ctx.app);
     const first = await browser.post('/api/v1/session').set('X-Forwarded-For', '203.0.113.30').send({ email: owner.email, password: PASSWORD });
     expect(first.status).toBe(200);
-    expect(String(first.headers['set-cookie'])).toMatch(/parapet\.known=\d+\.[A-Za-z0-9_-]{43}; Max-Age=\d+; Path=\/api\/v1\/session; Expires=[^;]+; HttpOnly; SameSite=Lax/);
+    expect(String(first.headers['set-cookie'])).toMatch(
+      /parapet\.known=\d+\.[A-Za-z0-9_-]{43}; Max-Age=\d+; Path=\/api\/v1\/session; Expires=[^;]+; HttpOnly; SameSite=Lax/,
+    );
     await browser.delete('/api/v1/session').set('X-CSRF-Token', first.body.csrfToken);
 
     // Six strangers, two wrong guesses each: below the per-address limit, at the account's limit.
@@ -91,7 +93,9 @@ describe('changing a password', () => {
     expect(demo.body.error.details).toEqual([{ path: 'password', message: 'password is the published demo password; choose one of your own' }]);
     const ownName = await call(admin, 'post', '/api/v1/users', { ...person, password: 'marigold-fenwick-2026' });
     expect(ownName.status).toBe(400);
-    expect(ownName.body.error.details).toEqual([{ path: 'password', message: 'password is mostly your own name or e-mail address; use words that have nothing to do with you' }]);
+    expect(ownName.body.error.details).toEqual([
+      { path: 'password', message: 'password is mostly your own name or e-mail address; use words that have nothing to do with you' },
+    ]);
     expect(await User.count({ where: { email: person.email } })).toBe(0);
     const ok = await call(admin, 'post', '/api/v1/users', { ...person, password: 'quartz-lantern-meadow-91' });
     expect(ok.status).toBe(201);

@@ -6,7 +6,10 @@ import { planningCast } from '../helpers/planningActors';
 
 const GOOD = 'ssid,channel,channelWidthMHz,signalDbm\nCafe Guest,6,20,-71\nHarbour Free,11,20,-64\n';
 const upload = (agent: Agent, nodeId: number, content: string | Buffer, fileName = 'survey.csv') =>
-  agent.post(`/api/v1/nodes/${nodeId}/site-surveys`).set('X-CSRF-Token', agent.csrf).attach('file', Buffer.isBuffer(content) ? content : Buffer.from(content), fileName);
+  agent
+    .post(`/api/v1/nodes/${nodeId}/site-surveys`)
+    .set('X-CSRF-Token', agent.csrf)
+    .attach('file', Buffer.isBuffer(content) ? content : Buffer.from(content), fileName);
 
 describe('site surveys API', () => {
   const ctx = useApi();

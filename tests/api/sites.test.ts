@@ -107,7 +107,12 @@ describe('sites API', () => {
       expect(res.body.error).toEqual({
         code: 'invalid_input',
         message: 'Cannot sort by "colour". Sort by one of: name, neighbourhoodId, latitude, longitude, antennaHeightM, createdAt, id.',
-        details: [{ path: 'sort', message: 'sort must be one of name, neighbourhoodId, latitude, longitude, antennaHeightM, createdAt, id (prefix with - for descending)' }],
+        details: [
+          {
+            path: 'sort',
+            message: 'sort must be one of name, neighbourhoodId, latitude, longitude, antennaHeightM, createdAt, id (prefix with - for descending)',
+          },
+        ],
       });
     });
 

@@ -104,7 +104,10 @@ describe('serving the built client', () => {
   it('answers a missing hashed asset with 404, not with the page shell under a script name', async () => {
     const res = await request(ctx.app).get('/assets/index-OldHash9.js');
     expect(res.status).toBe(404);
-    expect(res.body.error).toEqual({ code: 'not_found', message: 'There is no file /assets/index-OldHash9.js in this release. Reload the page to get the current version.' });
+    expect(res.body.error).toEqual({
+      code: 'not_found',
+      message: 'There is no file /assets/index-OldHash9.js in this release. Reload the page to get the current version.',
+    });
   });
 
   it('sends the page shell for every client route, revalidated on each use so a release shows at once', async () => {
@@ -140,7 +143,7 @@ describe('serving the built client', () => {
     expect(status.text).not.toContain('/api/v1/session');
   });
 
-  it('opens an address no page claims with the plain shell, and a page the manifest does not list with the shell\'s scripts alone', async () => {
+  it("opens an address no page claims with the plain shell, and a page the manifest does not list with the shell's scripts alone", async () => {
     const unknown = await request(ctx.app).get('/no-such-page');
     expect(unknown.status).toBe(200);
     expect(preloadedScripts(unknown.text)).toEqual([]);

@@ -27,7 +27,10 @@ describe('heartbeat storage upkeep', () => {
     const token = await rotateToken(ctx.sequelize, node.id, now);
     const reports = [{ seq: 1, sentAt: now.toISOString(), radios: [{ iface: 'wlan0', signalDbm: -60 }] }];
     await ingestReports(ctx.sequelize, ctx.config, (await nodeForToken(ctx.sequelize, token))!, reports, now);
-    const [row] = await ctx.sequelize.query<{ part: string }>(`SELECT tableoid::regclass::text AS part FROM heartbeats WHERE node_id = $1`, { bind: [node.id], type: QueryTypes.SELECT });
+    const [row] = await ctx.sequelize.query<{ part: string }>(`SELECT tableoid::regclass::text AS part FROM heartbeats WHERE node_id = $1`, {
+      bind: [node.id],
+      type: QueryTypes.SELECT,
+    });
     expect(row.part).toBe('heartbeats_p20310310');
     // Running it again changes nothing.
     await ensurePartitions(ctx.sequelize, now, 3);
@@ -53,7 +56,16 @@ describe('heartbeat storage upkeep', () => {
          FROM heartbeat_rollups WHERE node_id = $1 AND bucket_s = 300 AND bucket_start = '2031-04-01T10:00:00Z'`,
       { bind: [node.id], type: QueryTypes.SELECT },
     );
-    expect(b).toEqual({ reports: 4, expected_reports: 5, availability_pct: 80, signal_min_dbm: -70, signal_avg_dbm: -64, signal_max_dbm: -60, snr_min_db: 25, throughput_avg_mbps: 25 });
+    expect(b).toEqual({
+      reports: 4,
+      expected_reports: 5,
+      availability_pct: 80,
+      signal_min_dbm: -70,
+      signal_avg_dbm: -64,
+      signal_max_dbm: -60,
+      snr_min_db: 25,
+      throughput_avg_mbps: 25,
+    });
     await rollUp(ctx.sequelize, new Date('2031-04-01T11:00:00Z'), 3600, 1);
     const [h] = await ctx.sequelize.query<{ reports: number; availability_pct: number }>(
       `SELECT reports, availability_pct FROM heartbeat_rollups WHERE node_id = $1 AND bucket_s = 3600 AND bucket_start = '2031-04-01T10:00:00Z'`,
@@ -68,13 +80,19 @@ describe('heartbeat storage upkeep', () => {
     await ensurePartitions(ctx.sequelize, old, 0);
     expect(await partitionsOf(ctx, 'heartbeats')).toContain('heartbeats_p20300101');
     const node = await buildNode();
-    await ctx.sequelize.query(`INSERT INTO heartbeat_rollups (node_id, bucket_s, bucket_start, reports, expected_reports, availability_pct)
-       VALUES ($1, 3600, '2029-01-01T00:00:00Z', 1, 60, 1.7), ($1, 3600, '2029-12-31T00:00:00Z', 60, 60, 100)`, { bind: [node.id] });
+    await ctx.sequelize.query(
+      `INSERT INTO heartbeat_rollups (node_id, bucket_s, bucket_start, reports, expected_reports, availability_pct)
+       VALUES ($1, 3600, '2029-01-01T00:00:00Z', 1, 60, 1.7), ($1, 3600, '2029-12-31T00:00:00Z', 60, 60, 100)`,
+      { bind: [node.id] },
+    );
     const dropped = await applyRetention(ctx.sequelize, new Date('2030-01-20T00:00:00Z'), 14, 300);
     expect(dropped).toEqual(expect.arrayContaining(['heartbeats_p20300101']));
     expect(await partitionsOf(ctx, 'heartbeats')).not.toContain('heartbeats_p20300101');
     expect(await partitionsOf(ctx, 'heartbeats')).toContain('heartbeats_p20310310'); // future ones stay
-    const left = await ctx.sequelize.query<{ bucket_start: Date }>('SELECT bucket_start FROM heartbeat_rollups WHERE node_id = $1', { bind: [node.id], type: QueryTypes.SELECT });
+    const left = await ctx.sequelize.query<{ bucket_start: Date }>('SELECT bucket_start FROM heartbeat_rollups WHERE node_id = $1', {
+      bind: [node.id],
+      type: QueryTypes.SELECT,
+    });
     expect(left.map((r) => new Date(r.bucket_start).toISOString())).toEqual(['2029-12-31T00:00:00.000Z']);
   });
 });

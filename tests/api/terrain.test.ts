@@ -14,7 +14,16 @@ function tile(height: (row: number, col: number) => number): Buffer {
 const ridge = tile((_r, c) => (Math.abs(c - 600) <= 2 ? 400 : 100));
 const flat = (m: number) => tile(() => m);
 
-const radio = { freqMHz: 5500, channelWidthMHz: 20, txPowerDbm: 18, txAntennaGainDbi: 23, txCableLossDb: 0, rxAntennaGainDbi: 23, rxCableLossDb: 0, region: 'EU' };
+const radio = {
+  freqMHz: 5500,
+  channelWidthMHz: 20,
+  txPowerDbm: 18,
+  txAntennaGainDbi: 23,
+  txCableLossDb: 0,
+  rxAntennaGainDbi: 23,
+  rxCableLossDb: 0,
+  region: 'EU',
+};
 
 describe('terrain tiles and link budgets over real ground', () => {
   const ctx = useApi();
@@ -34,10 +43,18 @@ describe('terrain tiles and link budgets over real ground', () => {
     const wrongName = await upload(admin, flat(5), 'valley.hgt');
     expect(wrongName.status).toBe(400);
     expect(wrongName.body.error.message).toMatch(/named after its south-west corner, like N47W039\.hgt/);
-    const voids = await upload(admin, tile(() => -32768), 'N47E008.hgt');
+    const voids = await upload(
+      admin,
+      tile(() => -32768),
+      'N47E008.hgt',
+    );
     expect(voids.status).toBe(400);
     expect(voids.body.error.message).toMatch(/every sample is void/);
-    const swapped = await upload(admin, tile(() => 0x6400), 'N47E008.hgt'); // 25600 m: 100 m written little-endian
+    const swapped = await upload(
+      admin,
+      tile(() => 0x6400),
+      'N47E008.hgt',
+    ); // 25600 m: 100 m written little-endian
     expect(swapped.status).toBe(400);
     expect(swapped.body.error.message).toMatch(/not a big-endian SRTM tile/);
     const none = await admin.post('/api/v1/terrain/tiles').set('X-CSRF-Token', admin.csrf).send({});
@@ -82,9 +99,22 @@ describe('terrain tiles and link budgets over real ground', () => {
   it('bilinear: halfway between samples of 100 m and 400 m reads 250 m', async () => {
     const admin = await signIn(ctx, await buildUser({ role: 'admin' }));
     // West half 100 m, east half 400 m, the step between columns 600 and 601.
-    expect((await upload(admin, tile((_r, c) => (c <= 600 ? 100 : 400)), 'N10E010.hgt')).status).toBe(201);
+    expect(
+      (
+        await upload(
+          admin,
+          tile((_r, c) => (c <= 600 ? 100 : 400)),
+          'N10E010.hgt',
+        )
+      ).status,
+    ).toBe(201);
     const col = 600.5 / (N - 1); // halfway between columns 600 and 601
-    const res = await call(admin, 'post', '/api/v1/planning/link-budget', { ...radio, terrain: true, a: { lat: 10.5, lon: 10 + col, heightM: 10 }, b: { lat: 10.6, lon: 10 + col, heightM: 10 } });
+    const res = await call(admin, 'post', '/api/v1/planning/link-budget', {
+      ...radio,
+      terrain: true,
+      a: { lat: 10.5, lon: 10 + col, heightM: 10 },
+      b: { lat: 10.6, lon: 10 + col, heightM: 10 },
+    });
     expect(res.status).toBe(200);
     for (const p of res.body.profile) expect(p.groundM).toBeCloseTo(250, 0);
   });
@@ -92,12 +122,22 @@ describe('terrain tiles and link budgets over real ground', () => {
   it('a path leaving the tiles is a 400 naming the missing tile; nothing is a 500', async () => {
     const admin = await signIn(ctx, await buildUser({ role: 'admin' }));
     expect((await upload(admin, flat(50), 'N47E008.hgt')).status).toBe(201);
-    const res = await call(admin, 'post', '/api/v1/planning/link-budget', { ...radio, terrain: true, a: { lat: 47.9, lon: 8.9, heightM: 10 }, b: { lat: 48.05, lon: 9.05, heightM: 10 } });
+    const res = await call(admin, 'post', '/api/v1/planning/link-budget', {
+      ...radio,
+      terrain: true,
+      a: { lat: 47.9, lon: 8.9, heightM: 10 },
+      b: { lat: 48.05, lon: 9.05, heightM: 10 },
+    });
     expect(res.status).toBe(400);
     expect(res.body.error.code).toBe('terrain_not_covered');
     expect(res.body.error.message).toMatch(/missing .*N48E009\.hgt/);
     // Far north a degree of longitude is about 37 km: 480 km east–west at 70.5° N crosses 13 tiles, more than the 8 allowed.
-    const long = await call(admin, 'post', '/api/v1/planning/link-budget', { ...radio, terrain: true, a: { lat: 70.5, lon: 10.05, heightM: 30 }, b: { lat: 70.5, lon: 22.95, heightM: 30 } });
+    const long = await call(admin, 'post', '/api/v1/planning/link-budget', {
+      ...radio,
+      terrain: true,
+      a: { lat: 70.5, lon: 10.05, heightM: 30 },
+      b: { lat: 70.5, lon: 22.95, heightM: 30 },
+    });
     expect(long.status).toBe(400);
     expect(long.body.error.message).toMatch(/crosses 13 elevation tiles/);
     const dist = await call(admin, 'post', '/api/v1/planning/link-budget', { ...radio, terrain: true, distanceKm: 3 });

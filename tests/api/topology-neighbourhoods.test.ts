@@ -27,7 +27,12 @@ describe('GET /api/v1/topology/neighbourhoods', () => {
     const hosted = await buildSite({ neighbourhoodId: hoodA.id, hostUserId: people.hostA.id, latitude: 47.6, longitude: -38.4 });
     const other = await buildSite({ neighbourhoodId: hoodA.id, latitude: 47.63, longitude: -38.43 });
     const far = await buildSite({ neighbourhoodId: hoodB.id, latitude: 47.7, longitude: -38.5 });
-    const place: [number, NodeState][] = [[hosted.id, 'online'], [hosted.id, 'offline'], [other.id, 'degraded'], [far.id, 'maintenance']];
+    const place: [number, NodeState][] = [
+      [hosted.id, 'online'],
+      [hosted.id, 'offline'],
+      [other.id, 'degraded'],
+      [far.id, 'maintenance'],
+    ];
     for (const [siteId, state] of place) await (await buildNode({ siteId })).update({ state });
     for (const who of Object.keys(people) as Who[]) agents[who] = await signIn(ctx, people[who]);
   });
@@ -40,12 +45,16 @@ describe('GET /api/v1/topology/neighbourhoods', () => {
   };
   const counts = (h: TopologyNeighbourhoodDto | undefined) => h && Object.entries(h.counts).filter(([, c]) => c > 0);
 
-  it('an admin gets every neighbourhood with every state counted and the mean of its nodes\' roofs', async () => {
+  it("an admin gets every neighbourhood with every state counted and the mean of its nodes' roofs", async () => {
     const hoods = await summary('admin');
     const a = hoods.get(hoodA.id)!;
     expect(a.name).toBe(hoodA.name);
     expect(a.total).toBe(3);
-    expect(counts(a)).toEqual([['online', 1], ['degraded', 1], ['offline', 1]]);
+    expect(counts(a)).toEqual([
+      ['online', 1],
+      ['degraded', 1],
+      ['offline', 1],
+    ]);
     expect(a.counts.stranded).toBe(0); // absent states are 0, not missing
     // Hand-computed means over the three nodes: (2 × 47.6 + 47.63) / 3 and (2 × -38.4 + -38.43) / 3.
     expect(a.latitude).toBeCloseTo(47.61, 9);
@@ -65,7 +74,10 @@ describe('GET /api/v1/topology/neighbourhoods', () => {
   it('a host gets only the nodes on the roofs they host', async () => {
     const h = await summary('hostA');
     expect([...h.keys()]).toEqual([hoodA.id]);
-    expect(counts(h.get(hoodA.id))).toEqual([['online', 1], ['offline', 1]]);
+    expect(counts(h.get(hoodA.id))).toEqual([
+      ['online', 1],
+      ['offline', 1],
+    ]);
     expect(h.get(hoodA.id)).toMatchObject({ total: 2, latitude: 47.6, longitude: -38.4 });
   });
 

@@ -62,7 +62,10 @@ describe('topology-aware outages', () => {
     for (const l of s.leaves.slice(1)) expect(to(l.host)).toHaveLength(0);
     expect(mail.filter((m) => m.text.includes('Power: is its plug in'))).toHaveLength(1);
     expect(mail).toHaveLength(4);
-    const outbox = await ctx.sequelize.query<{ kind: string }>('SELECT kind FROM outbox WHERE outage_id = $1 ORDER BY id', { bind: [root.id], type: QueryTypes.SELECT });
+    const outbox = await ctx.sequelize.query<{ kind: string }>('SELECT kind FROM outbox WHERE outage_id = $1 ORDER BY id', {
+      bind: [root.id],
+      type: QueryTypes.SELECT,
+    });
     expect(outbox.map((r) => r.kind).sort()).toEqual(['node-offline', 'node-offline', 'node-offline', 'upstream-notice']);
 
     // Blast radius in the API: the outage list sorts by it, the overview leads with it, the topology marks the cut.
@@ -70,7 +73,12 @@ describe('topology-aware outages', () => {
     const list = await call(admin, 'get', '/api/v1/outages?status=open&sort=-blastRadius');
     expect(list.status).toBe(200);
     expect(list.body.data[0].id).toBe(root.id);
-    expect(list.body.data[0].blastRadius).toEqual({ nodeCount: 10, neighbourhoodIds: [s.reedbank.id], clients: 55, nodeIds: s.leaves.map((l) => l.node.id).sort((a, b) => a - b) });
+    expect(list.body.data[0].blastRadius).toEqual({
+      nodeCount: 10,
+      neighbourhoodIds: [s.reedbank.id],
+      clients: 55,
+      nodeIds: s.leaves.map((l) => l.node.id).sort((a, b) => a - b),
+    });
     const asc = await call(admin, 'get', '/api/v1/outages?status=open&sort=blastRadius');
     expect(asc.body.data.at(-1).id).toBe(root.id);
     const coreOp = await signIn(ctx, s.coreOperator);
@@ -79,7 +87,9 @@ describe('topology-aware outages', () => {
     const overview = await call(admin, 'get', '/api/v1/overview');
     expect(overview.body.data.openOutages[0]).toMatchObject({ id: root.id, blastNodeCount: 10, blastClients: 55 });
     const topo = await call(admin, 'get', '/api/v1/topology');
-    const byId = new Map<number, { state: string; strandedBy: number | null; openOutageId: number | null; blastNodeCount: number }>(topo.body.data.nodes.map((n: { id: number }) => [n.id, n]));
+    const byId = new Map<number, { state: string; strandedBy: number | null; openOutageId: number | null; blastNodeCount: number }>(
+      topo.body.data.nodes.map((n: { id: number }) => [n.id, n]),
+    );
     expect(byId.get(s.backhaul.node.id)).toMatchObject({ state: 'offline', openOutageId: root.id, blastNodeCount: 10, strandedBy: null });
     for (const l of s.leaves) expect(byId.get(l.node.id)).toMatchObject({ state: 'stranded', strandedBy: root.id, openOutageId: null });
     expect((await call(admin, 'get', '/api/v1/outages?sort=blastFoo')).status).toBe(400);
@@ -170,7 +180,10 @@ describe('topology-aware outages', () => {
     expect(mail).toHaveLength(1);
     expect(mail[0].to[0].address).toBe(s.admin.email);
     expect(mail[0].subject).toBe(`Parapet lost sight of the network behind ${s.uplink.node.name} (15 nodes)`);
-    const kinds = await ctx.sequelize.query<{ kind: string }>('SELECT kind FROM outbox WHERE recipient_user_id = $1', { bind: [s.admin.id], type: QueryTypes.SELECT });
+    const kinds = await ctx.sequelize.query<{ kind: string }>('SELECT kind FROM outbox WHERE recipient_user_id = $1', {
+      bind: [s.admin.id],
+      type: QueryTypes.SELECT,
+    });
     expect(kinds.map((k) => k.kind)).toEqual(['self-check']);
     // Later checks add nothing; reports bring the nodes back without mail.
     clock.advance(60);

@@ -18,13 +18,17 @@ describe('the town simulator', () => {
     const [row] = await ctx.sequelize.query<{ nodes: string; uplinks: string; hoods: string; links: string; tokens: string }>(
       `SELECT (SELECT count(*) FROM nodes) AS nodes, (SELECT count(*) FROM nodes WHERE is_uplink) AS uplinks,
               (SELECT count(*) FROM neighbourhoods) AS hoods, (SELECT count(*) FROM links WHERE status = 'live') AS links,
-              (SELECT count(*) FROM node_tokens WHERE revoked_at IS NULL) AS tokens`, { type: QueryTypes.SELECT });
+              (SELECT count(*) FROM node_tokens WHERE revoked_at IS NULL) AS tokens`,
+      { type: QueryTypes.SELECT },
+    );
     expect(row).toEqual({ nodes: '260', uplinks: '2', hoods: '2', links: '258', tokens: '260' });
     // Each link joins the parent's backhaul AP to the child's backhaul client, as the plan says.
     const links = await ctx.sequelize.query<{ parent: string; child: string; aRole: string; bRole: string }>(
       `SELECT na.name AS parent, nb.name AS child, ra.role AS "aRole", rb.role AS "bRole"
          FROM links l JOIN radios ra ON ra.id = l.radio_a_id JOIN nodes na ON na.id = ra.node_id
-         JOIN radios rb ON rb.id = l.radio_b_id JOIN nodes nb ON nb.id = rb.node_id`, { type: QueryTypes.SELECT });
+         JOIN radios rb ON rb.id = l.radio_b_id JOIN nodes nb ON nb.id = rb.node_id`,
+      { type: QueryTypes.SELECT },
+    );
     const parentOf = new Map(links.map((l) => [l.child, l.parent]));
     for (const n of plan.nodes.filter((x) => x.parent !== null)) expect(parentOf.get(n.name)).toBe(plan.nodes[n.parent!].name);
     expect(new Set(links.map((l) => `${l.aRole}>${l.bRole}`))).toEqual(new Set(['backhaul-ap>backhaul-client']));
@@ -60,7 +64,9 @@ describe('the town simulator', () => {
     expect(new Set(statuses)).toEqual(new Set([202]));
     const [row] = await ctx.sequelize.query<{ rows: string; nodes: string; radios: string }>(
       `SELECT (SELECT count(*) FROM heartbeats) AS rows, (SELECT count(DISTINCT node_id) FROM heartbeats) AS nodes,
-              (SELECT count(*) FROM heartbeat_radio_rows) AS radios`, { type: QueryTypes.SELECT });
+              (SELECT count(*) FROM heartbeat_radio_rows) AS radios`,
+      { type: QueryTypes.SELECT },
+    );
     expect(Number(row.rows)).toBe(reporter.counts.accepted);
     expect(Number(row.nodes)).toBe(260);
     expect(Number(row.radios)).toBeGreaterThanOrEqual(260 * 2);

@@ -61,7 +61,11 @@ describe('users (people) API', () => {
     it.each(['get', 'patch', 'delete'] as const)('answers 400 to an admin’s %s with a non-numeric id in the path', async (method) => {
       const res = await call((await admin()).agent, method, '/api/v1/users/me', method === 'patch' ? { name: 'X' } : undefined);
       expect(res.status).toBe(400);
-      expect(res.body.error).toEqual({ code: 'invalid_input', message: 'The address is invalid: id must be a number.', details: [{ path: 'id', message: 'id must be a number' }] });
+      expect(res.body.error).toEqual({
+        code: 'invalid_input',
+        message: 'The address is invalid: id must be a number.',
+        details: [{ path: 'id', message: 'id must be a number' }],
+      });
     });
 
     it.each([

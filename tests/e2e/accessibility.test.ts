@@ -14,7 +14,11 @@ async function settled(page: Page) {
   try {
     // Generous: the security review judges every key on the server, which takes seconds on a loaded machine.
     await page.locator('h1').first().waitFor({ timeout: 90_000 });
-    await page.waitForFunction(() => ![...document.querySelectorAll('[role=status]')].some((el) => /^Loading|^Checking/.test(el.textContent ?? '')), undefined, { timeout: 90_000 });
+    await page.waitForFunction(
+      () => ![...document.querySelectorAll('[role=status]')].some((el) => /^Loading|^Checking/.test(el.textContent ?? '')),
+      undefined,
+      { timeout: 90_000 },
+    );
   } catch (error) {
     throw new Error(`${page.url()} did not finish loading: ${(error as Error).message.split('\n')[0]}`, { cause: error });
   }
@@ -23,9 +27,17 @@ async function settled(page: Page) {
 async function axeViolations(page: Page): Promise<string[]> {
   if (!(await page.evaluate(() => 'axe' in window))) await page.evaluate(axeSource);
   const violations = await page.evaluate(async (tags) => {
-    const axe = (window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: { id: string; nodes: { target: string[] }[] }[] }> } }).axe;
+    const axe = (
+      window as unknown as { axe: { run: (ctx: Document, opts: object) => Promise<{ violations: { id: string; nodes: { target: string[] }[] }[] }> } }
+    ).axe;
     const result = await axe.run(document, { runOnly: { type: 'tag', values: tags }, resultTypes: ['violations'] });
-    return result.violations.map((v) => `${v.id}: ${v.nodes.map((n) => n.target.join(' ')).slice(0, 5).join(', ')}`);
+    return result.violations.map(
+      (v) =>
+        `${v.id}: ${v.nodes
+          .map((n) => n.target.join(' '))
+          .slice(0, 5)
+          .join(', ')}`,
+    );
   }, WCAG_TAGS);
   return violations;
 }
@@ -230,7 +242,9 @@ describe('every page with a keyboard and a screen reader', () => {
     await settled(page);
     await page.getByRole('button', { name: 'Add node' }).focus();
     await page.keyboard.press('Enter');
-    await page.waitForFunction(() => document.activeElement?.tagName === 'INPUT' || document.activeElement?.tagName === 'SELECT', undefined, { timeout: 15_000 });
+    await page.waitForFunction(() => document.activeElement?.tagName === 'INPUT' || document.activeElement?.tagName === 'SELECT', undefined, {
+      timeout: 15_000,
+    });
     await page.getByRole('button', { name: 'Cancel' }).focus();
     await page.keyboard.press('Enter');
     await page.waitForFunction(() => document.activeElement?.textContent?.trim() === 'Add node', undefined, { timeout: 15_000 });
@@ -266,7 +280,12 @@ describe('every page with a keyboard and a screen reader', () => {
     await page.getByTestId('node-quick-look').waitFor({ timeout: 15_000 });
     await screenshot(page, 'a11y-map-node-chosen');
     await page.waitForFunction(() => Boolean(document.activeElement?.closest('aside')), undefined, { timeout: 15_000 });
-    await expect(page.getByRole('status').filter({ hasText: `Showing ${name}` }).count()).resolves.toBe(1);
+    await expect(
+      page
+        .getByRole('status')
+        .filter({ hasText: `Showing ${name}` })
+        .count(),
+    ).resolves.toBe(1);
     expect(page.url()).toMatch(/node=\d+/);
     // Closing the panel returns focus to the node in the graph.
     await page.getByRole('button', { name: 'Close the node panel' }).focus();

@@ -22,18 +22,32 @@ describe('links heard on the air, on the map', () => {
     await db.connect();
     const hood = (await db.query<{ id: number }>(`SELECT id FROM neighbourhoods WHERE name = 'Old Quay'`)).rows[0].id;
     for (const [i, suffix] of ['a', 'b'].entries()) {
-      const site = (await db.query<{ id: number }>(
-        `INSERT INTO sites (neighbourhood_id, name, latitude, longitude) SELECT $1, $2, latitude - 0.004 - $3 * 0.003, longitude + 0.004
+      const site = (
+        await db.query<{ id: number }>(
+          `INSERT INTO sites (neighbourhood_id, name, latitude, longitude) SELECT $1, $2, latitude - 0.004 - $3 * 0.003, longitude + 0.004
          FROM sites WHERE neighbourhood_id = $1 ORDER BY id LIMIT 1 RETURNING id`,
-        [hood, `${TAG}-${suffix}`, i],
-      )).rows[0].id;
+          [hood, `${TAG}-${suffix}`, i],
+        )
+      ).rows[0].id;
       siteIds.push(site);
-      nodeIds.push((await db.query<{ id: number }>(`INSERT INTO nodes (site_id, neighbourhood_id, name) VALUES ($1, $2, $3) RETURNING id`, [site, hood, `lf-${TAG}-${suffix}`])).rows[0].id);
-      radioIds.push((await db.query<{ id: number }>(
-        `INSERT INTO radios (node_id, iface, band, channel, channel_width_mhz, tx_power_dbm, antenna_gain_dbi, role, encryption)
+      nodeIds.push(
+        (
+          await db.query<{ id: number }>(`INSERT INTO nodes (site_id, neighbourhood_id, name) VALUES ($1, $2, $3) RETURNING id`, [
+            site,
+            hood,
+            `lf-${TAG}-${suffix}`,
+          ])
+        ).rows[0].id,
+      );
+      radioIds.push(
+        (
+          await db.query<{ id: number }>(
+            `INSERT INTO radios (node_id, iface, band, channel, channel_width_mhz, tx_power_dbm, antenna_gain_dbi, role, encryption)
          VALUES ($1, 'wlan0', '5', 44, 20, 18, 23, 'backhaul-ap', 'wpa2-ccmp') RETURNING id`,
-        [nodeIds[i]],
-      )).rows[0].id);
+            [nodeIds[i]],
+          )
+        ).rows[0].id,
+      );
     }
     page = await (await browser.newContext({ viewport: { width: 1280, height: 900 } })).newPage();
     await signInAs(page, server.url, 'operator@parapet.example');
@@ -58,7 +72,8 @@ describe('links heard on the air, on the map', () => {
     for (const [i, nodeId] of nodeIds.entries()) {
       const token = await page.evaluate(async (id) => {
         const session = await (await fetch('/api/v1/session')).json();
-        return (await (await fetch(`/api/v1/nodes/${id}/ingest-token`, { method: 'POST', headers: { 'X-CSRF-Token': session.csrfToken } })).json()).token as string;
+        return (await (await fetch(`/api/v1/nodes/${id}/ingest-token`, { method: 'POST', headers: { 'X-CSRF-Token': session.csrfToken } })).json())
+          .token as string;
       }, nodeId);
       const res = await fetch(`${server.url}/api/v1/heartbeats`, {
         method: 'POST',
@@ -79,7 +94,10 @@ describe('links heard on the air, on the map', () => {
     await finding.getByRole('button', { name: /Add to the inventory/ }).click();
     await finding.waitFor({ state: 'detached', timeout: 30_000 });
     await line.waitFor({ state: 'detached', timeout: 30_000 });
-    const links = await db.query<{ status: string }>('SELECT status FROM links WHERE least(radio_a_id, radio_b_id) = $1 AND greatest(radio_a_id, radio_b_id) = $2', [Math.min(...radioIds), Math.max(...radioIds)]);
+    const links = await db.query<{ status: string }>(
+      'SELECT status FROM links WHERE least(radio_a_id, radio_b_id) = $1 AND greatest(radio_a_id, radio_b_id) = $2',
+      [Math.min(...radioIds), Math.max(...radioIds)],
+    );
     expect(links.rows).toEqual([{ status: 'live' }]);
     await screenshot(page, 'air-links-2-added-1280');
   }, 180_000);

@@ -45,7 +45,9 @@ describe('the map of a 2,100-node town', () => {
   const countsIn = (hoodId: number, states: Map<number, NodeState>) => {
     const counts = new Map<NodeState, number>();
     for (const node of town.nodes) if (node.neighbourhoodId === hoodId) counts.set(states.get(node.id)!, (counts.get(states.get(node.id)!) ?? 0) + 1);
-    return NODE_STATES.filter((s) => counts.get(s)).map((s) => `${s}:${counts.get(s)}`).join(',');
+    return NODE_STATES.filter((s) => counts.get(s))
+      .map((s) => `${s}:${counts.get(s)}`)
+      .join(',');
   };
 
   it('opens on one mark per quarter with its counts, expands a quarter, and finds a node in a folded one', async () => {
@@ -96,7 +98,12 @@ describe('the map of a 2,100-node town', () => {
     // The quarter open before folds back (its mark may be off screen, so the list tells which is open).
     await expect(page.getByRole('button', { name: `Hide the nodes of ${second.name}` }).getAttribute('aria-expanded')).resolves.toBe('true');
     await expect(page.getByRole('button', { name: `Show the nodes of ${first.name}` }).getAttribute('aria-expanded')).resolves.toBe('false');
-    await expect(page.getByRole('status').filter({ hasText: `Showing ${wanted.name}` }).count()).resolves.toBe(1);
+    await expect(
+      page
+        .getByRole('status')
+        .filter({ hasText: `Showing ${wanted.name}` })
+        .count(),
+    ).resolves.toBe(1);
     await viewShot(page, 'big-map-found');
   }, 180_000);
 
@@ -177,7 +184,7 @@ describe('the map of a 2,100-node town', () => {
     const states = new Map(town.nodes.map((n) => [n.id, n.state]));
     const random = (() => {
       let x = 7;
-      return () => ((x = (Math.imul(x, 1664525) + 1013904223) >>> 0) / 2 ** 32);
+      return () => (x = (Math.imul(x, 1664525) + 1013904223) >>> 0) / 2 ** 32;
     })();
     const changing: NodeState[] = ['online', 'degraded', 'offline', 'maintenance'];
     let sent = 0;
@@ -192,8 +199,13 @@ describe('the map of a 2,100-node town', () => {
           const state = changing[Math.floor(random() * changing.length)];
           states.set(node.id, state);
           const event: NodeStateEvent = {
-            nodeId: node.id, neighbourhoodId: node.neighbourhoodId, hostUserId: null,
-            state, previousState, at: new Date().toISOString(), reason: 'big-town storm',
+            nodeId: node.id,
+            neighbourhoodId: node.neighbourhoodId,
+            hostUserId: null,
+            state,
+            previousState,
+            at: new Date().toISOString(),
+            reason: 'big-town storm',
           };
           io.to('admins').emit('node:state', event);
         }

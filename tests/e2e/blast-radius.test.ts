@@ -12,7 +12,15 @@ const ADMIN = 'admin@parapet.example';
 const REPORT_INTERVAL_S = 10;
 const SILENT_WAIT_MS = 60_000;
 
-interface Saved { id: number; name: string; state: string; state_since: Date | null; last_seen_at: Date | null; last_report: unknown; report_interval_s: number }
+interface Saved {
+  id: number;
+  name: string;
+  state: string;
+  state_since: Date | null;
+  last_seen_at: Date | null;
+  last_report: unknown;
+  report_interval_s: number;
+}
 
 async function signedInApi(request: APIRequestContext, baseUrl: string) {
   const signIn = await request.post(`${baseUrl}/api/v1/session`, { data: { email: ADMIN, password: DEMO_PASSWORD } });
@@ -20,7 +28,8 @@ async function signedInApi(request: APIRequestContext, baseUrl: string) {
   const csrfToken = ((await (await request.get(`${baseUrl}/api/v1/session`)).json()) as { csrfToken: string }).csrfToken;
   const headers = { 'X-CSRF-Token': csrfToken };
   return {
-    setReportInterval: async (id: number, reportIntervalS: number) => expect((await request.patch(`${baseUrl}/api/v1/nodes/${id}`, { headers, data: { reportIntervalS } })).status()).toBe(200),
+    setReportInterval: async (id: number, reportIntervalS: number) =>
+      expect((await request.patch(`${baseUrl}/api/v1/nodes/${id}`, { headers, data: { reportIntervalS } })).status()).toBe(200),
     token: async (id: number) => ((await (await request.post(`${baseUrl}/api/v1/nodes/${id}/ingest-token`, { headers })).json()) as { token: string }).token,
   };
 }
@@ -31,7 +40,15 @@ async function report(baseUrl: string, token: string, clients: number) {
   const res = await fetch(`${baseUrl}/api/v1/heartbeats`, {
     method: 'POST',
     headers: { Authorization: `Bearer ${token}`, 'Content-Type': 'application/json' },
-    body: JSON.stringify({ seq: lastSeq, sentAt: new Date().toISOString(), uptimeS: 3600, radios: [{ iface: 'wlan0', signalDbm: -60, noiseDbm: -95 }, { iface: 'wlan1', role: 'access-point', clients }] }),
+    body: JSON.stringify({
+      seq: lastSeq,
+      sentAt: new Date().toISOString(),
+      uptimeS: 3600,
+      radios: [
+        { iface: 'wlan0', signalDbm: -60, noiseDbm: -95 },
+        { iface: 'wlan1', role: 'access-point', clients },
+      ],
+    }),
   });
   expect(res.status).toBe(202);
 }
@@ -48,7 +65,11 @@ describe('blast radius on the topology', () => {
   beforeAll(async () => {
     [server, browser] = await Promise.all([startE2EServer({ HEALTH_CHECK_INTERVAL_MS: '300' }), launchBrowser()]);
     await db.connect();
-    saved = (await db.query<Saved>('SELECT id, name, state, state_since, last_seen_at, last_report, report_interval_s FROM nodes WHERE name = ANY($1) ORDER BY id', [[RELAY, ...LEAVES]])).rows;
+    saved = (
+      await db.query<Saved>('SELECT id, name, state, state_since, last_seen_at, last_report, report_interval_s FROM nodes WHERE name = ANY($1) ORDER BY id', [
+        [RELAY, ...LEAVES],
+      ])
+    ).rows;
     expect(saved).toHaveLength(1 + LEAVES.length);
     maxOutageId = (await db.query<{ m: number }>('SELECT coalesce(max(id), 0) AS m FROM outages')).rows[0].m;
     maxStrandedId = (await db.query<{ m: number }>('SELECT coalesce(max(id), 0) AS m FROM stranded_nodes')).rows[0].m;
@@ -57,11 +78,19 @@ describe('blast radius on the topology', () => {
     // Put the demo nodes back as they were: interval, state, figures; drop the outage this file opened.
     if (saved.length) {
       await db.query('DELETE FROM stranded_nodes WHERE id > $1', [maxStrandedId]);
-      await db.query('DELETE FROM outbox WHERE outage_id IN (SELECT id FROM outages WHERE id > $1 AND node_id = ANY($2))', [maxOutageId, saved.map((s) => s.id)]);
+      await db.query('DELETE FROM outbox WHERE outage_id IN (SELECT id FROM outages WHERE id > $1 AND node_id = ANY($2))', [
+        maxOutageId,
+        saved.map((s) => s.id),
+      ]);
       await db.query('DELETE FROM outages WHERE id > $1 AND node_id = ANY($2)', [maxOutageId, saved.map((s) => s.id)]);
       for (const s of saved) {
         await db.query('UPDATE nodes SET state = $2, state_since = $3, last_seen_at = $4, last_report = $5, report_interval_s = $6 WHERE id = $1', [
-          s.id, s.state, s.state_since, s.last_seen_at, s.last_report === null ? null : JSON.stringify(s.last_report), s.report_interval_s,
+          s.id,
+          s.state,
+          s.state_since,
+          s.last_seen_at,
+          s.last_report === null ? null : JSON.stringify(s.last_report),
+          s.report_interval_s,
         ]);
       }
     }

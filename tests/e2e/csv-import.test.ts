@@ -33,7 +33,8 @@ describe('importing sites from CSV in the browser', () => {
     await server?.stop();
   });
 
-  const sitesNamed = async (name: string) => (await (await page.request.get(`${server.url}/api/v1/sites?q=${encodeURIComponent(name)}`)).json()).data as { id: number; name: string }[];
+  const sitesNamed = async (name: string) =>
+    (await (await page.request.get(`${server.url}/api/v1/sites?q=${encodeURIComponent(name)}`)).json()).data as { id: number; name: string }[];
   const choose = (csv: string) => page.getByTestId('import-file').setInputFiles({ name: 'sites.csv', mimeType: 'text/csv', buffer: Buffer.from(csv) });
 
   it('shows the bad row’s error, will not import, and imports nothing', async () => {

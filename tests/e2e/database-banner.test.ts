@@ -17,7 +17,13 @@ describe('when Parapet cannot reach its database', () => {
     viaProxy.port = String(proxy.port);
     [server, browser] = await Promise.all([
       startServerProcess(
-        { DATABASE_URL: viaProxy.toString(), CLIENT_DIST: 'dist', SESSION_SECRET: 'e2e-session-secret-long-enough', SIGNIN_LIMIT_PER_ACCOUNT: '1000', DATABASE_PROBE_INTERVAL_MS: '500' },
+        {
+          DATABASE_URL: viaProxy.toString(),
+          CLIENT_DIST: 'dist',
+          SESSION_SECRET: 'e2e-session-secret-long-enough',
+          SIGNIN_LIMIT_PER_ACCOUNT: '1000',
+          DATABASE_PROBE_INTERVAL_MS: '500',
+        },
         { timeoutMs: 90_000 },
       ),
       launchBrowser(),

@@ -12,10 +12,14 @@ describe('choosing a site’s host in the browser', () => {
     await e2e.page.getByRole('button', { name: 'Edit site' }).click();
     const host = e2e.page.getByLabel('Host');
     // The candidates arrive from the server; wait until the picker lists someone other than the site's host.
-    await e2e.page.waitForFunction(() => {
-      const select = [...document.querySelectorAll('select')].find((s) => s.labels?.[0]?.textContent?.includes('Host'));
-      return !!select && [...select.options].some((o) => o.text === 'Tobias Fenwright');
-    }, undefined, { timeout: 20_000 });
+    await e2e.page.waitForFunction(
+      () => {
+        const select = [...document.querySelectorAll('select')].find((s) => s.labels?.[0]?.textContent?.includes('Host'));
+        return !!select && [...select.options].some((o) => o.text === 'Tobias Fenwright');
+      },
+      undefined,
+      { timeout: 20_000 },
+    );
     const options = await host.locator('option').allInnerTexts();
     expect(options).toContain('Sami Ferrow'); // hosts Mill Race Terrace (Millbrook)
     expect(options).toContain('Tobias Fenwright'); // the operator themself

@@ -40,7 +40,9 @@ describe('the host portal on a phone', () => {
     expect(summary).toMatch(/^Your node on Quay Chandlery /);
     const badge = quay.locator('[data-testid^="state-badge-"]').first();
     expect(await badge.innerText()).toMatch(/Online|Degraded|Offline|Maintenance|Stranded|Unknown/);
-    expect(await badge.locator('svg[role="img"]').getAttribute('aria-label')).toMatch(/\((filled circle|triangle|square|hatched circle|hollow diamond|hollow circle)\)$/);
+    expect(await badge.locator('svg[role="img"]').getAttribute('aria-label')).toMatch(
+      /\((filled circle|triangle|square|hatched circle|hollow diamond|hollow circle)\)$/,
+    );
     expect(await page.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(375);
     await screenshot(page, 'host-portal-1-my-nodes-375');
   });

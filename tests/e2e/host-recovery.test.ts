@@ -48,12 +48,21 @@ describe('a host guided back online from their phone', () => {
     await db.connect();
     userId = (await db.query<{ id: number }>(`INSERT INTO users (email, name, role) VALUES ($1, 'Wren Albery', 'host') RETURNING id`, [HOST_EMAIL])).rows[0].id;
     const hood = (await db.query<{ id: number }>(`SELECT id FROM neighbourhoods WHERE name = 'Old Quay'`)).rows[0].id;
-    siteId = (await db.query<{ id: number }>(
-      `INSERT INTO sites (neighbourhood_id, name, latitude, longitude, host_user_id) SELECT $1, $2, latitude + 0.001, longitude, $3
+    siteId = (
+      await db.query<{ id: number }>(
+        `INSERT INTO sites (neighbourhood_id, name, latitude, longitude, host_user_id) SELECT $1, $2, latitude + 0.001, longitude, $3
        FROM sites WHERE neighbourhood_id = $1 LIMIT 1 RETURNING id`,
-      [hood, `Ropewalk ${TAG}`, userId],
-    )).rows[0].id;
-    nodeId = (await db.query<{ id: number }>(`INSERT INTO nodes (site_id, neighbourhood_id, name, report_interval_s) VALUES ($1, $2, $3, $4) RETURNING id`, [siteId, hood, NODE_NAME, REPORT_INTERVAL_S])).rows[0].id;
+        [hood, `Ropewalk ${TAG}`, userId],
+      )
+    ).rows[0].id;
+    nodeId = (
+      await db.query<{ id: number }>(`INSERT INTO nodes (site_id, neighbourhood_id, name, report_interval_s) VALUES ($1, $2, $3, $4) RETURNING id`, [
+        siteId,
+        hood,
+        NODE_NAME,
+        REPORT_INTERVAL_S,
+      ])
+    ).rows[0].id;
 
     operator = await (await browser.newContext({ viewport: { width: 1280, height: 900 } })).newPage();
     await signInAs(operator, server.url, 'operator@parapet.example');
@@ -82,7 +91,10 @@ describe('a host guided back online from their phone', () => {
   it('the host opens the mail link, marks a step, the operator sees it live, and the page says the node is back when it reports', async () => {
     await report();
     // Silent past its grace: an outage opens and the host's mail goes out with the recovery link.
-    const outageId = await waitFor('the outage', async () => (await db.query<{ id: number }>('SELECT id FROM outages WHERE node_id = $1 AND ended_at IS NULL', [nodeId])).rows[0]?.id);
+    const outageId = await waitFor(
+      'the outage',
+      async () => (await db.query<{ id: number }>('SELECT id FROM outages WHERE node_id = $1 AND ended_at IS NULL', [nodeId])).rows[0]?.id,
+    );
     const mail = await waitFor('the host mail', async () => (await mailTo([HOST_EMAIL])).find((m) => m.subject.includes(NODE_NAME)));
     const link = /https?:\/\/\S+\/recover\?t=[A-Za-z0-9._-]+/.exec(mail.text)?.[0];
     expect(link, 'the mail carries the recovery link').toBeTruthy();

@@ -7,9 +7,35 @@ import { afterAll, describe, expect, it } from 'vitest';
 import { validChannels } from '../../shared/radio/channels';
 import { screenshot, signInAs, useE2E } from './helpers/browser';
 
-interface NodeRow { id: number; name: string; siteId: number }
-interface RadioRow { id: number; nodeId: number; iface: string; band: string; channel: number; channelWidthMHz: number; txPowerDbm: number; antennaGainDbi: number; polarisation: string; cableLossDb: number; role: string; ssid: string | null; encryption: string; hasPreSharedKey: boolean; groupRekeyS: number }
-interface LinkRow { id: number; name: string | null; radioAId: number; radioBId: number; status: string }
+interface NodeRow {
+  id: number;
+  name: string;
+  siteId: number;
+}
+interface RadioRow {
+  id: number;
+  nodeId: number;
+  iface: string;
+  band: string;
+  channel: number;
+  channelWidthMHz: number;
+  txPowerDbm: number;
+  antennaGainDbi: number;
+  polarisation: string;
+  cableLossDb: number;
+  role: string;
+  ssid: string | null;
+  encryption: string;
+  hasPreSharedKey: boolean;
+  groupRekeyS: number;
+}
+interface LinkRow {
+  id: number;
+  name: string | null;
+  radioAId: number;
+  radioBId: number;
+  status: string;
+}
 
 /**
  * The API as the signed-in page sees it (its cookies, the CSRF token for writes), called with the page's own fetch:
@@ -35,11 +61,15 @@ async function nodeNamed(page: Page, base: string, name: string): Promise<NodeRo
   return node;
 }
 
-const radiosOf = async (page: Page, base: string, nodeId: number) => (await api(page, base, 'GET', `/radios?nodeId=${nodeId}&pageSize=500`)).body.data as RadioRow[];
+const radiosOf = async (page: Page, base: string, nodeId: number) =>
+  (await api(page, base, 'GET', `/radios?nodeId=${nodeId}&pageSize=500`)).body.data as RadioRow[];
 
 /** The option values of a select, without its "Choose…" placeholder. */
 const optionValues = (page: Page, label: string) =>
-  page.getByLabel(label, { exact: true }).locator('option').evaluateAll((os) => os.map((o) => (o as HTMLOptionElement).value).filter((v) => v !== ''));
+  page
+    .getByLabel(label, { exact: true })
+    .locator('option')
+    .evaluateAll((os) => os.map((o) => (o as HTMLOptionElement).value).filter((v) => v !== ''));
 
 /** The error text shown under a field (form-field.tsx puts it in the element named by aria-describedby). */
 async function fieldError(page: Page, label: string) {
@@ -107,8 +137,20 @@ describe('the inventory in the browser: radios, links and install photos', () =>
     await expect.poll(() => page.getByLabel('Transmit power (dBm)').evaluate((el) => el === document.activeElement), { timeout: 10_000 }).toBe(true);
     const keyMessage = await fieldError(page, 'Pre-shared key');
     const refused = await api(page, base(), 'POST', '/radios', {
-      nodeId: node.id, iface: 'wlan3', role: 'mesh', band: '5', channel: 44, channelWidthMHz: 40, txPowerDbm: 50, antennaGainDbi: 12,
-      polarisation: 'horizontal', cableLossDb: 1.5, ssid: 'lf-mesh-cooper', encryption: 'wpa3-sae', preSharedKey: 'short', groupRekeyS: 900,
+      nodeId: node.id,
+      iface: 'wlan3',
+      role: 'mesh',
+      band: '5',
+      channel: 44,
+      channelWidthMHz: 40,
+      txPowerDbm: 50,
+      antennaGainDbi: 12,
+      polarisation: 'horizontal',
+      cableLossDb: 1.5,
+      ssid: 'lf-mesh-cooper',
+      encryption: 'wpa3-sae',
+      preSharedKey: 'short',
+      groupRekeyS: 900,
     });
     expect(refused.status).toBe(400);
     const apiMessage = (path: string) => (refused.body.error.details as { path: string; message: string }[]).find((d) => d.path === path)?.message;
@@ -127,7 +169,20 @@ describe('the inventory in the browser: radios, links and install photos', () =>
     await form.waitFor({ state: 'detached' });
     await page.getByTestId('radios-table').getByText('wlan3').waitFor();
     const stored = (await radiosOf(page, base(), node.id)).find((r) => r.iface === 'wlan3')!;
-    expect(stored).toMatchObject({ role: 'mesh', band: '5', channel: 44, channelWidthMHz: 40, txPowerDbm: 20, antennaGainDbi: 12, polarisation: 'horizontal', cableLossDb: 1.5, ssid: 'lf-mesh-cooper', encryption: 'wpa3-sae', hasPreSharedKey: true, groupRekeyS: 900 });
+    expect(stored).toMatchObject({
+      role: 'mesh',
+      band: '5',
+      channel: 44,
+      channelWidthMHz: 40,
+      txPowerDbm: 20,
+      antennaGainDbi: 12,
+      polarisation: 'horizontal',
+      cableLossDb: 1.5,
+      ssid: 'lf-mesh-cooper',
+      encryption: 'wpa3-sae',
+      hasPreSharedKey: true,
+      groupRekeyS: 900,
+    });
     expect(JSON.stringify(stored)).not.toContain('cooperage-mesh-2026');
 
     // Edit: the key is never shown back; a blank key keeps it.
@@ -143,7 +198,12 @@ describe('the inventory in the browser: radios, links and install photos', () =>
     expect((await patched).status()).toBe(200);
     await form.waitFor({ state: 'detached' });
     await page.getByTestId('radios-table').getByText('15 dBm').waitFor();
-    expect((await api(page, base(), 'GET', `/radios/${stored.id}`)).body.data).toMatchObject({ txPowerDbm: 15, channelWidthMHz: 20, channel: 44, hasPreSharedKey: true });
+    expect((await api(page, base(), 'GET', `/radios/${stored.id}`)).body.data).toMatchObject({
+      txPowerDbm: 15,
+      channelWidthMHz: 20,
+      channel: 44,
+      hasPreSharedKey: true,
+    });
     await screenshot(page, 'radio-edited-1280');
 
     await page.getByRole('button', { name: 'Remove radio wlan3' }).click();
@@ -303,7 +363,9 @@ describe('the inventory in the browser: radios, links and install photos', () =>
     const img = page.getByTestId('site-photos').locator('img').first();
     await img.waitFor();
     // The thumbnail really loads from the store under .data/: a decoded picture, upright (taller than wide).
-    await expect.poll(() => img.evaluate((el) => (el as HTMLImageElement).complete && (el as HTMLImageElement).naturalWidth), { timeout: 15_000 }).toBeGreaterThan(0);
+    await expect
+      .poll(() => img.evaluate((el) => (el as HTMLImageElement).complete && (el as HTMLImageElement).naturalWidth), { timeout: 15_000 })
+      .toBeGreaterThan(0);
     const [w, h] = await img.evaluate((el) => [(el as HTMLImageElement).naturalWidth, (el as HTMLImageElement).naturalHeight]);
     expect(h).toBeGreaterThan(w);
     const href = await page.getByTestId('site-photos').locator('a').first().getAttribute('href');

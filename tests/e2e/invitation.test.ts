@@ -28,7 +28,12 @@ describe('an invitation accepted end to end, through the mail fake', () => {
     if (!process.env.MAILDEV_WEB_URL) throw new Error('MAILDEV_WEB_URL must point at the mail fake (and SMTP_PORT at its SMTP side).');
     [server, browser] = await Promise.all([
       // The outbox sender runs every half second, so the mail leaves quickly.
-      startE2EServer({ SMTP_HOST: '127.0.0.1', SMTP_PORT: process.env.SMTP_PORT ?? '1025', MAILDEV_WEB_URL: process.env.MAILDEV_WEB_URL, HEALTH_CHECK_INTERVAL_MS: '500' }),
+      startE2EServer({
+        SMTP_HOST: '127.0.0.1',
+        SMTP_PORT: process.env.SMTP_PORT ?? '1025',
+        MAILDEV_WEB_URL: process.env.MAILDEV_WEB_URL,
+        HEALTH_CHECK_INTERVAL_MS: '500',
+      }),
       launchBrowser(),
     ]);
     admin = await (await browser.newContext({ viewport: { width: 1280, height: 900 } })).newPage();

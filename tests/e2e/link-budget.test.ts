@@ -18,7 +18,10 @@ describe('planning in the browser', () => {
     await e2e.fresh();
     await signInAs(e2e.page, e2e.server.url, 'admin@parapet.example');
     await e2e.page.getByTestId('nav').getByRole('link', { name: 'Planning' }).click();
-    await e2e.page.getByTestId('planning-index').getByRole('link', { name: /Link budget/ }).click();
+    await e2e.page
+      .getByTestId('planning-index')
+      .getByRole('link', { name: /Link budget/ })
+      .click();
     await e2e.page.waitForURL(/\/planning\/link-budget$/);
     const nodeA = await pickEnd('A', 'Granary Tower');
     const nodeB = await pickEnd('B', 'Millbrook Mill');
@@ -83,28 +86,40 @@ describe('planning in the browser', () => {
     ['addresses', '/planning/addresses', 'address-plan-table'],
     ['security', '/planning/security', 'security-radios'],
   ] as const;
-  it.each([1280, 375])('shows every planning page to an operator at %i px', async (width) => {
-    await e2e.fresh({ width, height: 900 });
-    await signInAs(e2e.page, e2e.server.url, 'operator@parapet.example');
-    for (const [name, url, testId] of PAGES) {
-      await e2e.page.goto(`${e2e.server.url}${url}`);
-      await e2e.page.getByTestId(testId).waitFor();
-      if (name === 'channels') {
-        // A survey uploaded through the page: one bad row is listed with its line, the rest is charted.
-        await e2e.page.getByLabel('Node surveyed').selectOption({ index: 1 });
-        await e2e.page.getByLabel(/Survey file/).setInputFiles({ name: 'rooftop-scan.csv', mimeType: 'text/csv',
-          buffer: Buffer.from('ssid,channel,channelWidthMHz,signalDbm\nBakery Guest,1,20,-48\nLibrary,6,20,-77\nBroken,15,20,-60\n') });
-        await e2e.page.getByRole('button', { name: 'Upload survey' }).click();
-        await e2e.page.getByText(/Line 4: channel 15 is not a Wi-Fi channel/).waitFor({ timeout: 10_000 }).catch(async (e) => {
-          await screenshot(e2e.page, 'debug-upload');
-          throw e;
-        });
-        await e2e.page.getByTestId('congestion-chart').first().waitFor();
+  it.each([1280, 375])(
+    'shows every planning page to an operator at %i px',
+    async (width) => {
+      await e2e.fresh({ width, height: 900 });
+      await signInAs(e2e.page, e2e.server.url, 'operator@parapet.example');
+      for (const [name, url, testId] of PAGES) {
+        await e2e.page.goto(`${e2e.server.url}${url}`);
+        await e2e.page.getByTestId(testId).waitFor();
+        if (name === 'channels') {
+          // A survey uploaded through the page: one bad row is listed with its line, the rest is charted.
+          await e2e.page.getByLabel('Node surveyed').selectOption({ index: 1 });
+          await e2e.page
+            .getByLabel(/Survey file/)
+            .setInputFiles({
+              name: 'rooftop-scan.csv',
+              mimeType: 'text/csv',
+              buffer: Buffer.from('ssid,channel,channelWidthMHz,signalDbm\nBakery Guest,1,20,-48\nLibrary,6,20,-77\nBroken,15,20,-60\n'),
+            });
+          await e2e.page.getByRole('button', { name: 'Upload survey' }).click();
+          await e2e.page
+            .getByText(/Line 4: channel 15 is not a Wi-Fi channel/)
+            .waitFor({ timeout: 10_000 })
+            .catch(async (e) => {
+              await screenshot(e2e.page, 'debug-upload');
+              throw e;
+            });
+          await e2e.page.getByTestId('congestion-chart').first().waitFor();
+        }
+        await screenshot(e2e.page, `planning-${name}-${width}`);
+        expect(await e2e.page.getByTestId(name === 'link-budget' ? 'link-end-a' : 'planning-caution').count()).toBeGreaterThan(0);
       }
-      await screenshot(e2e.page, `planning-${name}-${width}`);
-      expect(await e2e.page.getByTestId(name === 'link-budget' ? 'link-end-a' : 'planning-caution').count()).toBeGreaterThan(0);
-    }
-  }, 180_000);
+    },
+    180_000,
+  );
 
   it('shows a provisioning sheet with the key to the neighbourhood’s operator', async () => {
     for (const width of [1280, 375]) {

@@ -35,13 +35,19 @@ describe('a walk through the console in one session', () => {
   const nav = (page: Page, label: string) => page.getByTestId('nav').getByRole('link', { name: label, exact: true }).click();
   // The person's own pages sit behind their name, in a drop-down that closes on each page change.
   const userMenu = async (page: Page, label: string) => {
-    await page.getByTestId('user-menu').getByRole('button', { name: /your pages/ }).click();
+    await page
+      .getByTestId('user-menu')
+      .getByRole('button', { name: /your pages/ })
+      .click();
     await page.getByTestId('user-menu').getByRole('link', { name: label, exact: true }).click();
   };
   const planningTo = async (page: Page, title: string, problems: string[]) => {
     await nav(page, 'Planning');
     await settled(page, 'Planning', 'planning index', problems);
-    await page.getByTestId('planning-index').getByRole('link', { name: new RegExp(`^${title}`) }).click();
+    await page
+      .getByTestId('planning-index')
+      .getByRole('link', { name: new RegExp(`^${title}`) })
+      .click();
     await settled(page, title, title, problems);
   };
 
@@ -74,7 +80,13 @@ describe('a walk through the console in one session', () => {
     await settled(page, 'Network map', 'map', problems);
     await page.getByTestId('node-links').waitFor();
 
-    for (const [label, title] of [['Overview', 'Overview'], ['Outages', 'Outages'], ['Neighbourhoods', 'Neighbourhoods'], ['Reports', 'Availability report'], ['People', 'People']] as const) {
+    for (const [label, title] of [
+      ['Overview', 'Overview'],
+      ['Outages', 'Outages'],
+      ['Neighbourhoods', 'Neighbourhoods'],
+      ['Reports', 'Availability report'],
+      ['People', 'People'],
+    ] as const) {
       await nav(page, label);
       await settled(page, title, label, problems);
     }
@@ -83,7 +95,12 @@ describe('a walk through the console in one session', () => {
     await page.getByRole('link', { name: 'Millbrook', exact: true }).click();
     await settled(page, 'Millbrook', 'neighbourhood page', problems);
 
-    for (const [label, title] of [['Account', 'Your account'], ['Mail settings', 'Mail preferences'], ['Outbox', 'Outbox'], ['History', 'History']] as const) {
+    for (const [label, title] of [
+      ['Account', 'Your account'],
+      ['Mail settings', 'Mail preferences'],
+      ['Outbox', 'Outbox'],
+      ['History', 'History'],
+    ] as const) {
       await userMenu(page, label);
       await settled(page, title, label, problems);
     }
@@ -123,7 +140,10 @@ describe('a walk through the console in one session', () => {
     await openMenu();
     await nav(page, 'Planning');
     await settled(page, 'Planning', 'planning', problems);
-    await page.getByTestId('planning-index').getByRole('link', { name: /^Channel plan/ }).click();
+    await page
+      .getByTestId('planning-index')
+      .getByRole('link', { name: /^Channel plan/ })
+      .click();
     await settled(page, 'Channel plan', 'channel plan', problems);
     await page.getByTestId('channel-plan-table').waitFor();
     await page.goBack();

@@ -31,7 +31,20 @@ export async function alertScene(ctx: TestContext, opts: { nodeName?: string; ho
       .set('Authorization', `Bearer ${token}`)
       .send({ seq: ++seq, sentAt: new Date().toISOString(), radios: [{ iface: 'wlan0', signalDbm: -60, noiseDbm: -95 }], throughputMbps: 40, uptimeS: 3600 });
   const everyone = [operator, otherOperator, host, otherHost, admin];
-  return { operator, otherOperator, host, otherHost, admin, hood, site, node, token, report, everyone, addresses: (...users: User[]) => users.map((u) => u.email) };
+  return {
+    operator,
+    otherOperator,
+    host,
+    otherHost,
+    admin,
+    hood,
+    site,
+    node,
+    token,
+    report,
+    everyone,
+    addresses: (...users: User[]) => users.map((u) => u.email),
+  };
 }
 
 /** Silence check as the scheduler runs it, with a check interval long enough that skipped minutes never look like Parapet was down. */
@@ -39,11 +52,17 @@ export const silenceCheck = (ctx: TestContext) => runSilenceCheck(ctx.sequelize,
 export const sendOutbox = (ctx: TestContext) => runOutboxSender(ctx.sequelize, ctx.config);
 
 export async function outboxRows(ctx: TestContext, nodeId: number) {
-  return ctx.sequelize.query<{ id: string; kind: string; recipient_user_id: number; status: string; subject: string; dedupe_key: string; next_attempt_at: Date; attempts: number; last_error: string | null }>(
-    'SELECT * FROM outbox WHERE node_id = $1 ORDER BY id',
-    { bind: [nodeId], type: QueryTypes.SELECT },
-  );
+  return ctx.sequelize.query<{
+    id: string;
+    kind: string;
+    recipient_user_id: number;
+    status: string;
+    subject: string;
+    dedupe_key: string;
+    next_attempt_at: Date;
+    attempts: number;
+    last_error: string | null;
+  }>('SELECT * FROM outbox WHERE node_id = $1 ORDER BY id', { bind: [nodeId], type: QueryTypes.SELECT });
 }
 
-export const setPreferences = (userId: number, values: Partial<AlertPreference['_creationAttributes']>) =>
-  AlertPreference.upsert({ userId, ...values });
+export const setPreferences = (userId: number, values: Partial<AlertPreference['_creationAttributes']>) => AlertPreference.upsert({ userId, ...values });

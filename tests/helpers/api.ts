@@ -97,4 +97,7 @@ export async function ingestTokenFor(ctx: TestContext, nodeId: number) {
 
 /** Posts a report or a batch with a node's bearer token. */
 export const postReports = (ctx: TestContext, token: string, body: unknown) =>
-  request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${token}`).send(body as object);
+  request(ctx.app)
+    .post('/api/v1/heartbeats')
+    .set('Authorization', `Bearer ${token}`)
+    .send(body as object);

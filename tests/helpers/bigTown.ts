@@ -4,8 +4,18 @@ import type { NodeState } from '../../shared/enums';
 
 /** Invented quarters of greater Lindenfall; none is a real place. */
 export const BIG_TOWN_QUARTERS = [
-  'Kelpwick Reach', 'Tarrow Quay', 'Brinefold', 'Gullstone Heights', 'Mastwright Lane', 'Ropewalk End',
-  'Lanternhill', 'Shoalmere', 'Ferrygate', 'Driftholm', 'Capstan Rise', 'Oysterbank',
+  'Kelpwick Reach',
+  'Tarrow Quay',
+  'Brinefold',
+  'Gullstone Heights',
+  'Mastwright Lane',
+  'Ropewalk End',
+  'Lanternhill',
+  'Shoalmere',
+  'Ferrygate',
+  'Driftholm',
+  'Capstan Rise',
+  'Oysterbank',
 ];
 const NODE_PREFIX = 'bigtown-';
 const CENTRE = { latitude: 47.6012, longitude: -38.4127 };
@@ -32,7 +42,13 @@ function lcg(seed: number) {
   };
 }
 
-const STATE_MIX: [NodeState, number][] = [['online', 0.8], ['degraded', 0.08], ['offline', 0.06], ['maintenance', 0.03], ['unknown', 0.03]];
+const STATE_MIX: [NodeState, number][] = [
+  ['online', 0.8],
+  ['degraded', 0.08],
+  ['offline', 0.06],
+  ['maintenance', 0.03],
+  ['unknown', 0.03],
+];
 function pickState(r: number): NodeState {
   let sum = 0;
   for (const [state, share] of STATE_MIX) if ((sum += share) > r) return state;
@@ -60,7 +76,11 @@ export async function seedBigTown(client: pg.ClientBase, nodeCount: number): Pro
   );
   const hoodIds = BIG_TOWN_QUARTERS.map((name) => hoods.rows.find((h) => h.name === name)!.id);
   // Quarters on a 4 × 3 grid about 1.2 km apart; roofs scattered within 400 m of their quarter's middle.
-  const siteHood: number[] = [], siteName: string[] = [], lat: number[] = [], lon: number[] = [], nodeState: NodeState[] = [];
+  const siteHood: number[] = [],
+    siteName: string[] = [],
+    lat: number[] = [],
+    lon: number[] = [],
+    nodeState: NodeState[] = [];
   for (let i = 0; i < nodeCount; i++) {
     const q = i % BIG_TOWN_QUARTERS.length;
     const northM = (Math.floor(q / 4) - 1) * 1200 + (random() - 0.5) * 800;

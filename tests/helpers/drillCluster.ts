@@ -6,10 +6,14 @@ const run = promisify(execFile);
 
 /** Bash with the project's own cluster helpers loaded (docker-free-scripts/lib). */
 async function lib(script: string, ...args: string[]) {
-  const { stdout } = await run('bash', ['-c', `set -euo pipefail; source docker-free-scripts/lib/init.sh .test-data/drills; ensure_postgres_server; ${script}`, 'drill', ...args], {
-    encoding: 'utf8',
-    timeout: 120_000,
-  });
+  const { stdout } = await run(
+    'bash',
+    ['-c', `set -euo pipefail; source docker-free-scripts/lib/init.sh .test-data/drills; ensure_postgres_server; ${script}`, 'drill', ...args],
+    {
+      encoding: 'utf8',
+      timeout: 120_000,
+    },
+  );
   return stdout.trim();
 }
 
@@ -21,7 +25,8 @@ export async function startDrillCluster() {
   const port = await freePort();
   const dir = await lib(
     'd=$(mktemp -d /tmp/parapet-drill.XXXXXX); pg_owned_dir "$d" || ' +
-      '{ rm -rf "$d"; d=$(mktemp -d /var/tmp/parapet-drill.XXXXXX); pg_owned_dir "$d"; }; echo "$d"');
+      '{ rm -rf "$d"; d=$(mktemp -d /var/tmp/parapet-drill.XXXXXX); pg_owned_dir "$d"; }; echo "$d"',
+  );
   await lib(
     'pg_init_cluster "$1/pg" parapet_drill >&2 && ' +
       'pg_start_cluster "$1/pg" "$2" "$1/postgres.log" "fsync = off" "synchronous_commit = on" >&2 && ' +

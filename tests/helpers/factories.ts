@@ -7,7 +7,9 @@ export async function buildNeighbourhood(overrides: Partial<{ name: string; oper
   return n;
 }
 
-export async function buildSite(overrides: Partial<{ neighbourhoodId: number; hostUserId: number | null; name: string; latitude: number; longitude: number }> = {}) {
+export async function buildSite(
+  overrides: Partial<{ neighbourhoodId: number; hostUserId: number | null; name: string; latitude: number; longitude: number }> = {},
+) {
   const neighbourhoodId = overrides.neighbourhoodId ?? (await buildNeighbourhood()).id;
   return Site.create({
     name: overrides.name ?? unique('Site'),

@@ -70,9 +70,10 @@ export async function startMaildev(smtpPort: number, webPort: number) {
   }
   return {
     base,
-    stop: () => new Promise<void>((resolve) => {
-      child.once('exit', () => resolve());
-      child.kill('SIGTERM');
-    }),
+    stop: () =>
+      new Promise<void>((resolve) => {
+        child.once('exit', () => resolve());
+        child.kill('SIGTERM');
+      }),
   };
 }

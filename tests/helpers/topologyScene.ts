@@ -11,7 +11,13 @@ let spot = 0;
 async function hostedNode(neighbourhoodId: number, name: string, isUplink = false) {
   const host = await buildUser({ role: 'host', name: `Host of ${name}` });
   spot++;
-  const site = await buildSite({ neighbourhoodId, hostUserId: host.id, name: `${name} roof`, latitude: 47.6 + (spot % 50) * 0.002, longitude: -38.4 + Math.floor(spot / 50) * 0.002 });
+  const site = await buildSite({
+    neighbourhoodId,
+    hostUserId: host.id,
+    name: `${name} roof`,
+    latitude: 47.6 + (spot % 50) * 0.002,
+    longitude: -38.4 + Math.floor(spot / 50) * 0.002,
+  });
   const node = await buildNode({ siteId: site.id, name, isUplink });
   return { node, host };
 }
@@ -22,7 +28,19 @@ export async function liveLink(a: Node, b: Node) {
   const radio = async (n: Node) => {
     const i = (radioCount.get(n.id) ?? 0) + 1;
     radioCount.set(n.id, i);
-    return Radio.create({ nodeId: n.id, iface: `wlan${i}`, band: '5', channel: 36, channelWidthMHz: 20, txPowerDbm: 18, antennaGainDbi: 23, role: 'backhaul-ap', ssid: 'bh', encryption: 'wpa2-ccmp', preSharedKey: 'a-long-enough-test-key' });
+    return Radio.create({
+      nodeId: n.id,
+      iface: `wlan${i}`,
+      band: '5',
+      channel: 36,
+      channelWidthMHz: 20,
+      txPowerDbm: 18,
+      antennaGainDbi: 23,
+      role: 'backhaul-ap',
+      ssid: 'bh',
+      encryption: 'wpa2-ccmp',
+      preSharedKey: 'a-long-enough-test-key',
+    });
   };
   return Link.create({ radioAId: (await radio(a)).id, radioBId: (await radio(b)).id, status: 'live' });
 }
@@ -67,10 +85,19 @@ export async function topologyScene(ctx: TestContext, clock: { advance: (s: numb
     const seq = (seqs.get(node.id) ?? 0) + 1;
     seqs.set(node.id, seq);
     const clients = leaves.findIndex((l) => l.node.id === node.id) + 1;
-    const res = await request(ctx.app).post('/api/v1/heartbeats').set('Authorization', `Bearer ${tokens.get(node.id)}`).send({
-      seq, sentAt: new Date().toISOString(), uptimeS: 3600, throughputMbps: 40,
-      radios: [{ iface: 'wlan1', signalDbm: -60, noiseDbm: -95 }, { iface: 'ap0', role: 'access-point', signalDbm: -50, noiseDbm: -95, clients }],
-    });
+    const res = await request(ctx.app)
+      .post('/api/v1/heartbeats')
+      .set('Authorization', `Bearer ${tokens.get(node.id)}`)
+      .send({
+        seq,
+        sentAt: new Date().toISOString(),
+        uptimeS: 3600,
+        throughputMbps: 40,
+        radios: [
+          { iface: 'wlan1', signalDbm: -60, noiseDbm: -95 },
+          { iface: 'ap0', role: 'access-point', signalDbm: -50, noiseDbm: -95, clients },
+        ],
+      });
     expect(res.status).toBe(202);
   };
   const reportAll = async (nodes = all.map((x) => x.node)) => {
@@ -85,5 +112,23 @@ export async function topologyScene(ctx: TestContext, clock: { advance: (s: numb
   };
   const hosts = all.map((x) => x.host);
   const people = (): User[] => [coreOperator, leafOperator, admin, ...hosts];
-  return { coreOperator, leafOperator, admin, core, reedbank, uplink, backhaul, relay, farLeaf, twoPaths, leaves, all, report, reportAll, runFor, adminAgent, people };
+  return {
+    coreOperator,
+    leafOperator,
+    admin,
+    core,
+    reedbank,
+    uplink,
+    backhaul,
+    relay,
+    farLeaf,
+    twoPaths,
+    leaves,
+    all,
+    report,
+    reportAll,
+    runFor,
+    adminAgent,
+    people,
+  };
 }

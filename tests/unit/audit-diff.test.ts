@@ -3,7 +3,10 @@ import { auditDiff } from '../../server/services/auditDiff';
 
 describe('audit diff', () => {
   it('keeps only the changed fields, without bookkeeping', () => {
-    expect(auditDiff({ name: 'a', channel: 36, updatedAt: new Date(1) }, { name: 'a', channel: 44, updatedAt: new Date(2) })).toEqual({ before: { channel: 36 }, after: { channel: 44 } });
+    expect(auditDiff({ name: 'a', channel: 36, updatedAt: new Date(1) }, { name: 'a', channel: 44, updatedAt: new Date(2) })).toEqual({
+      before: { channel: 36 },
+      after: { channel: 44 },
+    });
   });
   it('is null when nothing changed', () => {
     expect(auditDiff({ name: 'a', when: new Date(5) }, { name: 'a', when: new Date(5) })).toBeNull();

@@ -34,7 +34,10 @@ export function invitationMail(f: { name: string; invitedBy: string; role: keyof
 export function passwordResetMail(f: { name: string; url: string; expiresAt: string }): Rendered {
   return render(
     'Choose a new Parapet password',
-    [`Hello ${f.name},`, 'Someone (we hope you) asked to reset the password of your Parapet account. Open the link below to choose a new one. The link works once.'],
+    [
+      `Hello ${f.name},`,
+      'Someone (we hope you) asked to reset the password of your Parapet account. Open the link below to choose a new one. The link works once.',
+    ],
     { label: 'Choose a new password', url: f.url },
     [`The link expires ${f.expiresAt}. If you did not ask for this, ignore this message; your password stays as it is.`],
   );

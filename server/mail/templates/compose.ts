@@ -27,27 +27,38 @@ const safeUrl = (u: string) => (/^https?:\/\//i.test(u) ? u : '#');
 
 function blockText(b: Block): string {
   switch (b.kind) {
-    case 'p': return b.text;
-    case 'h': return b.text.toUpperCase();
-    case 'ol': return b.items.map((item, i) => `${i + 1}. ${item}`).join('\n');
-    case 'ul': return b.items.map((item) => `- ${item}`).join('\n');
-    case 'caution': return `Safety: ${b.text}`;
-    case 'facts': return b.rows.map(([k, v]) => `${k}: ${v}`).join('\n');
-    case 'link': return `${b.label}: ${b.url}`;
+    case 'p':
+      return b.text;
+    case 'h':
+      return b.text.toUpperCase();
+    case 'ol':
+      return b.items.map((item, i) => `${i + 1}. ${item}`).join('\n');
+    case 'ul':
+      return b.items.map((item) => `- ${item}`).join('\n');
+    case 'caution':
+      return `Safety: ${b.text}`;
+    case 'facts':
+      return b.rows.map(([k, v]) => `${k}: ${v}`).join('\n');
+    case 'link':
+      return `${b.label}: ${b.url}`;
   }
 }
 
 function blockHtml(b: Block): string {
   switch (b.kind) {
-    case 'p': return `<p>${esc(b.text)}</p>`;
-    case 'h': return `<h2 style="font-size:16px;margin:20px 0 6px">${esc(b.text)}</h2>`;
+    case 'p':
+      return `<p>${esc(b.text)}</p>`;
+    case 'h':
+      return `<h2 style="font-size:16px;margin:20px 0 6px">${esc(b.text)}</h2>`;
     case 'ol':
-    case 'ul': return `<${b.kind}>${b.items.map((item) => `<li>${esc(item)}</li>`).join('')}</${b.kind}>`;
+    case 'ul':
+      return `<${b.kind}>${b.items.map((item) => `<li>${esc(item)}</li>`).join('')}</${b.kind}>`;
     case 'caution':
       return `<p style="border-left:4px solid #E69F00;padding:8px 12px;background:#fff7e6"><strong>Safety:</strong> ${esc(b.text)}</p>`;
     case 'facts':
       return `<table style="border-collapse:collapse">${b.rows.map(([k, v]) => `<tr><th style="text-align:left;padding:2px 12px 2px 0;font-weight:600">${esc(k)}</th><td>${esc(v)}</td></tr>`).join('')}</table>`;
-    case 'link': return `<p><a href="${esc(safeUrl(b.url))}">${esc(b.label)}</a></p>`;
+    case 'link':
+      return `<p><a href="${esc(safeUrl(b.url))}">${esc(b.label)}</a></p>`;
   }
 }
 

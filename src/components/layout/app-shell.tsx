@@ -25,7 +25,13 @@ function ThemeToggle({ className = '' }: { className?: string }) {
   const { theme, toggle } = useTheme();
   const next = theme === 'dark' ? 'light' : 'dark';
   return (
-    <button type="button" onClick={toggle} aria-label={`Use the ${next} theme`} title={`Use the ${next} theme`} className={`shrink-0 rounded-md p-2 text-muted hover:bg-sunken hover:text-ink ${className}`}>
+    <button
+      type="button"
+      onClick={toggle}
+      aria-label={`Use the ${next} theme`}
+      title={`Use the ${next} theme`}
+      className={`shrink-0 rounded-md p-2 text-muted hover:bg-sunken hover:text-ink ${className}`}
+    >
       <svg width="18" height="18" viewBox="0 0 16 16" aria-hidden="true">
         {theme === 'dark' ? (
           <g fill="none" stroke="currentColor" strokeWidth="1.5" strokeLinecap="round">
@@ -112,7 +118,10 @@ export function AppShell({ user, navItems, onSignOut, signingOut, children }: Ap
 
   return (
     <div className="flex min-h-screen flex-col">
-      <a href="#main" className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-50 focus:rounded focus:bg-surface focus:px-3 focus:py-2">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-50 focus:rounded focus:bg-surface focus:px-3 focus:py-2"
+      >
         Skip to content
       </a>
       <header className="relative border-b border-line bg-surface">

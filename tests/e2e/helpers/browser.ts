@@ -14,7 +14,15 @@ export async function launchBrowser(): Promise<Browser> {
   return chromium.launch({
     executablePath,
     headless: true,
-    args: ['--no-sandbox', '--disable-gpu', '--disable-quic', '--no-first-run', '--disable-background-networking', '--disable-component-update', '--disable-sync'],
+    args: [
+      '--no-sandbox',
+      '--disable-gpu',
+      '--disable-quic',
+      '--no-first-run',
+      '--disable-background-networking',
+      '--disable-component-update',
+      '--disable-sync',
+    ],
   });
 }
 
@@ -23,7 +31,15 @@ export async function startE2EServer(extraEnv: Record<string, string> = {}): Pro
   const url = process.env.E2E_DATABASE_URL;
   if (!url) throw new Error('E2E_DATABASE_URL must point at a migrated, seeded database (docker-free-scripts/test.sh sets it).');
   if (!fs.existsSync(path.resolve('dist/index.html'))) throw new Error('The client is not built: run `npm run build` first (test.sh does).');
-  return startServerProcess({ DATABASE_URL: url, CLIENT_DIST: 'dist', SESSION_SECRET: 'e2e-session-secret-long-enough', SIGNIN_LIMIT_PER_ACCOUNT: '1000', SIGNIN_LIMIT_PER_ACCOUNT_ADDRESS: '1000', SIGNIN_LIMIT_PER_ADDRESS: '10000', ...extraEnv });
+  return startServerProcess({
+    DATABASE_URL: url,
+    CLIENT_DIST: 'dist',
+    SESSION_SECRET: 'e2e-session-secret-long-enough',
+    SIGNIN_LIMIT_PER_ACCOUNT: '1000',
+    SIGNIN_LIMIT_PER_ACCOUNT_ADDRESS: '1000',
+    SIGNIN_LIMIT_PER_ADDRESS: '10000',
+    ...extraEnv,
+  });
 }
 
 export async function screenshot(page: Page, name: string) {

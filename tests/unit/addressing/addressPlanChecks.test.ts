@@ -32,8 +32,12 @@ describe('checkAddressPlan', () => {
     expect(codes(checkAddressPlan([{ label: 'A', cidr: '10.20.1.0/25', dhcpStart: '10.20.1.100', dhcpEnd: '10.20.1.200' }]))).toEqual(['dhcp_outside_subnet']);
     expect(codes(checkAddressPlan([{ label: 'A', cidr: '10.20.1.0/24', dhcpStart: '10.20.1.100', dhcpEnd: '10.20.1.255' }]))).toEqual(['dhcp_outside_subnet']);
     expect(codes(checkAddressPlan([{ label: 'A', cidr: '10.20.1.0/24', dhcpStart: '10.20.1.200', dhcpEnd: '10.20.1.100' }]))).toEqual(['dhcp_range_reversed']);
-    expect(codes(checkAddressPlan([{ label: 'A', cidr: '10.20.1.0/24', gateway: '10.20.1.1', dhcpStart: '10.20.1.1', dhcpEnd: '10.20.1.50' }]))).toEqual(['dhcp_includes_gateway']);
-    const f = checkAddressPlan([{ label: 'A', cidr: '10.20.1.0/24', dhcpStart: '10.20.1.10', dhcpEnd: '10.20.1.50', staticAddresses: ['10.20.1.20', '10.20.1.60', '10.20.1.30'] }]);
+    expect(codes(checkAddressPlan([{ label: 'A', cidr: '10.20.1.0/24', gateway: '10.20.1.1', dhcpStart: '10.20.1.1', dhcpEnd: '10.20.1.50' }]))).toEqual([
+      'dhcp_includes_gateway',
+    ]);
+    const f = checkAddressPlan([
+      { label: 'A', cidr: '10.20.1.0/24', dhcpStart: '10.20.1.10', dhcpEnd: '10.20.1.50', staticAddresses: ['10.20.1.20', '10.20.1.60', '10.20.1.30'] },
+    ]);
     expect(codes(f)).toEqual(['dhcp_collides_static']);
     expect(f[0].message).toMatch(/static addresses 10\.20\.1\.20, 10\.20\.1\.30/);
   });

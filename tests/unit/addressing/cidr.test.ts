@@ -2,7 +2,15 @@ import { describe, expect, it } from 'vitest';
 import ipaddr from 'ipaddr.js';
 import { Netmask } from 'netmask';
 import {
-  allocateSubnets, describeSubnet, formatCidr, formatIpv4, netmaskOf, parseCidr, parseIpv4, planAddresses, usableHosts,
+  allocateSubnets,
+  describeSubnet,
+  formatCidr,
+  formatIpv4,
+  netmaskOf,
+  parseCidr,
+  parseIpv4,
+  planAddresses,
+  usableHosts,
 } from '../../../shared/addressing/cidr';
 import { PlanningError } from '../../../shared/radio/errors';
 
@@ -20,7 +28,12 @@ describe('strict IPv4 parsing', () => {
   it('accepts four decimal parts 0–255 and agrees with ipaddr.js', () => {
     for (const text of ['0.0.0.0', '10.20.30.40', '255.255.255.255', '100.64.0.1']) {
       expect(ipaddr.IPv4.isValidFourPartDecimal(text)).toBe(true); // outside check
-      expect(parseIpv4(text)).toBe(ipaddr.parse(text).toByteArray().reduce((n, b) => n * 256 + b, 0));
+      expect(parseIpv4(text)).toBe(
+        ipaddr
+          .parse(text)
+          .toByteArray()
+          .reduce((n, b) => n * 256 + b, 0),
+      );
     }
   });
   it('refuses leading zeros, short forms and out-of-range parts', () => {
@@ -88,21 +101,29 @@ describe('describeSubnet', () => {
     expect(usableHosts(30)).toBe(2); // RFC 4632: 2^2 − 2
     expect(usableHosts(8)).toBe(16777214); // RFC 4632: 2^24 − 2
   });
-  it.each(['10.0.0.0/8', '172.16.0.0/12', '192.168.0.0/16', '100.64.0.0/10', '10.20.30.0/23', '10.20.30.64/26', '10.20.30.8/29', '10.20.30.4/30', '10.20.30.2/31', '10.20.30.3/32'])(
-    '%s agrees with netmask and ipaddr.js',
-    (cidr) => {
-      const mine = describeSubnet(parseCidr(cidr));
-      const ref = new Netmask(cidr); // outside check (netmask)
-      expect(mine.netmask).toBe(ref.mask);
-      expect(mine.firstHost).toBe(ref.first);
-      expect(mine.lastHost).toBe(ref.last);
-      expect(mine.broadcast).toBe(ref.broadcast ?? null);
-      const prefix = Number(cidr.split('/')[1]);
-      expect(mine.netmask).toBe(ipaddr.IPv4.subnetMaskFromPrefixLength(prefix).toString()); // outside check (ipaddr.js)
-      if (prefix < 31) expect(mine.broadcast).toBe(ipaddr.IPv4.broadcastAddressFromCIDR(cidr).toString());
-      expect(mine.usableHosts).toBe(prefix >= 31 ? ref.size : ref.size - 2); // RFC 4632 / RFC 3021
-    },
-  );
+  it.each([
+    '10.0.0.0/8',
+    '172.16.0.0/12',
+    '192.168.0.0/16',
+    '100.64.0.0/10',
+    '10.20.30.0/23',
+    '10.20.30.64/26',
+    '10.20.30.8/29',
+    '10.20.30.4/30',
+    '10.20.30.2/31',
+    '10.20.30.3/32',
+  ])('%s agrees with netmask and ipaddr.js', (cidr) => {
+    const mine = describeSubnet(parseCidr(cidr));
+    const ref = new Netmask(cidr); // outside check (netmask)
+    expect(mine.netmask).toBe(ref.mask);
+    expect(mine.firstHost).toBe(ref.first);
+    expect(mine.lastHost).toBe(ref.last);
+    expect(mine.broadcast).toBe(ref.broadcast ?? null);
+    const prefix = Number(cidr.split('/')[1]);
+    expect(mine.netmask).toBe(ipaddr.IPv4.subnetMaskFromPrefixLength(prefix).toString()); // outside check (ipaddr.js)
+    if (prefix < 31) expect(mine.broadcast).toBe(ipaddr.IPv4.broadcastAddressFromCIDR(cidr).toString());
+    expect(mine.usableHosts).toBe(prefix >= 31 ? ref.size : ref.size - 2); // RFC 4632 / RFC 3021
+  });
 });
 
 describe('allocateSubnets', () => {
@@ -137,8 +158,24 @@ describe('allocateSubnets', () => {
   it('gives the API answer with gateway = first host', () => {
     const { subnets } = planAddresses({ pool: '10.20.0.0/16', prefixLength: 31, count: 2, taken: ['10.20.0.0/31'] });
     expect(subnets).toEqual([
-      { cidr: '10.20.0.2/31', netmask: '255.255.255.254', gateway: '10.20.0.2', firstHost: '10.20.0.2', lastHost: '10.20.0.3', broadcast: null, usableHosts: 2 },
-      { cidr: '10.20.0.4/31', netmask: '255.255.255.254', gateway: '10.20.0.4', firstHost: '10.20.0.4', lastHost: '10.20.0.5', broadcast: null, usableHosts: 2 },
+      {
+        cidr: '10.20.0.2/31',
+        netmask: '255.255.255.254',
+        gateway: '10.20.0.2',
+        firstHost: '10.20.0.2',
+        lastHost: '10.20.0.3',
+        broadcast: null,
+        usableHosts: 2,
+      },
+      {
+        cidr: '10.20.0.4/31',
+        netmask: '255.255.255.254',
+        gateway: '10.20.0.4',
+        firstHost: '10.20.0.4',
+        lastHost: '10.20.0.5',
+        broadcast: null,
+        usableHosts: 2,
+      },
     ]);
   });
   it('allocates from a large pool quickly', () => {

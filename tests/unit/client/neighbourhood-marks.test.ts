@@ -4,15 +4,37 @@ import { countsInWords, countsKey, summariseNeighbourhoods } from '../../../src/
 import { stateWord } from '../../../src/components/state-badge';
 
 const node = (id: number, neighbourhoodId: number, state: TopologyNode['state']): TopologyNode => ({
-  id, name: `n${id}`, siteId: id, siteName: `s${id}`, neighbourhoodId, latitude: 0, longitude: 0, state, isUplink: false, lastSeenAt: null, openOutageId: null,
+  id,
+  name: `n${id}`,
+  siteId: id,
+  siteName: `s${id}`,
+  neighbourhoodId,
+  latitude: 0,
+  longitude: 0,
+  state,
+  isUplink: false,
+  lastSeenAt: null,
+  openOutageId: null,
 });
 
 describe('neighbourhood marks', () => {
   const nodes = [node(1, 7, 'online'), node(2, 7, 'offline'), node(3, 7, 'online'), node(4, 9, 'degraded')];
-  const positions = new Map([[1, { x: 0, y: 0 }], [2, { x: 30, y: 0 }], [3, { x: 0, y: 60 }], [4, { x: -5, y: -5 }]]);
+  const positions = new Map([
+    [1, { x: 0, y: 0 }],
+    [2, { x: 30, y: 0 }],
+    [3, { x: 0, y: 60 }],
+    [4, { x: -5, y: -5 }],
+  ]);
 
   it('counts each neighbourhood’s nodes by state and places its mark at their mean position', () => {
-    const [b, a] = summariseNeighbourhoods(nodes, positions, new Map([[7, 'Ropewalk End'], [9, 'Brinefold']]));
+    const [b, a] = summariseNeighbourhoods(
+      nodes,
+      positions,
+      new Map([
+        [7, 'Ropewalk End'],
+        [9, 'Brinefold'],
+      ]),
+    );
     expect(a).toMatchObject({ neighbourhoodId: 7, name: 'Ropewalk End', total: 3, centre: { x: 10, y: 20 } });
     expect(a.counts).toMatchObject({ online: 2, offline: 1, degraded: 0 });
     expect(b).toMatchObject({ neighbourhoodId: 9, name: 'Brinefold', total: 1, centre: { x: -5, y: -5 } });

@@ -2,7 +2,10 @@ import Papa from 'papaparse';
 import { describe, expect, it } from 'vitest';
 import { toSafeCsv } from '../../../shared/csv/csvSafe';
 
-const cells = (csv: string) => Papa.parse<string[]>(csv, { skipEmptyLines: true }).data.slice(1).map((r) => r[0]);
+const cells = (csv: string) =>
+  Papa.parse<string[]>(csv, { skipEmptyLines: true })
+    .data.slice(1)
+    .map((r) => r[0]);
 
 // OWASP, "CSV Injection": cells starting with = + - @, tab or carriage return are prefixed with ' (common practice).
 describe('toSafeCsv', () => {

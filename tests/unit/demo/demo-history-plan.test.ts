@@ -56,7 +56,11 @@ describe('the demo history plan', () => {
       for (let i = 1; i < sorted.length; i++) expect(sorted[i].after.getTime(), node).toBeGreaterThanOrEqual(sorted[i - 1].until.getTime());
     }
     const s = silences(plan);
-    for (const n of plan.backhaulFailure.behind) expect(s.get(n)!.some((x) => x.after.getTime() === plan.backhaulFailure.lastReportAt.getTime()), n).toBe(true);
+    for (const n of plan.backhaulFailure.behind)
+      expect(
+        s.get(n)!.some((x) => x.after.getTime() === plan.backhaulFailure.lastReportAt.getTime()),
+        n,
+      ).toBe(true);
   });
 
   it('puts several outages in last month, so its report reads like a real month', () => {

@@ -30,7 +30,16 @@ describe('availability from outages (time up ÷ time observed, REFERENCES.md)', 
   });
 
   it('merges overlapping outages instead of counting twice', () => {
-    expect(downSeconds([{ start: minsAgo(50), end: minsAgo(20) }, { start: minsAgo(40), end: minsAgo(10) }], minsAgo(60), now)).toBe(2400);
+    expect(
+      downSeconds(
+        [
+          { start: minsAgo(50), end: minsAgo(20) },
+          { start: minsAgo(40), end: minsAgo(10) },
+        ],
+        minsAgo(60),
+        now,
+      ),
+    ).toBe(2400);
   });
 
   it('measures only from when the node was first seen, and is null when nothing was observed', () => {

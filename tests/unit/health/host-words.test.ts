@@ -6,8 +6,11 @@ describe('host health sentence', () => {
   it.each([
     ['online', 'Your node on Quay Chandlery is working normally.'],
     ['offline', 'Your node on Quay Chandlery has not reported since 14:20; the operators have been told.'],
-    ['degraded', 'Your node on Quay Chandlery is working, but its signal or speed has been weaker than it should be since 14:25; ' +
-        'the operators can see this and will look into it.'],
+    [
+      'degraded',
+      'Your node on Quay Chandlery is working, but its signal or speed has been weaker than it should be since 14:25; ' +
+        'the operators can see this and will look into it.',
+    ],
     ['maintenance', 'Your node on Quay Chandlery is in an announced power-off or maintenance window; no one is alerted while it lasts.'],
     ['unknown', 'Your node on Quay Chandlery has not reported yet. Once it is installed and powered, it will show here within a few minutes.'],
   ] as const)('%s', (state, sentence) => {

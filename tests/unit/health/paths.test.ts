@@ -19,11 +19,18 @@ describe('paths to the uplink', () => {
 
   it('prefers live links over planned ones, then the larger weakest margin over fewer hops', () => {
     // 1 = uplink. Node 4: via 2 on a planned link with 30 dB, or via 3 (two live hops) with 8 dB weakest.
-    const g = buildGraph([node(1, true), node(2), node(3), node(4), node(5)], [
-      link(1, 2, 30), link(2, 4, 30, false), link(1, 3, 8), link(3, 4, 15),
-      // Node 5: one hop at 6 dB, or two hops whose weakest is 10 dB.
-      link(1, 5, 6), link(2, 5, 10),
-    ]);
+    const g = buildGraph(
+      [node(1, true), node(2), node(3), node(4), node(5)],
+      [
+        link(1, 2, 30),
+        link(2, 4, 30, false),
+        link(1, 3, 8),
+        link(3, 4, 15),
+        // Node 5: one hop at 6 dB, or two hops whose weakest is 10 dB.
+        link(1, 5, 6),
+        link(2, 5, 10),
+      ],
+    );
     const p = pathsToUplink(g);
     expect(pathNodes(p, 4)).toEqual([4, 3, 1]); // live beats planned, worked by hand
     expect(p.get(4)!.weakestMarginDb).toBe(8);
@@ -36,30 +43,51 @@ describe('paths to the uplink', () => {
   });
 
   it('breaks ties deterministically: fewer hops, then the lower uplink id, then the lower next node', () => {
-    const g = buildGraph([node(9, true), node(4, true), node(5), node(6), node(7), node(8)], [
-      link(9, 5, 20), link(4, 5, 20), // equal margin and hops to two uplinks → uplink 4
-      link(5, 7, 20), link(6, 7, 20), link(4, 6, 20), // 7 via 5 or via 6, both two hops from uplink 4 → next node 5
-      link(5, 8, 20), link(6, 8, 20), link(7, 8, 20), // 8: two hops via 5 or 6 beats three via 7 → 5
-    ]);
+    const g = buildGraph(
+      [node(9, true), node(4, true), node(5), node(6), node(7), node(8)],
+      [
+        link(9, 5, 20),
+        link(4, 5, 20), // equal margin and hops to two uplinks → uplink 4
+        link(5, 7, 20),
+        link(6, 7, 20),
+        link(4, 6, 20), // 7 via 5 or via 6, both two hops from uplink 4 → next node 5
+        link(5, 8, 20),
+        link(6, 8, 20),
+        link(7, 8, 20), // 8: two hops via 5 or 6 beats three via 7 → 5
+      ],
+    );
     const p = pathsToUplink(g);
     expect(p.get(5)!.uplinkId).toBe(4);
     expect(p.get(7)!.nextNodeId).toBe(5);
     expect(p.get(8)!.nextNodeId).toBe(5);
     // The same answer whatever order the links arrive in.
-    const shuffled = buildGraph([node(8), node(7), node(6), node(5), node(4, true), node(9, true)], [
-      { id: 8, nodeAId: 8, nodeBId: 7, live: true, fadeMarginDb: 20 }, { id: 1, nodeAId: 5, nodeBId: 9, live: true, fadeMarginDb: 20 },
-      { id: 7, nodeAId: 8, nodeBId: 6, live: true, fadeMarginDb: 20 }, { id: 2, nodeAId: 5, nodeBId: 4, live: true, fadeMarginDb: 20 },
-      { id: 6, nodeAId: 8, nodeBId: 5, live: true, fadeMarginDb: 20 }, { id: 3, nodeAId: 7, nodeBId: 5, live: true, fadeMarginDb: 20 },
-      { id: 5, nodeAId: 6, nodeBId: 4, live: true, fadeMarginDb: 20 }, { id: 4, nodeAId: 7, nodeBId: 6, live: true, fadeMarginDb: 20 },
-    ]);
+    const shuffled = buildGraph(
+      [node(8), node(7), node(6), node(5), node(4, true), node(9, true)],
+      [
+        { id: 8, nodeAId: 8, nodeBId: 7, live: true, fadeMarginDb: 20 },
+        { id: 1, nodeAId: 5, nodeBId: 9, live: true, fadeMarginDb: 20 },
+        { id: 7, nodeAId: 8, nodeBId: 6, live: true, fadeMarginDb: 20 },
+        { id: 2, nodeAId: 5, nodeBId: 4, live: true, fadeMarginDb: 20 },
+        { id: 6, nodeAId: 8, nodeBId: 5, live: true, fadeMarginDb: 20 },
+        { id: 3, nodeAId: 7, nodeBId: 5, live: true, fadeMarginDb: 20 },
+        { id: 5, nodeAId: 6, nodeBId: 4, live: true, fadeMarginDb: 20 },
+        { id: 4, nodeAId: 7, nodeBId: 6, live: true, fadeMarginDb: 20 },
+      ],
+    );
     const q = pathsToUplink(shuffled);
     for (const id of [5, 6, 7, 8]) expect(pathNodes(q, id)).toEqual(pathNodes(p, id));
   });
 
   it('handles cycles, treats margins within 0.1 dB as equal, and an unknown margin as the worst', () => {
-    const g = buildGraph([node(1, true), node(2), node(3), node(4)], [
-      link(1, 2, 20.02), link(2, 3, 20), link(3, 4, 20), link(4, 1, 19.98), // a ring
-    ]);
+    const g = buildGraph(
+      [node(1, true), node(2), node(3), node(4)],
+      [
+        link(1, 2, 20.02),
+        link(2, 3, 20),
+        link(3, 4, 20),
+        link(4, 1, 19.98), // a ring
+      ],
+    );
     const p = pathsToUplink(g);
     expect(p.size).toBe(4);
     expect(pathNodes(p, 3)).toEqual([3, 2, 1]); // both ways weakest 20.0 dB and two hops: lower next node (2)
@@ -77,7 +105,7 @@ describe('paths to the uplink', () => {
 
   it('matches brute force over every simple path on random small graphs', () => {
     let seed = 7;
-    const rand = () => ((seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31);
+    const rand = () => (seed = (seed * 1103515245 + 12345) % 2 ** 31) / 2 ** 31;
     for (let trial = 0; trial < 200; trial++) {
       const n = 7;
       const nodes = Array.from({ length: n }, (_, i) => node(i + 1, i === 0 || (i === 5 && trial % 3 === 0)));
@@ -114,9 +142,10 @@ function bestByBruteForce(nodes: GraphNode[], links: GraphLink[], from: number):
 
 describe('what a failure cuts off', () => {
   // uplink 1 — 2 (backhaul) — 3, 4, 5 (a neighbourhood); 2 — 6 — 7 and a second way 1 — 8 — 7.
-  const g = buildGraph([1, 2, 3, 4, 5, 6, 7, 8].map((id) => node(id, id === 1)), [
-    link(1, 2), link(2, 3), link(2, 4), link(4, 5), link(2, 6), link(6, 7), link(1, 8), link(8, 7),
-  ]);
+  const g = buildGraph(
+    [1, 2, 3, 4, 5, 6, 7, 8].map((id) => node(id, id === 1)),
+    [link(1, 2), link(2, 3), link(2, 4), link(4, 5), link(2, 6), link(6, 7), link(1, 8), link(8, 7)],
+  );
 
   it('a node behind a single backhaul depends on it; one with a second path does not', () => {
     expect(dependants(g, { nodeIds: [2] })).toEqual([3, 4, 5]); // 6 and 7 keep their path through 8

@@ -18,10 +18,14 @@ describe('public status words', () => {
   });
 
   it('describes an outage by kind of node and neighbourhood only', () => {
-    expect(outageSentence({ neighbourhood: 'Old Quay', state: 'offline', isUplink: false, sinceClock: '14:20' })).toBe('A rooftop node in Old Quay has been down since 14:20.');
+    expect(outageSentence({ neighbourhood: 'Old Quay', state: 'offline', isUplink: false, sinceClock: '14:20' })).toBe(
+      'A rooftop node in Old Quay has been down since 14:20.',
+    );
     expect(outageSentence({ neighbourhood: 'Old Quay', state: 'offline', isUplink: true, sinceClock: '9 Mar, 08:00' })).toBe(
       'The node that carries the internet uplink in Old Quay has been down since 9 Mar, 08:00.',
     );
-    expect(outageSentence({ neighbourhood: 'Millbrook', state: 'stranded', isUplink: false, sinceClock: '14:20' })).toMatch(/cut off since 14:20, because a link further up/);
+    expect(outageSentence({ neighbourhood: 'Millbrook', state: 'stranded', isUplink: false, sinceClock: '14:20' })).toMatch(
+      /cut off since 14:20, because a link further up/,
+    );
   });
 });

@@ -11,11 +11,25 @@ const link = (a: number, b: number, live = true): GraphLink => ({ id: ++linkId, 
 
 function scene(links: GraphLink[], states: Record<number, Partial<WatchedNode>> = {}) {
   const ids = [...new Set(links.flatMap((l) => [l.nodeAId, l.nodeBId]))];
-  const graph = buildGraph(ids.map((id) => ({ id, isUplink: id === 1 })), links);
+  const graph = buildGraph(
+    ids.map((id) => ({ id, isUplink: id === 1 })),
+    links,
+  );
   const topo = { graph, paths: pathsToUplink(graph), liveReach: reachable(graph, { liveOnly: true }) };
-  const nodes = new Map<number, WatchedNode>(ids.map((id) => [id, {
-    id, isUplink: id === 1, state: 'online' as NodeState, reportIntervalS: 60, offlineWindowS: 180, lastSeenAtMs: NOW - 181_000, ...states[id],
-  }]));
+  const nodes = new Map<number, WatchedNode>(
+    ids.map((id) => [
+      id,
+      {
+        id,
+        isUplink: id === 1,
+        state: 'online' as NodeState,
+        reportIntervalS: 60,
+        offlineWindowS: 180,
+        lastSeenAtMs: NOW - 181_000,
+        ...states[id],
+      },
+    ]),
+  );
   return { topo, nodes };
 }
 

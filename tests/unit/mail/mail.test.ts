@@ -22,7 +22,9 @@ describe('signed mail links', () => {
     expect(() => verifyLink('another-secret-entirely!', token, 'unsubscribe', now)).toThrow(expect.objectContaining({ status: 400 }));
   });
   it('refuses an expired link with 410', () => {
-    expect(() => verifyLink(SECRET, signLink(SECRET, claims), 'unsubscribe', new Date(now.getTime() + 61_000))).toThrow(expect.objectContaining({ status: 410 }));
+    expect(() => verifyLink(SECRET, signLink(SECRET, claims), 'unsubscribe', new Date(now.getTime() + 61_000))).toThrow(
+      expect.objectContaining({ status: 410 }),
+    );
   });
 });
 
@@ -52,7 +54,14 @@ describe('quiet hours (wall clock in the network time zone)', () => {
 
 describe('composed mail', () => {
   it('escapes database text in the HTML part and keeps the subject on one line', () => {
-    const m = compose('Node <x>\r\nBcc: y', [{ kind: 'p', text: '<script>alert(1)</script> & "q"' }, { kind: 'link', label: 'go', url: 'javascript:alert(1)' }], links);
+    const m = compose(
+      'Node <x>\r\nBcc: y',
+      [
+        { kind: 'p', text: '<script>alert(1)</script> & "q"' },
+        { kind: 'link', label: 'go', url: 'javascript:alert(1)' },
+      ],
+      links,
+    );
     expect(m.subject).toBe('Node <x> Bcc: y');
     expect(m.html).toContain('&lt;script&gt;alert(1)&lt;/script&gt; &amp; &quot;q&quot;');
     expect(m.html).not.toContain('javascript:');

@@ -32,10 +32,19 @@ describe('host steps in words', () => {
 describe('the host outage mail', () => {
   it('carries the recovery link and keeps the safety caution', () => {
     const footer = { preferencesUrl: 'https://p.example/pref', unsubscribeUrl: 'https://p.example/unsub' };
-    const mail = hostOffline({
-      recipientName: 'Wren', nodeName: 'lf-ropewalk', siteName: 'Ropewalk', neighbourhoodName: 'Old Quay', since: now, timeZone: 'UTC',
-      operators: [], recoveryUrl: 'https://p.example/recover?t=abc',
-    }, footer);
+    const mail = hostOffline(
+      {
+        recipientName: 'Wren',
+        nodeName: 'lf-ropewalk',
+        siteName: 'Ropewalk',
+        neighbourhoodName: 'Old Quay',
+        since: now,
+        timeZone: 'UTC',
+        operators: [],
+        recoveryUrl: 'https://p.example/recover?t=abc',
+      },
+      footer,
+    );
     expect(mail.text).toContain('https://p.example/recover?t=abc');
     expect(mail.html).toContain('href="https://p.example/recover?t=abc"');
     expect(mail.text).toMatch(/Safety: Do not climb onto the roof/);

@@ -5,7 +5,14 @@ import { nodeScopeSql } from '../../../server/policies/node';
 import { column, intArray } from '../../../server/policies/scopeSql';
 
 const actor = (over: Partial<Actor>): Actor => ({
-  id: 7, email: 'p@example.test', name: 'P', role: 'host', neighbourhoodIds: [], hostedSiteIds: [], hostedNeighbourhoodIds: [], ...over,
+  id: 7,
+  email: 'p@example.test',
+  name: 'P',
+  role: 'host',
+  neighbourhoodIds: [],
+  hostedSiteIds: [],
+  hostedNeighbourhoodIds: [],
+  ...over,
 });
 
 describe('raw-SQL scope builders', () => {

@@ -5,8 +5,20 @@ import { PlanningError } from '../../../shared/radio/errors';
 // A made-up rooftop in the demo town; 0.001° of latitude ≈ 111 m.
 const here = { lat: 47.5, lon: 8.7 };
 const north = (metres: number) => ({ lat: here.lat + metres / 111_195, lon: here.lon });
-const ap = (id: number, nodeId: number, band: '2.4' | '5' = '2.4', channelWidthMHz: 20 | 40 | 80 = 20): RadioToPlan => ({ id, nodeId, band, channelWidthMHz, ...here });
-const onAir = (nodeId: number, channel: number, metres: number, band: '2.4' | '5' = '2.4'): RadioOnAir => ({ nodeId, band, channel, channelWidthMHz: 20, ...north(metres) });
+const ap = (id: number, nodeId: number, band: '2.4' | '5' = '2.4', channelWidthMHz: 20 | 40 | 80 = 20): RadioToPlan => ({
+  id,
+  nodeId,
+  band,
+  channelWidthMHz,
+  ...here,
+});
+const onAir = (nodeId: number, channel: number, metres: number, band: '2.4' | '5' = '2.4'): RadioOnAir => ({
+  nodeId,
+  band,
+  channel,
+  channelWidthMHz: 20,
+  ...north(metres),
+});
 
 describe('recommendChannels', () => {
   it('keeps one node’s three 2.4 GHz radios apart: 1, 6, 11', () => {
@@ -39,7 +51,13 @@ describe('recommendChannels', () => {
   });
 
   it('avoids congestion seen in a site survey', () => {
-    const survey = { '2.4': [{ channel: 1, signalDbm: -40 }, { channel: 6, signalDbm: -50 }, { channel: 11, signalDbm: -85 }] };
+    const survey = {
+      '2.4': [
+        { channel: 1, signalDbm: -40 },
+        { channel: 6, signalDbm: -50 },
+        { channel: 11, signalDbm: -85 },
+      ],
+    };
     const [p] = recommendChannels({ region: 'US', radios: [ap(1, 10)], survey });
     expect(p.channel).not.toBe(1);
     expect(p.channel).not.toBe(6);

@@ -104,7 +104,8 @@ describe('validChannels and channelProblem: one rule for stored radios, forms an
   it('5 GHz primaries sit on the 5000 + 5n raster in steps of 4; 33, 70 and 196 are off it', () => {
     // IEEE 802.11 channel numbering with the region tables above (REFERENCES Channels)
     expect(validChannels('5', 20)).toEqual([...span(36, 64, 4), ...span(100, 144, 4), ...span(149, 165, 4)]);
-    for (const ch of [33, 70, 196]) expect(channelProblem('5', ch, 20)).toEqual({ field: 'channel', message: expect.stringMatching(/raster.*36–64, 100–144, 149–165 in steps of 4/) });
+    for (const ch of [33, 70, 196])
+      expect(channelProblem('5', ch, 20)).toEqual({ field: 'channel', message: expect.stringMatching(/raster.*36–64, 100–144, 149–165 in steps of 4/) });
   });
   it('2.4 GHz has no 80 MHz channel, and the problem names the width field', () => {
     expect(validChannels('2.4', 80)).toEqual([]); // IEEE 802.11-2020 clause 21: VHT is 5 GHz only

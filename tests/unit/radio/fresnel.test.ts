@@ -1,5 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { EARTH_RADIUS_KM, EFFECTIVE_EARTH_K, clearanceNeededM, earthBulgeM, fresnelRadiusM, midPathEarthBulgeM, midPathFresnelRadiusM } from '../../../shared/radio/fresnel';
+import {
+  EARTH_RADIUS_KM,
+  EFFECTIVE_EARTH_K,
+  clearanceNeededM,
+  earthBulgeM,
+  fresnelRadiusM,
+  midPathEarthBulgeM,
+  midPathFresnelRadiusM,
+} from '../../../shared/radio/fresnel';
 
 const within1Pct = (actual: number, expected: number) => expect(Math.abs(actual - expected) / expected).toBeLessThan(0.01);
 // ITU-R P.526 Annex 1 §2.1, practical form: R1[m] = 17.31·sqrt(d1·d2/(f GHz·D)), distances in km.

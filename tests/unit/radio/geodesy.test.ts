@@ -39,9 +39,18 @@ describe('WGS84 geodesic (Karney 2013, GeographicLib)', () => {
 
   it('agrees with GeographicLib called directly (outside check)', () => {
     const pairs = [
-      [[-33.86, 151.21], [-33.9, 151.3]],
-      [[64.1, -21.9], [64.2, -21.5]],
-      [[0.5, 179.9], [0.4, -179.95]],
+      [
+        [-33.86, 151.21],
+        [-33.9, 151.3],
+      ],
+      [
+        [64.1, -21.9],
+        [64.2, -21.5],
+      ],
+      [
+        [0.5, 179.9],
+        [0.4, -179.95],
+      ],
     ] as const;
     for (const [[lat1, lon1], [lat2, lon2]] of pairs) {
       const ref = Geodesic.WGS84.Inverse(lat1, lon1, lat2, lon2);
@@ -55,10 +64,22 @@ describe('WGS84 geodesic (Karney 2013, GeographicLib)', () => {
     // REFERENCES Distance and bearing: the sphere differs from WGS84 by up to about 0.5 %
     const cases = [
       [JFK, SIN],
-      [{ lat: -41.32, lon: 174.81 }, { lat: 40.96, lon: -5.5 }],
-      [{ lat: 60, lon: 10 }, { lat: 60.05, lon: 10.1 }],
-      [{ lat: 0, lon: 0 }, { lat: 0, lon: 0.1 }],
-      [{ lat: 45, lon: 7 }, { lat: 45.1, lon: 7 }],
+      [
+        { lat: -41.32, lon: 174.81 },
+        { lat: 40.96, lon: -5.5 },
+      ],
+      [
+        { lat: 60, lon: 10 },
+        { lat: 60.05, lon: 10.1 },
+      ],
+      [
+        { lat: 0, lon: 0 },
+        { lat: 0, lon: 0.1 },
+      ],
+      [
+        { lat: 45, lon: 7 },
+        { lat: 45.1, lon: 7 },
+      ],
     ];
     for (const [a, b] of cases) {
       const geo = (Geodesic.WGS84.Inverse(a.lat, a.lon, b.lat, b.lon).s12 ?? NaN) / 1000; // GeographicLib (outside check)

@@ -14,13 +14,21 @@ describe('link verdict', () => {
   });
 
   it('flags only a link well below both its prediction and its own baseline (common practice, no source)', () => {
-    expect(assessLinkHealth({ measuredSignalDbm: -70, predictedSignalDbm: -55, baselineSignalDbm: -60 })).toEqual({ belowPredictionDb: 15, belowBaselineDb: 10, flagged: true });
+    expect(assessLinkHealth({ measuredSignalDbm: -70, predictedSignalDbm: -55, baselineSignalDbm: -60 })).toEqual({
+      belowPredictionDb: 15,
+      belowBaselineDb: 10,
+      flagged: true,
+    });
     expect(assessLinkHealth({ measuredSignalDbm: -70, predictedSignalDbm: -55, baselineSignalDbm: -66 }).flagged).toBe(false); // always weak
     // prediction was optimistic only 8 dB
     expect(assessLinkHealth({ measuredSignalDbm: -70, predictedSignalDbm: -62, baselineSignalDbm: -55 }).flagged).toBe(false);
     // exactly 10 dB is not "more than"
     expect(assessLinkHealth({ measuredSignalDbm: -70, predictedSignalDbm: -60, baselineSignalDbm: -64 }).flagged).toBe(false);
-    expect(assessLinkHealth({ measuredSignalDbm: null, predictedSignalDbm: -55, baselineSignalDbm: -60 })).toEqual({ belowPredictionDb: null, belowBaselineDb: null, flagged: false });
+    expect(assessLinkHealth({ measuredSignalDbm: null, predictedSignalDbm: -55, baselineSignalDbm: -60 })).toEqual({
+      belowPredictionDb: null,
+      belowBaselineDb: null,
+      flagged: false,
+    });
   });
 });
 

@@ -10,7 +10,22 @@ const radio = { freqMHz: 5800, channelWidthMHz: 20 as const, txPowerDbm: 20, txA
 describe('computeLinkBudget with distanceKm only', () => {
   const r = computeLinkBudget({ ...radio, distanceKm: 5 });
   it('returns the API.md answer fields, first and second edition', () => {
-    const first = ['azimuthDeg', 'clearanceNeededM', 'distanceKm', 'earthBulgeM', 'eirpDbm', 'expectedRateMbps', 'fadeMarginDb', 'fresnelRadiusM', 'fsplDb', 'noiseFloorDbm', 'reverseAzimuthDeg', 'rxSignalDbm', 'snrDb', 'tiltDeg'];
+    const first = [
+      'azimuthDeg',
+      'clearanceNeededM',
+      'distanceKm',
+      'earthBulgeM',
+      'eirpDbm',
+      'expectedRateMbps',
+      'fadeMarginDb',
+      'fresnelRadiusM',
+      'fsplDb',
+      'noiseFloorDbm',
+      'reverseAzimuthDeg',
+      'rxSignalDbm',
+      'snrDb',
+      'tiltDeg',
+    ];
     const second = ['lineOfSight', 'radioHorizonKm', 'diffractionLossDb', 'roundTripUs', 'warnings', 'terrainUsed'];
     expect(Object.keys(r)).toEqual(expect.arrayContaining([...first, ...second]));
     expect(r.azimuthDeg).toBeNull();
@@ -41,7 +56,9 @@ describe('computeLinkBudget with distanceKm only', () => {
     // A receiver noisier than the 10 dB the tables assume (from memory) loses the difference: NF 13 → 3 dB less margin.
     const noisy = computeLinkBudget({ ...radio, distanceKm: 5, noiseFigureDb: 13 });
     expect(noisy.fadeMarginDb).toBeCloseTo(r.fadeMarginDb - 3, 6);
-    expect(computeLinkBudget({ ...radio, distanceKm: 30, noiseFigureDb: 15 }).expectedRateMbps).toBeLessThan(computeLinkBudget({ ...radio, distanceKm: 30 }).expectedRateMbps);
+    expect(computeLinkBudget({ ...radio, distanceKm: 30, noiseFigureDb: 15 }).expectedRateMbps).toBeLessThan(
+      computeLinkBudget({ ...radio, distanceKm: 30 }).expectedRateMbps,
+    );
   });
   it('predicts no rate and a negative margin on a hopeless link', () => {
     const far = computeLinkBudget({ ...radio, txAntennaGainDbi: 2, rxAntennaGainDbi: 2, distanceKm: 40 });
@@ -69,7 +86,9 @@ describe('computeLinkBudget between two sites', () => {
     for (const v of [r.reverseAzimuthDeg!, r.tiltDeg!]) expect(Number(v.toFixed(3))).toBe(v);
   });
   it('refuses sites farther apart than 500 km, as distanceKm is', () => {
-    expect(() => computeLinkBudget({ ...radio, a: { lat: 47, lon: 8, heightM: 10 }, b: { lat: 47, lon: 80, heightM: 10 } })).toThrow(/km apart; links are planned up to 500 km/);
+    expect(() => computeLinkBudget({ ...radio, a: { lat: 47, lon: 8, heightM: 10 }, b: { lat: 47, lon: 80, heightM: 10 } })).toThrow(
+      /km apart; links are planned up to 500 km/,
+    );
   });
   it('refuses two sites in the same place, a lone site, or both forms', () => {
     const expectPlanningError = (input: LinkBudgetInput, code: string) => {
@@ -122,13 +141,23 @@ describe('second edition: line of sight, horizon, diffraction, rates', () => {
     // ν = 1: h = 1/√(2/λ·(1/1000 + 1/1000)), λ = c/5.8 GHz = 0.05169 m → h = 3.595 m above the line
     const lambda = 299792458 / 5.8e9;
     const h1 = 1 / Math.sqrt((2 / lambda) * (2 / 1000));
-    const blocked = computeLinkBudget({ ...radio, a, b, obstacles: [{ distanceKm: 1, heightM: 10 - 0.0589 + h1 }, { distanceKm: 0.5, heightM: 2 }] });
+    const blocked = computeLinkBudget({
+      ...radio,
+      a,
+      b,
+      obstacles: [
+        { distanceKm: 1, heightM: 10 - 0.0589 + h1 },
+        { distanceKm: 0.5, heightM: 2 },
+      ],
+    });
     expect(Math.abs(blocked.diffractionLossDb - 13.9)).toBeLessThan(0.1); // REFERENCES: J(1) ≈ 13.9 dB, the worst obstacle counts
     expect(blocked.rxSignalDbm).toBeCloseTo(touching.rxSignalDbm - (blocked.diffractionLossDb - touching.diffractionLossDb), 1);
     expect(blocked.lineOfSight).toMatchObject({ clear: false, blockedBy: 'obstacle', atDistanceKm: 1 });
     const low = computeLinkBudget({ ...radio, a, b, obstacles: [{ distanceKm: 1, heightM: 0 }] });
     expect(low.diffractionLossDb).toBe(0); // ν ≤ −0.78: no loss (ITU-R P.526)
-    expect(() => computeLinkBudget({ ...radio, a, b, obstacles: [{ distanceKm: 3, heightM: 0 }] })).toThrow(/obstacles\.0\.distanceKm 3 km is not between the two ends/);
+    expect(() => computeLinkBudget({ ...radio, a, b, obstacles: [{ distanceKm: 3, heightM: 0 }] })).toThrow(
+      /obstacles\.0\.distanceKm 3 km is not between the two ends/,
+    );
   });
   it('rates from the HT and VHT tables with streams and guard interval (IEEE 802.11-2020 clauses 19 and 21)', () => {
     const strong = { ...radio, distanceKm: 0.5 };

@@ -2,7 +2,15 @@ import { describe, expect, it } from 'vitest';
 import { computeRegulatory, type RegulatoryInput } from '../../../shared/radio/regulatory';
 import { PlanningError } from '../../../shared/radio/errors';
 
-const us = (over: Partial<RegulatoryInput>): RegulatoryInput => ({ region: 'US', freqMHz: 2437, antennaGainDbi: 6, txPowerDbm: 20, cableLossDb: 0, linkType: 'point-to-point', ...over });
+const us = (over: Partial<RegulatoryInput>): RegulatoryInput => ({
+  region: 'US',
+  freqMHz: 2437,
+  antennaGainDbi: 6,
+  txPowerDbm: 20,
+  cableLossDb: 0,
+  linkType: 'point-to-point',
+  ...over,
+});
 const eu = (over: Partial<RegulatoryInput>): RegulatoryInput => ({ ...us(over), region: 'EU', ...over });
 
 describe('US 47 CFR §15.247, 2400–2483.5 MHz', () => {

@@ -18,15 +18,21 @@ describe('linkBudgetBodySchema', () => {
     expect(linkBudgetBodySchema.safeParse({ ...radio, distanceKm: 3.2 }).success).toBe(true);
   });
   it('wants exactly one of the two forms', () => {
-    expect(messages(linkBudgetBodySchema.safeParse({ ...radio, a, b, distanceKm: 3 }))).toEqual(['distanceKm: Give either sites a and b or distanceKm, not both']);
+    expect(messages(linkBudgetBodySchema.safeParse({ ...radio, a, b, distanceKm: 3 }))).toEqual([
+      'distanceKm: Give either sites a and b or distanceKm, not both',
+    ]);
     expect(messages(linkBudgetBodySchema.safeParse({ ...radio }))).toEqual(['a: Give sites a and b, or distanceKm']);
     expect(messages(linkBudgetBodySchema.safeParse({ ...radio, a }))).toEqual(['b: Both sites a and b are needed']);
     expect(messages(linkBudgetBodySchema.safeParse({ ...radio, a, b: { ...a } }))).toEqual(['b: Sites a and b are the same place; pick two different sites']);
   });
   it('rejects physically impossible input with a readable message', () => {
     expect(messages(linkBudgetBodySchema.safeParse({ ...radio, distanceKm: -1 }))).toEqual(['distanceKm: distanceKm must be greater than 0 km']);
-    expect(messages(linkBudgetBodySchema.safeParse({ ...radio, freqMHz: 3000, distanceKm: 1 }))).toEqual(['freqMHz: freqMHz must be a Wi-Fi frequency: 2400–2500 or 4900–5900 MHz']);
-    expect(messages(linkBudgetBodySchema.safeParse({ ...radio, channelWidthMHz: 30, distanceKm: 1 }))).toEqual(['channelWidthMHz: channelWidthMHz must be 20, 40 or 80']);
+    expect(messages(linkBudgetBodySchema.safeParse({ ...radio, freqMHz: 3000, distanceKm: 1 }))).toEqual([
+      'freqMHz: freqMHz must be a Wi-Fi frequency: 2400–2500 or 4900–5900 MHz',
+    ]);
+    expect(messages(linkBudgetBodySchema.safeParse({ ...radio, channelWidthMHz: 30, distanceKm: 1 }))).toEqual([
+      'channelWidthMHz: channelWidthMHz must be 20, 40 or 80',
+    ]);
     expect(messages(linkBudgetBodySchema.safeParse({ ...radio, a: { ...a, lat: 91 }, b }))).toEqual(['a.lat: lat must be at most 90 degrees']);
     expect(messages(linkBudgetBodySchema.safeParse({ ...radio, a, b: { ...b, heightM: -2 } }))).toEqual(['b.heightM: heightM must be at least 0 m']);
     expect(messages(linkBudgetBodySchema.safeParse({ ...radio, txPowerDbm: '20', distanceKm: 1 }))).toEqual(['txPowerDbm: txPowerDbm must be a number']);
@@ -40,7 +46,9 @@ describe('regulatoryBodySchema', () => {
   });
   it('rejects other regions, link types and non-Wi-Fi frequencies', () => {
     expect(messages(regulatoryBodySchema.safeParse({ ...body, region: 'JP' }))).toEqual(['region: region must be US or EU']);
-    expect(messages(regulatoryBodySchema.safeParse({ ...body, linkType: 'mesh' }))).toEqual(['linkType: linkType must be point-to-point or point-to-multipoint']);
+    expect(messages(regulatoryBodySchema.safeParse({ ...body, linkType: 'mesh' }))).toEqual([
+      'linkType: linkType must be point-to-point or point-to-multipoint',
+    ]);
     expect(messages(regulatoryBodySchema.safeParse({ ...body, freqMHz: 900 }))).toHaveLength(1);
     expect(messages(regulatoryBodySchema.safeParse({ ...body, cableLossDb: -1 }))).toEqual(['cableLossDb: cableLossDb must be at least 0 dB']);
   });
@@ -49,7 +57,10 @@ describe('regulatoryBodySchema', () => {
 describe('channelsQuerySchema', () => {
   it('accepts US|EU|JP and 2.4|5 only', () => {
     expect(channelsQuerySchema.safeParse({ region: 'JP', band: '2.4' }).success).toBe(true);
-    expect(messages(channelsQuerySchema.safeParse({ region: 'UK', band: '6' }))).toEqual(['region: region must be US, EU or JP', 'band: band must be 2.4 or 5']);
+    expect(messages(channelsQuerySchema.safeParse({ region: 'UK', band: '6' }))).toEqual([
+      'region: region must be US, EU or JP',
+      'band: band must be 2.4 or 5',
+    ]);
   });
 });
 
@@ -66,7 +77,9 @@ describe('addressPlanBodySchema', () => {
   it('bounds count and prefix length', () => {
     expect(messages(addressPlanBodySchema.safeParse({ pool: '10.20.0.0/16', prefixLength: 24, count: 0 }))).toEqual(['count: count must be 1–4096']);
     expect(messages(addressPlanBodySchema.safeParse({ pool: '10.20.0.0/16', prefixLength: 24, count: 5000 }))).toEqual(['count: count must be 1–4096']);
-    expect(messages(addressPlanBodySchema.safeParse({ pool: '10.20.0.0/16', prefixLength: 33, count: 1 }))).toEqual(['prefixLength: prefixLength must be 1–32 for an IPv4 pool']);
+    expect(messages(addressPlanBodySchema.safeParse({ pool: '10.20.0.0/16', prefixLength: 33, count: 1 }))).toEqual([
+      'prefixLength: prefixLength must be 1–32 for an IPv4 pool',
+    ]);
     expect(messages(addressPlanBodySchema.safeParse({ pool: '10.20.0.0/16', prefixLength: 12, count: 1 }))).toEqual([
       "prefixLength: prefixLength /12 is shorter than the pool's /16; use /16 or longer",
     ]);
@@ -79,7 +92,9 @@ describe('parsed bodies feed the computations directly (thin routes)', () => {
     const { planAddresses } = await import('../../../shared/addressing');
     const lb = computeLinkBudget(linkBudgetBodySchema.parse({ ...radio, a, b }));
     expect(lb.azimuthDeg).not.toBeNull();
-    const reg = computeRegulatory(regulatoryBodySchema.parse({ region: 'US', freqMHz: 2437, antennaGainDbi: 24, txPowerDbm: 24, cableLossDb: 0, linkType: 'point-to-point' }));
+    const reg = computeRegulatory(
+      regulatoryBodySchema.parse({ region: 'US', freqMHz: 2437, antennaGainDbi: 24, txPowerDbm: 24, cableLossDb: 0, linkType: 'point-to-point' }),
+    );
     expect([reg.maxTxPowerDbm, reg.maxEirpDbm]).toEqual([24, 48]); // REFERENCES §15.247 worked example
     const q = channelsQuerySchema.parse({ region: 'US', band: '2.4' });
     expect(listChannels(q.region, q.band).channels).toHaveLength(11); // REFERENCES Channels: US 1–11

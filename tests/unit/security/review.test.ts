@@ -3,7 +3,13 @@ import { pskProblem, reviewKeyReuse, reviewRadio, sortFindings, type RadioSecuri
 import { passphraseStrength } from '../../../shared/security/strength';
 
 const radio = (over: Partial<RadioSecurityInput>): RadioSecurityInput => ({
-  id: 1, role: 'access-point', ssid: 'Riverside Commons', encryption: 'wpa2-ccmp', preSharedKey: 'tangle-orbit-pepper-glacier-47', groupRekeyS: 600, ...over,
+  id: 1,
+  role: 'access-point',
+  ssid: 'Riverside Commons',
+  encryption: 'wpa2-ccmp',
+  preSharedKey: 'tangle-orbit-pepper-glacier-47',
+  groupRekeyS: 600,
+  ...over,
 });
 const codes = (f: SecurityFinding[]) => f.map((x) => `${x.code}:${x.severity}`);
 

@@ -14,7 +14,11 @@ export const alertKeys = {
 };
 
 export function useOutbox(params: ListParams) {
-  return useQuery({ queryKey: alertKeys.outbox(params), queryFn: () => api.get<ListResponse<OutboxMessageDto>>('/outbox', params), placeholderData: keepPreviousData });
+  return useQuery({
+    queryKey: alertKeys.outbox(params),
+    queryFn: () => api.get<ListResponse<OutboxMessageDto>>('/outbox', params),
+    placeholderData: keepPreviousData,
+  });
 }
 
 export function useRetryMessage() {
@@ -52,7 +56,8 @@ export function useMaintenanceWindows(nodeId: number) {
 // Announcing or cancelling a window can change the node's state, so the node is read again too.
 function useInvalidateNode(nodeId: number) {
   const queryClient = useQueryClient();
-  return () => Promise.all([alertKeys.maintenance(nodeId), nodeKeys.detail(nodeId)].map((queryKey) => queryClient.invalidateQueries({ queryKey: [...queryKey] })));
+  return () =>
+    Promise.all([alertKeys.maintenance(nodeId), nodeKeys.detail(nodeId)].map((queryKey) => queryClient.invalidateQueries({ queryKey: [...queryKey] })));
 }
 
 export function useAnnounceMaintenance(nodeId: number) {

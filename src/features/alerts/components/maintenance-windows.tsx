@@ -37,7 +37,9 @@ export function MaintenanceWindows({ nodeId }: { nodeId: number }) {
 
   return (
     <section aria-labelledby={`maintenance-${nodeId}`} className="space-y-3" data-testid="maintenance-windows">
-      <h2 id={`maintenance-${nodeId}`} className="text-base font-semibold">Planned maintenance</h2>
+      <h2 id={`maintenance-${nodeId}`} className="text-base font-semibold">
+        Planned maintenance
+      </h2>
       {rows.length === 0 ? (
         <p className="text-sm text-muted">Nothing announced. Announce a window before switching the node off, so nobody is alarmed.</p>
       ) : (
@@ -45,7 +47,9 @@ export function MaintenanceWindows({ nodeId }: { nodeId: number }) {
           {rows.map((w) => (
             <li key={w.id} className="flex flex-wrap items-center gap-3 px-3 py-2 text-sm">
               <span className="font-medium">{STATUS_WORDS[w.status]}</span>
-              <span>{formatDateTime(w.startsAt)} – {formatDateTime(w.endsAt)}</span>
+              <span>
+                {formatDateTime(w.startsAt)} – {formatDateTime(w.endsAt)}
+              </span>
               {w.reason && <span className="text-muted">{w.reason}</span>}
               {w.createdBy && <span className="text-muted">by {w.createdBy.name}</span>}
               {w.abilities.cancel && (
@@ -65,7 +69,9 @@ export function MaintenanceWindows({ nodeId }: { nodeId: number }) {
             <TextField label="Reason (optional)" maxLength={500} {...form.field('reason')} />
           </div>
           <div className="sm:col-span-2 space-y-2">
-            <Caution>Switching off roof equipment can mean ladders, roofs and mains power. Follow local rules and leave that work to people trained or licensed for it.</Caution>
+            <Caution>
+              Switching off roof equipment can mean ladders, roofs and mains power. Follow local rules and leave that work to people trained or licensed for it.
+            </Caution>
             <FormMessage message={form.formError} />
             <FormActions label="Announce maintenance" busy={announce.isPending} busyLabel="Announcing…" />
           </div>

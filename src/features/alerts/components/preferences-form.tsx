@@ -48,8 +48,15 @@ export function PreferencesForm({ preferences }: { preferences: PreferencesDto }
         setSaved(false);
         void send(event);
       }}
-      noValidate className="max-w-xl space-y-6" data-testid="preferences-form">
-      {preferences.unsubscribedAt && <p className="rounded-md border border-line bg-sunken px-3 py-2 text-sm">You unsubscribed from all Parapet mail. Choosing any mail below turns it back on.</p>}
+      noValidate
+      className="max-w-xl space-y-6"
+      data-testid="preferences-form"
+    >
+      {preferences.unsubscribedAt && (
+        <p className="rounded-md border border-line bg-sunken px-3 py-2 text-sm">
+          You unsubscribed from all Parapet mail. Choosing any mail below turns it back on.
+        </p>
+      )}
       {applies.operator && (
         <fieldset className="space-y-3">
           <legend className="text-base font-semibold">Outages in your neighbourhoods</legend>

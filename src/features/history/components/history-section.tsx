@@ -23,7 +23,9 @@ export function HistorySection({ table, recordId }: { table: AuditedTable; recor
         <>
           <HistoryList entries={history.data.data} />
           {history.data.pagination.total > history.data.data.length && (
-            <Button className="mt-3" onClick={() => setPageSize((n) => n + 20)}>Show older changes</Button>
+            <Button className="mt-3" onClick={() => setPageSize((n) => n + 20)}>
+              Show older changes
+            </Button>
           )}
         </>
       )}

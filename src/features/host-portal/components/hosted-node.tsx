@@ -17,7 +17,9 @@ export function HostedNode({ node }: { node: HostedNodeDto }) {
         <h3 className="text-base font-semibold">{node.name}</h3>
         <StateBadge state={node.state} />
       </div>
-      <p className="text-base" data-testid="health-summary">{node.summary}</p>
+      <p className="text-base" data-testid="health-summary">
+        {node.summary}
+      </p>
       <dl className="grid grid-cols-2 gap-2 text-sm">
         <div className="rounded-md border border-line p-2">
           <dt className="text-muted">Working, last 30 days</dt>

@@ -21,7 +21,6 @@ export function useRecordStep(token: string) {
   return useMutation({
     mutationFn: (input: { step: HostStep; note?: string }) =>
       api.post<{ data: TimelineEntryDto }>('/recovery/host-steps', { t: token, ...input }).then((body) => body.data),
-    onSuccess: (entry) =>
-      queryClient.setQueryData<RecoveryDto>(recoveryKeys.page(token), (page) => (page ? { ...page, steps: [...page.steps, entry] } : page)),
+    onSuccess: (entry) => queryClient.setQueryData<RecoveryDto>(recoveryKeys.page(token), (page) => (page ? { ...page, steps: [...page.steps, entry] } : page)),
   });
 }

@@ -64,7 +64,13 @@ export function LinkEditor({ nodeId, canManage, children }: LinkEditorProps) {
     <div className="space-y-3">
       {canManage && editing.kind === 'none' && <Button onClick={() => setEditing({ kind: 'new' })}>Add a link</Button>}
       {editing.kind !== 'none' && (
-        <LinkForm key={editing.kind === 'edit' ? editing.link.id : 'new'} nodeId={nodeId} link={editing.kind === 'edit' ? editing.link : undefined} onSaved={close} onCancel={close} />
+        <LinkForm
+          key={editing.kind === 'edit' ? editing.link.id : 'new'}
+          nodeId={nodeId}
+          link={editing.kind === 'edit' ? editing.link : undefined}
+          onSaved={close}
+          onCancel={close}
+        />
       )}
       <FormMessage message={removeError} />
       {children(actionsFor)}

@@ -10,7 +10,10 @@ import { useNodeChoices, useRadioChoices, useSiteChoices } from '../../../lib/in
 import { paths } from '../../../lib/paths';
 import { useCreateLink, useUpdateLink } from '../api/links';
 
-const STATUS_OPTIONS: Option[] = LINK_STATUSES.map((s) => ({ value: s, label: s === 'live' ? 'Live (installed and carrying traffic)' : 'Planned (not installed yet)' }));
+const STATUS_OPTIONS: Option[] = LINK_STATUSES.map((s) => ({
+  value: s,
+  label: s === 'live' ? 'Live (installed and carrying traffic)' : 'Planned (not installed yet)',
+}));
 const radioLabel = (r: RadioDto) => `${r.iface} · ${r.band} GHz ch ${r.channel} (${r.channelWidthMHz} MHz)${r.ssid ? ` · ${r.ssid}` : ''}`;
 const radioOptions = (rows: RadioDto[] | undefined): Option[] => (rows ?? []).map((r) => ({ value: String(r.id), label: radioLabel(r) }));
 
@@ -56,9 +59,7 @@ function NewLink({ nodeId, onSaved, onCancel }: Omit<LinkFormProps, 'link'>) {
   const farRadios = useRadioChoices(farNodeId ? Number(farNodeId) : null);
   const { field, setValue } = form;
 
-  const nodeOptions: Option[] = farSiteId
-    ? (farNodes.data ?? []).filter((n) => n.id !== nodeId).map((n) => ({ value: String(n.id), label: n.name }))
-    : [];
+  const nodeOptions: Option[] = farSiteId ? (farNodes.data ?? []).filter((n) => n.id !== nodeId).map((n) => ({ value: String(n.id), label: n.name })) : [];
 
   const submit = form.handleSubmit((input) => create.mutate(input, { onSuccess: onSaved, onError: form.showServerError }));
 
@@ -109,7 +110,11 @@ function NewLink({ nodeId, onSaved, onCancel }: Omit<LinkFormProps, 'link'>) {
           hint={
             farNodeId && farRadios.isSuccess && farRadios.data.length === 0 ? (
               <>
-                Add its radio on <Link to={paths.nodeDetail.to(Number(farNodeId))} className="text-accent hover:underline">the far node's page</Link> first.
+                Add its radio on{' '}
+                <Link to={paths.nodeDetail.to(Number(farNodeId))} className="text-accent hover:underline">
+                  the far node's page
+                </Link>{' '}
+                first.
               </>
             ) : undefined
           }

@@ -21,15 +21,11 @@ export const useDeleteNeighbourhood = neighbourhoods.useRemove;
 export function useAssignOperators(id: number) {
   const queryClient = useQueryClient();
   return useMutation({
-    mutationFn: (userIds: number[]) =>
-      api.put<{ data: NeighbourhoodDto }>(`/neighbourhoods/${id}/operators`, { userIds }).then((body) => body.data),
+    mutationFn: (userIds: number[]) => api.put<{ data: NeighbourhoodDto }>(`/neighbourhoods/${id}/operators`, { userIds }).then((body) => body.data),
     onSuccess: async (data) => {
       queryClient.setQueryData(neighbourhoodKeys.detail(id), data);
       // Each person's record lists their neighbourhoods too.
-      await Promise.all([
-        queryClient.invalidateQueries({ queryKey: neighbourhoodKeys.all }),
-        queryClient.invalidateQueries({ queryKey: peopleKeys.all }),
-      ]);
+      await Promise.all([queryClient.invalidateQueries({ queryKey: neighbourhoodKeys.all }), queryClient.invalidateQueries({ queryKey: peopleKeys.all })]);
     },
   });
 }
@@ -46,7 +42,8 @@ export function useAssignNodes(id: number) {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (nodeIds: number[]) => api.post<{ data: { moved: number; unchanged: number } }>(`/neighbourhoods/${id}/nodes`, { nodeIds }).then((b) => b.data),
-    onSuccess: () => Promise.all([neighbourhoodKeys.all, nodeKeys.all, overviewKeys.all].map((queryKey) => queryClient.invalidateQueries({ queryKey: [...queryKey] }))),
+    onSuccess: () =>
+      Promise.all([neighbourhoodKeys.all, nodeKeys.all, overviewKeys.all].map((queryKey) => queryClient.invalidateQueries({ queryKey: [...queryKey] }))),
   });
 }
 

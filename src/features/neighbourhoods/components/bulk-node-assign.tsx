@@ -32,7 +32,15 @@ export function BulkNodeAssign({ neighbourhoodId, neighbourhoodNames }: { neighb
     {
       key: 'pick',
       header: 'Move',
-      render: (n) => <input type="checkbox" aria-label={`Move ${n.name}`} checked={picked.has(n.id)} disabled={n.neighbourhoodId === neighbourhoodId} onChange={() => toggle(n.id)} />,
+      render: (n) => (
+        <input
+          type="checkbox"
+          aria-label={`Move ${n.name}`}
+          checked={picked.has(n.id)}
+          disabled={n.neighbourhoodId === neighbourhoodId}
+          onChange={() => toggle(n.id)}
+        />
+      ),
     },
     { key: 'name', header: 'Node', render: (n) => n.name },
     { key: 'state', header: 'State', render: (n) => <StateBadge state={n.state} /> },
@@ -46,24 +54,63 @@ export function BulkNodeAssign({ neighbourhoodId, neighbourhoodNames }: { neighb
       <div className="flex flex-wrap items-end gap-3">
         <label className="block max-w-sm text-sm font-medium">
           Find nodes
-          <input type="search" value={q} onChange={(e) => { setQ(e.target.value); setPage(1); }} className="mt-1 block w-full rounded-md border border-line-strong bg-surface px-2.5 py-1.5 text-sm" />
+          <input
+            type="search"
+            value={q}
+            onChange={(e) => {
+              setQ(e.target.value);
+              setPage(1);
+            }}
+            className="mt-1 block w-full rounded-md border border-line-strong bg-surface px-2.5 py-1.5 text-sm"
+          />
         </label>
-        <FilterSelect label="Now in" value={from} onChange={(v) => { setFrom(v); setPage(1); }} options={[...neighbourhoodNames].map(([id, name]) => ({ value: String(id), label: name }))} />
-        <FilterSelect label="State" value={state} onChange={(v) => { setState(v); setPage(1); }} options={NODE_STATES.map((s) => ({ value: s, label: s }))} />
+        <FilterSelect
+          label="Now in"
+          value={from}
+          onChange={(v) => {
+            setFrom(v);
+            setPage(1);
+          }}
+          options={[...neighbourhoodNames].map(([id, name]) => ({ value: String(id), label: name }))}
+        />
+        <FilterSelect
+          label="State"
+          value={state}
+          onChange={(v) => {
+            setState(v);
+            setPage(1);
+          }}
+          options={NODE_STATES.map((s) => ({ value: s, label: s }))}
+        />
       </div>
       <DataTable testId="node-candidates" caption="Nodes to move" rows={rows} columns={columns} rowKey={(n) => n.id} />
       <div className="flex flex-wrap items-center gap-2 text-sm">
-        <Button disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>Previous</Button>
-        <span className="text-muted">Page {page} of {Math.max(1, Math.ceil(total / 25))}</span>
-        <Button disabled={page * 25 >= total} onClick={() => setPage((p) => p + 1)}>Next</Button>
+        <Button disabled={page <= 1} onClick={() => setPage((p) => p - 1)}>
+          Previous
+        </Button>
+        <span className="text-muted">
+          Page {page} of {Math.max(1, Math.ceil(total / 25))}
+        </span>
+        <Button disabled={page * 25 >= total} onClick={() => setPage((p) => p + 1)}>
+          Next
+        </Button>
         <Button
           variant="primary"
           disabled={picked.size === 0 || assign.isPending}
-          onClick={() => assign.mutate([...picked], { onSuccess: (r) => { setPicked(new Set()); setDone(`Moved ${r.moved} node${r.moved === 1 ? '' : 's'}.`); } })}
+          onClick={() =>
+            assign.mutate([...picked], {
+              onSuccess: (r) => {
+                setPicked(new Set());
+                setDone(`Moved ${r.moved} node${r.moved === 1 ? '' : 's'}.`);
+              },
+            })
+          }
         >
           Move {picked.size} node{picked.size === 1 ? '' : 's'} here
         </Button>
-        <span role="status" className="text-muted">{done ?? ''}</span>
+        <span role="status" className="text-muted">
+          {done ?? ''}
+        </span>
       </div>
       <FormMessage message={assign.error ? errorMessage(assign.error, 'Could not move the nodes.') : null} />
     </div>

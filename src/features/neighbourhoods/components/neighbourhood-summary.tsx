@@ -26,9 +26,25 @@ export function AvailabilityFigures({ availability }: { availability: Neighbourh
 export function NeighbourhoodNodes({ nodes }: { nodes: NodeRow[] }) {
   if (nodes.length === 0) return <EmptyState title="No nodes in this neighbourhood yet" />;
   const columns: Column<NodeRow>[] = [
-    { key: 'name', header: 'Node', render: (n) => <Link to={paths.nodeDetail.to(n.id)} className="font-medium text-accent hover:underline">{n.name}</Link> },
+    {
+      key: 'name',
+      header: 'Node',
+      render: (n) => (
+        <Link to={paths.nodeDetail.to(n.id)} className="font-medium text-accent hover:underline">
+          {n.name}
+        </Link>
+      ),
+    },
     { key: 'state', header: 'State', render: (n) => <StateBadge state={n.state} /> },
-    { key: 'site', header: 'Site', render: (n) => <Link to={paths.siteDetail.to(n.siteId)} className="hover:underline">{n.siteName}</Link> },
+    {
+      key: 'site',
+      header: 'Site',
+      render: (n) => (
+        <Link to={paths.siteDetail.to(n.siteId)} className="hover:underline">
+          {n.siteName}
+        </Link>
+      ),
+    },
     { key: 'h24', header: '24 h', align: 'right', render: (n) => formatPercent(n.availability.h24Pct) },
     { key: 'd30', header: '30 d', align: 'right', render: (n) => formatPercent(n.availability.d30Pct) },
   ];
@@ -41,7 +57,10 @@ export function NeighbourhoodHosts({ hosts }: { hosts: NeighbourhoodSummaryDto['
     <ul className="space-y-1 text-sm" data-testid="neighbourhood-hosts">
       {hosts.map((h) => (
         <li key={h.siteId}>
-          <Link to={paths.siteDetail.to(h.siteId)} className="font-medium text-accent hover:underline">{h.siteName}</Link>: {h.host ? h.host.name : <span className="text-muted">no host recorded</span>}
+          <Link to={paths.siteDetail.to(h.siteId)} className="font-medium text-accent hover:underline">
+            {h.siteName}
+          </Link>
+          : {h.host ? h.host.name : <span className="text-muted">no host recorded</span>}
         </li>
       ))}
     </ul>

@@ -26,6 +26,14 @@ export function NeighbourhoodsTable({ neighbourhoods, sort, onSort }: { neighbou
     { key: 'description', header: 'Description', render: (n) => <span className="line-clamp-2 text-muted">{n.description ?? '—'}</span> },
   ];
   return (
-    <DataTable testId="neighbourhoods-table" caption="Neighbourhoods" rows={neighbourhoods} columns={columns} rowKey={(n) => n.id} sort={sort} onSort={onSort} />
+    <DataTable
+      testId="neighbourhoods-table"
+      caption="Neighbourhoods"
+      rows={neighbourhoods}
+      columns={columns}
+      rowKey={(n) => n.id}
+      sort={sort}
+      onSort={onSort}
+    />
   );
 }

@@ -50,7 +50,8 @@ export function AgentDownload({ nodeId, nodeName, hasReported }: { nodeId: numbe
   const fileName = `parapet-agent-${nodeName.replace(/[^A-Za-z0-9._-]+/g, '-')}.sh`;
 
   async function start() {
-    if (hasReported && !window.confirm(`Issue a new token for “${nodeName}”? The agent now running on it stops being accepted until it gets the new one.`)) return;
+    if (hasReported && !window.confirm(`Issue a new token for “${nodeName}”? The agent now running on it stops being accepted until it gets the new one.`))
+      return;
     setError(null);
     setBusy(true);
     try {
@@ -76,17 +77,16 @@ export function AgentDownload({ nodeId, nodeName, hasReported }: { nodeId: numbe
         <Button variant="primary" onClick={start} disabled={busy}>
           {busy ? 'Issuing…' : 'Issue token and download agent'}
         </Button>
-        {script && (
-          <Button onClick={() => offerDownload(script, fileName)}>
-            Download {fileName} again
-          </Button>
-        )}
+        {script && <Button onClick={() => offerDownload(script, fileName)}>Download {fileName} again</Button>}
       </div>
       <FormMessage message={error} />
       {token && (
         <div role="status" className="rounded-md border border-caution/40 bg-caution-soft p-3 text-sm">
           <p className="font-medium">This token will not be shown again.</p>
-          <p className="mt-1">It is already in the downloaded script. Copy it now only if you set the agent up by hand (as PARAPET_TOKEN); issuing another one stops this one working.</p>
+          <p className="mt-1">
+            It is already in the downloaded script. Copy it now only if you set the agent up by hand (as PARAPET_TOKEN); issuing another one stops this one
+            working.
+          </p>
           <code data-testid="ingest-token" className="mt-2 block rounded bg-surface px-2 py-1.5 font-mono text-xs break-all select-all">
             {token}
           </code>

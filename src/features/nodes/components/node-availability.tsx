@@ -19,7 +19,9 @@ export function NodeAvailability({ nodeId }: { nodeId: number }) {
       {WINDOWS.map((w) => (
         <div key={w.key} className="rounded-lg border border-line bg-surface px-3 py-2">
           <dt className="text-xs font-medium tracking-wide text-muted uppercase">{w.label}</dt>
-          <dd className={`mt-0.5 text-lg font-semibold tabular-nums ${availability.data[w.key] === null ? 'text-muted' : ''}`}>{formatPercent(availability.data[w.key])}</dd>
+          <dd className={`mt-0.5 text-lg font-semibold tabular-nums ${availability.data[w.key] === null ? 'text-muted' : ''}`}>
+            {formatPercent(availability.data[w.key])}
+          </dd>
         </div>
       ))}
     </dl>

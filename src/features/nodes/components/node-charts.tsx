@@ -61,7 +61,10 @@ export function NodeCharts({ nodeId }: { nodeId: number }) {
   const points = series.data?.points;
   const times = useMemo(() => (points ?? []).map((p) => Date.parse(p.t) / 1000), [points]);
   const lineSets = useMemo(
-    () => CHARTS.map((spec): ChartLine[] => spec.lines.map((line) => ({ label: line.label, colour: line.colour, dashed: line.dashed, values: (points ?? []).map((p) => p[line.field]) }))),
+    () =>
+      CHARTS.map((spec): ChartLine[] =>
+        spec.lines.map((line) => ({ label: line.label, colour: line.colour, dashed: line.dashed, values: (points ?? []).map((p) => p[line.field]) })),
+      ),
     [points],
   );
 
@@ -69,14 +72,20 @@ export function NodeCharts({ nodeId }: { nodeId: number }) {
     <div data-testid="node-charts">
       <div className="mb-3 flex flex-wrap items-center justify-between gap-2">
         <RangeSwitch range={range} onChange={setRange} />
-        {series.data && <p className="text-xs text-muted">One point per {series.data.bucketS >= 3600 ? `${series.data.bucketS / 3600} h` : `${series.data.bucketS / 60} min`}</p>}
+        {series.data && (
+          <p className="text-xs text-muted">
+            One point per {series.data.bucketS >= 3600 ? `${series.data.bucketS / 3600} h` : `${series.data.bucketS / 60} min`}
+          </p>
+        )}
       </div>
       {series.isPending ? (
         <Loading label="Loading figures…" />
       ) : series.isError ? (
         <LoadError error={series.error} />
       ) : series.data.points.length === 0 ? (
-        <EmptyState title={`No figures for the last ${RANGE_WORDS[range]} yet`}>Charts fill in as the node reports: reports are summed up into points once a minute.</EmptyState>
+        <EmptyState title={`No figures for the last ${RANGE_WORDS[range]} yet`}>
+          Charts fill in as the node reports: reports are summed up into points once a minute.
+        </EmptyState>
       ) : (
         <div className={`grid gap-3 md:grid-cols-2 ${series.isPlaceholderData ? 'opacity-70' : ''}`}>
           {CHARTS.map((spec, i) => (

@@ -36,8 +36,8 @@ export function LatestFigures({ node, compact = false }: { node: NodeDto; compac
       {report.clockTrouble && (
         <p role="note" data-testid="clock-trouble" className="mt-2 rounded-md border border-caution/40 bg-caution-soft px-3 py-2 text-sm">
           <strong className="font-semibold">Clock trouble: </strong>
-          {clockTroubleText(report.clockTrouble.kind, report.clockTrouble.reportedSentAt)} Parapet keeps its reports and uses its own
-          receive time instead. Check that the router sets its clock from a time server (NTP) after it starts.
+          {clockTroubleText(report.clockTrouble.kind, report.clockTrouble.reportedSentAt)} Parapet keeps its reports and uses its own receive time instead.
+          Check that the router sets its clock from a time server (NTP) after it starts.
         </p>
       )}
     </div>
@@ -46,7 +46,11 @@ export function LatestFigures({ node, compact = false }: { node: NodeDto; compac
 
 const radioColumns: Column<ReportedRadio>[] = [
   { key: 'iface', header: 'Interface', render: (r) => <code>{r.iface}</code> },
-  { key: 'channel', header: 'Channel', render: (r) => (r.channel === undefined ? '—' : `${r.channel}${r.channelWidthMHz ? ` (${r.channelWidthMHz} MHz)` : ''}`) },
+  {
+    key: 'channel',
+    header: 'Channel',
+    render: (r) => (r.channel === undefined ? '—' : `${r.channel}${r.channelWidthMHz ? ` (${r.channelWidthMHz} MHz)` : ''}`),
+  },
   { key: 'ssid', header: 'SSID', render: (r) => r.ssid ?? '—' },
   { key: 'signal', header: 'Signal', align: 'right', render: (r) => formatFigure(r.signalDbm, 'dBm', 0) },
   { key: 'noise', header: 'Noise', align: 'right', render: (r) => formatFigure(r.noiseDbm, 'dBm', 0) },
@@ -72,7 +76,8 @@ export function DriftList({ node }: { node: NodeDto }) {
         <li key={item.field} className="flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1 px-3 py-2">
           <code className="font-medium">{item.field}</code>
           <span>
-            inventory <strong className="font-semibold">{show(item.expected)}</strong>, node reports <strong className="font-semibold">{show(item.reported)}</strong>
+            inventory <strong className="font-semibold">{show(item.expected)}</strong>, node reports{' '}
+            <strong className="font-semibold">{show(item.reported)}</strong>
           </span>
         </li>
       ))}

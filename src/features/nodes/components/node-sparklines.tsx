@@ -31,7 +31,14 @@ export function NodeSparklines({ nodeId }: { nodeId: number }) {
               <span>{line.title}, 24 h</span>
               <span className="tabular-nums">{formatFigure(latest, line.unit)}</span>
             </p>
-            <TimeChart sparkline heightPx={36} times={times} lines={lines[i]} unit={line.unit} label={`${line.title} over the last 24 hours, latest ${formatFigure(latest, line.unit)}`} />
+            <TimeChart
+              sparkline
+              heightPx={36}
+              times={times}
+              lines={lines[i]}
+              unit={line.unit}
+              label={`${line.title} over the last 24 hours, latest ${formatFigure(latest, line.unit)}`}
+            />
           </li>
         );
       })}

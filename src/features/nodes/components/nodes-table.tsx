@@ -39,7 +39,11 @@ export function NodesTable({ nodes, siteNames, neighbourhoodNames, sort, onSort 
       key: 'lastSeenAt',
       header: 'Last report',
       sortKey: 'lastSeenAt',
-      render: (node) => <time dateTime={node.lastSeenAt ?? undefined} title={formatDateTime(node.lastSeenAt)}>{formatSince(node.lastSeenAt)}</time>,
+      render: (node) => (
+        <time dateTime={node.lastSeenAt ?? undefined} title={formatDateTime(node.lastSeenAt)}>
+          {formatSince(node.lastSeenAt)}
+        </time>
+      ),
     },
     { key: 'firmware', header: 'Firmware', render: (node) => node.firmware ?? '—' },
   ];

@@ -49,7 +49,14 @@ export function OutageNotes({ outage }: { outage: OutageDto }) {
 
   return (
     <form onSubmit={submit} className="w-full min-w-56 space-y-2 text-left" data-testid={`notes-form-${outage.id}`}>
-      <TextAreaField label={`Notes on the outage of ${outage.nodeName}`} value={text} onChange={(event) => setText(event.target.value)} errors={errors} maxLength={4000} autoFocus />
+      <TextAreaField
+        label={`Notes on the outage of ${outage.nodeName}`}
+        value={text}
+        onChange={(event) => setText(event.target.value)}
+        errors={errors}
+        maxLength={4000}
+        autoFocus
+      />
       <div className="flex gap-2">
         <Button type="submit" variant="primary" disabled={save.isPending}>
           {save.isPending ? 'Saving…' : 'Save notes'}

@@ -88,7 +88,9 @@ export function OutagesTable({ outages, neighbourhoodNames, showNode = true, sor
           },
         ]
       : []),
-    ...(showNode && neighbourhoodNames ? [{ key: 'neighbourhood', header: 'Neighbourhood', render: (o: OutageDto) => neighbourhoodNames.get(o.neighbourhoodId) ?? `#${o.neighbourhoodId}` }] : []),
+    ...(showNode && neighbourhoodNames
+      ? [{ key: 'neighbourhood', header: 'Neighbourhood', render: (o: OutageDto) => neighbourhoodNames.get(o.neighbourhoodId) ?? `#${o.neighbourhoodId}` }]
+      : []),
     {
       key: 'startedAt',
       header: 'Started',

@@ -15,7 +15,17 @@ export interface Overview {
   silentLinks?: SilentLink[];
   /** Pairs the reports show talking that the inventory does not list (drawn on the map). */
   discoveredLinkCount?: number;
-  radioMoves?: { id: number; mac: string; fromNodeId: number; fromNodeName: string; fromIface: string; toNodeId: number; toNodeName: string; toIface: string; at: string }[];
+  radioMoves?: {
+    id: number;
+    mac: string;
+    fromNodeId: number;
+    fromNodeName: string;
+    fromIface: string;
+    toNodeId: number;
+    toNodeName: string;
+    toIface: string;
+    at: string;
+  }[];
 }
 
 export interface SilentLink {

@@ -17,7 +17,8 @@ export function OpenOutages({ outages }: { outages: OpenOutage[] }) {
             {outage.nodeName}
           </Link>
           <span className="text-muted">
-            down {formatDuration((now - Date.parse(outage.startedAt)) / 1000)}, since <time dateTime={outage.startedAt}>{formatDateTime(outage.startedAt)}</time>
+            down {formatDuration((now - Date.parse(outage.startedAt)) / 1000)}, since{' '}
+            <time dateTime={outage.startedAt}>{formatDateTime(outage.startedAt)}</time>
           </span>
           {(outage.blastNodeCount ?? 0) > 0 && (
             <span data-testid={`blast-radius-${outage.id}`} className="font-medium">

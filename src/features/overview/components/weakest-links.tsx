@@ -13,12 +13,18 @@ export function WeakestLinks({ links }: { links: WeakLink[] }) {
       {links.map((l) => (
         <li key={l.id} className="flex flex-wrap items-baseline justify-between gap-x-4 gap-y-1 px-3 py-2">
           <span>
-            <Link to={paths.nodeDetail.to(l.nodeAId)} className="font-medium text-accent hover:underline">{l.nodeAName}</Link>
+            <Link to={paths.nodeDetail.to(l.nodeAId)} className="font-medium text-accent hover:underline">
+              {l.nodeAName}
+            </Link>
             {' – '}
-            <Link to={paths.nodeDetail.to(l.nodeBId)} className="font-medium text-accent hover:underline">{l.nodeBName}</Link>
+            <Link to={paths.nodeDetail.to(l.nodeBId)} className="font-medium text-accent hover:underline">
+              {l.nodeBName}
+            </Link>
           </span>
           <span className="tabular-nums">fade margin {l.fadeMarginDb.toFixed(1)} dB</span>
-          <span className="text-muted tabular-nums">predicted {dbm(l.predictedSignalDbm)}, measured {dbm(l.measuredSignalDbm)}</span>
+          <span className="text-muted tabular-nums">
+            predicted {dbm(l.predictedSignalDbm)}, measured {dbm(l.measuredSignalDbm)}
+          </span>
         </li>
       ))}
     </ul>

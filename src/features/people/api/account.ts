@@ -28,7 +28,9 @@ export const useRequestPasswordReset = () =>
   useMutation({ mutationFn: (email: string) => api.post<Message>('/password-resets', { email }).then((b) => b.data.message) });
 
 export const useCompletePasswordReset = () =>
-  useMutation({ mutationFn: (input: { token: string; password: string }) => api.post<Message>('/password-resets/complete', input).then((b) => b.data.message) });
+  useMutation({
+    mutationFn: (input: { token: string; password: string }) => api.post<Message>('/password-resets/complete', input).then((b) => b.data.message),
+  });
 
 export const useAcceptInvitation = () =>
   useMutation({ mutationFn: (input: { token: string; password: string }) => api.post<Message>('/invitations/accept', input).then((b) => b.data.message) });

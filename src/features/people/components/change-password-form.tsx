@@ -8,7 +8,9 @@ import { PASSWORD_HINT } from './new-password-form';
 // The password rules carry a 460 KB dictionary: fetched when the form is first used, not with the page.
 const loadSchema = lazySchema(() =>
   import('../../../../shared/schemas/account').then(({ passwordChangeSchema }) =>
-    passwordChangeSchema.extend({ repeat: z.string() }).refine((v) => v.newPassword === v.repeat, { path: ['repeat'], message: 'does not match the new password' }),
+    passwordChangeSchema
+      .extend({ repeat: z.string() })
+      .refine((v) => v.newPassword === v.repeat, { path: ['repeat'], message: 'does not match the new password' }),
   ),
 );
 const EMPTY = { currentPassword: '', newPassword: '', repeat: '' };
@@ -18,7 +20,16 @@ export function ChangePasswordForm() {
   const change = useChangePassword();
   const [done, setDone] = useState(false);
   const send = form.handleSubmit(({ currentPassword, newPassword }) =>
-    change.mutate({ currentPassword, newPassword }, { onSuccess: () => { form.reset(EMPTY); setDone(true); }, onError: form.showServerError }),
+    change.mutate(
+      { currentPassword, newPassword },
+      {
+        onSuccess: () => {
+          form.reset(EMPTY);
+          setDone(true);
+        },
+        onError: form.showServerError,
+      },
+    ),
   );
   return (
     <form

@@ -21,7 +21,9 @@ export function InviteForm({ onSent, onCancel }: { onSent: (person: UserDto & { 
       onFocus={() => void loadSchema().catch(() => undefined)}
       onSubmit={submit}
     >
-      <div className="sm:col-span-3"><FormMessage message={form.formError} /></div>
+      <div className="sm:col-span-3">
+        <FormMessage message={form.formError} />
+      </div>
       <TextField label="E-mail" type="email" {...form.field('email')} />
       <TextField label="Name" {...form.field('name')} />
       <SelectField label="Role" {...form.field('role')} options={ROLES.map((r) => ({ value: r, label: capitalise(r) }))} />

@@ -7,14 +7,24 @@ import { lazySchema, useSchemaForm } from '../../../lib/schema-form';
 // The password rules carry a 460 KB dictionary: fetched when the form is first used, not with the page.
 const loadSchema = lazySchema(() =>
   import('../../../../shared/security/passwordRules').then(({ newPasswordSchema }) =>
-    z.object({ password: newPasswordSchema, repeat: z.string() }).refine((v) => v.password === v.repeat, { path: ['repeat'], message: 'does not match the password above' }),
+    z
+      .object({ password: newPasswordSchema, repeat: z.string() })
+      .refine((v) => v.password === v.repeat, { path: ['repeat'], message: 'does not match the password above' }),
   ),
 );
 
 export const PASSWORD_HINT = 'At least 12 characters. A few unrelated words work well; common passwords and your own name are refused.';
 
 /** Choose a password once (invitation or reset): checked here with the server's own rules, then sent with the link's token. */
-export function NewPasswordForm({ submitLabel, pending, onSubmit }: { submitLabel: string; pending: boolean; onSubmit: (password: string, showError: (e: unknown) => void) => void }) {
+export function NewPasswordForm({
+  submitLabel,
+  pending,
+  onSubmit,
+}: {
+  submitLabel: string;
+  pending: boolean;
+  onSubmit: (password: string, showError: (e: unknown) => void) => void;
+}) {
   const form = useSchemaForm({ defaultValues: { password: '', repeat: '' }, schema: loadSchema });
   const [shown, setShown] = useState(false);
   const submit = form.handleSubmit((input) => onSubmit(input.password, form.showServerError));

@@ -15,7 +15,12 @@ export function PeopleTable({ people, sort, onSort }: { people: UserDto[]; sort?
     { key: 'name', header: 'Name', sortKey: 'name', render: (person) => person.name },
     { key: 'email', header: 'E-mail', sortKey: 'email', render: (person) => <span className="break-all">{person.email}</span> },
     { key: 'role', header: 'Role', sortKey: 'role', render: (person) => (person.abilities.update ? <RoleSelect person={person} /> : capitalise(person.role)) },
-    { key: 'neighbourhoods', header: 'Neighbourhoods', align: 'right', render: (person) => (person.role === 'operator' ? person.neighbourhoodIds.length : '—') },
+    {
+      key: 'neighbourhoods',
+      header: 'Neighbourhoods',
+      align: 'right',
+      render: (person) => (person.role === 'operator' ? person.neighbourhoodIds.length : '—'),
+    },
     { key: 'active', header: 'Status', render: (person) => (person.erased ? 'Erased' : person.invited ? 'Invited' : person.active ? 'Active' : 'Inactive') },
     { key: 'actions', header: 'Actions', align: 'right', render: (person) => <PersonActions person={person} /> },
   ];

@@ -17,7 +17,10 @@ export function PersonActions({ person }: { person: UserDto }) {
   function toggleActive() {
     const verb = person.active ? 'Deactivate' : 'Reactivate';
     if (person.active && !window.confirm(`${verb} ${person.name}? They are signed out at once and cannot sign in until reactivated.`)) return;
-    update.mutate({ active: !person.active }, { onSuccess: () => setMessage(null), onError: (e) => setMessage(errorText(e, `Could not ${verb.toLowerCase()}.`)) });
+    update.mutate(
+      { active: !person.active },
+      { onSuccess: () => setMessage(null), onError: (e) => setMessage(errorText(e, `Could not ${verb.toLowerCase()}.`)) },
+    );
   }
 
   function confirmErase() {
@@ -32,7 +35,15 @@ export function PersonActions({ person }: { person: UserDto }) {
   return (
     <div className="flex flex-wrap justify-end gap-1.5" data-testid={`person-actions-${person.id}`}>
       {person.abilities.invite && (
-        <Button onClick={() => invite.mutate({ email: person.email, name: person.name, role: person.role }, { onSuccess: () => setMessage('Invitation sent again.'), onError: (e) => setMessage(errorText(e, 'Could not send.')) })} disabled={invite.isPending}>
+        <Button
+          onClick={() =>
+            invite.mutate(
+              { email: person.email, name: person.name, role: person.role },
+              { onSuccess: () => setMessage('Invitation sent again.'), onError: (e) => setMessage(errorText(e, 'Could not send.')) },
+            )
+          }
+          disabled={invite.isPending}
+        >
           Send invitation again
         </Button>
       )}
@@ -51,7 +62,9 @@ export function PersonActions({ person }: { person: UserDto }) {
           Erase
         </Button>
       )}
-      <p aria-live="polite" className="w-full text-right text-xs text-muted empty:hidden">{message ?? ''}</p>
+      <p aria-live="polite" className="w-full text-right text-xs text-muted empty:hidden">
+        {message ?? ''}
+      </p>
     </div>
   );
 }

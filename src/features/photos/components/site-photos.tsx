@@ -20,7 +20,15 @@ export function SitePhotos({ siteId }: { siteId: number }) {
 
   function send(file: File | undefined) {
     if (!file) return;
-    upload.mutate({ file, caption }, { onSuccess: () => { setCaption(''); if (fileInput.current) fileInput.current.value = ''; } });
+    upload.mutate(
+      { file, caption },
+      {
+        onSuccess: () => {
+          setCaption('');
+          if (fileInput.current) fileInput.current.value = '';
+        },
+      },
+    );
   }
 
   return (
@@ -38,12 +46,22 @@ export function SitePhotos({ siteId }: { siteId: number }) {
               {photos.data.data.map((p) => (
                 <li key={p.id} className="overflow-hidden rounded-md border border-line bg-surface">
                   <a href={p.url} target="_blank" rel="noreferrer">
-                    <img src={p.thumbnailUrl} alt={p.caption ?? `Install photo taken for this site, added ${formatDateTime(p.createdAt)}`} className="aspect-[4/3] w-full bg-sunken object-cover" loading="lazy" />
+                    <img
+                      src={p.thumbnailUrl}
+                      alt={p.caption ?? `Install photo taken for this site, added ${formatDateTime(p.createdAt)}`}
+                      className="aspect-[4/3] w-full bg-sunken object-cover"
+                      loading="lazy"
+                    />
                   </a>
                   <div className="flex items-start justify-between gap-2 p-2 text-xs">
                     <span className="min-w-0 break-words">{p.caption ?? formatDateTime(p.createdAt)}</span>
                     {p.abilities.delete && (
-                      <button type="button" className="shrink-0 text-danger hover:underline" disabled={remove.isPending} onClick={() => window.confirm('Remove this photo?') && remove.mutate(p.id)}>
+                      <button
+                        type="button"
+                        className="shrink-0 text-danger hover:underline"
+                        disabled={remove.isPending}
+                        onClick={() => window.confirm('Remove this photo?') && remove.mutate(p.id)}
+                      >
                         Remove
                       </button>
                     )}
@@ -56,9 +74,21 @@ export function SitePhotos({ siteId }: { siteId: number }) {
             <div className="mt-3 flex flex-wrap items-end gap-2">
               <label className="text-sm">
                 Caption (optional)
-                <input value={caption} onChange={(e) => setCaption(e.target.value)} maxLength={200} className="mt-1 block w-64 rounded-md border border-line-strong bg-surface px-2 py-1" />
+                <input
+                  value={caption}
+                  onChange={(e) => setCaption(e.target.value)}
+                  maxLength={200}
+                  className="mt-1 block w-64 rounded-md border border-line-strong bg-surface px-2 py-1"
+                />
               </label>
-              <input ref={fileInput} type="file" accept="image/jpeg,image/png,image/webp" className="hidden" onChange={(e) => send(e.target.files?.[0])} data-testid="photo-file" />
+              <input
+                ref={fileInput}
+                type="file"
+                accept="image/jpeg,image/png,image/webp"
+                className="hidden"
+                onChange={(e) => send(e.target.files?.[0])}
+                data-testid="photo-file"
+              />
               <Button onClick={() => fileInput.current?.click()} disabled={upload.isPending}>
                 {upload.isPending ? 'Uploading…' : 'Add a photo'}
               </Button>

@@ -1,13 +1,28 @@
 import { useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
 import type { LinkBudgetBody, RegulatoryBody } from '../../../../shared/schemas/planning';
-import type { AddressAllocateBody, ChannelApplyBody, NetworkSettingsUpdate, NodeAddressPlanBody, PlannedLinkBody } from '../../../../shared/schemas/planningRecords';
+import type {
+  AddressAllocateBody,
+  ChannelApplyBody,
+  NetworkSettingsUpdate,
+  NodeAddressPlanBody,
+  PlannedLinkBody,
+} from '../../../../shared/schemas/planningRecords';
 import type { LinkDto } from '../../../../shared/schemas/link';
 import { api, formWith, type UploadProgress } from '../../../lib/api';
 import { linkKeys, radioKeys, topologyKeys } from '../../../lib/query-keys';
 import { planningKeys } from './keys';
 import type {
-  AddressPlans, ChannelApplyResultDto, ChannelPlan, ChannelPlanHistoryEntryDto, LinkBudgetAnswer, LinkHealthDto, NetworkSettingsDto,
-  ProvisioningSheet, RegulatoryAnswer, SecurityReview, SurveyUpload,
+  AddressPlans,
+  ChannelApplyResultDto,
+  ChannelPlan,
+  ChannelPlanHistoryEntryDto,
+  LinkBudgetAnswer,
+  LinkHealthDto,
+  NetworkSettingsDto,
+  ProvisioningSheet,
+  RegulatoryAnswer,
+  SecurityReview,
+  SurveyUpload,
 } from './types';
 
 export function useNetworkSettings() {
@@ -41,7 +56,10 @@ export function useLinkHealth(linkId: number | null) {
 }
 
 export function useChannelPlan(params: { neighbourhoodId?: number; band?: string }) {
-  return useQuery({ queryKey: planningKeys.channelPlan(params), queryFn: () => api.get<{ data: ChannelPlan }>('/planning/channel-plan', params).then((b) => b.data) });
+  return useQuery({
+    queryKey: planningKeys.channelPlan(params),
+    queryFn: () => api.get<{ data: ChannelPlan }>('/planning/channel-plan', params).then((b) => b.data),
+  });
 }
 export function useChannelHistory() {
   return useQuery({
@@ -59,7 +77,13 @@ export function useApplyChannelPlan() {
 
 const uploadSurvey = (nodeId: number, file: File) => api.upload<SurveyUpload>(`/nodes/${nodeId}/site-surveys`, formWith('file', file));
 
-export interface TerrainTile { name: string; south: number; west: number; samplesPerSide: number; createdAt: string }
+export interface TerrainTile {
+  name: string;
+  south: number;
+  west: number;
+  samplesPerSide: number;
+  createdAt: string;
+}
 export function useTerrainTiles() {
   return useQuery({ queryKey: planningKeys.terrainTiles(), queryFn: () => api.get<{ data: TerrainTile[]; abilities: { upload: boolean } }>('/terrain/tiles') });
 }
@@ -73,7 +97,10 @@ export function useUploadTerrainTile(onProgress?: (progress: UploadProgress) => 
 }
 export function useDeleteTerrainTile() {
   const qc = useQueryClient();
-  return useMutation({ mutationFn: (name: string) => api.delete(`/terrain/tiles/${name}`), onSuccess: () => qc.invalidateQueries({ queryKey: planningKeys.terrainTiles() }) });
+  return useMutation({
+    mutationFn: (name: string) => api.delete(`/terrain/tiles/${name}`),
+    onSuccess: () => qc.invalidateQueries({ queryKey: planningKeys.terrainTiles() }),
+  });
 }
 export function useUploadSurvey() {
   const qc = useQueryClient();
@@ -91,7 +118,8 @@ function useAddressMutation<T>(fn: (input: T) => Promise<unknown>) {
   return useMutation({ mutationFn: fn, onSuccess: () => qc.invalidateQueries({ queryKey: planningKeys.all }) });
 }
 export const useAllocateAddresses = () => useAddressMutation((body: AddressAllocateBody) => api.post('/address-plans/allocate', body));
-export const useSaveAddressPlan = () => useAddressMutation(({ nodeId, ...body }: NodeAddressPlanBody & { nodeId: number }) => api.put(`/address-plans/${nodeId}`, body));
+export const useSaveAddressPlan = () =>
+  useAddressMutation(({ nodeId, ...body }: NodeAddressPlanBody & { nodeId: number }) => api.put(`/address-plans/${nodeId}`, body));
 export const useDeleteAddressPlan = () => useAddressMutation((nodeId: number) => api.delete(`/address-plans/${nodeId}`));
 
 export function useSecurityReview() {

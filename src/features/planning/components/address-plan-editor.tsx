@@ -8,13 +8,25 @@ import type { AddressPlanRow } from '../api/types';
 /** Edits one node's subnet, gateway, DHCP range and static addresses; validated by the same schema as the server. */
 export function AddressPlanEditor({ plan, onDone }: { plan: AddressPlanRow; onDone: () => void }) {
   const save = useSaveAddressPlan();
-  const [v, setV] = useState({ cidr: plan.cidr, gateway: plan.gateway, dhcpStart: plan.dhcpStart ?? '', dhcpEnd: plan.dhcpEnd ?? '', staticAddresses: plan.staticAddresses.join(', ') });
+  const [v, setV] = useState({
+    cidr: plan.cidr,
+    gateway: plan.gateway,
+    dhcpStart: plan.dhcpStart ?? '',
+    dhcpEnd: plan.dhcpEnd ?? '',
+    staticAddresses: plan.staticAddresses.join(', '),
+  });
   const [errors, setErrors] = useState<Record<string, string[]>>({});
   const [message, setMessage] = useState<string | null>(null);
 
   function submit(e: FormEvent) {
     e.preventDefault();
-    const body = { cidr: v.cidr.trim(), gateway: v.gateway.trim(), dhcpStart: v.dhcpStart.trim() || null, dhcpEnd: v.dhcpEnd.trim() || null, staticAddresses: v.staticAddresses.split(/[\s,]+/).filter(Boolean) };
+    const body = {
+      cidr: v.cidr.trim(),
+      gateway: v.gateway.trim(),
+      dhcpStart: v.dhcpStart.trim() || null,
+      dhcpEnd: v.dhcpEnd.trim() || null,
+      staticAddresses: v.staticAddresses.split(/[\s,]+/).filter(Boolean),
+    };
     const parsed = nodeAddressPlanSchema.safeParse(body);
     if (!parsed.success) {
       setErrors(Object.fromEntries(parsed.error.issues.map((i) => [String(i.path[0]), [i.message]])));

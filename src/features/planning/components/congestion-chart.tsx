@@ -18,7 +18,9 @@ export function CongestionChart({ title, rows }: { title: string; rows: Congesti
           {[-90, -70, -50].map((d) => (
             <g key={d}>
               <line x1={40} x2={W} y1={base - scale(d)} y2={base - scale(d)} stroke="currentColor" strokeOpacity={0.12} />
-              <text x={36} y={base - scale(d) + 4} fontSize={10} textAnchor="end" fill="currentColor" opacity={0.7}>{d}</text>
+              <text x={36} y={base - scale(d) + 4} fontSize={10} textAnchor="end" fill="currentColor" opacity={0.7}>
+                {d}
+              </text>
             </g>
           ))}
           {rows.map((r, i) => {
@@ -29,7 +31,9 @@ export function CongestionChart({ title, rows }: { title: string; rows: Congesti
               <g key={r.channel}>
                 <title>{`Channel ${r.channel}: ${heard(r.congestionDbm)}, ${r.networks} network(s) on it`}</title>
                 <rect x={x} y={base - h} width={20} height={h} className={loud ? 'fill-state-offline' : 'fill-info'} fillOpacity={0.8} />
-                <text x={x + 10} y={H - 8} fontSize={10} textAnchor="middle" fill="currentColor">{r.channel}</text>
+                <text x={x + 10} y={H - 8} fontSize={10} textAnchor="middle" fill="currentColor">
+                  {r.channel}
+                </text>
               </g>
             );
           })}

@@ -12,7 +12,9 @@ export function SeverityBadge({ severity }: { severity: Severity }) {
   const look = LOOK[severity];
   return (
     <span className="inline-flex items-center gap-1 rounded border px-1.5 py-0.5 text-xs font-semibold uppercase" style={{ borderColor: look.colour }}>
-      <span aria-hidden="true" style={{ color: look.colour }}>{look.shape}</span>
+      <span aria-hidden="true" style={{ color: look.colour }}>
+        {look.shape}
+      </span>
       {severity}
     </span>
   );

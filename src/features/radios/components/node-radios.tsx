@@ -63,7 +63,9 @@ export function NodeRadios({ nodeId, canManage, region }: { nodeId: number; canM
       ) : radios.isError ? (
         <LoadError error={radios.error} />
       ) : radios.data.data.length === 0 ? (
-        <EmptyState title="No radios recorded for this node">{canManage ? 'Add each radio the router carries, with its channel and power.' : undefined}</EmptyState>
+        <EmptyState title="No radios recorded for this node">
+          {canManage ? 'Add each radio the router carries, with its channel and power.' : undefined}
+        </EmptyState>
       ) : (
         <RadiosTable
           radios={radios.data.data}

@@ -91,8 +91,8 @@ export function RadioForm({ nodeId, region, radio, onSaved, onCancel }: RadioFor
       onSubmit={submit}
     >
       <Caution>
-        High-gain antennas concentrate radio energy: keep people out of the beam while the radio transmits, and never work on a mast or antenna
-        while it is powered. Power and exposure limits are set by your regulator; follow local codes and licensed practice.
+        High-gain antennas concentrate radio energy: keep people out of the beam while the radio transmits, and never work on a mast or antenna while it is
+        powered. Power and exposure limits are set by your regulator; follow local codes and licensed practice.
       </Caution>
       <FormMessage message={form.formError} />
       <div className="grid gap-4 sm:grid-cols-2 lg:grid-cols-3">

@@ -4,7 +4,15 @@ import { formatDateTime, formatDuration, formatPercent } from '../../../lib/form
 const th = 'px-2 py-1.5 font-medium';
 const td = 'px-2 py-1.5';
 
-export function AvailabilityTable({ rows, label, withNeighbourhood = false }: { rows: (AvailabilityReportDto['nodes'][number] | AvailabilityReportDto['neighbourhoods'][number])[]; label: string; withNeighbourhood?: boolean }) {
+export function AvailabilityTable({
+  rows,
+  label,
+  withNeighbourhood = false,
+}: {
+  rows: (AvailabilityReportDto['nodes'][number] | AvailabilityReportDto['neighbourhoods'][number])[];
+  label: string;
+  withNeighbourhood?: boolean;
+}) {
   return (
     <div className="overflow-x-auto rounded-md border border-line">
       <table className="w-full text-left text-sm" aria-label={label}>

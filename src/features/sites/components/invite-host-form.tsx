@@ -24,14 +24,10 @@ export function InviteHostForm({ siteId, onSent, onCancel }: { siteId: number; o
     invite.mutate({ email, name, role: 'host', siteId }, { onSuccess: () => onSent(email), onError: form.showServerError }),
   );
   return (
-    <form
-      noValidate
-      data-testid="invite-host-form"
-      aria-label="Invite a new host"
-      className="grid max-w-2xl gap-4 sm:grid-cols-2"
-      onSubmit={submit}
-    >
-      <div className="sm:col-span-2"><FormMessage message={form.formError} /></div>
+    <form noValidate data-testid="invite-host-form" aria-label="Invite a new host" className="grid max-w-2xl gap-4 sm:grid-cols-2" onSubmit={submit}>
+      <div className="sm:col-span-2">
+        <FormMessage message={form.formError} />
+      </div>
       <TextField label="Host's e-mail" type="email" {...form.field('email')} />
       <TextField label="Host's name" {...form.field('name')} />
       <FormActions className="sm:col-span-2" label="Send invitation" busy={invite.isPending} busyLabel="Sending…" onCancel={onCancel} />

@@ -8,7 +8,14 @@ export function SiteSummary({ site, neighbourhoodName }: { site: SiteDto; neighb
     <Details
       items={[
         { label: 'Neighbourhood', value: neighbourhoodName },
-        { label: 'Latitude, longitude', value: <span className="tabular-nums">{site.latitude}, {site.longitude}</span> },
+        {
+          label: 'Latitude, longitude',
+          value: (
+            <span className="tabular-nums">
+              {site.latitude}, {site.longitude}
+            </span>
+          ),
+        },
         { label: 'Ground elevation', value: `${site.groundElevationM} m` },
         { label: 'Antenna height above ground', value: `${site.antennaHeightM} m` },
         {

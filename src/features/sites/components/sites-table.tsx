@@ -28,7 +28,15 @@ export function SitesTable({ sites, neighbourhoodNames, sort, onSort }: SitesTab
       ),
     },
     { key: 'neighbourhood', header: 'Neighbourhood', render: (site) => neighbourhoodNames.get(site.neighbourhoodId) ?? `#${site.neighbourhoodId}` },
-    { key: 'position', header: 'Position', render: (site) => <span className="tabular-nums">{site.latitude.toFixed(5)}, {site.longitude.toFixed(5)}</span> },
+    {
+      key: 'position',
+      header: 'Position',
+      render: (site) => (
+        <span className="tabular-nums">
+          {site.latitude.toFixed(5)}, {site.longitude.toFixed(5)}
+        </span>
+      ),
+    },
     { key: 'antennaHeightM', header: 'Antenna height', sortKey: 'antennaHeightM', align: 'right', render: (site) => `${site.antennaHeightM} m` },
     { key: 'host', header: 'Host', render: (site) => site.host?.name ?? (site.hostUserId ? 'Hosted' : '—') },
   ];

@@ -55,7 +55,6 @@ export interface DiscoveredLink {
   abilities?: { add: boolean };
 }
 
-
 export interface Topology {
   nodes: TopologyNode[];
   links: TopologyLink[];
@@ -68,7 +67,8 @@ export function useAddDiscoveredLink() {
   const queryClient = useQueryClient();
   return useMutation({
     mutationFn: (d: DiscoveredLink) => api.post<{ data: { id: number } }>('/links', { radioAId: d.radioAId, radioBId: d.radioBId, status: 'live' }),
-    onSuccess: () => Promise.all([topologyKeys.all, linkKeys.all, overviewKeys.all].map((queryKey) => queryClient.invalidateQueries({ queryKey: [...queryKey] }))),
+    onSuccess: () =>
+      Promise.all([topologyKeys.all, linkKeys.all, overviewKeys.all].map((queryKey) => queryClient.invalidateQueries({ queryKey: [...queryKey] }))),
   });
 }
 

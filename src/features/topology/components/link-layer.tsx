@@ -37,7 +37,10 @@ const MARK_R = 6.5;
 function MarginMark({ line }: { line: LinkLine }) {
   const colour = marginColour(line.band);
   return (
-    <g data-testid={`topology-link-mark-${line.id}`} style={{ transform: `translate(${(line.x1 + line.x2) / 2}px, ${(line.y1 + line.y2) / 2}px) scale(var(--pp-node-scale, 1))` }}>
+    <g
+      data-testid={`topology-link-mark-${line.id}`}
+      style={{ transform: `translate(${(line.x1 + line.x2) / 2}px, ${(line.y1 + line.y2) / 2}px) scale(var(--pp-node-scale, 1))` }}
+    >
       <circle r={MARK_R} fill="var(--pp-surface)" stroke={colour} strokeWidth={1.5} />
       <text textAnchor="middle" dominantBaseline="central" fontSize={10} fontWeight={700} fill={colour}>
         {MARGIN_MARK[line.band]}

@@ -6,7 +6,17 @@ import { MARGIN_BANDS, marginBand, marginColour } from '../utils/link-look';
 const bandLabel = new Map(MARGIN_BANDS.map((b) => [b.band, b.label]));
 
 /** A node's links with the figures the map's colours and widths stand for. */
-export function NodeLinks({ node, links, names, actions }: { node: TopologyNode; links: TopologyLink[]; names: Map<number, string>; actions?: (linkId: number) => ReactNode }) {
+export function NodeLinks({
+  node,
+  links,
+  names,
+  actions,
+}: {
+  node: TopologyNode;
+  links: TopologyLink[];
+  names: Map<number, string>;
+  actions?: (linkId: number) => ReactNode;
+}) {
   const own = links.filter((l) => l.nodeAId === node.id || l.nodeBId === node.id);
   return (
     <section aria-label="Links of the selected node" className="rounded-lg border border-line bg-surface p-3">
@@ -26,7 +36,8 @@ export function NodeLinks({ node, links, names, actions }: { node: TopologyNode;
                   {link.status === 'planned' && <span className="rounded bg-sunken px-1 text-xs font-normal text-muted">planned</span>}
                 </p>
                 <p className="text-xs text-muted">
-                  Fade margin {formatFigure(link.fadeMarginDb, 'dB')} ({bandLabel.get(band)?.toLowerCase()}), expected {formatFigure(link.expectedRateMbps, 'Mbps')}
+                  Fade margin {formatFigure(link.fadeMarginDb, 'dB')} ({bandLabel.get(band)?.toLowerCase()}), expected{' '}
+                  {formatFigure(link.expectedRateMbps, 'Mbps')}
                   {link.distanceKm !== null && `, ${formatFigure(link.distanceKm, 'km', 2)}`}
                   {link.measuredSignalDbm !== null &&
                     `, measured ${formatFigure(link.measuredSignalDbm, 'dBm', 0)} against ${formatFigure(link.predictedSignalDbm, 'dBm', 0)} predicted`}

@@ -48,7 +48,10 @@ export const SiteNode = memo(function SiteNode({ data, selected }: NodeProps<Sit
     >
       <div className="relative h-full w-full" style={SCALED}>
         {(selected || data.highlighted) && (
-          <span aria-hidden="true" className={`absolute -inset-2.5 rounded-md border-2 border-dashed border-focus ${data.highlighted ? 'animate-pulse' : ''}`} />
+          <span
+            aria-hidden="true"
+            className={`absolute -inset-2.5 rounded-md border-2 border-dashed border-focus ${data.highlighted ? 'animate-pulse' : ''}`}
+          />
         )}
         {data.isUplink && <span aria-hidden="true" className="absolute -inset-1 rounded-full border-2 border-accent" />}
         {/* The root of an outage with nodes stranded behind it: a double vermillion ring, so the cause stands out from what it cut off. */}
@@ -62,8 +65,7 @@ export const SiteNode = memo(function SiteNode({ data, selected }: NodeProps<Sit
               {/* Real spaces between the words, so the text reads as the node's name does. */}
               {data.isUplink && ' '}
               {data.isUplink && <span className="ml-1 rounded bg-accent px-1 text-[9px] font-semibold tracking-wide text-accent-ink uppercase">uplink</span>}
-            </span>
-            {' '}
+            </span>{' '}
             <span className="block text-[10px] text-muted">{word}</span>
             {cutOff > 0 && ' '}
             {cutOff > 0 && <span className="block text-[10px] font-semibold text-danger">{cutOff} cut off behind it</span>}

@@ -52,9 +52,7 @@ export function TopologySearch({ nodes, onFind }: { nodes: TopologyNode[]; onFin
         />
         <Button type="submit">Find</Button>
       </div>
-      <datalist id={listId}>
-        {suggestions}
-      </datalist>
+      <datalist id={listId}>{suggestions}</datalist>
       <p id={`${inputId}-message`} aria-live="polite" className="mt-1 text-sm text-danger empty:hidden">
         {message ?? ''}
       </p>

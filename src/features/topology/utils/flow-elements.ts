@@ -11,7 +11,9 @@ export interface GraphFilters {
 }
 
 export function isShown(node: TopologyNode, filters: GraphFilters): boolean {
-  return (filters.neighbourhoodId === undefined || node.neighbourhoodId === filters.neighbourhoodId) && (filters.state === undefined || node.state === filters.state);
+  return (
+    (filters.neighbourhoodId === undefined || node.neighbourhoodId === filters.neighbourhoodId) && (filters.state === undefined || node.state === filters.state)
+  );
 }
 
 interface Cached {
@@ -125,8 +127,20 @@ export function buildDiscoveredLines(found: DiscoveredLink[], shownIds: Set<numb
     const b = positions.get(d.nodeBId);
     if (!a || !b || !shownIds.has(d.nodeAId) || !shownIds.has(d.nodeBId)) return;
     out.push({
-      id: -(i + 1), x1: a.x, y1: a.y, x2: b.x, y2: b.y, minX: Math.min(a.x, b.x), minY: Math.min(a.y, b.y), maxX: Math.max(a.x, b.x), maxY: Math.max(a.y, b.y),
-      band: 'unknown', widthPx: 2.5, planned: false, discovered: true, testId: `topology-discovered-${d.radioAId}-${d.radioBId}`,
+      id: -(i + 1),
+      x1: a.x,
+      y1: a.y,
+      x2: b.x,
+      y2: b.y,
+      minX: Math.min(a.x, b.x),
+      minY: Math.min(a.y, b.y),
+      maxX: Math.max(a.x, b.x),
+      maxY: Math.max(a.y, b.y),
+      band: 'unknown',
+      widthPx: 2.5,
+      planned: false,
+      discovered: true,
+      testId: `topology-discovered-${d.radioAId}-${d.radioBId}`,
     });
   });
   return out;

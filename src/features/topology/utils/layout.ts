@@ -19,7 +19,12 @@ const DEG = Math.PI / 180;
  * Working Manual", USGS Professional Paper 1395, 1987, eqs. 12-1 and 12-2):
  * x = R·(λ − λ0)·cos φ1, y = R·(φ − φ1). Returns metres east and north of (φ1, λ0).
  */
-export function equirectangularM(latitudeDeg: number, longitudeDeg: number, centreLatitudeDeg: number, centreLongitudeDeg: number): { eastM: number; northM: number } {
+export function equirectangularM(
+  latitudeDeg: number,
+  longitudeDeg: number,
+  centreLatitudeDeg: number,
+  centreLongitudeDeg: number,
+): { eastM: number; northM: number } {
   return {
     eastM: EARTH_RADIUS_M * (longitudeDeg - centreLongitudeDeg) * DEG * Math.cos(centreLatitudeDeg * DEG),
     northM: EARTH_RADIUS_M * (latitudeDeg - centreLatitudeDeg) * DEG,

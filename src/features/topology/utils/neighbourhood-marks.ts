@@ -46,5 +46,7 @@ export function countsInWords(counts: Record<NodeState, number>, word: (state: N
 
 /** A stable text form of the counts for tests and screen readers' change checks: "online:12,offline:3". */
 export function countsKey(counts: Record<NodeState, number>): string {
-  return NODE_STATES.filter((s) => counts[s] > 0).map((s) => `${s}:${counts[s]}`).join(',');
+  return NODE_STATES.filter((s) => counts[s] > 0)
+    .map((s) => `${s}:${counts[s]}`)
+    .join(',');
 }
