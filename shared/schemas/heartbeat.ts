@@ -8,12 +8,13 @@ const finite = (min: number, max: number, unit: string) =>
 export const MAX_BATCH_REPORTS = 500;
 
 // PostgreSQL text cannot hold NUL; a router's odd SSID or firmware string is kept, the NUL shown as U+FFFD.
-// eslint-disable-next-line no-control-regex -- NUL is the one character PostgreSQL text refuses
+/* eslint-disable no-control-regex -- NUL is the one character PostgreSQL text refuses */
 const storableText = (max: number) =>
   z
     .string()
     .max(max, `must be at most ${max} characters`)
     .transform((s) => s.replace(/\u0000/g, '\uFFFD'));
+/* eslint-enable no-control-regex */
 
 const macSchema = z
   .string({ error: 'must be a MAC address like 02:00:5e:10:00:01' })

@@ -20,7 +20,7 @@ const filesOnDisk = () => (fs.existsSync(photosDir) ? fs.readdirSync(photosDir).
 
 const image = (format: 'jpeg' | 'png' | 'webp') =>
   sharp({ create: { width: 64, height: 48, channels: 3, background: '#0a7' } })
-    [format]()
+    .toFormat(format)
     .toBuffer();
 
 /**
@@ -41,7 +41,7 @@ const GPS_IFD_TAG = 0x8825; // CIPA DC-008 (Exif 2.32) §4.6.3: GPS Info IFD poi
 /** A phone-like photo: 64 × 32 pixels stored sideways (EXIF orientation 6), with its owner's name and a GPS position. */
 const phonePhoto = (format: 'jpeg' | 'png' | 'webp' = 'jpeg') =>
   sharp({ create: { width: 64, height: 32, channels: 3, background: '#0a7' } })
-    [format]()
+    .toFormat(format)
     .withMetadata({ orientation: 6 })
     .withExifMerge({
       IFD0: { Artist: 'Odile Brenner' },

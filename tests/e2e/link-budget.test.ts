@@ -97,13 +97,11 @@ describe('planning in the browser', () => {
         if (name === 'channels') {
           // A survey uploaded through the page: one bad row is listed with its line, the rest is charted.
           await e2e.page.getByLabel('Node surveyed').selectOption({ index: 1 });
-          await e2e.page
-            .getByLabel(/Survey file/)
-            .setInputFiles({
-              name: 'rooftop-scan.csv',
-              mimeType: 'text/csv',
-              buffer: Buffer.from('ssid,channel,channelWidthMHz,signalDbm\nBakery Guest,1,20,-48\nLibrary,6,20,-77\nBroken,15,20,-60\n'),
-            });
+          await e2e.page.getByLabel(/Survey file/).setInputFiles({
+            name: 'rooftop-scan.csv',
+            mimeType: 'text/csv',
+            buffer: Buffer.from('ssid,channel,channelWidthMHz,signalDbm\nBakery Guest,1,20,-48\nLibrary,6,20,-77\nBroken,15,20,-60\n'),
+          });
           await e2e.page.getByRole('button', { name: 'Upload survey' }).click();
           await e2e.page
             .getByText(/Line 4: channel 15 is not a Wi-Fi channel/)

@@ -119,11 +119,14 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
     [grouped, filters.neighbourhoodId, summaries, openHoodId],
   );
   const shownKey = shown.map((n) => n.id).join(',');
+  // The caches keep React Flow's node objects stable between renders; they are read here on purpose.
+  /* eslint-disable react-hooks/refs -- the node caches are render-time memo stores, never read for output alone */
   const siteNodes = useMemo(
     () => buildFlowNodes(shown, positions, { selectedId, highlightedId }, cache.current),
     [shown, positions, selectedId, highlightedId],
   );
   const marks = useMemo(() => buildMarks(folded, markCache.current), [folded]);
+  /* eslint-enable react-hooks/refs */
   const nodes = useMemo<MapFlowNode[]>(() => (marks.length ? [...marks, ...siteNodes] : siteNodes), [marks, siteNodes]);
   // eslint-disable-next-line react-hooks/exhaustive-deps -- keyed on which nodes are shown, not on their states
   const lines = useMemo(() => buildLinkLines(topology.links, new Set(shown.map((n) => n.id)), positions), [topology.links, shownKey, positions]);
@@ -141,6 +144,7 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
   }, []);
   useEffect(() => {
     if (!fitHoodWanted || !grouped) return;
+    // eslint-disable-next-line react-hooks/set-state-in-effect -- a one-shot request flag, cleared as the fit starts
     setFitHoodWanted(false);
     if (openHoodId === null) return;
     const ids = shown.map((n) => ({ id: String(n.id) }));
