@@ -15,6 +15,8 @@ const node = (id: number, neighbourhoodId: number, state: TopologyNode['state'])
   isUplink: false,
   lastSeenAt: null,
   openOutageId: null,
+  strandedBy: null,
+  blastNodeCount: 0,
 });
 
 describe('neighbourhood marks', () => {

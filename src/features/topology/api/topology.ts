@@ -1,66 +1,16 @@
 import { useMutation, useQuery, useQueryClient, type QueryClient } from '@tanstack/react-query';
-import type { LinkStatus, NodeState } from '../../../../shared/enums';
 import { api } from '../../../lib/api';
 import { linkKeys, overviewKeys, topologyKeys } from '../../../lib/query-keys';
 import type { RadioMove } from '../../../../shared/schemas/radio';
-import type { TopologyNeighbourhoodDto } from '../../../../shared/schemas/topology';
+import type { DiscoveredLinkDto, TopologyDto, TopologyLinkDto, TopologyNeighbourhoodDto, TopologyNodeDto } from '../../../../shared/schemas/topology';
 
 export type { RadioMove };
 
-export interface TopologyNode {
-  id: number;
-  name: string;
-  siteId: number;
-  siteName: string;
-  neighbourhoodId: number;
-  latitude: number;
-  longitude: number;
-  state: NodeState;
-  isUplink: boolean;
-  lastSeenAt: string | null;
-  openOutageId: number | null;
-  /** On a stranded node: the open outage upstream that cuts it off. */
-  strandedBy?: number | null;
-  /** On the node of an open outage: how many nodes are cut off behind it. */
-  blastNodeCount?: number;
-}
-
-export interface TopologyLink {
-  id: number;
-  name: string | null;
-  status: LinkStatus;
-  nodeAId: number;
-  nodeBId: number;
-  distanceKm: number | null;
-  predictedSignalDbm: number | null;
-  fadeMarginDb: number | null;
-  expectedRateMbps: number | null;
-  measuredSignalDbm: number | null;
-  /** A report named the other end as its peer within the last 15 minutes. */
-  observed?: boolean;
-  observedSignalDbm?: number | null;
-  lastObservedAt?: string | null;
-  /** At least one end's MAC known, yet nobody has named the other end for a day. */
-  plannedButSilent?: boolean;
-}
-
-/** Two radios the reports show talking to each other, with no link in the inventory. */
-export interface DiscoveredLink {
-  nodeAId: number;
-  nodeBId: number;
-  radioAId: number;
-  radioBId: number;
-  signalDbm: number | null;
-  lastSeenAt: string;
-  abilities?: { add: boolean };
-}
-
-export interface Topology {
-  nodes: TopologyNode[];
-  links: TopologyLink[];
-  discoveredLinks?: DiscoveredLink[];
-  radioMoves?: RadioMove[];
-}
+/** The map's graph as the server answers it: the types live with the contract in shared/schemas/topology.ts. */
+export type TopologyNode = TopologyNodeDto;
+export type TopologyLink = TopologyLinkDto;
+export type DiscoveredLink = DiscoveredLinkDto;
+export type Topology = TopologyDto;
 
 /** "Add to the inventory": a live link between the two radios the air shows talking. */
 export function useAddDiscoveredLink() {
