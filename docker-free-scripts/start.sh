@@ -2,11 +2,12 @@
 # Runs Parapet on this machine: installs what is missing, starts PostgreSQL on 127.0.0.1,
 # the mail fake and the app, and stays in the foreground watching them: whichever stops is
 # started again (with a growing pause when it keeps stopping, each restart logged).
-# Ctrl-C stops what this run started.
+# Ctrl-C, or SIGTERM or SIGHUP to this script's pid alone, stops what this run started and exits.
+# PARAPET_DATA (default .data in the checkout) is the folder for its cluster, logs and pid files.
 set -euo pipefail
 
 # shellcheck source=lib/init.sh
-source "$(dirname "${BASH_SOURCE[0]}")/lib/init.sh" .data
+source "$(dirname "${BASH_SOURCE[0]}")/lib/init.sh" "${PARAPET_DATA:-.data}"
 
 take_run_lock "$PARAPET_DATA_DIR/start.lock" "docker-free-scripts/start.sh"
 
@@ -32,24 +33,37 @@ SIM_PIDFILE="$PARAPET_DATA_DIR/simulator.pid"
 MAIL_PIDFILE="$PARAPET_DATA_DIR/maildev.pid"
 PG_OWNER_PIDFILE="$PARAPET_DATA_DIR/pg-started-by.pid"
 STARTED_PG_DATA=""
+SLEEP_PID=""
 
+# Runs once, on any way out (the end of a step that failed, Ctrl-C, SIGTERM or SIGHUP to this pid):
+# stops the step in progress, then the app, the simulator, the mail fake and the PostgreSQL cluster
+# this run started (fast shutdown), each waited for, and exits. A cluster that was already running
+# when this run began is left running. A second signal while it works is ignored, and nothing in
+# here may stop it halfway (no `set -e`; a closed terminal does not end it with SIGPIPE).
 cleanup() {
   local rc=$?
-  trap - EXIT INT TERM
+  trap - EXIT
+  trap '' INT TERM HUP PIPE
+  set +e
   say "stopping what this run started"
-  stop_service "$SIM_PIDFILE" simulator
+  stop_step
+  if [[ -n $SLEEP_PID ]]; then kill "$SLEEP_PID" 2>/dev/null && wait "$SLEEP_PID" 2>/dev/null; fi
   stop_service "$APP_PIDFILE" app
+  stop_service "$SIM_PIDFILE" simulator
   stop_service "$MAIL_PIDFILE" "mail fake"
   if [[ -n $STARTED_PG_DATA ]]; then
-    pg_stop_cluster "$STARTED_PG_DATA"
+    say "stopping PostgreSQL (pg_ctl stop -m fast)"
+    pg_stop_cluster "$STARTED_PG_DATA" fast
     rm -f "$PG_OWNER_PIDFILE"
   fi
   rm -f "$PARAPET_DATA_DIR/start.pid"
+  say "stopped"
   exit "$rc"
 }
 trap cleanup EXIT
 trap 'exit 130' INT
 trap 'exit 143' TERM
+trap 'exit 129' HUP
 
 started_at=$SECONDS
 require_node
@@ -98,11 +112,11 @@ export MAILDEV_WEB_URL="http://127.0.0.1:$MAIL_WEB_PORT"
 run_logged "npm run migrate" "$PARAPET_LOG_DIR/migrate.log" npm run migrate
 # The demo loads its inventory and about five weeks of history on a first start; progress as it goes.
 say "loading the demo${RESET_DEMO:+ afresh (--reset-demo)} (log: $PARAPET_LOG_DIR/seed.log)"
-if ! PARAPET_RESET_DEMO=${RESET_DEMO:+1} npm run --silent seed 2>&1 | tee "$PARAPET_LOG_DIR/seed.log" | sed -u 's/^/[parapet]   seed: /' >&2; then
+if ! run_step >(tee "$PARAPET_LOG_DIR/seed.log" | sed -u 's/^/[parapet]   seed: /' >&2) env PARAPET_RESET_DEMO="${RESET_DEMO:+1}" npm run --silent seed; then
   die "loading the demo failed (full log: $PARAPET_LOG_DIR/seed.log)"
 fi
 build_client
-run_logged "npm run build:server" "$PARAPET_LOG_DIR/build-server.log" npm run build:server
+build_server
 
 # --- mail fake and app ---
 maildev_start "$MAIL_PIDFILE" "$PARAPET_LOG_DIR/maildev.log" "$MAIL_SMTP_PORT" "$MAIL_WEB_PORT"
@@ -120,7 +134,8 @@ wait_until "the app at $APP_URL/api/health" 120 "$APP_PID" "$PARAPET_LOG_DIR/app
 
 SIM_CMD=()
 if package_has_script simulate; then
-  SIM_CMD=(env PARAPET_URL="$APP_URL" npm run simulate)
+  # Its node tokens go in this run's data folder, not in the checkout another run may share.
+  SIM_CMD=(env PARAPET_URL="$APP_URL" SIMULATOR_TOKENS="$PARAPET_DATA_DIR/simulator-tokens.json" npm run simulate)
   spawn_service "$SIM_PIDFILE" "$PARAPET_LOG_DIR/simulator.log" "${SIM_CMD[@]}"
   say "node simulator started (log: $PARAPET_LOG_DIR/simulator.log)"
 fi
@@ -202,7 +217,9 @@ pg_down_checks=0
 
 while :; do
   sleep 1 &
-  wait $! || true
+  SLEEP_PID=$!
+  wait "$SLEEP_PID" || true
+  SLEEP_PID=""
   if kill -0 "$APP_PID" 2>/dev/null; then
     steady app
   else

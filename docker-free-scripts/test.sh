@@ -30,6 +30,7 @@ cleanup() {
 on_exit() {
   local rc=$?
   trap - EXIT INT TERM
+  stop_step
   cleanup
   rm -f "$PARAPET_DATA_DIR/test.pid"
   exit "$rc"

@@ -4,7 +4,8 @@
 
 : "${PARAPET_ROOT:?PARAPET_ROOT must be set before sourcing lib/common.sh}"
 
-say() { printf '[parapet] %s\n' "$*" >&2; }
+# Never fails: a closed terminal or log pipe must not stop a script halfway through its clean-up.
+say() { printf '[parapet] %s\n' "$*" >&2 2>/dev/null || true; }
 die() { printf '[parapet] ERROR: %s\n' "$*" >&2; exit 1; }
 
 # Print the last lines of a log so a failed step explains itself without hunting for files.
@@ -17,11 +18,48 @@ show_log_tail() {
   fi
 }
 
+# A long step (npm ci, a build, the demo's seed) runs as a background child in a process group of
+# its own, its output to OUT, and the script waits for it: bash runs a signal's trap only after a
+# foreground command ends, but interrupts `wait` at once, so `kill <pid of the script>` is handled
+# straight away and the clean-up stops the step's whole group (stop_step). The output is redirected
+# on the step alone, never around this function, so the clean-up's own messages still reach the
+# terminal. Fd 9 (the run lock) is closed in the step. A shell function cannot be given a session
+# of its own; it runs in the foreground as before.
+STEP_PID=""
+run_step() { # OUT COMMAND...
+  local out=$1 rc=0
+  shift
+  if [[ $(type -t "$1") != file ]]; then
+    "$@" >"$out" 2>&1
+    return
+  fi
+  setsid "$@" >"$out" 2>&1 </dev/null 9>&- &
+  STEP_PID=$!
+  wait "$STEP_PID" || rc=$?
+  STEP_PID=""
+  return "$rc"
+}
+
+# Stop the step run_step is waiting for, if any (its whole process group), and reap it.
+stop_step() {
+  [[ -n $STEP_PID ]] || return 0
+  say "stopping the step in progress (pid $STEP_PID)"
+  kill -TERM -- "-$STEP_PID" 2>/dev/null || kill -TERM "$STEP_PID" 2>/dev/null || true
+  local i
+  for ((i = 0; i < 50; i++)); do
+    kill -0 "$STEP_PID" 2>/dev/null || break
+    sleep 0.2
+  done
+  kill -KILL -- "-$STEP_PID" 2>/dev/null || true
+  wait "$STEP_PID" 2>/dev/null || true
+  STEP_PID=""
+}
+
 # Run a step with its output in a log; on failure show the log's tail and stop.
 run_logged() {
   local what=$1 log=$2; shift 2
   say "$what (log: $log)"
-  if ! "$@" >"$log" 2>&1; then
+  if ! run_step "$log" "$@"; then
     show_log_tail "$log"
     die "$what failed (full log: $log)"
   fi
@@ -96,6 +134,20 @@ build_client() {
   touch "$marker" 2>/dev/null || true
 }
 
+# Compile the server (npm run build:server) only when a source it is built from is newer than dist-server/.
+build_server() {
+  local marker="$PARAPET_ROOT/dist-server/index.js" sources=() s
+  for s in server shared package.json package-lock.json vite.server.config.ts tsconfig.json; do
+    if [[ -e $PARAPET_ROOT/$s ]]; then sources+=("$PARAPET_ROOT/$s"); fi
+  done
+  if [[ -f $marker ]] && [[ -z $(find "${sources[@]}" -newer "$marker" -print -quit 2>/dev/null) ]]; then
+    say "server build is up to date (dist-server/ newer than its sources)"
+    return 0
+  fi
+  run_logged "npm run build:server" "$PARAPET_LOG_DIR/build-server.log" npm run build:server
+  touch "$marker" 2>/dev/null || true
+}
+
 package_has_script() {
   node -e 'const p=require(process.argv[1]); process.exit(p.scripts && p.scripts[process.argv[2]] ? 0 : 1)' \
     "$PARAPET_ROOT/package.json" "$1"
@@ -152,6 +204,7 @@ spawn_service() {
 stop_service() {
   local pidfile=$1 name=${2:-service} pid i
   pid=$(pidfile_live_pid "$pidfile") || { rm -f "$pidfile"; return 0; }
+  say "stopping $name (pid $pid)"
   kill -TERM -- "-$pid" 2>/dev/null || kill -TERM "$pid" 2>/dev/null || true
   for ((i = 0; i < 50; i++)); do
     kill -0 "$pid" 2>/dev/null || break

@@ -55,9 +55,15 @@ pg_owned_dir() {
 # Write stdin to FILE as the cluster owner (-a appends).
 pg_owner_write() { pg_as_owner tee "${@:2}" "$1" >/dev/null; }
 
-checkout_hash() { printf '%s' "$PARAPET_ROOT" | sha256sum | cut -c1-10; }
+# The fallback folder is named after the checkout (the default .data) or after the data folder itself
+# (start.sh with PARAPET_DATA elsewhere), so two data folders never share a cluster.
+data_hash() {
+  local key=$PARAPET_ROOT
+  [[ $PARAPET_DATA_DIR == "$PARAPET_ROOT/.data" ]] || key=$PARAPET_DATA_DIR
+  printf '%s' "$key" | sha256sum | cut -c1-10
+}
 
-pg_dev_candidates() { printf '%s\n' "$PARAPET_DATA_DIR/pg" "/var/tmp/parapet-$(checkout_hash)/pg"; }
+pg_dev_candidates() { printf '%s\n' "$PARAPET_DATA_DIR/pg" "/var/tmp/parapet-$(data_hash)/pg"; }
 
 # The dev cluster's data folder: .data/pg in the checkout, or, when the postgres user cannot
 # reach the checkout (root with a checkout under a 0700 home), a per-checkout folder in /var/tmp.
