@@ -111,10 +111,19 @@ export MAILDEV_WEB_URL="http://127.0.0.1:$MAIL_WEB_PORT"
 
 run_logged "npm run migrate" "$PARAPET_LOG_DIR/migrate.log" npm run migrate
 # The demo loads its inventory and about five weeks of history on a first start; progress as it goes.
-say "loading the demo${RESET_DEMO:+ afresh (--reset-demo)} (log: $PARAPET_LOG_DIR/seed.log)"
+# A load stopped halfway (Ctrl-C or SIGTERM while it ran) leaves this marker: the demo is then loaded
+# afresh, since its inventory alone would otherwise count as "already loaded" and the past stay half written.
+SEED_MARKER="$PARAPET_DATA_DIR/demo-load-incomplete"
+if [[ -f $SEED_MARKER && -z $RESET_DEMO ]]; then
+  say "the last demo load was stopped before it finished; loading the demo afresh"
+  RESET_DEMO=1
+fi
+say "loading the demo${RESET_DEMO:+ afresh} (log: $PARAPET_LOG_DIR/seed.log)"
+touch "$SEED_MARKER"
 if ! run_step >(tee "$PARAPET_LOG_DIR/seed.log" | sed -u 's/^/[parapet]   seed: /' >&2) env PARAPET_RESET_DEMO="${RESET_DEMO:+1}" npm run --silent seed; then
   die "loading the demo failed (full log: $PARAPET_LOG_DIR/seed.log)"
 fi
+rm -f "$SEED_MARKER"
 build_client
 build_server
 
