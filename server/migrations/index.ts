@@ -10,6 +10,7 @@ import * as m0010 from './0010-boot-ids';
 import * as m0013 from './0013-terrain-tiles';
 import * as m0015 from './0015-air-and-host-steps';
 import * as m0016 from './0016-one-row-per-report';
+import * as m0017 from './0017-store-function';
 
 /** Every migration in order. A new migration is a new file here and one line in this list. */
 export const MIGRATIONS = [
@@ -25,4 +26,5 @@ export const MIGRATIONS = [
   { name: '0013-terrain-tiles', ...m0013 },
   { name: '0015-air-and-host-steps', ...m0015 },
   { name: '0016-one-row-per-report', ...m0016 },
+  { name: '0017-store-function', ...m0017 },
 ];

@@ -13,64 +13,12 @@ import { emitTransition, recordTransition } from './nodeHealth';
 import { rememberMacs } from './radioMacs';
 import { thresholdsFor } from './thresholds';
 
-// One statement stores the reports of many requests (group commit) and moves their nodes. Each item
-// is one request: its node, receive time, reports (boot id '' when the node sent none, sentAt null
-// when the node's clock was plainly wrong) and what the newest report does to the node. A report is
-// one row of heartbeats (its radios a jsonb column); only (node, boot id, seq) triples not stored
-// yet are inserted, so a resent report is stored once. A guarded item moves its node only if the node is still as it
-// was judged (seen_*); otherwise nothing about that node changes. An item whose report is not newer
-// (advances false) only touches last_seen_at. A node appears in at most one item of a statement.
-const STORE_SQL = `
-WITH items AS (
-  SELECT * FROM jsonb_to_recordset($items::jsonb) AS i(k int, node_id int, received_at timestamptz, reports jsonb, advances boolean,
-    newest_seq bigint, boot_id text, last_report jsonb, streak int, reason text, drift jsonb, state text, guarded boolean,
-    seen_seq bigint, seen_state text, seen_streak int, seen_boot_id text)
-),
-input AS (
-  SELECT DISTINCT ON (i.node_id, r->>'bootId', (r->>'seq')::bigint)
-         i.k, i.node_id, i.received_at, r->>'bootId' AS boot_id, (r->>'seq')::bigint AS seq, r
-    FROM items i CROSS JOIN LATERAL jsonb_array_elements(i.reports) AS r
-   WHERE EXISTS (SELECT 1 FROM nodes n WHERE n.id = i.node_id)
-   ORDER BY i.node_id, r->>'bootId', (r->>'seq')::bigint, i.k
-),
--- Exact dedupe without a second table: every writer of a node's reports holds that node's row lock from
--- before this statement until commit (storeItems locks the batch's nodes first; the locked path holds
--- FOR UPDATE). This statement's snapshot is taken after the lock is granted, so it sees every report of
--- those nodes committed before, and DISTINCT ON above removes repeats within the statement.
--- LATERAL ... LIMIT 1 keeps it one index probe per report (heartbeats_report_idx) rather than a scan of every partition.
-kept AS (
-  SELECT i.* FROM input i
-    LEFT JOIN LATERAL (SELECT true AS found FROM heartbeats h
-                        WHERE h.node_id = i.node_id AND coalesce(h.boot_id, '') = i.boot_id AND h.seq = i.seq LIMIT 1) d ON true
-   WHERE d.found IS NULL
-),
-hb AS (
-  INSERT INTO heartbeats (node_id, seq, boot_id, received_at, sent_at, uptime_s, load1, mem_free_kb, firmware, throughput_mbps, latency_ms, radios)
-  SELECT i.node_id, i.seq, nullif(i.boot_id, ''), i.received_at, (i.r->>'sentAt')::timestamptz, (i.r->>'uptimeS')::float8,
-         (i.r->>'load1')::float8, (i.r->>'memFreeKb')::float8, i.r->>'firmware', (i.r->>'throughputMbps')::float8, (i.r->>'latencyMs')::float8,
-         coalesce(i.r->'radios', '[]'::jsonb)
-    FROM kept i
-),
-node AS (
-  UPDATE nodes n SET
-    last_seen_at = greatest(n.last_seen_at, i.received_at),
-    first_seen_at = CASE WHEN i.advances THEN coalesce(n.first_seen_at, i.received_at) ELSE n.first_seen_at END,
-    last_seq = CASE WHEN i.advances THEN i.newest_seq ELSE n.last_seq END,
-    last_boot_id = CASE WHEN i.advances THEN nullif(i.boot_id, '') ELSE n.last_boot_id END,
-    last_report = CASE WHEN i.advances THEN i.last_report ELSE n.last_report END,
-    health_streak = CASE WHEN i.advances THEN i.streak ELSE n.health_streak END,
-    health_reason = CASE WHEN i.advances THEN i.reason ELSE n.health_reason END,
-    drift = CASE WHEN i.advances THEN i.drift ELSE n.drift END,
-    state_since = CASE WHEN i.advances AND n.state <> i.state THEN i.received_at ELSE n.state_since END,
-    state = CASE WHEN i.advances THEN i.state ELSE n.state END
-  FROM items i
-  WHERE n.id = i.node_id
-    AND (NOT i.guarded OR (n.last_seq IS NOT DISTINCT FROM i.seen_seq AND n.state = i.seen_state AND n.health_streak = i.seen_streak
-                           AND n.last_boot_id IS NOT DISTINCT FROM nullif(i.seen_boot_id, '')))
-  RETURNING i.k
-)
-SELECT i.k, (SELECT count(*) FROM kept x WHERE x.k = i.k)::int AS stored, EXISTS (SELECT 1 FROM node WHERE node.k = i.k) AS updated
-  FROM items i ORDER BY i.k`;
+// One call of store_heartbeat_items (migration 0017) stores the reports of many requests (group commit)
+// and moves their nodes, in one round trip with a plan PostgreSQL keeps per connection. Each item is one
+// request: its node, receive time, reports and what the newest report does to the node (the function's
+// comment says the rules). A report is one row of heartbeats (its radios a jsonb column); only (node, boot
+// id, seq) triples not stored yet are inserted, so a resent report is stored once.
+const STORE_SQL = 'SELECT k, stored, updated FROM store_heartbeat_items($items::jsonb, $lock)';
 
 /** One request's share of a store statement (snake_case: the statement reads it with jsonb_to_recordset). */
 interface StoreItem {
@@ -99,27 +47,19 @@ interface StoreOutcome {
 const DEADLOCK = '40P01';
 const isDeadlock = (err: unknown) => (err as { parent?: { code?: string } })?.parent?.code === DEADLOCK;
 
-/** Stores items in one statement (retried when PostgreSQL breaks a deadlock with another instance's statement). */
+/** Stores items in one call (retried when PostgreSQL breaks a deadlock with another instance's call). */
 async function storeItems(sequelize: Sequelize, items: StoreItem[], transaction?: Transaction): Promise<StoreOutcome[]> {
   const json = JSON.stringify(items.map((item, k) => ({ ...item, k })));
-  const store = async (t: Transaction) => {
-    const rows = await sequelize.query<{ k: number; stored: number; updated: boolean }>(STORE_SQL, {
-      bind: { items: json },
-      type: QueryTypes.SELECT,
-      transaction: t,
-    });
-    return rows.map((r) => ({ stored: r.stored, updated: r.updated }));
-  };
-  // The caller's transaction already holds its node's row lock (FOR UPDATE).
-  if (transaction) return store(transaction);
-  const ids = [...new Set(items.map((i) => i.node_id))].sort((a, b) => a - b);
+  // The caller's transaction already holds its node's row lock (FOR UPDATE); otherwise the function locks
+  // the batch's nodes in id order, so two calls never wait on each other's nodes in a circle.
+  const store = () =>
+    sequelize
+      .query<{ k: number; stored: number; updated: boolean }>(STORE_SQL, { bind: { items: json, lock: !transaction }, type: QueryTypes.SELECT, transaction })
+      .then((rows) => rows.map((r) => ({ stored: r.stored, updated: r.updated })));
+  if (transaction) return store();
   for (let attempt = 1; ; attempt++) {
     try {
-      return await sequelize.transaction(async (t) => {
-        // In id order, so two statements never wait on each other's nodes in a circle.
-        await sequelize.query('SELECT 1 FROM nodes WHERE id = ANY($1::int[]) ORDER BY id FOR NO KEY UPDATE', { bind: [ids], transaction: t });
-        return store(t);
-      });
+      return await store();
     } catch (err) {
       if (attempt >= 3 || !isDeadlock(err)) throw err;
     }
