@@ -84,6 +84,47 @@ describe('reports across reboots (bootId, seq)', () => {
     expect((await Node.findByPk(node.id))!.lastSeq).toBe('1');
   });
 
+  // The store function skips the duplicate probe for reports above the node's watermark (nodes.stored_seq
+  // for nodes.stored_boot_id). These are the ways a report gets stored above it without moving the node.
+  it('finds a resent report that was stored above the watermark by a batch that moved nothing', async () => {
+    const node = await buildNode();
+    const token = await tokenFor(ctx, node.id);
+    expect((await post(ctx, token, report(10, { bootId: BOOT_A }))).body).toEqual({ accepted: 1, duplicates: 0 });
+    expect((await post(ctx, token, report(1, { bootId: BOOT_B }))).body).toEqual({ accepted: 1, duplicates: 0 });
+    // Boot B speaks now (seq 1). A batch ending in the older boot A moves nothing, but stores B's seq 30.
+    const odd = await post(ctx, token, { reports: [report(30, { bootId: BOOT_B }), report(11, { bootId: BOOT_A })] });
+    expect(odd.body).toEqual({ accepted: 2, duplicates: 0 });
+    expect((await Node.findByPk(node.id))!.lastSeq).toBe('1');
+    // Resending B's seq 30 is a duplicate even though it is above what the node last said; seq 29 is new.
+    expect((await post(ctx, token, report(30, { bootId: BOOT_B }))).body).toEqual({ accepted: 0, duplicates: 1 });
+    expect((await post(ctx, token, report(29, { bootId: BOOT_B }))).body).toEqual({ accepted: 1, duplicates: 0 });
+    expect((await post(ctx, token, { reports: [report(29, { bootId: BOOT_B }), report(31, { bootId: BOOT_B })] })).body).toEqual({
+      accepted: 1,
+      duplicates: 1,
+    });
+    const rows = await seqRows(ctx, node.id);
+    expect(rows.map((r) => `${r.boot_id.slice(0, 4)}:${r.seq}`).sort()).toEqual(['0f6c:10', '0f6c:11', '7d1e:1', '7d1e:29', '7d1e:30', '7d1e:31']);
+  });
+
+  it('finds duplicates of reports stored before the watermark was known, and after a move back to reports without a boot id', async () => {
+    const node = await buildNode();
+    const token = await tokenFor(ctx, node.id);
+    expect((await post(ctx, token, { reports: [report(5, { bootId: BOOT_A }), report(6, { bootId: BOOT_A })] })).body).toEqual({ accepted: 2, duplicates: 0 });
+    // As a node row that predates the watermark (or whose watermark was lost) looks: unknown.
+    await ctx.sequelize.query('UPDATE nodes SET stored_boot_id = NULL, stored_seq = NULL WHERE id = $1', { bind: [node.id] });
+    expect((await post(ctx, token, { reports: [report(6, { bootId: BOOT_A }), report(7, { bootId: BOOT_A })] })).body).toEqual({ accepted: 1, duplicates: 1 });
+    // Reports without a boot id are their own series: seq 7 of "no boot" is new, then a duplicate.
+    expect((await post(ctx, token, report(7))).body).toEqual({ accepted: 1, duplicates: 0 });
+    expect((await post(ctx, token, report(7))).body).toEqual({ accepted: 0, duplicates: 1 });
+    expect((await post(ctx, token, report(6, { bootId: BOOT_A }))).body).toEqual({ accepted: 0, duplicates: 1 });
+    const [wm] = await ctx.sequelize.query<{ stored_boot_id: string | null; stored_seq: string | null }>(
+      'SELECT stored_boot_id, stored_seq::text FROM nodes WHERE id = $1',
+      { bind: [node.id], type: QueryTypes.SELECT },
+    );
+    expect(wm).not.toEqual({ stored_boot_id: null, stored_seq: null });
+    expect((await seqRows(ctx, node.id)).length).toBe(4);
+  });
+
   it('refuses a malformed boot id with 400 naming the field', async () => {
     const node = await buildNode();
     const token = await tokenFor(ctx, node.id);
