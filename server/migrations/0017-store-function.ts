@@ -20,6 +20,22 @@ export async function up({ context: { sequelize } }: { context: MigrationContext
     UPDATE nodes n SET stored_boot_id = coalesce(n.last_boot_id, ''),
       stored_seq = (SELECT max(h.seq) FROM heartbeats h WHERE h.node_id = n.id AND coalesce(h.boot_id, '') = coalesce(n.last_boot_id, ''));
 
+    -- The two lookups across every daily partition, as functions of their own: a plan that names the partitioned
+    -- table sets up a scan of every partition each time it runs, so the store statement keeps them out and
+    -- calls these only for the reports that need them. STABLE: they read with the calling statement's snapshot.
+    CREATE FUNCTION heartbeat_stored(p_node int, p_boot text, p_seq bigint) RETURNS boolean
+    LANGUAGE plpgsql STABLE SET plan_cache_mode = force_generic_plan AS $fn$
+    BEGIN
+      RETURN EXISTS (SELECT 1 FROM heartbeats h WHERE h.node_id = p_node AND coalesce(h.boot_id, '') = p_boot AND h.seq = p_seq);
+    END
+    $fn$;
+    CREATE FUNCTION heartbeat_max_seq(p_node int, p_boot text) RETURNS bigint
+    LANGUAGE plpgsql STABLE SET plan_cache_mode = force_generic_plan AS $fn$
+    BEGIN
+      RETURN (SELECT max(h.seq) FROM heartbeats h WHERE h.node_id = p_node AND coalesce(h.boot_id, '') = p_boot);
+    END
+    $fn$;
+
     CREATE FUNCTION store_heartbeat_items(p_items jsonb, p_lock boolean) RETURNS TABLE (k int, stored int, updated boolean)
     LANGUAGE plpgsql VOLATILE
     -- One plan per connection, kept: planning over every daily partition costs more than running the statement.
@@ -52,7 +68,7 @@ export async function up({ context: { sequelize } }: { context: MigrationContext
       kept AS (
         SELECT i.* FROM input i JOIN nodes n ON n.id = i.node_id
          WHERE CASE WHEN n.stored_boot_id IS NOT NULL AND i.boot_id = n.stored_boot_id AND (n.stored_seq IS NULL OR i.seq > n.stored_seq) THEN true
-                    ELSE NOT EXISTS (SELECT 1 FROM heartbeats h WHERE h.node_id = i.node_id AND coalesce(h.boot_id, '') = i.boot_id AND h.seq = i.seq)
+                    ELSE NOT heartbeat_stored(i.node_id, i.boot_id, i.seq)
                END
       ),
       kept_max AS (SELECT x.k, x.boot_id, max(x.seq) AS seq FROM kept x GROUP BY x.k, x.boot_id),
@@ -89,7 +105,7 @@ export async function up({ context: { sequelize } }: { context: MigrationContext
           -- The highest stored seq of wm_boot: what this call stored of it, and before it either the old
           -- watermark (same boot) or one index probe (the watermark moves to another boot, or was unknown).
           stored_seq = greatest(m.seq, CASE WHEN n.stored_boot_id IS NOT DISTINCT FROM j.wm_boot THEN n.stored_seq
-                                            ELSE (SELECT max(h.seq) FROM heartbeats h WHERE h.node_id = n.id AND coalesce(h.boot_id, '') = j.wm_boot) END)
+                                            ELSE heartbeat_max_seq(n.id, j.wm_boot) END)
         FROM judged j LEFT JOIN kept_max m ON m.k = j.k AND m.boot_id = j.wm_boot
         WHERE n.id = j.node_id
         RETURNING j.k, j.ok
@@ -105,5 +121,7 @@ export async function up({ context: { sequelize } }: { context: MigrationContext
 }
 
 export async function down({ context: { sequelize } }: { context: MigrationContext }) {
-  await sequelize.query('DROP FUNCTION IF EXISTS store_heartbeat_items(jsonb, boolean); ALTER TABLE nodes DROP COLUMN stored_boot_id, DROP COLUMN stored_seq');
+  await sequelize.query(
+    'DROP FUNCTION store_heartbeat_items(jsonb, boolean); DROP FUNCTION heartbeat_stored(int, text, bigint); DROP FUNCTION heartbeat_max_seq(int, text); ALTER TABLE nodes DROP COLUMN stored_boot_id, DROP COLUMN stored_seq',
+  );
 }
