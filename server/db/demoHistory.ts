@@ -43,6 +43,9 @@ export async function loadDemoHistory(
     reportRows += await writeDay(sequelize, plan, specs, day, TOWN.timeZone);
     if ((i + 1) % 5 === 0 || i === days.length - 1) progress(`history: reports for ${i + 1} of ${days.length} days written (${reportRows} rows)`);
   }
+  // The reports were written around the store function, so its per-node watermark no longer speaks for them: unknown,
+  // and each node's next store looks the highest stored seq up again (migration 0017).
+  await sequelize.query('UPDATE nodes SET stored_boot_id = NULL, stored_seq = NULL WHERE id = ANY($1::int[])', { bind: [[...specs.ids.values()]] });
   progress('history: replaying outages, acknowledgements, maintenance and mail through the live rules');
   const steps = await replayHistory(sequelize, config, plan, specs, people);
 
