@@ -1,4 +1,5 @@
 import { matchRoutes } from 'react-router';
+import { dataUrl, pageData } from '../src/app/page-data';
 import { pages, pagesWithoutSession, pageSource, SIGNED_IN_SHELL_SOURCE } from '../src/app/pages';
 
 /** The part of Vite's build manifest (`dist/.vite/manifest.json`) read here: one entry per source module or chunk. */
@@ -11,6 +12,17 @@ export interface ManifestChunk {
 export type Manifest = Record<string, ManifestChunk>;
 
 const routes = pages.map((page) => ({ path: page.pattern, page }));
+const pageAt = (urlPath: string) => matchRoutes(routes, urlPath)?.at(-1)?.route.page;
+
+/**
+ * The API answers the page at `urlPath` asks for first (src/app/page-data.ts), for a visitor whose request carries a
+ * session cookie; none for anyone else, nor for a page without an entry there.
+ */
+export function pageDataUrls(urlPath: string, search: string, hasSession: boolean): string[] {
+  const page = pageAt(urlPath);
+  const requests = hasSession && page?.signedIn ? pageData[page.pattern] : undefined;
+  return requests ? requests(new URLSearchParams(search)).map(dataUrl) : [];
+}
 
 /**
  * The scripts and styles the page at `urlPath` needs beyond the entry's own (which index.html already names):
@@ -19,8 +31,7 @@ const routes = pages.map((page) => ({ path: page.pattern, page }));
  * round trip plus the entry's whole download on the critical path.
  */
 export function pageAssets(manifest: Manifest, urlPath: string): { session: boolean; scripts: string[]; styles: string[] } {
-  const matched = matchRoutes(routes, urlPath);
-  const page = matched?.at(-1)?.route.page;
+  const page = pageAt(urlPath);
   // An address no page claims still opens in the signed-in shell (its "not found" page), which asks for the session.
   if (!page) return { session: true, scripts: [], styles: [] };
   const session = !pagesWithoutSession.includes(page.pattern);
@@ -53,12 +64,26 @@ const escapeAttribute = (value: string) => value.replace(/&/g, '&amp;').replace(
 export const SESSION_PRELOAD = '<link rel="preload" href="/api/v1/session" as="fetch" crossorigin>';
 
 /**
- * index.html with, first in its head, the session preload (so that request takes one of the browser's six
- * connections before the scripts queue on them), and at its end the page's scripts (modulepreload) and styles.
+ * A page's data answer, fetched like `api` in src/lib/api.ts fetches it (credentials "same-origin" is what `crossorigin`
+ * anonymous means for this origin), so the browser hands the preloaded answer to that fetch.
  */
-export function htmlForPage(indexHtml: string, manifest: Manifest, urlPath: string): string {
+export const dataPreload = (url: string) => `<link rel="preload" href="${escapeAttribute(url)}" as="fetch" crossorigin>`;
+
+/** Who is asking, as far as the page's HTML needs to know: the address's query, and whether a session cookie came along. */
+export interface PageRequest {
+  search?: string;
+  hasSession?: boolean;
+}
+
+/**
+ * index.html with, first in its head, the session preload and, for a visitor with a session, the page's data preloads
+ * (so those requests take the browser's six connections before the scripts queue on them), and at its end the page's
+ * scripts (modulepreload) and styles.
+ */
+export function htmlForPage(indexHtml: string, manifest: Manifest, urlPath: string, request: PageRequest = {}): string {
   const { session, scripts, styles } = pageAssets(manifest, urlPath);
-  const withSession = session ? indexHtml.replace('<head>', `<head>\n    ${SESSION_PRELOAD}`) : indexHtml;
+  const early = [...(session ? [SESSION_PRELOAD] : []), ...pageDataUrls(urlPath, request.search ?? '', request.hasSession ?? false).map(dataPreload)];
+  const withSession = early.length > 0 ? indexHtml.replace('<head>', `<head>\n    ${early.join('\n    ')}`) : indexHtml;
   if (scripts.length === 0 && styles.length === 0) return withSession;
   const tags = [
     ...scripts.map((href) => `<link rel="modulepreload" crossorigin href="${escapeAttribute(href)}">`),

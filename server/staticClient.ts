@@ -3,8 +3,12 @@ import type http from 'node:http';
 import path from 'node:path';
 import expressStaticGzip from 'express-static-gzip';
 import express, { type NextFunction, type Request, type Response } from 'express';
+import { SESSION_COOKIE } from './auth/session';
 import { ApiError } from './errors';
 import { htmlForPage, type Manifest } from './pagePreloads';
+
+/** Whether the request carries Parapet's session cookie (it may have expired: the page's own requests find out). */
+const hasSessionCookie = (req: Request) => (req.get('cookie') ?? '').split(';').some((part) => part.trim().startsWith(`${SESSION_COOKIE}=`));
 
 /** Vite names every built asset by its content hash, so a name never changes meaning: cache it for a year. */
 const HASHED_ASSETS = '/assets';
@@ -42,8 +46,10 @@ export function staticClient(clientDist: string) {
   );
   router.use(express.static(dist, { index: false, setHeaders: (res: Response) => res.set('Cache-Control', 'no-cache') }));
   router.get('/{*splat}', (req, res) => {
-    res.set('Cache-Control', 'no-cache');
-    res.type('html').send(htmlForPage(shell, manifest, req.path));
+    // The page's data preloads depend on whether a session cookie came along.
+    res.set({ 'Cache-Control': 'no-cache', Vary: 'Cookie' });
+    const search = req.originalUrl.includes('?') ? req.originalUrl.slice(req.originalUrl.indexOf('?')) : '';
+    res.type('html').send(htmlForPage(shell, manifest, req.path, { search, hasSession: hasSessionCookie(req) }));
   });
   return router;
 }

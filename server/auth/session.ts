@@ -21,11 +21,14 @@ export function markSignedIn(req: Request, config: Config) {
 export const sessionExpired = (s: { signedInAt?: number } | undefined, config: Config) =>
   s?.signedInAt !== undefined && config.now().getTime() - s.signedInAt >= config.sessionAbsoluteMs;
 
+/** The session cookie's name (server/staticClient.ts looks for it to preload a page's data). */
+export const SESSION_COOKIE = 'parapet.sid';
+
 /** Sessions live in PostgreSQL so any instance can serve any request. */
 export function sessionMiddleware(config: Config, pool: pg.Pool): RequestHandler {
   const PgStore = connectPgSimple(session);
   const base = session({
-    name: 'parapet.sid',
+    name: SESSION_COOKIE,
     store: new PgStore({ pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: 15 * 60 }),
     secret: config.sessionSecret,
     resave: false,

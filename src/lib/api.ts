@@ -1,7 +1,10 @@
 import type { ErrorBody } from '../../shared/schemas/common';
 import type { SessionBody } from '../../shared/schemas/session';
 import { markDatabaseUnavailable } from './database-status';
+import { toQueryString } from './list-query';
 import { queryClient } from './query-client';
+
+export { toQueryString };
 import { sessionKeys, type ListParams } from './query-keys';
 
 /**
@@ -39,16 +42,6 @@ export function errorMessage(error: unknown, fallback = 'Something went wrong. T
 }
 
 type Method = 'GET' | 'POST' | 'PATCH' | 'PUT' | 'DELETE';
-
-export function toQueryString(params?: ListParams): string {
-  if (!params) return '';
-  const search = new URLSearchParams();
-  for (const [key, value] of Object.entries(params)) {
-    if (value !== undefined && value !== '') search.set(key, String(value));
-  }
-  const text = search.toString();
-  return text ? `?${text}` : '';
-}
 
 // The token rotates with the session, so it is read from the session query at call time.
 async function csrfToken(): Promise<string | undefined> {

@@ -1,14 +1,10 @@
 import { useCallback, useMemo } from 'react';
 import { useSearchParams } from 'react-router-dom';
+import { DEFAULT_PAGE_SIZE, MAX_PAGE_SIZE, positiveInt } from './list-query';
 import type { ListParams } from './query-keys';
 
-export const DEFAULT_PAGE_SIZE = 25;
+export { DEFAULT_PAGE_SIZE };
 export const PAGE_SIZES = [10, 25, 50, 100] as const;
-
-function positiveInt(text: string | null, fallback: number, max = Number.MAX_SAFE_INTEGER): number {
-  const value = Number(text);
-  return Number.isInteger(value) && value >= 1 ? Math.min(value, max) : fallback;
-}
 
 export interface ListState {
   page: number;
@@ -25,7 +21,7 @@ export interface ListState {
 export function useListParams(filterKeys: readonly string[], defaultSort?: string): ListState {
   const [searchParams, setSearchParams] = useSearchParams();
   const page = positiveInt(searchParams.get('page'), 1);
-  const pageSize = positiveInt(searchParams.get('pageSize'), DEFAULT_PAGE_SIZE, 500);
+  const pageSize = positiveInt(searchParams.get('pageSize'), DEFAULT_PAGE_SIZE, MAX_PAGE_SIZE);
   const sort = searchParams.get('sort') ?? defaultSort;
   const q = searchParams.get('q') ?? '';
   // Serialised so the memo below changes only when a filter's value does.
@@ -35,6 +31,7 @@ export function useListParams(filterKeys: readonly string[], defaultSort?: strin
     [filterJson],
   );
 
+  // The same as listApiParams (list-query.ts) gives the server for this address, so a preloaded answer is reused.
   const apiParams = useMemo<ListParams>(() => ({ page, pageSize, sort, q: q.trim() || undefined, ...filters }), [page, pageSize, sort, q, filters]);
 
   const update = useCallback<ListState['update']>(

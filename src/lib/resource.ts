@@ -89,9 +89,7 @@ export function toOptions<T extends { id: number; name: string | null }>(rows: T
   return (rows ?? []).map((row) => ({ value: String(row.id), label: row.name ?? `#${row.id}` }));
 }
 
-/** Enough rows for a picker or a name lookup in one request (the API's page-size ceiling). */
-export const ALL_ROWS = { page: 1, pageSize: 500 } as const;
-export const ALL_BY_NAME = { ...ALL_ROWS, sort: 'name' } as const;
+export { ALL_ROWS, ALL_BY_NAME } from './list-query';
 
 /** A positive whole-number id from a route parameter, or null when the address is malformed. */
 export function idFromParam(text: string | undefined): number | null {

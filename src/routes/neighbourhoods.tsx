@@ -7,14 +7,15 @@ import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods
 import { NeighbourhoodForm } from '../features/neighbourhoods/components/neighbourhood-form';
 import { NEIGHBOURHOOD_SORT_FIELDS, NeighbourhoodsTable } from '../features/neighbourhoods/components/neighbourhoods-table';
 import { useListParams } from '../lib/list-params';
+import { neighbourhoodList, neighbourhoodListParams } from '../app/page-data';
 import { paths } from '../lib/paths';
 import { useInlineForm } from '../lib/use-inline-form';
 
 export function NeighbourhoodsPage() {
   const navigate = useNavigate();
-  const list = useListParams(['retired'], 'name');
+  const list = useListParams(neighbourhoodList.filters, neighbourhoodList.sort);
   // This page shows retired neighbourhoods too unless asked not to; pickers elsewhere get only active ones.
-  const neighbourhoods = useNeighbourhoods({ ...list.apiParams, retired: list.filters.retired ?? 'all' });
+  const neighbourhoods = useNeighbourhoods(neighbourhoodListParams(list.apiParams));
   const adding = useInlineForm();
 
   return (

@@ -12,13 +12,14 @@ import { NodeForm } from '../features/nodes/components/node-form';
 import { NODE_SORT_FIELDS, NodesTable } from '../features/nodes/components/nodes-table';
 import { useSites } from '../features/sites/api/sites';
 import { useListParams } from '../lib/list-params';
+import { nodeList } from '../app/page-data';
 import { paths } from '../lib/paths';
 import { useInlineForm } from '../lib/use-inline-form';
 import { ALL_BY_NAME, nameLookup, toOptions } from '../lib/resource';
 
 export function NodesPage() {
   const navigate = useNavigate();
-  const list = useListParams(['state', 'neighbourhoodId', 'siteId'], 'name');
+  const list = useListParams(nodeList.filters, nodeList.sort);
   const nodes = useNodes(list.apiParams);
   const sites = useSites(ALL_BY_NAME);
   const neighbourhoods = useNeighbourhoods(ALL_BY_NAME);

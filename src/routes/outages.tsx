@@ -5,6 +5,7 @@ import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods
 import { useOutages } from '../features/outages/api/outages';
 import { OUTAGE_SORT_FIELDS, OutagesTable } from '../features/outages/components/outages-table';
 import { useListParams } from '../lib/list-params';
+import { outageList } from '../app/page-data';
 import { ALL_BY_NAME, nameLookup, toOptions } from '../lib/resource';
 
 const STATUS_OPTIONS = [
@@ -13,7 +14,7 @@ const STATUS_OPTIONS = [
 ];
 
 export function OutagesPage() {
-  const list = useListParams(['status', 'neighbourhoodId', 'nodeId'], '-startedAt');
+  const list = useListParams(outageList.filters, outageList.sort);
   const outages = useOutages(list.apiParams);
   const neighbourhoods = useNeighbourhoods(ALL_BY_NAME);
   const filtered = Boolean(list.filters.status || list.filters.neighbourhoodId || list.filters.nodeId);

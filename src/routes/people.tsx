@@ -10,10 +10,11 @@ import { InviteForm } from '../features/people/components/invite-form';
 import { PersonForm } from '../features/people/components/person-form';
 import { capitalise } from '../lib/format';
 import { useListParams } from '../lib/list-params';
+import { peopleList } from '../app/page-data';
 import { useInlineForm } from '../lib/use-inline-form';
 
 export function PeoplePage() {
-  const list = useListParams(['role'], 'name');
+  const list = useListParams(peopleList.filters, peopleList.sort);
   const people = usePeople(list.apiParams);
   const adding = useInlineForm();
   const inviting = useInlineForm();

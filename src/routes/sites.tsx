@@ -7,11 +7,12 @@ import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods
 import { useSites } from '../features/sites/api/sites';
 import { SITE_SORT_FIELDS, SitesTable } from '../features/sites/components/sites-table';
 import { useListParams } from '../lib/list-params';
+import { siteList } from '../app/page-data';
 import { paths } from '../lib/paths';
 import { ALL_BY_NAME, nameLookup, toOptions } from '../lib/resource';
 
 export function SitesPage() {
-  const list = useListParams(['neighbourhoodId', 'hostUserId'], 'name');
+  const list = useListParams(siteList.filters, siteList.sort);
   const sites = useSites(list.apiParams);
   const neighbourhoods = useNeighbourhoods(ALL_BY_NAME);
   const filtered = Boolean(list.q || list.filters.neighbourhoodId || list.filters.hostUserId);

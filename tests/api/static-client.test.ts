@@ -6,7 +6,7 @@ import path from 'node:path';
 import zlib from 'node:zlib';
 import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
-import { useApi } from '../helpers/api';
+import { buildUser, signIn, useApi } from '../helpers/api';
 import { buildNeighbourhood } from '../helpers/factories';
 
 // A small built client of our own, so these checks do not depend on what the real build contains.
@@ -39,6 +39,10 @@ const manifest = {
 fs.writeFileSync(path.join(dist, '.vite', 'manifest.json'), JSON.stringify(manifest));
 const SESSION_PRELOAD = '<link rel="preload" href="/api/v1/session" as="fetch" crossorigin>';
 const preloadedScripts = (html: string) => [...html.matchAll(/<link rel="modulepreload" crossorigin href="([^"]+)">/g)].map((m) => m[1]);
+const dataPreloads = (html: string) =>
+  [...html.matchAll(/<link rel="preload" href="([^"]+)" as="fetch" crossorigin>/g)]
+    .map((m) => m[1].replaceAll('&amp;', '&'))
+    .filter((url) => url !== '/api/v1/session');
 const withoutLinks = (html: string) => html.replace(/\s*<link [^>]*>/g, '').replace(/\s+<\/head>/, '</head>');
 afterAll(() => fs.rmSync(dist, { recursive: true, force: true }));
 
@@ -154,6 +158,40 @@ describe('serving the built client', () => {
       expect(preloadedScripts(res.text), url).toEqual(['/assets/signed-in-layout-Ss44.js', '/assets/live-Ll22.js']);
       expect(res.text, url).toContain(SESSION_PRELOAD);
     }
+  });
+
+  it("names a signed-in page's first API answers in its HTML (from src/app/page-data.ts), and none for a visitor without a session", async () => {
+    const agent = await signIn(ctx, await buildUser({ role: 'admin' }));
+    const nodes = await agent.get('/nodes?page=2&state=down&pageSize=10');
+    expect(nodes.status).toBe(200);
+    // Exactly what the nodes page asks first: its list (page, size, sort, search, filters in the page's order), then its pickers.
+    expect(dataPreloads(nodes.text)).toEqual([
+      '/api/v1/nodes?page=2&pageSize=10&sort=name&state=down',
+      '/api/v1/sites?page=1&pageSize=500&sort=name',
+      '/api/v1/neighbourhoods?page=1&pageSize=500&sort=name',
+    ]);
+    // Early in the head, with the session question, before the scripts queue on the browser's connections.
+    expect(nodes.text.indexOf('/api/v1/nodes?')).toBeLessThan(nodes.text.indexOf('<title>'));
+    expect(nodes.headers['vary']).toMatch(/cookie/i);
+    expect(dataPreloads((await agent.get('/topology')).text)).toEqual([
+      '/api/v1/topology',
+      '/api/v1/topology/neighbourhoods',
+      '/api/v1/neighbourhoods?page=1&pageSize=500&sort=name',
+    ]);
+    expect(dataPreloads((await agent.get('/')).text)).toEqual(['/api/v1/overview']);
+    expect(dataPreloads((await agent.get('/neighbourhoods')).text)).toEqual(['/api/v1/neighbourhoods?page=1&pageSize=25&sort=name&retired=all']);
+    // An attribute cannot be broken out of by the address's query.
+    const odd = await agent.get('/sites?q=%22%3E%3Cscript%3E');
+    expect(odd.text).not.toContain('"><script>');
+    expect(dataPreloads(odd.text)[0]).toBe('/api/v1/sites?page=1&pageSize=25&sort=name&q=%22%3E%3Cscript%3E');
+    // Pages outside the console, and pages with no entry in the table, get none even with a session.
+    for (const url of ['/status', '/sign-in', '/planning', '/nodes/12']) expect(dataPreloads((await agent.get(url)).text), url).toEqual([]);
+
+    // No session cookie: the session question alone (it decides where to send the visitor), no data.
+    const anonymous = await request(ctx.app).get('/nodes');
+    expect(anonymous.status).toBe(200);
+    expect(anonymous.text).toContain(SESSION_PRELOAD);
+    expect(dataPreloads(anonymous.text)).toEqual([]);
   });
 
   it('compresses JSON answers from the API as well', async () => {
