@@ -1,4 +1,4 @@
-import { useCallback, useMemo } from 'react';
+import { lazy, Suspense, useCallback, useMemo } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { NODE_STATES, type NodeState } from '../../shared/enums';
 import { EmptyState } from '../components/empty-state';
@@ -6,8 +6,6 @@ import { PageHeader } from '../components/page-header';
 import { LoadError, Loading } from '../components/query-state';
 import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
 import { useNode } from '../features/nodes/api/nodes';
-import { NodeQuickLook } from '../features/nodes/components/node-quick-look';
-import { LinkEditor } from '../features/links/components/link-editor';
 import { useTopology, useTopologyNeighbourhoods } from '../features/topology/api/topology';
 import { NeighbourhoodPreview } from '../features/topology/components/neighbourhood-preview';
 import { AirFindings } from '../features/topology/components/air-findings';
@@ -17,6 +15,11 @@ import { TopologyView } from '../features/topology/components/topology-view';
 import type { TopologyLink, TopologyNode } from '../features/topology/api/topology';
 import type { GraphFilters } from '../features/topology/utils/flow-elements';
 import { ALL_BY_NAME, idFromParam, toOptions } from '../lib/resource';
+
+// What opens with a chosen node (its figures, its links and the link form, with the form library and the shared schemas
+// under it) loads when a node is first chosen, not with the map: most visits only look.
+const NodeQuickLook = lazy(() => import('../features/nodes/components/node-quick-look').then((m) => ({ default: m.NodeQuickLook })));
+const LinkEditor = lazy(() => import('../features/links/components/link-editor').then((m) => ({ default: m.LinkEditor })));
 
 function stateFrom(text: string | null): NodeState | undefined {
   return NODE_STATES.find((state) => state === text);
@@ -92,10 +95,12 @@ export function TopologyPage() {
             onSelect={onSelect}
             panel={
               selected && (
-                <div className="space-y-3">
-                  <NodeQuickLook key={selected.id} nodeId={selected.id} openOutageId={selected.openOutageId} onClose={() => onSelect(null)} />
-                  <MapLinkTools node={selected} links={topology.data.links} names={nodeNames} />
-                </div>
+                <Suspense fallback={<Loading label="Loading…" />}>
+                  <div className="space-y-3">
+                    <NodeQuickLook key={selected.id} nodeId={selected.id} openOutageId={selected.openOutageId} onClose={() => onSelect(null)} />
+                    <MapLinkTools node={selected} links={topology.data.links} names={nodeNames} />
+                  </div>
+                </Suspense>
               )
             }
           />
