@@ -12,9 +12,24 @@ export function useInlineForm() {
   const wasOpen = useRef(false);
 
   useEffect(() => {
-    if (open) regionRef.current?.querySelector<HTMLElement>('input:not([type=hidden]), select, textarea')?.focus();
-    else if (wasOpen.current) (triggerRef.current ?? document.getElementById('main'))?.focus();
+    const opening = open;
+    const closing = !open && wasOpen.current;
     wasOpen.current = open;
+    if (closing) (triggerRef.current ?? document.getElementById('main'))?.focus();
+    const region = regionRef.current;
+    if (!opening || !region) return;
+    const firstField = () => region.querySelector<HTMLElement>('input:not([type=hidden]), select, textarea');
+    const field = firstField();
+    if (field) return field.focus();
+    // A form whose code loads on first use (React.lazy) has no field yet: focus its first one when it appears.
+    const observer = new MutationObserver(() => {
+      const appeared = firstField();
+      if (!appeared) return;
+      observer.disconnect();
+      appeared.focus();
+    });
+    observer.observe(region, { childList: true, subtree: true });
+    return () => observer.disconnect();
   }, [open]);
 
   // Spread on the elements (`{...form.triggerProps}`), as useDisclosure's props are: the refs are only read in the effect above.

@@ -1,3 +1,4 @@
+import { lazy, Suspense } from 'react';
 import { useNavigate } from 'react-router-dom';
 import { NODE_STATES } from '../../shared/enums';
 import { Button, ButtonLink } from '../components/button';
@@ -8,7 +9,6 @@ import { stateWord } from '../components/state-badge';
 import { ExportButton } from '../features/csv/components/export-button';
 import { useNeighbourhoods } from '../features/neighbourhoods/api/neighbourhoods';
 import { useNodes } from '../features/nodes/api/nodes';
-import { NodeForm } from '../features/nodes/components/node-form';
 import { NODE_SORT_FIELDS, NodesTable } from '../features/nodes/components/nodes-table';
 import { useSites } from '../features/sites/api/sites';
 import { useListParams } from '../lib/list-params';
@@ -16,6 +16,10 @@ import { nodeList } from '../app/page-data';
 import { paths } from '../lib/paths';
 import { useInlineForm } from '../lib/use-inline-form';
 import { ALL_BY_NAME, nameLookup, toOptions } from '../lib/resource';
+import { Loading } from '../components/query-state';
+
+// The form (with the form library and the shared schemas) loads when "Add node" is pressed, not with the list.
+const NodeForm = lazy(() => import('../features/nodes/components/node-form').then((m) => ({ default: m.NodeForm })));
 
 export function NodesPage() {
   const navigate = useNavigate();
@@ -48,12 +52,14 @@ export function NodesPage() {
       {adding.open && (
         <div {...adding.regionProps} className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">New node</h2>
-          <NodeForm
-            siteOptions={toOptions(sites.data?.data)}
-            neighbourhoodOptions={toOptions(neighbourhoods.data?.data)}
-            onSaved={(node) => navigate(paths.nodeDetail.to(node.id))}
-            onCancel={adding.hide}
-          />
+          <Suspense fallback={<Loading label="Loading…" />}>
+            <NodeForm
+              siteOptions={toOptions(sites.data?.data)}
+              neighbourhoodOptions={toOptions(neighbourhoods.data?.data)}
+              onSaved={(node) => navigate(paths.nodeDetail.to(node.id))}
+              onCancel={adding.hide}
+            />
+          </Suspense>
         </div>
       )}
       <ListToolbar

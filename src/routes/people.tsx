@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { lazy, Suspense, useState } from 'react';
 import { ROLES } from '../../shared/enums';
 import { Button } from '../components/button';
 import { ListBody } from '../components/list-body';
@@ -6,12 +6,15 @@ import { FilterSelect, ListToolbar, sortChoices } from '../components/list-toolb
 import { PageHeader } from '../components/page-header';
 import { usePeople } from '../features/people/api/people';
 import { PEOPLE_SORT_FIELDS, PeopleTable } from '../features/people/components/people-table';
-import { InviteForm } from '../features/people/components/invite-form';
-import { PersonForm } from '../features/people/components/person-form';
 import { capitalise } from '../lib/format';
 import { useListParams } from '../lib/list-params';
 import { peopleList } from '../app/page-data';
 import { useInlineForm } from '../lib/use-inline-form';
+import { Loading } from '../components/query-state';
+
+// The forms (with the form library and the shared schemas) load when one is opened, not with the list.
+const InviteForm = lazy(() => import('../features/people/components/invite-form').then((m) => ({ default: m.InviteForm })));
+const PersonForm = lazy(() => import('../features/people/components/person-form').then((m) => ({ default: m.PersonForm })));
 
 export function PeoplePage() {
   const list = useListParams(peopleList.filters, peopleList.sort);
@@ -60,25 +63,29 @@ export function PeoplePage() {
       {inviting.open && (
         <div {...inviting.regionProps} className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">Invite someone</h2>
-          <InviteForm
-            onSent={(person) => {
-              inviting.hide();
-              setAdded(`Invitation sent to ${person.email}. The link works once, until ${new Date(person.invitationExpiresAt).toLocaleString()}.`);
-            }}
-            onCancel={inviting.hide}
-          />
+          <Suspense fallback={<Loading label="Loading…" />}>
+            <InviteForm
+              onSent={(person) => {
+                inviting.hide();
+                setAdded(`Invitation sent to ${person.email}. The link works once, until ${new Date(person.invitationExpiresAt).toLocaleString()}.`);
+              }}
+              onCancel={inviting.hide}
+            />
+          </Suspense>
         </div>
       )}
       {adding.open && (
         <div {...adding.regionProps} className="mb-6">
           <h2 className="mb-2 text-lg font-semibold">New person</h2>
-          <PersonForm
-            onSaved={(person) => {
-              adding.hide();
-              setAdded(`${person.name} can now sign in as ${person.role}.`);
-            }}
-            onCancel={adding.hide}
-          />
+          <Suspense fallback={<Loading label="Loading…" />}>
+            <PersonForm
+              onSaved={(person) => {
+                adding.hide();
+                setAdded(`${person.name} can now sign in as ${person.role}.`);
+              }}
+              onCancel={adding.hide}
+            />
+          </Suspense>
         </div>
       )}
       <ListToolbar

@@ -3,7 +3,7 @@ import { ROLES, type Role } from '../../../../shared/enums';
 import type { UserDto } from '../../../../shared/schemas/user';
 import { errorMessage } from '../../../lib/api';
 import { capitalise } from '../../../lib/format';
-import { lazySchema } from '../../../lib/schema-form';
+import { lazySchema } from '../../../lib/schema-issues';
 import { useUpdatePerson } from '../api/people';
 
 // Its module also holds the password rules and their dictionary: fetched on the first change, not with the page.
