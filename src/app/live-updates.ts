@@ -2,27 +2,25 @@ import { useQueryClient, type QueryClient, type QueryKey } from '@tanstack/react
 import { useEffect } from 'react';
 import type { NodeDto } from '../../shared/schemas/node';
 import { patchNodeRecord } from '../features/nodes/api/telemetry';
-import { patchTopologyNodes, type TopologyNodePatch } from '../features/topology/api/topology';
+import { topologyPatcher } from '../features/topology/api/live-topology';
 import { neighbourhoodKeys, nodeKeys, nodeTelemetryKeys, outageKeys, overviewKeys, topologyKeys } from '../lib/query-keys';
 import { closeSocket, openSocket, type NodeFiguresEvent, type NodeStateEvent, type OutageEvent, type OutageTimelineEvent } from '../lib/socket';
 
 // Events are gathered for a moment and applied together: a burst of reports then costs one
-// pass over the graph and one refetch per list, and still shows well within a second.
+// refetch per list, and still shows well within a second. The map's nodes go once per frame.
 const FLUSH_MS = 150;
 
 type NodeChange = (node: NodeDto) => NodeDto;
 
 interface Pending {
-  topology: Map<number, TopologyNodePatch>;
   nodes: Map<number, NodeChange[]>;
   refetchNodes: Set<number>;
   invalidate: Map<string, QueryKey>;
 }
 
-const empty = (): Pending => ({ topology: new Map(), nodes: new Map(), refetchNodes: new Set(), invalidate: new Map() });
+const empty = (): Pending => ({ nodes: new Map(), refetchNodes: new Set(), invalidate: new Map() });
 
 function flush(queryClient: QueryClient, pending: Pending) {
-  patchTopologyNodes(queryClient, pending.topology);
   for (const [nodeId, changes] of pending.nodes) {
     patchNodeRecord(queryClient, nodeId, (node) => changes.reduce((current, change) => change(current), node));
   }
@@ -34,6 +32,7 @@ function flush(queryClient: QueryClient, pending: Pending) {
 function collector(queryClient: QueryClient) {
   let pending = empty();
   let timer: number | null = null;
+  const topology = topologyPatcher(queryClient);
   const schedule = () => {
     timer ??= window.setTimeout(() => {
       timer = null;
@@ -44,13 +43,12 @@ function collector(queryClient: QueryClient) {
   };
   const invalidate = (queryKey: QueryKey) => pending.invalidate.set(JSON.stringify(queryKey), queryKey);
   const changeNode = (nodeId: number, change: NodeChange) => pending.nodes.set(nodeId, [...(pending.nodes.get(nodeId) ?? []), change]);
-  const patchTopology = (nodeId: number, patch: TopologyNodePatch) => pending.topology.set(nodeId, { ...pending.topology.get(nodeId), ...patch });
 
   return {
     state(e: NodeStateEvent) {
       // A move to online or degraded comes from a report, so the node was seen at that moment.
       const seen = e.state === 'online' || e.state === 'degraded';
-      patchTopology(e.nodeId, seen ? { state: e.state, lastSeenAt: e.at } : { state: e.state });
+      topology.patch(e.nodeId, seen ? { state: e.state, lastSeenAt: e.at } : { state: e.state });
       changeNode(e.nodeId, (node) => ({ ...node, state: e.state, stateSince: e.at, healthReason: e.reason, lastSeenAt: seen ? e.at : node.lastSeenAt }));
       invalidate(overviewKeys.all);
       invalidate(nodeKeys.lists());
@@ -77,7 +75,7 @@ function collector(queryClient: QueryClient) {
       schedule();
     },
     outage(e: OutageEvent) {
-      patchTopology(e.nodeId, { openOutageId: e.kind === 'opened' ? e.outageId : null });
+      topology.patch(e.nodeId, { openOutageId: e.kind === 'opened' ? e.outageId : null });
       invalidate(outageKeys.all);
       invalidate(overviewKeys.all);
       invalidate(nodeTelemetryKeys.availability(e.nodeId));
@@ -89,6 +87,7 @@ function collector(queryClient: QueryClient) {
     },
     stop() {
       if (timer !== null) window.clearTimeout(timer);
+      topology.stop();
     },
   };
 }

@@ -12,6 +12,7 @@ import { AirFindings } from '../features/topology/components/air-findings';
 import { NodeLinks } from '../features/topology/components/node-links';
 import { TopologyLegend } from '../features/topology/components/topology-legend';
 import { TopologyView } from '../features/topology/components/topology-view';
+import { useSamePlaces } from '../features/topology/utils/stable';
 import type { TopologyLink, TopologyNode } from '../features/topology/api/topology';
 import type { GraphFilters } from '../features/topology/utils/flow-elements';
 import { ALL_BY_NAME, idFromParam, toOptions } from '../lib/resource';
@@ -34,6 +35,8 @@ function MapLinkTools({ node, links, names }: { node: TopologyNode; links: Topol
     </LinkEditor>
   );
 }
+
+const NO_NODES: TopologyNode[] = [];
 
 export function TopologyPage() {
   const [params, setParams] = useSearchParams();
@@ -70,7 +73,9 @@ export function TopologyPage() {
   const onSelect = useCallback((id: number | null) => change({ node: id === null ? undefined : String(id) }), [change]);
 
   const selected = selectedId === null ? undefined : topology.data?.nodes.find((n) => n.id === selectedId);
-  const nodeNames = useMemo(() => new Map((topology.data?.nodes ?? []).map((n) => [n.id, n.name])), [topology.data?.nodes]);
+  // Keyed on names and places only: live state changes must not rebuild it 60 times a second.
+  const placed = useSamePlaces(topology.data?.nodes ?? NO_NODES);
+  const nodeNames = useMemo(() => new Map(placed.map((n) => [n.id, n.name])), [placed]);
 
   return (
     <>

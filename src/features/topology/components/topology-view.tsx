@@ -1,6 +1,6 @@
 import { Background, Controls, MiniMap, ReactFlow, ReactFlowProvider, useReactFlow, useStore, type NodeMouseHandler } from '@xyflow/react';
 import '@xyflow/react/dist/style.css';
-import { useCallback, useEffect, useMemo, useRef, useState, type KeyboardEvent, type ReactNode, type RefObject } from 'react';
+import { useCallback, useEffect, useLayoutEffect, useMemo, useRef, useState, type KeyboardEvent, type ReactNode, type RefObject } from 'react';
 import { NODE_STATES, type NodeState } from '../../../../shared/enums';
 import { Button } from '../../../components/button';
 import { FilterSelect } from '../../../components/list-toolbar';
@@ -8,6 +8,7 @@ import { stateWord } from '../../../components/state-badge';
 import type { Topology, TopologyNode } from '../api/topology';
 import { buildDiscoveredLines, buildFlowNodes, buildLinkLines, isShown, type GraphFilters } from '../utils/flow-elements';
 import { layoutByCoordinates } from '../utils/layout';
+import { sameOptions, samePlaces, useSameWhile } from '../utils/stable';
 import { LinkLayer } from './link-layer';
 import { nodeScaleFor, SiteNode, type SiteFlowNode } from './site-node';
 import { TopologySearch } from './topology-search';
@@ -95,11 +96,16 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
   const canvas = useRef<HTMLDivElement>(null);
   const listHeading = useRef<HTMLHeadingElement>(null);
 
-  // Only names and coordinates move the layout; a state change must not recompute it.
-  const geometryKey = topology.nodes.map((n) => `${n.id}:${n.latitude}:${n.longitude}:${n.name}`).join('|');
-  // eslint-disable-next-line react-hooks/exhaustive-deps -- keyed on geometry on purpose
-  const positions = useMemo(() => layoutByCoordinates(topology.nodes), [geometryKey]);
-  const hoodNames = useMemo(() => new Map(neighbourhoodOptions.map((o) => [Number(o.value), o.label])), [neighbourhoodOptions]);
+  // Only names and coordinates move the layout; a state change must not recompute it (nor the search's names).
+  const placed = useSameWhile(topology.nodes, samePlaces);
+  const positions = useMemo(() => layoutByCoordinates(placed), [placed]);
+  const namedOptions = useSameWhile(neighbourhoodOptions, sameOptions);
+  const hoodNames = useMemo(() => new Map(namedOptions.map((o) => [Number(o.value), o.label])), [namedOptions]);
+  // Callbacks handed to memoised children read the newest nodes here, so they keep one identity across live events.
+  const nodesNow = useRef(topology.nodes);
+  useLayoutEffect(() => {
+    nodesNow.current = topology.nodes;
+  }, [topology.nodes]);
 
   // A big network opens folded: one mark per neighbourhood, one neighbourhood opened at a time.
   const [grouped, setGrouped] = useState(() => topology.nodes.length > LARGE_GRAPH_NODES);
@@ -165,10 +171,10 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
     (nodeId: number) => {
       onSelect(nodeId);
       setPanelFocusWanted(true);
-      const node = topology.nodes.find((n) => n.id === nodeId);
+      const node = nodesNow.current.find((n) => n.id === nodeId);
       if (node) setAnnouncement(`Showing ${node.name} at ${node.siteName}: ${stateWord(node.state)}.`);
     },
-    [onSelect, topology.nodes],
+    [onSelect],
   );
   const onCanvasKeyDown = (event: KeyboardEvent<HTMLDivElement>) => {
     if (event.key !== 'Enter' && event.key !== ' ') return;
@@ -202,7 +208,9 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
   }, [selectedId]);
 
   const focusNode = useCallback(
-    (node: TopologyNode) => {
+    (found: TopologyNode) => {
+      // The search and the list may hold an older copy of the node: its state is read afresh.
+      const node = nodesNow.current.find((n) => n.id === found.id) ?? found;
       if (!isShown(node, filters)) onFilters({});
       // In a folded map the node's neighbourhood opens first (and the one open before folds).
       if (grouped) setOpenHoodId(node.neighbourhoodId);
@@ -229,7 +237,7 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
   return (
     <>
       <div className="mb-3 flex flex-wrap items-end gap-3">
-        <TopologySearch nodes={topology.nodes} onFind={focusNode} />
+        <TopologySearch nodes={placed} onFind={focusNode} />
         <FilterSelect
           label="Neighbourhood"
           value={filters.neighbourhoodId === undefined ? undefined : String(filters.neighbourhoodId)}
