@@ -1,13 +1,11 @@
 // The map at the size of a big town: 2,100 nodes in twelve quarters, with 300 live state changes a
 // second arriving through the real realtime path (the socket.io PostgreSQL adapter, as a second
 // instance would send them). Asserts behaviour; prints the timings as figures ("bench:map").
-import { createAdapter } from '@socket.io/postgres-adapter';
 import pg from 'pg';
-import { Server } from 'socket.io';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { NODE_STATES, type NodeState } from '../../shared/enums';
-import type { NodeStateEvent } from '../../shared/schemas/realtime';
-import { seedBigTown, removeBigTown, type BigTown } from '../helpers/bigTown';
+import type { NodeState } from '../../shared/enums';
+import { countsIn as countsOf, frameLine, readFrameStats, removeBigTown, seedBigTown, sendStateStorm, startFrameStats, type BigTown } from '../helpers/bigTown';
+import fs from 'node:fs';
 import path from 'node:path';
 import { artifactsDir, screenshot, signInAs, useE2E } from './helpers/browser';
 
@@ -42,13 +40,7 @@ describe('the map of a 2,100-node town', () => {
     console.log(['', 'bench:map figures', ...figures.map((f) => `  ${f}`), ''].join('\n'));
   });
 
-  const countsIn = (hoodId: number, states: Map<number, NodeState>) => {
-    const counts = new Map<NodeState, number>();
-    for (const node of town.nodes) if (node.neighbourhoodId === hoodId) counts.set(states.get(node.id)!, (counts.get(states.get(node.id)!) ?? 0) + 1);
-    return NODE_STATES.filter((s) => counts.get(s))
-      .map((s) => `${s}:${counts.get(s)}`)
-      .join(',');
-  };
+  const countsIn = (hoodId: number, states: Map<number, NodeState>) => countsOf(town, hoodId, states);
 
   it('opens on one mark per quarter with its counts, expands a quarter, and finds a node in a folded one', async () => {
     const page = await e2e.fresh({ width: 1280, height: 900 });
@@ -145,106 +137,54 @@ describe('the map of a 2,100-node town', () => {
     await page.getByTestId(`topology-node-${openNodes[0].id}`).waitFor({ timeout: 30_000 });
 
     // Frame gaps by requestAnimationFrame, and long animation frames where the browser reports them.
-    await page.evaluate(() => {
-      const w = window as unknown as { frameStats: { gaps: number[]; longFrames: number[]; running: boolean } };
-      w.frameStats = { gaps: [], longFrames: [], running: true };
-      let last = performance.now();
-      const tick = (now: number) => {
-        w.frameStats.gaps.push(now - last);
-        last = now;
-        if (w.frameStats.running) requestAnimationFrame(tick);
-      };
-      requestAnimationFrame(tick);
-      for (const type of ['long-animation-frame', 'longtask']) {
-        if (!PerformanceObserver.supportedEntryTypes.includes(type)) continue;
-        new PerformanceObserver((list) => list.getEntries().forEach((e) => w.frameStats.longFrames.push(e.duration))).observe({ type });
-        break;
-      }
-    });
+    await startFrameStats(page);
 
     // The same figures over 3 s with no events: on a shared machine they show what the load alone costs.
     await page.waitForTimeout(3_000);
-    const quiet = await page.evaluate(() => {
-      const w = window as unknown as { frameStats: { gaps: number[]; longFrames: number[] } };
-      const gaps = [...w.frameStats.gaps].sort((a, b) => a - b);
-      const summary = { frames: gaps.length, p50: gaps[Math.floor(gaps.length / 2)], max: gaps.at(-1), longFrames: w.frameStats.longFrames.length };
-      w.frameStats.gaps = [];
-      w.frameStats.longFrames = [];
-      return summary;
-    });
-    note(
-      `frames with no events (3 s): ${quiet.frames}; gap p50 ${quiet.p50?.toFixed(1)} ms, longest ${quiet.max?.toFixed(1)} ms; long frames ${quiet.longFrames}`,
-    );
+    note(`frames with no events (3 s): ${frameLine(await readFrameStats(page))}`);
 
-    // A second socket.io instance on the same PostgreSQL adapter: events reach the app's sockets as
-    // they do from another app instance behind the proxy.
-    const pool = new pg.Pool({ connectionString: process.env.E2E_DATABASE_URL, max: 2 });
-    const io = new Server();
-    io.adapter(createAdapter(pool, { tableName: 'socket_io_attachments' }));
-    const states = new Map(town.nodes.map((n) => [n.id, n.state]));
-    const random = (() => {
-      let x = 7;
-      return () => (x = (Math.imul(x, 1664525) + 1013904223) >>> 0) / 2 ** 32;
-    })();
-    const changing: NodeState[] = ['online', 'degraded', 'offline', 'maintenance'];
-    let sent = 0;
-    const started = Date.now();
-    try {
-      // 3 events every 10 ms; the loop catches up after a late timer so the rate holds on average.
-      while (Date.now() - started < STORM_S * 1000) {
-        const due = Math.floor(((Date.now() - started) / 1000) * EVENTS_PER_S);
-        for (; sent < due; sent++) {
-          const node = town.nodes[Math.floor(random() * town.nodes.length)];
-          const previousState = states.get(node.id)!;
-          const state = changing[Math.floor(random() * changing.length)];
-          states.set(node.id, state);
-          const event: NodeStateEvent = {
-            nodeId: node.id,
-            neighbourhoodId: node.neighbourhoodId,
-            hostUserId: null,
-            state,
-            previousState,
-            at: new Date().toISOString(),
-            reason: 'big-town storm',
-          };
-          io.to('admins').emit('node:state', event);
-        }
-        await new Promise((resolve) => setTimeout(resolve, 10));
-      }
-      note(`sent ${sent} node:state events in ${((Date.now() - started) / 1000).toFixed(1)} s (${Math.round(sent / ((Date.now() - started) / 1000))}/s)`);
+    // BIG_MAP_PROFILE=1 saves Chromium's CPU profile of the storm (open it in the browser's performance tools).
+    const profiler = process.env.BIG_MAP_PROFILE === '1' ? await page.context().newCDPSession(page) : null;
+    if (profiler) {
+      await profiler.send('Profiler.enable');
+      await profiler.send('Profiler.start');
+    }
 
-      // Every folded quarter's mark ends on the counts the events left, and the open quarter's nodes on their last state.
-      const settledAt = Date.now();
-      for (const hood of town.neighbourhoods.slice(1)) {
-        const expected = countsIn(hood.id, states);
-        await page.waitForFunction(
+    // 300 events a second through a second socket.io instance on the same PostgreSQL adapter, as from another app instance.
+    const storm = await sendStateStorm(process.env.E2E_DATABASE_URL!, town, EVENTS_PER_S, STORM_S);
+    if (profiler) {
+      const { profile } = await profiler.send('Profiler.stop');
+      fs.mkdirSync(artifactsDir, { recursive: true });
+      fs.writeFileSync(path.join(artifactsDir, 'big-map-storm.cpuprofile'), JSON.stringify(profile));
+    }
+    note(`sent ${storm.sent} node:state events in ${storm.seconds.toFixed(1)} s (${Math.round(storm.sent / storm.seconds)}/s)`);
+
+    // Every folded quarter's mark ends on the counts the events left, and the open quarter's nodes on their last state.
+    const settledAt = Date.now();
+    for (const hood of town.neighbourhoods.slice(1)) {
+      const expected = countsIn(hood.id, storm.states);
+      await page
+        .waitForFunction(
           ([id, want]) => document.querySelector(`[data-testid="topology-hood-${id}"]`)?.getAttribute('data-counts') === want,
           [hood.id, expected] as const,
           // Under heavy machine load the browser works through a backlog of events long after they were sent.
           { timeout: 120_000 },
-        );
-      }
-      for (const node of openNodes.slice(0, 5)) {
-        await page.locator(`[data-testid="topology-node-${node.id}"][data-state="${states.get(node.id)}"]`).waitFor({ timeout: 30_000 });
-      }
-      note(`marks agreed with the last event ${Date.now() - settledAt} ms after the storm ended`);
-    } finally {
-      // Not io.close(): this server was never attached to HTTP, so only its adapter needs closing.
-      await io.of('/').adapter.close();
-      await pool.end();
+        )
+        .catch(async (error: unknown) => {
+          const drawn = await page.evaluate(
+            (id) => document.querySelector(`[data-testid="topology-hood-${id}"]`)?.getAttribute('data-counts') ?? 'no mark',
+            hood.id,
+          );
+          throw new Error(`${hood.name}: its mark says ${drawn}, the events left ${expected}`, { cause: error });
+        });
     }
-    const stats = await page.evaluate(() => {
-      const w = window as unknown as { frameStats: { gaps: number[]; longFrames: number[]; running: boolean } };
-      w.frameStats.running = false;
-      const gaps = [...w.frameStats.gaps].sort((a, b) => a - b);
-      const at = (share: number) => gaps[Math.floor(gaps.length * share)];
-      return { frames: gaps.length, p50: at(0.5), p99: at(0.99), max: gaps.at(-1), longFrames: w.frameStats.longFrames };
-    });
+    for (const node of openNodes.slice(0, 5)) {
+      await page.locator(`[data-testid="topology-node-${node.id}"][data-state="${storm.states.get(node.id)}"]`).waitFor({ timeout: 30_000 });
+    }
+    note(`marks agreed with the last event ${Date.now() - settledAt} ms after the storm ended`);
+    const stats = await readFrameStats(page, true);
     expect(stats.frames).toBeGreaterThan(0);
-    note(
-      `frames during the storm: ${stats.frames}; gap p50 ${stats.p50?.toFixed(1)} ms, p99 ${stats.p99?.toFixed(1)} ms, longest ${stats.max?.toFixed(1)} ms; ` +
-        `long frames reported ${stats.longFrames.length}, longest ${stats.longFrames.length ? Math.max(...stats.longFrames).toFixed(0) : 0} ms`,
-    );
+    note(`frames during the storm: ${frameLine(stats)}`);
     await viewShot(page, 'big-map-after-storm');
   }, 480_000);
 });

@@ -1,6 +1,9 @@
 // A big invented town for map tests: thousands of nodes written with a few multi-row inserts.
+import { createAdapter } from '@socket.io/postgres-adapter';
 import pg from 'pg';
-import type { NodeState } from '../../shared/enums';
+import { Server } from 'socket.io';
+import { NODE_STATES, type NodeState } from '../../shared/enums';
+import type { NodeStateEvent } from '../../shared/schemas/realtime';
 
 /** Invented quarters of greater Lindenfall; none is a real place. */
 export const BIG_TOWN_QUARTERS = [
@@ -122,4 +125,115 @@ export async function seedBigTown(client: pg.ClientBase, nodeCount: number): Pro
     nodes: nodes.rows.sort((a, b) => a.id - b.id),
     linkCount: links.rowCount ?? 0,
   };
+}
+
+/** What the page's frames looked like: gaps between animation frames, and the long frames the browser reported. */
+export interface FrameFigures {
+  frames: number;
+  p50: number;
+  p99: number;
+  max: number;
+  longFrames: number;
+  longestLongFrame: number;
+}
+
+type PageLike = { evaluate<R, A>(fn: (arg: A) => R | Promise<R>, arg: A): Promise<R> };
+
+/** Starts counting frame gaps (requestAnimationFrame) and long animation frames in the page. */
+export async function startFrameStats(page: PageLike) {
+  await page.evaluate(() => {
+    const w = window as unknown as { frameStats: { gaps: number[]; longFrames: number[]; running: boolean } };
+    w.frameStats = { gaps: [], longFrames: [], running: true };
+    let last = performance.now();
+    const tick = (now: number) => {
+      w.frameStats.gaps.push(now - last);
+      last = now;
+      if (w.frameStats.running) requestAnimationFrame(tick);
+    };
+    requestAnimationFrame(tick);
+    for (const type of ['long-animation-frame', 'longtask']) {
+      if (!PerformanceObserver.supportedEntryTypes.includes(type)) continue;
+      new PerformanceObserver((list) => list.getEntries().forEach((e) => w.frameStats.longFrames.push(e.duration))).observe({ type });
+      break;
+    }
+  }, undefined);
+}
+
+/** The figures since the start or the last read; `stop` ends the counting. */
+export async function readFrameStats(page: PageLike, stop = false): Promise<FrameFigures> {
+  return page.evaluate((end) => {
+    const w = window as unknown as { frameStats: { gaps: number[]; longFrames: number[]; running: boolean } };
+    if (end) w.frameStats.running = false;
+    const gaps = [...w.frameStats.gaps].sort((a, b) => a - b);
+    const long = w.frameStats.longFrames;
+    const at = (share: number) => gaps[Math.min(gaps.length - 1, Math.floor(gaps.length * share))] ?? 0;
+    const figures = {
+      frames: gaps.length,
+      p50: at(0.5),
+      p99: at(0.99),
+      max: gaps.at(-1) ?? 0,
+      longFrames: long.length,
+      longestLongFrame: Math.max(0, ...long),
+    };
+    w.frameStats.gaps = [];
+    w.frameStats.longFrames = [];
+    return figures;
+  }, stop);
+}
+
+export const frameLine = (f: FrameFigures) =>
+  `${f.frames} frames; gap p50 ${f.p50.toFixed(1)} ms, p99 ${f.p99.toFixed(1)} ms, longest ${f.max.toFixed(1)} ms; ` +
+  `long frames reported ${f.longFrames}, longest ${f.longestLongFrame.toFixed(0)} ms`;
+
+/**
+ * `eventsPerS` node:state events for `seconds`, to random big-town nodes, sent through a second socket.io
+ * instance on the same PostgreSQL adapter: they reach the app's sockets as they do from another app instance.
+ * Returns how many were sent, over how long, and each node's last state.
+ */
+export async function sendStateStorm(databaseUrl: string, town: BigTown, eventsPerS: number, seconds: number) {
+  const pool = new pg.Pool({ connectionString: databaseUrl, max: 2 });
+  const io = new Server();
+  io.adapter(createAdapter(pool, { tableName: 'socket_io_attachments' }));
+  const states = new Map(town.nodes.map((n) => [n.id, n.state]));
+  const random = lcg(7);
+  const changing: NodeState[] = ['online', 'degraded', 'offline', 'maintenance'];
+  let sent = 0;
+  const started = Date.now();
+  try {
+    // A few events every 10 ms; the loop catches up after a late timer so the rate holds on average.
+    while (Date.now() - started < seconds * 1000) {
+      const due = Math.floor(((Date.now() - started) / 1000) * eventsPerS);
+      for (; sent < due; sent++) {
+        const node = town.nodes[Math.floor(random() * town.nodes.length)];
+        const previousState = states.get(node.id)!;
+        const state = changing[Math.floor(random() * changing.length)];
+        states.set(node.id, state);
+        const event: NodeStateEvent = {
+          nodeId: node.id,
+          neighbourhoodId: node.neighbourhoodId,
+          hostUserId: null,
+          state,
+          previousState,
+          at: new Date().toISOString(),
+          reason: 'big-town storm',
+        };
+        io.to('admins').emit('node:state', event);
+      }
+      await new Promise((resolve) => setTimeout(resolve, 10));
+    }
+    return { sent, seconds: (Date.now() - started) / 1000, states };
+  } finally {
+    // Not io.close(): this server was never attached to HTTP, so only its adapter needs closing.
+    await io.of('/').adapter.close();
+    await pool.end();
+  }
+}
+
+/** "online:12,offline:3": a quarter's counts by state as its mark's data-counts attribute writes them. */
+export function countsIn(town: BigTown, hoodId: number, states: Map<number, NodeState>): string {
+  const counts = new Map<NodeState, number>();
+  for (const node of town.nodes) if (node.neighbourhoodId === hoodId) counts.set(states.get(node.id)!, (counts.get(states.get(node.id)!) ?? 0) + 1);
+  return NODE_STATES.filter((s) => counts.get(s))
+    .map((s) => `${s}:${counts.get(s)}`)
+    .join(',');
 }
