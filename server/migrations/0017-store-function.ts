@@ -59,10 +59,10 @@ export async function up({ context: { sequelize } }: { context: MigrationContext
          ORDER BY i.node_id, r->>'bootId', (r->>'seq')::bigint, i.k
       ),
       -- Exact dedupe without a second table: every writer of a node's reports holds that node's row lock from
-      -- before this statement until commit (storeItems locks the batch's nodes first; the locked path holds
-      -- FOR UPDATE). This statement's snapshot is taken after the lock is granted, so it sees every report of
-      -- those nodes committed before, and DISTINCT ON above removes repeats within the statement.
-      -- LATERAL ... LIMIT 1 keeps it one index probe per report (heartbeats_report_idx) rather than a scan of every partition.
+      -- before this statement until commit (this function locks the batch's nodes first when p_lock; the locked
+      -- path's caller holds FOR UPDATE). This statement's snapshot is taken after the lock is granted, so it sees
+      -- every report of those nodes committed before, and DISTINCT ON above removes repeats within the statement.
+      -- heartbeat_stored is one index probe per report (heartbeats_report_idx) in each daily partition.
       -- A report of the node's watermark boot with a seq above the watermark cannot have been stored before
       -- (see nodes.stored_seq below), so only the others cost an index probe across the daily partitions.
       kept AS (

@@ -7,7 +7,7 @@ import type { ListParams } from '../lib/query-keys';
  * names these URLs in the page's HTML (`<link rel="preload" as="fetch">`, server/pagePreloads.ts) when the request
  * carries a session cookie, so the answers start with the HTML instead of after every script has run; the page's own
  * fetch (same URL, same credentials mode) then takes the preloaded answer. A page here must ask exactly these URLs
- * first: tests/e2e/page-data.test.ts fails when a preloaded answer goes unused or is asked for twice.
+ * first: tests/e2e/first-load.test.ts fails when a preloaded answer goes unused or is asked for twice.
  */
 export interface DataRequest {
   /** Under /api/v1. */

@@ -1,8 +1,7 @@
 import { useState } from 'react';
 import { useForm, type DefaultValues, type FieldError, type FieldErrors, type FieldPath, type Resolver, type UseFormRegisterReturn } from 'react-hook-form';
 import type { z } from 'zod';
-import { ApiError } from './api';
-import { lazySchema, placeIssues, schemaIssues, type Issue } from './schema-issues';
+import { lazySchema, placeIssues, placeServerError, schemaIssues, type Issue } from './schema-issues';
 
 export { lazySchema, placeIssues, schemaIssues, type Issue };
 
@@ -85,9 +84,7 @@ export function useSchemaForm<V extends Values, S extends z.ZodType>({ defaultVa
   /** The server's answer to a failed send: 400 details under their fields (the first focused), the rest in the form message. */
   function showServerError(error: unknown) {
     form.clearErrors();
-    if (!(error instanceof ApiError)) return setFormError('Something went wrong. Try again.');
-    if (error.details.length === 0) return setFormError(error.message);
-    const placed = placeIssues(error.details, fieldNames, error.message);
+    const placed = placeServerError(error, fieldNames);
     Object.entries(placed.fields).forEach(([path, message], index) =>
       form.setError(path as FieldPath<V>, { type: 'server', message }, { shouldFocus: index === 0 }),
     );

@@ -1,4 +1,5 @@
 import type { z } from 'zod';
+import { ApiError } from './api';
 
 // What a form needs from a shared zod schema without react-hook-form: the lazy loader and the issues placed
 // under fields. schema-form.ts builds on these; the sign-in form uses them alone to stay light.
@@ -42,4 +43,14 @@ export function placeIssues(issues: Issue[], fieldNames: readonly string[], summ
     else extra.push(path ? `${path}: ${message}` : message);
   }
   return { fields, formError: [summary, ...extra].join(' ') };
+}
+
+/**
+ * The server's answer to a failed send, placed like the schema's issues: 400 details under their fields (the rest in
+ * the form-wide message after the server's own), any other error in the form-wide message alone.
+ */
+export function placeServerError(error: unknown, fieldNames: readonly string[]): { fields: Record<string, string>; formError: string } {
+  if (!(error instanceof ApiError)) return { fields: {}, formError: 'Something went wrong. Try again.' };
+  if (error.details.length === 0) return { fields: {}, formError: error.message };
+  return placeIssues(error.details, fieldNames, error.message);
 }

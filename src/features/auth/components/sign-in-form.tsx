@@ -1,8 +1,7 @@
 import { useState, type FormEvent } from 'react';
 import { Button } from '../../../components/button';
 import { FormMessage, TextField } from '../../../components/form-field';
-import { ApiError } from '../../../lib/api';
-import { lazySchema, placeIssues, schemaIssues } from '../../../lib/schema-issues';
+import { lazySchema, placeIssues, placeServerError, schemaIssues } from '../../../lib/schema-issues';
 import { useSignIn } from '../api/session';
 
 // The shared schema (and the validation library under it) is fetched once someone starts typing,
@@ -37,9 +36,7 @@ export function SignInForm({ onSignedIn }: { onSignedIn: () => void }) {
     };
     // The server's answer to a failed send: 400 details under their fields (the first focused), anything else in the form message.
     const showServerError = (error: unknown) => {
-      if (!(error instanceof ApiError)) return show({}, 'Something went wrong. Try again.');
-      if (error.details.length === 0) return show({}, error.message);
-      const placed = placeIssues(error.details, FIELDS, error.message);
+      const placed = placeServerError(error, FIELDS);
       show(placed.fields, placed.formError);
     };
     if (signIn.isPending) return;
