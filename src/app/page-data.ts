@@ -36,6 +36,13 @@ export function neighbourhoodListParams(params: ListParams): ListParams {
 
 const byName = { path: '/neighbourhoods', params: ALL_BY_NAME };
 
+/** The month the reports page shows: its address's `month`, else the last whole month (a monthly report is read for a finished one). */
+export function reportMonth(search: URLSearchParams, today = new Date()): string {
+  const asked = search.get('month') ?? '';
+  if (/^\d{4}-\d{2}$/.test(asked)) return asked;
+  return new Date(Date.UTC(today.getUTCFullYear(), today.getUTCMonth() - 1, 1)).toISOString().slice(0, 7);
+}
+
 /** Page pattern (as in src/app/pages.ts) → its first requests, from the page's address query. */
 export const pageData: Record<string, (search: URLSearchParams) => DataRequest[]> = {
   [paths.overview.pattern]: () => [{ path: '/overview' }],
@@ -44,6 +51,7 @@ export const pageData: Record<string, (search: URLSearchParams) => DataRequest[]
   [paths.nodes.pattern]: (search) => [{ path: '/nodes', params: list(search, nodeList) }, { path: '/sites', params: ALL_BY_NAME }, byName],
   [paths.sites.pattern]: (search) => [{ path: '/sites', params: list(search, siteList) }, byName],
   [paths.neighbourhoods.pattern]: (search) => [{ path: '/neighbourhoods', params: neighbourhoodListParams(list(search, neighbourhoodList)) }],
+  [paths.reports.pattern]: (search) => [{ path: '/reports/availability', params: { month: reportMonth(search) } }],
   [paths.people.pattern]: (search) => [{ path: '/users', params: list(search, peopleList) }],
   [paths.account.pattern]: () => [{ path: '/me' }],
   [paths.myNodes.pattern]: () => [{ path: '/me/nodes' }],

@@ -1,22 +1,18 @@
 import { useSearchParams } from 'react-router-dom';
+import { reportMonth } from '../app/page-data';
 import { PageHeader, Section } from '../components/page-header';
 import { LoadError, Loading } from '../components/query-state';
-import { TimeChart } from '../components/time-chart';
+import { LazyTimeChart } from '../components/lazy-time-chart';
 import { reportCsvUrl, useAvailabilityReport } from '../features/reports/api/reports';
 import { AvailabilityTable, OutagesTable } from '../features/reports/components/report-tables';
 import { buttonClass } from '../components/button';
 import { formatPercent } from '../lib/format';
 
 const thisMonth = () => new Date().toISOString().slice(0, 7);
-// A monthly report is read for a finished month, so the page opens on the last whole one.
-const lastMonth = () => {
-  const d = new Date();
-  return new Date(Date.UTC(d.getUTCFullYear(), d.getUTCMonth() - 1, 1)).toISOString().slice(0, 7);
-};
 
 export function ReportsPage() {
   const [search, setSearch] = useSearchParams();
-  const month = /^\d{4}-\d{2}$/.test(search.get('month') ?? '') ? search.get('month')! : lastMonth();
+  const month = reportMonth(search);
   const report = useAvailabilityReport(month);
   const r = report.data;
 
@@ -58,7 +54,7 @@ export function ReportsPage() {
               {r.timeZone}; time is counted from when each node was first heard from.
             </p>
             <Section title="Day by day">
-              <TimeChart
+              <LazyTimeChart
                 label={`Availability per day in ${month}`}
                 unit="%"
                 times={r.days.map((d) => Date.parse(`${d.date}T12:00:00Z`) / 1000)}
