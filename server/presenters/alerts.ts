@@ -1,4 +1,4 @@
-import type { MaintenanceWindowDto, OutboxMessageDto } from '../../shared/schemas/alerts';
+import type { MaintenanceWindowDto, MaintenanceWindowsBody, OutboxMessageDto } from '../../shared/schemas/alerts';
 import type { MaintenanceWindow, OutboxMessage } from '../models';
 import { iso } from './common';
 
@@ -34,3 +34,9 @@ export function presentMaintenanceWindow(w: MaintenanceWindow, now: Date, mayCan
     abilities: { cancel: mayCancel && (status === 'upcoming' || status === 'active') },
   };
 }
+
+/** A node's windows as GET /nodes/:id/maintenance-windows answers them; `may`: the caller may announce and cancel. */
+export const presentMaintenanceWindows = (windows: MaintenanceWindow[], now: Date, may: boolean): MaintenanceWindowsBody => ({
+  data: windows.map((w) => presentMaintenanceWindow(w, now, may)),
+  abilities: { create: may },
+});

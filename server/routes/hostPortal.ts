@@ -11,8 +11,9 @@ export function hostPortalRoutes(config: Config, sequelize: Sequelize) {
 
   router.get('/', async (req, res) => {
     const now = config.now();
-    const hosted = await hostedSitesOf(sequelize, actorOf(req), now);
-    res.json({ data: presentHostedSites(hosted, now), timeZone: hosted.timeZone });
+    const actor = actorOf(req);
+    const hosted = await hostedSitesOf(sequelize, actor, now);
+    res.json({ data: presentHostedSites(actor, hosted, now), timeZone: hosted.timeZone });
   });
 
   return router;

@@ -8,7 +8,7 @@ import { actorOf } from '../middlewares/requireUser';
 import { validate } from '../middlewares/validate';
 import { authorize } from '../policies/authorize';
 import { mayAnnounceMaintenance } from '../policies/maintenance';
-import { presentMaintenanceWindow } from '../presenters/alerts';
+import { presentMaintenanceWindow, presentMaintenanceWindows } from '../presenters/alerts';
 import { announceMaintenance, cancelMaintenance, findWindow, windowsOf } from '../services/maintenanceWindows';
 import { readableNode } from '../services/references';
 
@@ -25,7 +25,7 @@ export function maintenanceWindowRoutes(config: Config, sequelize: Sequelize) {
     const node = await readableNode(actor, res.locals.params.id);
     const may = mayAnnounceMaintenance(actor, node);
     const now = config.now();
-    res.json({ data: (await windowsOf(node.id)).map((w) => presentMaintenanceWindow(w, now, may)), abilities: { create: may } });
+    res.json(presentMaintenanceWindows(await windowsOf(node.id), now, may));
   });
 
   router.post('/', validate('params', nodeParams), validate('body', maintenanceWindowCreateSchema), async (req, res) => {

@@ -1,6 +1,7 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import { Neighbourhood, NetworkSettings, Node, Site } from '../models';
 import type { Actor } from '../policies/actor';
+import { windowsOf } from './maintenanceWindows';
 import { availabilityOf } from './nodeAvailability';
 
 const OUTAGES_PER_NODE = 5;
@@ -13,7 +14,10 @@ export interface RecentOutageRow {
   acknowledgedAt: Date | null;
 }
 
-/** The sites the caller hosts (whatever their role), their nodes with availability and each node's last five outages. */
+/**
+ * The sites the caller hosts (whatever their role), their nodes with availability, each node's last five outages
+ * and its maintenance windows.
+ */
 export async function hostedSitesOf(sequelize: Sequelize, actor: Actor, now: Date) {
   const sites = await Site.findAll({ where: { hostUserId: actor.id }, order: [['name', 'ASC']] });
   const siteIds = sites.map((s) => s.id);
@@ -22,7 +26,7 @@ export async function hostedSitesOf(sequelize: Sequelize, actor: Actor, now: Dat
     Neighbourhood.findAll({ where: { id: [...new Set(sites.map((s) => s.neighbourhoodId))] } }),
     NetworkSettings.findByPk(1),
   ]);
-  const availability = await availabilityOf(sequelize, nodes, now);
+  const [availability, windows] = await Promise.all([availabilityOf(sequelize, nodes, now), Promise.all(nodes.map((n) => windowsOf(n.id)))]);
   const outages = nodes.length
     ? await sequelize.query<RecentOutageRow>(
         `SELECT id, node_id AS "nodeId", started_at AS "startedAt", ended_at AS "endedAt", acknowledged_at AS "acknowledgedAt"
@@ -31,5 +35,6 @@ export async function hostedSitesOf(sequelize: Sequelize, actor: Actor, now: Dat
         { bind: [nodes.map((n) => n.id), OUTAGES_PER_NODE], type: QueryTypes.SELECT },
       )
     : [];
-  return { sites, nodes, neighbourhoods, availability, outages, timeZone: settings?.timeZone ?? 'UTC' };
+  const windowsByNode = new Map(nodes.map((n, i) => [n.id, windows[i]]));
+  return { sites, nodes, neighbourhoods, availability, outages, windowsByNode, timeZone: settings?.timeZone ?? 'UTC' };
 }

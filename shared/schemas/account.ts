@@ -2,6 +2,7 @@ import { z } from 'zod';
 import { type NodeState, ROLES } from '../enums';
 import { newPasswordSchema } from '../security/passwordRules';
 import { lineSchema, listQuerySchema, nameSchema } from './common';
+import type { MaintenanceWindowsBody } from './alerts';
 import { AUDITED_TABLE_NAMES } from './auditTables';
 
 const emailSchema = z.string({ error: 'is required' }).trim().toLowerCase().email('must be an e-mail address').max(254, 'must be at most 254 characters');
@@ -63,6 +64,8 @@ export interface HostedNodeDto {
   summary: string;
   availability: { h24Pct: number | null; d30Pct: number | null };
   recentOutages: { id: number; startedAt: string; endedAt: string | null; acknowledged: boolean }[];
+  /** What GET /nodes/:id/maintenance-windows answers for this node, so the page draws it without asking again. */
+  maintenance: MaintenanceWindowsBody;
 }
 export interface HostedSiteDto {
   id: number;

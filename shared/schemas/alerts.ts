@@ -76,6 +76,12 @@ export interface MaintenanceWindowDto {
   abilities: { cancel: boolean };
 }
 
+/** GET /nodes/:id/maintenance-windows: the node's windows, and whether the caller may announce one. */
+export interface MaintenanceWindowsBody {
+  data: MaintenanceWindowDto[];
+  abilities: { create: boolean };
+}
+
 export interface OutboxMessageDto {
   id: number;
   kind: (typeof OUTBOX_KINDS)[number];

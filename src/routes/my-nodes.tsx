@@ -36,7 +36,7 @@ export function MyNodesPage() {
                         <p className="mb-2 text-sm text-muted">
                           Switching it off for a while (building work, a holiday)? Say when below, and no one is alarmed while it is off.
                         </p>
-                        <MaintenanceWindows nodeId={node.id} />
+                        <MaintenanceWindows nodeId={node.id} initial={{ body: node.maintenance, at: mine.dataUpdatedAt }} />
                       </div>
                     </div>
                   ))}

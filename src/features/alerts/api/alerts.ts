@@ -1,5 +1,12 @@
 import { keepPreviousData, useMutation, useQuery, useQueryClient } from '@tanstack/react-query';
-import type { MaintenanceWindowCreate, MaintenanceWindowDto, OutboxMessageDto, PreferencesDto, PreferencesUpdate } from '../../../../shared/schemas/alerts';
+import type {
+  MaintenanceWindowCreate,
+  MaintenanceWindowDto,
+  MaintenanceWindowsBody,
+  OutboxMessageDto,
+  PreferencesDto,
+  PreferencesUpdate,
+} from '../../../../shared/schemas/alerts';
 import { api } from '../../../lib/api';
 import { nodeKeys, type ListParams } from '../../../lib/query-keys';
 import type { ListResponse } from '../../../lib/resource';
@@ -46,10 +53,13 @@ export function useUpdatePreferences() {
   });
 }
 
-export function useMaintenanceWindows(nodeId: number) {
+/** `initial`: the same answer carried by another one (the host's /me/nodes) and when that arrived, so the list draws without asking. */
+export function useMaintenanceWindows(nodeId: number, initial?: { body: MaintenanceWindowsBody; at: number }) {
   return useQuery({
     queryKey: alertKeys.maintenance(nodeId),
-    queryFn: () => api.get<{ data: MaintenanceWindowDto[]; abilities: { create: boolean } }>(`/nodes/${nodeId}/maintenance-windows`),
+    queryFn: () => api.get<MaintenanceWindowsBody>(`/nodes/${nodeId}/maintenance-windows`),
+    initialData: initial?.body,
+    initialDataUpdatedAt: initial?.at,
   });
 }
 

@@ -1,35 +1,22 @@
-import { maintenanceWindowCreateSchema, type MaintenanceWindowDto } from '../../../../shared/schemas/alerts';
+import { lazy, Suspense } from 'react';
+import type { MaintenanceWindowDto, MaintenanceWindowsBody } from '../../../../shared/schemas/alerts';
 import { Button } from '../../../components/button';
-import { Caution } from '../../../components/caution';
-import { FormMessage, TextField, FormActions } from '../../../components/form-field';
 import { LoadError, Loading } from '../../../components/query-state';
 import { formatDateTime } from '../../../lib/format';
-import { useSchemaForm } from '../../../lib/schema-form';
-import { useAnnounceMaintenance, useCancelMaintenance, useMaintenanceWindows } from '../api/alerts';
+import { useCancelMaintenance, useMaintenanceWindows } from '../api/alerts';
+
+// The form (its form library and the shared schemas, about 40 KB) loads after the list is drawn.
+const MaintenanceAnnounceForm = lazy(() => import('./maintenance-announce-form').then((m) => ({ default: m.MaintenanceAnnounceForm })));
 
 const STATUS_WORDS: Record<MaintenanceWindowDto['status'], string> = { upcoming: 'Planned', active: 'Now', over: 'Over', cancelled: 'Cancelled' };
 
-// datetime-local inputs read in the browser's own time; the API takes UTC.
-const toIso = (local: string) => (local ? new Date(local).toISOString() : '');
-
-/** Announced maintenance for one node: while a window is open the node shows maintenance and nobody is mailed. */
-export function MaintenanceWindows({ nodeId }: { nodeId: number }) {
-  const windows = useMaintenanceWindows(nodeId);
-  const announce = useAnnounceMaintenance(nodeId);
+/**
+ * Announced maintenance for one node: while a window is open the node shows maintenance and nobody is mailed.
+ * `initial`: the node's windows as another answer already carried them, and when it arrived.
+ */
+export function MaintenanceWindows({ nodeId, initial }: { nodeId: number; initial?: { body: MaintenanceWindowsBody; at: number } }) {
+  const windows = useMaintenanceWindows(nodeId, initial);
   const cancel = useCancelMaintenance(nodeId);
-  const form = useSchemaForm({
-    defaultValues: { startsAt: '', endsAt: '', reason: '' },
-    schema: maintenanceWindowCreateSchema,
-    toInput: (values) => ({ startsAt: toIso(values.startsAt), endsAt: toIso(values.endsAt), ...(values.reason.trim() ? { reason: values.reason } : {}) }),
-  });
-  const submit = form.handleSubmit(async (body) => {
-    try {
-      await announce.mutateAsync(body);
-      form.reset();
-    } catch (error) {
-      form.showServerError(error);
-    }
-  });
 
   if (windows.isPending) return <Loading label="Loading maintenance windows…" />;
   if (windows.isError) return <LoadError error={windows.error} />;
@@ -62,20 +49,9 @@ export function MaintenanceWindows({ nodeId }: { nodeId: number }) {
         </ul>
       )}
       {windows.data.abilities.create && (
-        <form onSubmit={submit} noValidate className="grid gap-3 sm:grid-cols-2">
-          <TextField label="Starts" type="datetime-local" {...form.field('startsAt')} />
-          <TextField label="Ends" type="datetime-local" {...form.field('endsAt')} />
-          <div className="sm:col-span-2">
-            <TextField label="Reason (optional)" maxLength={500} {...form.field('reason')} />
-          </div>
-          <div className="sm:col-span-2 space-y-2">
-            <Caution>
-              Switching off roof equipment can mean ladders, roofs and mains power. Follow local rules and leave that work to people trained or licensed for it.
-            </Caution>
-            <FormMessage message={form.formError} />
-            <FormActions label="Announce maintenance" busy={announce.isPending} busyLabel="Announcing…" />
-          </div>
-        </form>
+        <Suspense fallback={null}>
+          <MaintenanceAnnounceForm nodeId={nodeId} />
+        </Suspense>
       )}
     </section>
   );
