@@ -118,6 +118,28 @@ describe('own account, role changes and deactivation', () => {
       ]);
     });
 
+    it('carries each node’s maintenance windows exactly as the node’s own maintenance list answers them', async () => {
+      const host = await buildUser({ role: 'host' });
+      const hood = await buildNeighbourhood();
+      const site = await buildSite({ neighbourhoodId: hood.id, hostUserId: host.id });
+      const { Node } = await import('../../server/models');
+      const node = await Node.create({ name: 'qc-2', siteId: site.id, neighbourhoodId: hood.id, state: 'online' });
+      const agent = await signIn(ctx, host);
+      const startsAt = new Date(Date.now() + 86_400_000).toISOString();
+      const endsAt = new Date(Date.now() + 90_000_000).toISOString();
+      const announced = await call(agent, 'post', `/api/v1/nodes/${node.id}/maintenance-windows`, { startsAt, endsAt, reason: 'New roof felt' });
+      expect(announced.status).toBe(201);
+
+      const res = await agent.get('/api/v1/me/nodes');
+      expect(res.status).toBe(200);
+      const carried = res.body.data[0].nodes[0].maintenance;
+      expect(carried).toEqual((await agent.get(`/api/v1/nodes/${node.id}/maintenance-windows`)).body);
+      expect(carried).toEqual({
+        data: [expect.objectContaining({ id: announced.body.data.id, status: 'upcoming', reason: 'New roof felt', abilities: { cancel: true } })],
+        abilities: { create: true },
+      });
+    });
+
     it('is empty for someone who hosts nothing', async () => {
       const res = await (await signIn(ctx, await buildUser({ role: 'operator' }))).get('/api/v1/me/nodes');
       expect(res.body.data).toEqual([]);
