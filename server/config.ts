@@ -119,6 +119,7 @@ const envSchema = z.object({
     .max(30 * 86_400)
     .default(86_400),
   RADIO_MOVE_SHOW_DAYS: z.coerce.number().int().min(1).max(365).default(7),
+  AIR_VIEW_CACHE_MS: z.coerce.number().int().min(0).max(60_000).default(5000),
   RECOVERY_LINK_HOURS: z.coerce
     .number()
     .int()
@@ -220,6 +221,8 @@ export interface Config {
   linkSilentAfterS: number;
   /** How long a radio seen moving between nodes stays on the overview and node pages. */
   radioMoveShowDays: number;
+  /** How long the map and the overview share one computed air view (inventory edits through this process forget it at once). */
+  airViewCacheMs: number;
   /** How long the host recovery link in outage mail stays valid. */
   recoveryLinkHours: number;
   /** The clock every rule reads; tests replace it. */
@@ -304,6 +307,7 @@ export function loadConfig(env: Record<string, string | undefined> = process.env
     linkObservedWindowS: e.LINK_OBSERVED_WINDOW_S,
     linkSilentAfterS: e.LINK_SILENT_AFTER_S,
     radioMoveShowDays: e.RADIO_MOVE_SHOW_DAYS,
+    airViewCacheMs: e.AIR_VIEW_CACHE_MS,
     recoveryLinkHours: e.RECOVERY_LINK_HOURS,
     now: () => new Date(),
     ...overrides,

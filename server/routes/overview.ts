@@ -8,7 +8,8 @@ import { nodeScope } from '../policies/node';
 import { siteScope } from '../policies/site';
 import type { Config } from '../config';
 import { isAdmin } from '../policies/actor';
-import { airView, maskMove, radioMoves } from '../services/airObservations';
+import { maskMove, radioMoves } from '../services/airObservations';
+import { recentAirView } from '../services/airViewCache';
 import { linksWithPrediction } from '../services/topologyGraph';
 
 const sequelizeJsonNotEmpty = () => literal('jsonb_array_length(coalesce("Node"."drift", \'[]\'::jsonb)) > 0');
@@ -42,7 +43,7 @@ async function airFindings(config: Config, actor: Parameters<typeof nodeScope>[0
   const now = config.now();
   const scope = isAdmin(actor) ? null : ids;
   const [air, moves, links] = await Promise.all([
-    airView(Node.sequelize!, now, { observedWindowS: config.linkObservedWindowS, silentAfterS: config.linkSilentAfterS }, scope),
+    recentAirView(Node.sequelize!, now, { observedWindowS: config.linkObservedWindowS, silentAfterS: config.linkSilentAfterS }, scope, config.airViewCacheMs),
     radioMoves(Node.sequelize!, new Date(now.getTime() - config.radioMoveShowDays * 86_400_000), scope, 20),
     linksWithPrediction(Node.sequelize!, ids),
   ]);

@@ -1,5 +1,6 @@
 import type { Model, ModelStatic, Transaction } from 'sequelize';
 import { Link, NetworkSettings, Node, Radio, Site } from '../models';
+import { forgetAirViews } from './airViewCache';
 import { forgetInventory } from './drift';
 import { forgetTokens } from './ingestTokens';
 import { forgetThresholds } from './thresholds';
@@ -20,7 +21,9 @@ const radioNodes = (i: Model) => [nodeIdOf(i), Number(i.previous('nodeId') ?? no
 let installed = false;
 /**
  * Edits of thresholds, nodes, sites (who hosts), radios and links forget what ingest cached about
- * them. Hooks see model saves; bulk statements and other instances are covered by the cache lifetime.
+ * them, and edits of nodes, radios and links the air view the map and the overview share
+ * (airViewCache.ts). Hooks see model saves; bulk statements and other instances are covered by the
+ * cache lifetime.
  */
 export function installIngestCacheHooks() {
   if (installed) return;
@@ -32,9 +35,20 @@ export function installIngestCacheHooks() {
       model.addHook(hook, 'ingest-caches', (o: HookOptions) => forgetAround(o.transaction, () => forget(null as unknown as Model)));
   };
   on(NetworkSettings, () => forgetThresholds());
-  on(Node, (i) => (i ? forgetTokens(nodeIdOf(i)) : forgetTokens()));
+  on(Node, (i) => {
+    if (i) forgetTokens(nodeIdOf(i));
+    else forgetTokens();
+    forgetAirViews();
+  });
   on(Site, () => forgetTokens());
-  on(Radio, (i) => (i ? radioNodes(i).forEach((id) => forgetInventory(id)) : forgetInventory()));
+  on(Radio, (i) => {
+    if (i) radioNodes(i).forEach((id) => forgetInventory(id));
+    else forgetInventory();
+    forgetAirViews();
+  });
   // A link joins two radios; which nodes is cheap to forget wholesale, and link edits are rare.
-  on(Link, () => forgetInventory());
+  on(Link, () => {
+    forgetInventory();
+    forgetAirViews();
+  });
 }

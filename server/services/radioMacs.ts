@@ -1,5 +1,6 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { HeartbeatReport } from '../../shared/schemas/heartbeat';
+import { forgetAirViews } from './airViewCache';
 import { forgetInventory, inventoryRadios } from './drift';
 
 /** MACs are compared in one spelling: lower-case hex with colons. */
@@ -42,5 +43,7 @@ export async function rememberMacs(sequelize: Sequelize, nodeId: number, report:
   });
   for (const { mac, radio } of changed) radio.mac = mac;
   touchedNodes.forEach((id) => id !== nodeId && forgetInventory(id));
+  // A MAC learned or moved changes which reports name which radio.
+  forgetAirViews();
   return changed.length;
 }

@@ -3,7 +3,8 @@ import type { LinkStatus, NodeState } from '../../shared/enums';
 import type { Config } from '../config';
 import { type Actor, isAdmin } from '../policies/actor';
 import { nodeScopeSql } from '../policies/node';
-import { airView, maskMove, radioMoves } from './airObservations';
+import { maskMove, radioMoves } from './airObservations';
+import { recentAirView } from './airViewCache';
 import { linksWithPrediction } from './topologyGraph';
 
 export interface TopologyNodeRow {
@@ -49,7 +50,7 @@ export async function topologyFor(config: Config, sequelize: Sequelize, actor: A
   const within = isAdmin(actor) ? null : ids;
   const [predicted, air, moves] = await Promise.all([
     linksWithPrediction(sequelize, within),
-    airView(sequelize, now, windows, within),
+    recentAirView(sequelize, now, windows, within, config.airViewCacheMs),
     radioMoves(sequelize, new Date(now.getTime() - config.radioMoveShowDays * 86_400_000), within),
   ]);
   const links = predicted.map((l) => {
