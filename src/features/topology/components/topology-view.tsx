@@ -5,6 +5,7 @@ import { NODE_STATES, type NodeState } from '../../../../shared/enums';
 import { Button } from '../../../components/button';
 import { FilterSelect } from '../../../components/list-toolbar';
 import { stateWord } from '../../../components/state-badge';
+import { useMediaQuery } from '../../../lib/use-media-query';
 import type { Topology, TopologyNode } from '../api/topology';
 import { buildDiscoveredLines, buildFlowNodes, buildLinkLines, isShown, type GraphFilters } from '../utils/flow-elements';
 import { layoutByCoordinates } from '../utils/layout';
@@ -30,6 +31,8 @@ const STATE_FILL_CLASS: Record<NodeState, string> = {
 };
 const minimapColour = (node: MapFlowNode) => (node.type === 'site' ? `var(--color-state-${node.data.state})` : 'var(--pp-line-strong)');
 const minimapClass = (node: MapFlowNode) => (node.type === 'site' ? STATE_FILL_CLASS[node.data.state] : '');
+// Tailwind's `lg`: the overview map is drawn from this width only (on a phone it would cover the graph).
+const WIDE_SCREEN = '(min-width: 64rem)';
 // Past this many nodes the map opens on one mark per neighbourhood: drawing every node at once
 // costs seconds, and at that size a whole-network view is only dots anyway.
 export const LARGE_GRAPH_NODES = 400;
@@ -95,6 +98,7 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
   const markCache = useRef(new Map());
   const canvas = useRef<HTMLDivElement>(null);
   const listHeading = useRef<HTMLHeadingElement>(null);
+  const wide = useMediaQuery(WIDE_SCREEN);
 
   // Only names and coordinates move the layout; a state change must not recompute it (nor the search's names).
   const placed = useSameWhile(topology.nodes, samePlaces);
@@ -297,14 +301,7 @@ function TopologyCanvas({ topology, neighbourhoodOptions, filters, onFilters, se
             <LinkLayer lines={allLines} />
             <NodeScale target={canvas} />
             <Controls showInteractive={false} />
-            <MiniMap<MapFlowNode>
-              className="max-lg:hidden"
-              nodeColor={minimapColour}
-              nodeClassName={minimapClass}
-              pannable
-              zoomable
-              ariaLabel="Overview of the whole graph"
-            />
+            {wide && <MiniMap<MapFlowNode> nodeColor={minimapColour} nodeClassName={minimapClass} pannable zoomable ariaLabel="Overview of the whole graph" />}
           </ReactFlow>
         </div>
         {panel && (
