@@ -6,6 +6,7 @@ import path from 'node:path';
 import zlib from 'node:zlib';
 import request from 'supertest';
 import { afterAll, describe, expect, it } from 'vitest';
+import { reportMonth } from '../../src/app/page-data';
 import { buildUser, signIn, useApi } from '../helpers/api';
 import { buildNeighbourhood } from '../helpers/factories';
 
@@ -180,6 +181,9 @@ describe('serving the built client', () => {
     ]);
     expect(dataPreloads((await agent.get('/')).text)).toEqual(['/api/v1/overview']);
     expect(dataPreloads((await agent.get('/neighbourhoods')).text)).toEqual(['/api/v1/neighbourhoods?page=1&pageSize=25&sort=name&retired=all']);
+    // The reports page's month: the one its address names (as the page reads it), else the last whole month.
+    expect(dataPreloads((await agent.get('/reports?month=2026-03')).text)).toEqual(['/api/v1/reports/availability?month=2026-03']);
+    expect(dataPreloads((await agent.get('/reports')).text)).toEqual([`/api/v1/reports/availability?month=${reportMonth(new URLSearchParams())}`]);
     // An attribute cannot be broken out of by the address's query.
     const odd = await agent.get('/sites?q=%22%3E%3Cscript%3E');
     expect(odd.text).not.toContain('"><script>');
