@@ -37,7 +37,16 @@ export default defineConfig({
       output: {
         // What every page runs (React, the router, the query cache) as one file: on slow mobile data each extra file costs
         // about 1 KB of response headers and a place in the browser's six-connection queue.
-        codeSplitting: { groups: [{ name: 'framework', test: /node_modules[\\/](react|react-dom|scheduler|react-router|react-router-dom|@tanstack)[\\/]/ }] },
+        codeSplitting: {
+          groups: [
+            { name: 'framework', test: /node_modules[\\/](react|react-dom|scheduler|react-router|react-router-dom|@tanstack)[\\/]/ },
+            // The live connection's client, loaded after a page's first draw (src/lib/socket.ts).
+            {
+              name: 'live-client',
+              test: /node_modules[\\/](socket\.io-client|socket\.io-parser|engine\.io-client|engine\.io-parser|@socket\.io[\\/]component-emitter)[\\/]/,
+            },
+          ],
+        },
       },
     },
   },

@@ -4,7 +4,15 @@ import type { NodeDto } from '../../shared/schemas/node';
 import { patchNodeRecord } from '../features/nodes/api/telemetry';
 import { topologyPatcher } from '../features/topology/api/live-topology';
 import { neighbourhoodKeys, nodeKeys, nodeTelemetryKeys, outageKeys, overviewKeys, topologyKeys } from '../lib/query-keys';
-import { closeSocket, openSocket, type NodeFiguresEvent, type NodeStateEvent, type OutageEvent, type OutageTimelineEvent } from '../lib/socket';
+import {
+  closeSocket,
+  openSocket,
+  type LiveSocket,
+  type NodeFiguresEvent,
+  type NodeStateEvent,
+  type OutageEvent,
+  type OutageTimelineEvent,
+} from '../lib/socket';
 
 // Events are gathered for a moment and applied together: a burst of reports then costs one
 // refetch per list, and still shows well within a second. The map's nodes go once per frame.
@@ -92,6 +100,37 @@ function collector(queryClient: QueryClient) {
   };
 }
 
+/** Applies the connection's events to the cache until the returned function is called. */
+function listen(socket: LiveSocket, queryClient: QueryClient): () => void {
+  const apply = collector(queryClient);
+  let connectedBefore = socket.connected;
+  const onConnect = () => {
+    // Events sent while the connection was down are lost: read afresh what they would have changed.
+    if (connectedBefore) {
+      for (const queryKey of [topologyKeys.all, overviewKeys.all, nodeKeys.all, outageKeys.all, neighbourhoodKeys.all])
+        void queryClient.invalidateQueries({ queryKey });
+    }
+    connectedBefore = true;
+  };
+  socket.on('connect', onConnect);
+  socket.on('node:state', apply.state);
+  socket.on('node:figures', apply.figures);
+  socket.on('outage', apply.outage);
+  // Every cached answer was read with the old access (the session's role too): read them all afresh.
+  const onAccessChanged = () => void queryClient.invalidateQueries();
+  socket.on('access:changed', onAccessChanged);
+  socket.on('outage:timeline', apply.timeline);
+  return () => {
+    socket.off('access:changed', onAccessChanged);
+    apply.stop();
+    socket.off('connect', onConnect);
+    socket.off('node:state', apply.state);
+    socket.off('node:figures', apply.figures);
+    socket.off('outage', apply.outage);
+    socket.off('outage:timeline', apply.timeline);
+  };
+}
+
 /**
  * Keeps the signed-in person's cached pages current from the live connection, and closes the
  * connection when they sign out (this hook's component unmounts with the signed-in layout).
@@ -99,33 +138,15 @@ function collector(queryClient: QueryClient) {
 export function useLiveUpdates(userId: number) {
   const queryClient = useQueryClient();
   useEffect(() => {
-    const socket = openSocket(userId);
-    const apply = collector(queryClient);
-    let connectedBefore = socket.connected;
-    const onConnect = () => {
-      // Events sent while the connection was down are lost: read afresh what they would have changed.
-      if (connectedBefore) {
-        for (const queryKey of [topologyKeys.all, overviewKeys.all, nodeKeys.all, outageKeys.all, neighbourhoodKeys.all])
-          void queryClient.invalidateQueries({ queryKey });
-      }
-      connectedBefore = true;
-    };
-    socket.on('connect', onConnect);
-    socket.on('node:state', apply.state);
-    socket.on('node:figures', apply.figures);
-    socket.on('outage', apply.outage);
-    // Every cached answer was read with the old access (the session's role too): read them all afresh.
-    const onAccessChanged = () => void queryClient.invalidateQueries();
-    socket.on('access:changed', onAccessChanged);
-    socket.on('outage:timeline', apply.timeline);
+    let stop: (() => void) | null = null;
+    let left = false;
+    void openSocket(userId).then((socket) => {
+      if (!socket || left) return;
+      stop = listen(socket, queryClient);
+    });
     return () => {
-      socket.off('access:changed', onAccessChanged);
-      apply.stop();
-      socket.off('connect', onConnect);
-      socket.off('node:state', apply.state);
-      socket.off('node:figures', apply.figures);
-      socket.off('outage', apply.outage);
-      socket.off('outage:timeline', apply.timeline);
+      left = true;
+      stop?.();
     };
   }, [userId, queryClient]);
 

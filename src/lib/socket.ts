@@ -1,5 +1,5 @@
 import { useSyncExternalStore } from 'react';
-import { io, type Socket } from 'socket.io-client';
+import type { Socket } from 'socket.io-client';
 
 import type { NodeFiguresEvent, NodeStateEvent, OutageEvent, OutageTimelineEvent } from '../../shared/schemas/realtime';
 
@@ -30,30 +30,39 @@ function setStatus(next: LiveStatus) {
   listeners.forEach((listener) => listener());
 }
 
+// The socket.io client (about 13 KB) is not needed to draw a page: it loads after the page's own scripts.
+let client: Promise<typeof import('socket.io-client')> | null = null;
+const loadClient = () => (client ??= import('socket.io-client'));
+
 /**
  * The one live connection of the signed-in person. The session cookie authenticates it; a
  * different person signing in on this browser gets a fresh connection, never the last one's.
+ * Null when the person signed out (or another signed in) while the client was loading.
  */
-export function openSocket(userId: number): LiveSocket {
+export async function openSocket(userId: number): Promise<LiveSocket | null> {
   if (socket && owner === userId) return socket;
   closeSocket();
   owner = userId;
+  setStatus('connecting');
+  const { io } = await loadClient();
+  if (owner !== userId) return null;
+  if (socket) return socket; // another caller for the same person finished first
   const next: LiveSocket = io({ withCredentials: true, reconnectionDelayMax: 10_000 });
   next.on('connect', () => setStatus('live'));
   next.on('disconnect', (reason) => setStatus(reason === 'io client disconnect' ? 'closed' : 'reconnecting'));
   next.on('connect_error', () => setStatus('reconnecting'));
-  setStatus('connecting');
   socket = next;
   return next;
 }
 
 /** Ends the connection at sign-out, so nothing more arrives for a person who has left. */
 export function closeSocket() {
-  if (!socket) return;
-  socket.removeAllListeners();
-  socket.disconnect();
-  socket = null;
   owner = null;
+  if (socket) {
+    socket.removeAllListeners();
+    socket.disconnect();
+    socket = null;
+  }
   setStatus('closed');
 }
 
@@ -70,6 +79,7 @@ export function useLiveStatus(): LiveStatus {
  * A connection of its own for the host's recovery page: no session, the signed link from the mail
  * admits it to the events of that one node. Closed by the caller when the page goes away.
  */
-export function openRecoverySocket(token: string): LiveSocket {
+export async function openRecoverySocket(token: string): Promise<LiveSocket> {
+  const { io } = await loadClient();
   return io({ query: { recovery: token }, reconnectionDelayMax: 10_000 });
 }

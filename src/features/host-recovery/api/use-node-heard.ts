@@ -1,5 +1,5 @@
 import { useEffect, useState } from 'react';
-import { openRecoverySocket } from '../../../lib/socket';
+import { openRecoverySocket, type LiveSocket } from '../../../lib/socket';
 
 export interface Heard {
   /** When the server last received a report from the node, as it told this page. */
@@ -12,15 +12,24 @@ export function useNodeHeard(token: string, nodeId: number | undefined): Heard {
   const [heard, setHeard] = useState<Heard>({ at: null, connected: false });
   useEffect(() => {
     if (!token || nodeId === undefined) return;
-    const socket = openRecoverySocket(token);
-    const seen = (at: string) => setHeard((h) => ({ ...h, at: h.at && h.at > at ? h.at : at }));
-    socket.on('connect', () => setHeard((h) => ({ ...h, connected: true })));
-    socket.on('disconnect', () => setHeard((h) => ({ ...h, connected: false })));
-    socket.on('node:figures', (e) => e.nodeId === nodeId && seen(e.at));
-    socket.on('node:state', (e) => e.nodeId === nodeId && (e.state === 'online' || e.state === 'degraded') && seen(e.at));
+    let socket: LiveSocket | null = null;
+    let left = false;
+    void openRecoverySocket(token).then((opened) => {
+      if (left) {
+        opened.disconnect();
+        return;
+      }
+      socket = opened;
+      const seen = (at: string) => setHeard((h) => ({ ...h, at: h.at && h.at > at ? h.at : at }));
+      opened.on('connect', () => setHeard((h) => ({ ...h, connected: true })));
+      opened.on('disconnect', () => setHeard((h) => ({ ...h, connected: false })));
+      opened.on('node:figures', (e) => e.nodeId === nodeId && seen(e.at));
+      opened.on('node:state', (e) => e.nodeId === nodeId && (e.state === 'online' || e.state === 'degraded') && seen(e.at));
+    });
     return () => {
-      socket.removeAllListeners();
-      socket.disconnect();
+      left = true;
+      socket?.removeAllListeners();
+      socket?.disconnect();
     };
   }, [token, nodeId]);
   return heard;
