@@ -69,6 +69,12 @@ export interface AppContext {
 /** Request ids from a proxy or client: letters, digits and . _ : - only, at most 64 (a UUID fits). */
 export const SAFE_REQUEST_ID = /^[A-Za-z0-9][A-Za-z0-9._:-]{0,63}$/;
 
+/** What helmet would say that matters for a JSON answer to a machine (the hot path skips helmet). */
+const apiHeaders: express.RequestHandler = (_req, res, next) => {
+  res.set({ 'X-Content-Type-Options': 'nosniff', 'Cache-Control': 'no-store' });
+  next();
+};
+
 const retryAfterS = (config: Config) => Math.max(1, Math.ceil(config.databaseProbeIntervalMs / 1000) * 2);
 
 /** Signing in needs no CSRF token (API.md); node reports never reach this router. Paths are relative to /api/v1. */
@@ -81,6 +87,9 @@ export function createApp({ config, sequelize, databaseWatch }: AppContext) {
   const pool = guardPool(new pg.Pool({ connectionString: config.databaseUrl, max: 4, connectionTimeoutMillis: 5_000 }), 'session store', watch);
   const passport = configurePassport();
   const session = sessionMiddleware(config, pool);
+  // While the database is known to be away, every API call is answered 503 at once (no waiting on
+  // connection timeouts); the watch's probe lets traffic through again as soon as it answers.
+  const databaseUp: express.RequestHandler = (_req, _res, next) => next(watch.up ? undefined : Unavailable(undefined, retryAfterS(config)));
   const app = express();
   app.set('trust proxy', config.trustProxy);
   app.disable('x-powered-by');
@@ -93,6 +102,10 @@ export function createApp({ config, sequelize, databaseWatch }: AppContext) {
     if (config.logRequests) res.on('finish', () => console.log(`[${res.locals.requestId}] ${req.method} ${req.originalUrl} ${res.statusCode}`));
     next();
   });
+  // Hot path first: node reports are machines posting a few hundred bytes many times a second, so they
+  // skip the page headers, compression (their answers are a few bytes), sessions and every other route.
+  app.use('/api/v1/heartbeats', apiHeaders, databaseUp, heartbeatRoutes(config, sequelize));
+
   app.use(
     helmet({
       contentSecurityPolicy: {
@@ -128,12 +141,8 @@ export function createApp({ config, sequelize, databaseWatch }: AppContext) {
     }
   });
 
-  // While the database is known to be away, every API call is answered 503 at once (no waiting on
-  // connection timeouts); the watch's probe lets traffic through again as soon as it answers.
-  app.use('/api', (_req, _res, next) => next(watch.up ? undefined : Unavailable(undefined, retryAfterS(config))));
+  app.use('/api', databaseUp);
 
-  // Hot path first: node reports skip sessions entirely.
-  app.use('/api/v1/heartbeats', heartbeatRoutes(config, sequelize));
   // Links in mail carry their own signature and need no session (nor its CSRF token).
   app.use('/api/v1/mail-links', mailLinkRoutes(config));
   // The host's recovery page works from the signed link in the outage mail, without signing in.

@@ -1,4 +1,3 @@
-import { createHash } from 'node:crypto';
 import express, { Router, type Request } from 'express';
 import { rateLimit } from 'express-rate-limit';
 import type { Sequelize } from 'sequelize';
@@ -10,7 +9,7 @@ import { parseOrThrow } from '../middlewares/validate';
 import { configureGroupCommit, ingestReports } from '../services/heartbeatIngest';
 import { setIngestCacheMs } from '../services/ingestCacheMs';
 import { installIngestCacheHooks } from '../services/ingestCaches';
-import { nodeForToken } from '../services/ingestTokens';
+import { hashToken, nodeForToken } from '../services/ingestTokens';
 
 const bearer = (req: Request) => /^Bearer\s+(\S+)$/i.exec(req.get('authorization') ?? '')?.[1] ?? null;
 const badToken = () => new ApiError(401, 'bad_token', 'The node token is missing, wrong or revoked. Issue a new one from the node page.');
@@ -25,21 +24,27 @@ export function heartbeatRoutes(config: Config, sequelize: Sequelize) {
   const perToken = rateLimit({
     windowMs: 60_000,
     limit: config.ingestRateLimitPerMin,
-    keyGenerator: (req) =>
-      createHash('sha256')
-        .update(bearer(req) ?? '')
-        .digest('hex'),
+    keyGenerator: (_req, res) => res.locals.tokenHash as string,
     validate: { keyGeneratorIpFallback: false },
+    // A 429 says when to retry (Retry-After); the counters are not worth three headers on every accepted report.
+    standardHeaders: false,
+    legacyHeaders: false,
     handler: tooManyHandler(60_000, 'This node is sending too many reports. Slow down and retry after the wait.'),
   });
 
   router.post(
     '/',
-    (req, _res, next) => next(bearer(req) ? undefined : badToken()),
+    (req, res, next) => {
+      const token = bearer(req);
+      if (!token) return next(badToken());
+      res.locals.token = token;
+      res.locals.tokenHash = hashToken(token);
+      next();
+    },
     perToken,
     express.json({ limit: config.ingestBodyLimit }),
     async (req, res) => {
-      const node = await nodeForToken(sequelize, bearer(req)!);
+      const node = await nodeForToken(sequelize, res.locals.token as string, res.locals.tokenHash as string);
       if (!node) throw badToken();
       const body = req.body as unknown;
       const reports =

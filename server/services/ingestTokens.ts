@@ -55,9 +55,8 @@ export function forgetTokens(nodeId?: number) {
 }
 
 /** The node a bearer token belongs to, with what ingest needs: cached for ingestCacheMs(), else one indexed lookup. */
-export async function nodeForToken(sequelize: Sequelize, token: string): Promise<TokenNode | null> {
+export async function nodeForToken(sequelize: Sequelize, token: string, hash = hashToken(token)): Promise<TokenNode | null> {
   if (!/^ppt_\d+_[A-Za-z0-9_-]{43}$/.test(token)) return null;
-  const hash = hashToken(token);
   const hit = tokenCache.get(hash);
   if (hit && Date.now() - hit.at < ingestCacheMs()) return hit.node;
   const node = await lookUpToken(sequelize, hash);
