@@ -11,31 +11,9 @@ import type { MigrationContext } from '../db/umzug';
 // node changes. An item whose report is not newer (advances false) only touches last_seen_at. A node
 // appears in at most one item of a call. The function returns, per item k, the reports stored and
 // whether the node row was updated.
-export async function up({ context: { sequelize } }: { context: MigrationContext }) {
-  await sequelize.query(`
-    -- The watermark: every stored report of this node whose boot id (or '') is stored_boot_id has a seq of at
-    -- most stored_seq (NULL: none stored). NULL stored_boot_id: not known yet. Only store_heartbeat_items writes
-    -- them, under the node's row lock; a report above the watermark needs no duplicate probe.
-    ALTER TABLE nodes ADD COLUMN stored_boot_id text, ADD COLUMN stored_seq bigint;
-    UPDATE nodes n SET stored_boot_id = coalesce(n.last_boot_id, ''),
-      stored_seq = (SELECT max(h.seq) FROM heartbeats h WHERE h.node_id = n.id AND coalesce(h.boot_id, '') = coalesce(n.last_boot_id, ''));
 
-    -- The two lookups across every daily partition, as functions of their own: a plan that names the partitioned
-    -- table sets up a scan of every partition each time it runs, so the store statement keeps them out and
-    -- calls these only for the reports that need them. STABLE: they read with the calling statement's snapshot.
-    CREATE FUNCTION heartbeat_stored(p_node int, p_boot text, p_seq bigint) RETURNS boolean
-    LANGUAGE plpgsql STABLE SET plan_cache_mode = force_generic_plan AS $fn$
-    BEGIN
-      RETURN EXISTS (SELECT 1 FROM heartbeats h WHERE h.node_id = p_node AND coalesce(h.boot_id, '') = p_boot AND h.seq = p_seq);
-    END
-    $fn$;
-    CREATE FUNCTION heartbeat_max_seq(p_node int, p_boot text) RETURNS bigint
-    LANGUAGE plpgsql STABLE SET plan_cache_mode = force_generic_plan AS $fn$
-    BEGIN
-      RETURN (SELECT max(h.seq) FROM heartbeats h WHERE h.node_id = p_node AND coalesce(h.boot_id, '') = p_boot);
-    END
-    $fn$;
-
+/** The store function as this migration made it (0018 replaced its statement; its down puts this back). */
+export const STORE_FUNCTION_0017 = `
     CREATE FUNCTION store_heartbeat_items(p_items jsonb, p_lock boolean) RETURNS TABLE (k int, stored int, updated boolean)
     LANGUAGE plpgsql VOLATILE
     -- One plan per connection, kept: planning over every daily partition costs more than running the statement.
@@ -117,6 +95,34 @@ export async function up({ context: { sequelize } }: { context: MigrationContext
        ORDER BY i.k;
     END
     $fn$;
+`;
+
+export async function up({ context: { sequelize } }: { context: MigrationContext }) {
+  await sequelize.query(`
+    -- The watermark: every stored report of this node whose boot id (or '') is stored_boot_id has a seq of at
+    -- most stored_seq (NULL: none stored). NULL stored_boot_id: not known yet. Only store_heartbeat_items writes
+    -- them, under the node's row lock; a report above the watermark needs no duplicate probe.
+    ALTER TABLE nodes ADD COLUMN stored_boot_id text, ADD COLUMN stored_seq bigint;
+    UPDATE nodes n SET stored_boot_id = coalesce(n.last_boot_id, ''),
+      stored_seq = (SELECT max(h.seq) FROM heartbeats h WHERE h.node_id = n.id AND coalesce(h.boot_id, '') = coalesce(n.last_boot_id, ''));
+
+    -- The two lookups across every daily partition, as functions of their own: a plan that names the partitioned
+    -- table sets up a scan of every partition each time it runs, so the store statement keeps them out and
+    -- calls these only for the reports that need them. STABLE: they read with the calling statement's snapshot.
+    CREATE FUNCTION heartbeat_stored(p_node int, p_boot text, p_seq bigint) RETURNS boolean
+    LANGUAGE plpgsql STABLE SET plan_cache_mode = force_generic_plan AS $fn$
+    BEGIN
+      RETURN EXISTS (SELECT 1 FROM heartbeats h WHERE h.node_id = p_node AND coalesce(h.boot_id, '') = p_boot AND h.seq = p_seq);
+    END
+    $fn$;
+    CREATE FUNCTION heartbeat_max_seq(p_node int, p_boot text) RETURNS bigint
+    LANGUAGE plpgsql STABLE SET plan_cache_mode = force_generic_plan AS $fn$
+    BEGIN
+      RETURN (SELECT max(h.seq) FROM heartbeats h WHERE h.node_id = p_node AND coalesce(h.boot_id, '') = p_boot);
+    END
+    $fn$;
+
+    ${STORE_FUNCTION_0017}
   `);
 }
 

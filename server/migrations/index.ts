@@ -11,6 +11,7 @@ import * as m0013 from './0013-terrain-tiles';
 import * as m0015 from './0015-air-and-host-steps';
 import * as m0016 from './0016-one-row-per-report';
 import * as m0017 from './0017-store-function';
+import * as m0018 from './0018-store-by-node-index';
 
 /** Every migration in order. A new migration is a new file here and one line in this list. */
 export const MIGRATIONS = [
@@ -27,4 +28,5 @@ export const MIGRATIONS = [
   { name: '0015-air-and-host-steps', ...m0015 },
   { name: '0016-one-row-per-report', ...m0016 },
   { name: '0017-store-function', ...m0017 },
+  { name: '0018-store-by-node-index', ...m0018 },
 ];
