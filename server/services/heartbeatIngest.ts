@@ -9,7 +9,7 @@ import { driftOf, type DriftItem } from './drift';
 import type { Config } from '../config';
 import { domainEvents } from './events';
 import type { TokenNode } from './ingestTokens';
-import { emitTransition, recordTransition } from './nodeHealth';
+import { emitTransition, recordTransition, stateEvent, touchesOutage, type TransitionEvents } from './nodeHealth';
 import { rememberMacs } from './radioMacs';
 import { thresholdsFor } from './thresholds';
 
@@ -38,6 +38,8 @@ interface StoreItem {
   seen_state: string;
   seen_streak: number;
   seen_boot_id: string;
+  /** The item may change the node's state and the store records the move (a change that touches no outage). */
+  transition: boolean;
 }
 interface StoreOutcome {
   stored: number;
@@ -208,11 +210,15 @@ export function ingestReports(sequelize: Sequelize, config: Config, node: TokenN
 async function ingestInOrder(sequelize: Sequelize, config: Config, node: TokenNode, reports: HeartbeatReport[], now: Date): Promise<IngestResult> {
   const newest = newestOf(reports);
   const newestBoot = newest.bootId ?? '';
-  const [thresholds, drift, bootSeenBefore] = await Promise.all([
+  // Whether the newest report's boot was seen before only matters when it is not the node's last boot.
+  const needsBootProbe = (m: Pick<NodeMemory, 'lastSeq' | 'lastBootId'>) => m.lastSeq !== null && newestBoot !== '' && newestBoot !== (m.lastBootId ?? '');
+  const probed = needsBootProbe(node);
+  const [thresholds, drift, probedBoot] = await Promise.all([
     thresholdsFor(sequelize, node.thresholds),
     driftOf(sequelize, node.nodeId, node.firmware, newest),
-    newestBoot && newestBoot !== (node.lastBootId ?? '') ? bootKnown(sequelize, node.nodeId, newestBoot) : Promise.resolve(false),
+    probed ? bootKnown(sequelize, node.nodeId, newestBoot) : Promise.resolve(false),
   ]);
+  let bootSeenBefore = probedBoot;
   const figures = keyFigures(newest);
   const clock = judgeSentAt(newest.sentAt, now);
   const lastReport = {
@@ -232,7 +238,7 @@ async function ingestInOrder(sequelize: Sequelize, config: Config, node: TokenNo
     const advances = reportAdvances(m, newestBoot, newest.seq, bootSeenBefore);
     return { advances, verdict: advances ? afterReport({ state: m.state, streak: m.healthStreak }, figures, thresholds) : null };
   };
-  const itemFor = (m: NodeMemory, j: ReturnType<typeof judge>, guarded: boolean): StoreItem => ({
+  const itemFor = (m: NodeMemory, j: ReturnType<typeof judge>, guarded: boolean, transition: boolean): StoreItem => ({
     node_id: node.nodeId,
     received_at: now.toISOString(),
     reports: rows,
@@ -249,6 +255,7 @@ async function ingestInOrder(sequelize: Sequelize, config: Config, node: TokenNo
     seen_state: m.state,
     seen_streak: m.healthStreak,
     seen_boot_id: m.lastBootId ?? '',
+    transition,
   });
   // What the node is after a store that moved it.
   const remember = (m: NodeMemory, j: ReturnType<typeof judge>) => {
@@ -260,13 +267,17 @@ async function ingestInOrder(sequelize: Sequelize, config: Config, node: TokenNo
   const seen: NodeMemory = { state: node.state as NodeState, healthStreak: node.healthStreak, lastSeq: node.lastSeq, lastBootId: node.lastBootId };
   const quick = judge(seen);
   let stored: number | null = null;
-  let outcome: { advances: boolean; events: Awaited<ReturnType<typeof recordTransition>> | null } | null = null;
-  if (!quick.verdict || quick.verdict.state === seen.state) {
-    const row = await groupOf(sequelize).store(itemFor(seen, quick, true));
+  let outcome: { advances: boolean; events: TransitionEvents | null } | null = null;
+  // A change that opens or closes no outage (a node's first report, online ⇄ degraded) is stored and recorded
+  // in the group commit too, as long as the node is still as this process saw it.
+  const to = quick.verdict?.state ?? seen.state;
+  if (!touchesOutage(seen.state, to)) {
+    const row = await groupOf(sequelize).store(itemFor(seen, quick, true, true));
     stored = row.stored;
     if (row.updated) {
       remember(seen, quick);
-      outcome = { advances: quick.advances, events: null };
+      const moved = to !== seen.state ? { state: stateEvent({ ...node, from: seen.state, to, reason: quick.verdict!.reason, at: now }) } : null;
+      outcome = { advances: quick.advances, events: moved };
     }
   }
   if (!outcome) {
@@ -277,8 +288,10 @@ async function ingestInOrder(sequelize: Sequelize, config: Config, node: TokenNo
         { bind: [node.nodeId], type: QueryTypes.SELECT, transaction },
       );
       if (!current) throw new ApiError(401, 'bad_token', 'The node this token belonged to was removed. Add the node again and issue a new token.');
+      // What this process saw said no probe was needed (a node that never reported); the row says otherwise.
+      if (!probed && needsBootProbe(current)) bootSeenBefore = await bootKnown(sequelize, node.nodeId, newestBoot, transaction);
       const j = judge(current);
-      const [row] = await storeItems(sequelize, [itemFor(current, j, false)], transaction);
+      const [row] = await storeItems(sequelize, [itemFor(current, j, false, false)], transaction);
       stored ??= row.stored;
       const events =
         j.verdict && j.verdict.state !== current.state
@@ -320,10 +333,11 @@ export function reportAdvances(m: Pick<NodeMemory, 'lastSeq' | 'lastBootId'>, bo
   return !bootSeenBefore;
 }
 
-async function bootKnown(sequelize: Sequelize, nodeId: number, bootId: string): Promise<boolean> {
+async function bootKnown(sequelize: Sequelize, nodeId: number, bootId: string, transaction?: Transaction): Promise<boolean> {
   const rows = await sequelize.query("SELECT 1 FROM heartbeats WHERE node_id = $1 AND coalesce(boot_id, '') = $2 LIMIT 1", {
     bind: [nodeId, bootId],
     type: QueryTypes.SELECT,
+    transaction,
   });
   return rows.length > 0;
 }

@@ -16,6 +16,27 @@ export interface TransitionInput {
   outageStartedAt?: Date;
 }
 
+/** Whether a state change opens or closes an outage (going offline, or leaving offline); the others only record the move. */
+export const touchesOutage = (from: NodeState, to: NodeState) => (from === 'offline') !== (to === 'offline');
+
+export interface TransitionEvents {
+  state: NodeStateEvent;
+  outage?: OutageEvent;
+}
+
+/** The live event of a state change. */
+export function stateEvent(t: TransitionInput): NodeStateEvent {
+  return {
+    nodeId: t.nodeId,
+    neighbourhoodId: t.neighbourhoodId,
+    hostUserId: t.hostUserId,
+    state: t.to,
+    previousState: t.from,
+    at: t.at.toISOString(),
+    reason: t.reason,
+  };
+}
+
 /**
  * Records a state change inside the caller's transaction: the transition row, and the outage it
  * opens (going offline) or closes (leaving offline), and the back-online mail in the outbox.
@@ -23,17 +44,7 @@ export interface TransitionInput {
  * before it commits, once what sits behind the outage is attached. Returns the events to emit after commit.
  */
 export async function recordTransition(sequelize: Sequelize, config: Config, t: TransitionInput, transaction: Transaction) {
-  const events: { state: NodeStateEvent; outage?: OutageEvent } = {
-    state: {
-      nodeId: t.nodeId,
-      neighbourhoodId: t.neighbourhoodId,
-      hostUserId: t.hostUserId,
-      state: t.to,
-      previousState: t.from,
-      at: t.at.toISOString(),
-      reason: t.reason,
-    },
-  };
+  const events: TransitionEvents = { state: stateEvent(t) };
   await sequelize.query('INSERT INTO node_transitions (node_id, from_state, to_state, reason, at) VALUES ($1, $2, $3, $4, $5)', {
     bind: [t.nodeId, t.from, t.to, t.reason, t.at],
     transaction,
@@ -58,7 +69,7 @@ export async function recordTransition(sequelize: Sequelize, config: Config, t: 
   return events;
 }
 
-export function emitTransition(events: Awaited<ReturnType<typeof recordTransition>>) {
+export function emitTransition(events: TransitionEvents) {
   domainEvents.emit('node-state', events.state);
   if (events.outage) domainEvents.emit('outage', events.outage);
 }

@@ -8,8 +8,8 @@ export const normalMac = (mac: string) => mac.toLowerCase();
 
 /**
  * Remembers each inventory radio's own MAC from the newest report. Reads the node's cached
- * inventory, so a report whose MACs are already known costs nothing; a change is one short
- * transaction. A MAC that another node's radio held before has moved there (a radio swapped
+ * inventory, so a report whose MACs are already known costs nothing; a change is one statement.
+ * A MAC that another node's radio held before has moved there (a radio swapped
  * between roofs): the move is recorded once per pair and hour, and the old radio forgets it.
  */
 export async function rememberMacs(sequelize: Sequelize, nodeId: number, report: HeartbeatReport, now: Date): Promise<number> {
@@ -20,29 +20,30 @@ export async function rememberMacs(sequelize: Sequelize, nodeId: number, report:
     .map((r) => ({ mac: normalMac(r.mac!), radio: inventory.find((i) => i.iface === r.iface) }))
     .filter((c): c is { mac: string; radio: NonNullable<typeof c.radio> } => c.radio !== undefined && c.radio.mac !== c.mac);
   if (!changed.length) return 0;
-  const touchedNodes = new Set<number>();
-  await sequelize.transaction(async (transaction) => {
-    for (const { mac, radio } of changed) {
-      const previous = await sequelize.query<{ id: number; nodeId: number; iface: string }>(
-        'UPDATE radios SET mac = NULL WHERE mac = $1 AND id <> $2 RETURNING id, node_id AS "nodeId", iface',
-        { bind: [mac, radio.id], type: QueryTypes.SELECT, transaction },
-      );
-      for (const p of previous) {
-        touchedNodes.add(p.nodeId);
-        if (p.nodeId === nodeId) continue;
-        await sequelize.query(
-          `INSERT INTO radio_mac_moves (mac, from_node_id, from_iface, to_node_id, to_iface, at)
-           SELECT $1, $2, $3, $4, $5, $6
-            WHERE NOT EXISTS (SELECT 1 FROM radio_mac_moves WHERE mac = $1 AND from_node_id = $2 AND to_node_id = $4 AND at > $6::timestamptz - interval '1 hour')`,
-          { bind: [mac, p.nodeId, p.iface, nodeId, radio.iface, now], transaction },
-        );
-      }
-      // Raw SQL on purpose: no audit entry and no updated_at bump, so inventory signatures stay put.
-      await sequelize.query('UPDATE radios SET mac = $2, mac_reported_at = $3 WHERE id = $1', { bind: [radio.id, mac, now], transaction });
-    }
-  });
-  for (const { mac, radio } of changed) radio.mac = mac;
-  touchedNodes.forEach((id) => id !== nodeId && forgetInventory(id));
+  // One statement (no transaction of its own): the node's radios take their new MACs, any other radio that held
+  // one forgets it, and a move to another node is recorded once per pair and hour. A statement must touch each
+  // row once, so when a report names one MAC on two of its radios, the last radio named keeps it.
+  const byMac = new Map(changed.map((c) => [c.mac, c]));
+  const previous = await sequelize.query<{ nodeId: number }>(
+    `WITH changed AS (SELECT * FROM jsonb_to_recordset($1::jsonb) AS c(id int, mac text, iface text)),
+     previous AS (
+       UPDATE radios r SET mac = NULL FROM changed c
+        WHERE r.mac = c.mac AND r.id NOT IN (SELECT id FROM changed)
+       RETURNING r.node_id, r.iface AS from_iface, c.mac, c.iface AS to_iface
+     ),
+     moves AS (
+       INSERT INTO radio_mac_moves (mac, from_node_id, from_iface, to_node_id, to_iface, at)
+       SELECT DISTINCT ON (p.mac, p.node_id) p.mac, p.node_id, p.from_iface, $2, p.to_iface, $3 FROM previous p
+        WHERE p.node_id <> $2
+          AND NOT EXISTS (SELECT 1 FROM radio_mac_moves m WHERE m.mac = p.mac AND m.from_node_id = p.node_id AND m.to_node_id = $2 AND m.at > $3::timestamptz - interval '1 hour')
+     ),
+     -- Raw SQL on purpose: no audit entry and no updated_at bump, so inventory signatures stay put.
+     own AS (UPDATE radios r SET mac = c.mac, mac_reported_at = $3 FROM changed c WHERE r.id = c.id)
+     SELECT DISTINCT node_id AS "nodeId" FROM previous`,
+    { bind: [JSON.stringify([...byMac.values()].map((c) => ({ id: c.radio.id, mac: c.mac, iface: c.radio.iface }))), nodeId, now], type: QueryTypes.SELECT },
+  );
+  for (const { mac, radio } of byMac.values()) radio.mac = mac;
+  for (const p of previous) if (p.nodeId !== nodeId) forgetInventory(p.nodeId);
   // A MAC learned or moved changes which reports name which radio.
   forgetAirViews();
   return changed.length;

@@ -216,6 +216,25 @@ describe('heartbeat ingest', () => {
     expect(degraded.healthReason).toContain('signal -88 dBm below -80 dBm');
   });
 
+  it('records each change that touches no outage once, with its reason, when reports arrive together', async () => {
+    const n = await buildNode();
+    const t = await tokenFor(ctx, n.id);
+    const strong = { radios: [{ iface: 'wlan0', signalDbm: -60, noiseDbm: -95 }] };
+    const weak = { radios: [{ iface: 'wlan0', signalDbm: -88, noiseDbm: -95 }] };
+    const first = await Promise.all([1, 2, 3, 4].map((seq) => post(ctx, t, report(seq, strong))));
+    expect(first.map((a) => a.status)).toEqual([202, 202, 202, 202]);
+    for (let seq = 5; seq <= 9; seq++) expect((await post(ctx, t, report(seq, weak))).status).toBe(202);
+    const moves = await ctx.sequelize.query<{ move: string; reason: string }>(
+      "SELECT from_state || '>' || to_state AS move, reason FROM node_transitions WHERE node_id = $1 ORDER BY id",
+      { bind: [n.id], type: QueryTypes.SELECT },
+    );
+    expect(moves.map((m) => m.move)).toEqual(['unknown>online', 'online>degraded']);
+    expect(moves[1].reason).toContain('signal -88 dBm below -80 dBm');
+    const after = (await Node.findByPk(n.id))!;
+    expect(after.state).toBe('degraded');
+    expect(after.stateSince).not.toBeNull();
+  });
+
   it('flags reported settings that differ from the inventory as drift', async () => {
     await buildRadio({ nodeId: node.id, iface: 'wlan0' }); // inventory: channel 36, 40 MHz, ssid test-backhaul
     await Node.update({ firmware: 'Tilecrest 5.1.2' }, { where: { id: node.id } });
