@@ -12,6 +12,7 @@ import * as m0015 from './0015-air-and-host-steps';
 import * as m0016 from './0016-one-row-per-report';
 import * as m0017 from './0017-store-function';
 import * as m0018 from './0018-store-by-node-index';
+import * as m0019 from './0019-ingest-change-notices';
 
 /** Every migration in order. A new migration is a new file here and one line in this list. */
 export const MIGRATIONS = [
@@ -29,4 +30,5 @@ export const MIGRATIONS = [
   { name: '0016-one-row-per-report', ...m0016 },
   { name: '0017-store-function', ...m0017 },
   { name: '0018-store-by-node-index', ...m0018 },
+  { name: '0019-ingest-change-notices', ...m0019 },
 ];

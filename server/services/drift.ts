@@ -1,6 +1,6 @@
 import { QueryTypes, type Sequelize } from 'sequelize';
 import type { HeartbeatReport } from '../../shared/schemas/heartbeat';
-import { ingestCacheMs } from './ingestCacheMs';
+import { cacheGeneration, cachesForgot, ingestCacheMs } from './ingestCacheMs';
 
 export interface DriftItem {
   field: string;
@@ -21,15 +21,20 @@ const cache = new Map<number, { at: number; radios: InventoryRadio[] }>();
 export async function inventoryRadios(sequelize: Sequelize, nodeId: number): Promise<InventoryRadio[]> {
   const hit = cache.get(nodeId);
   if (hit && Date.now() - hit.at < ingestCacheMs()) return hit.radios;
+  const generation = cacheGeneration();
   const radios = await sequelize.query<InventoryRadio>(
     'SELECT id, iface, channel, channel_width_mhz AS "channelWidthMHz", ssid, mac FROM radios WHERE node_id = $1',
     { bind: [nodeId], type: QueryTypes.SELECT },
   );
-  cache.set(nodeId, { at: Date.now(), radios });
+  if (generation === cacheGeneration()) cache.set(nodeId, { at: Date.now(), radios });
   return radios;
 }
 
-export const forgetInventory = (nodeId?: number) => (nodeId === undefined ? cache.clear() : cache.delete(nodeId));
+export function forgetInventory(nodeId?: number) {
+  if (nodeId === undefined) cache.clear();
+  else cache.delete(nodeId);
+  cachesForgot();
+}
 
 /** Settings the node reports that differ from what the inventory says it should run. */
 export async function driftOf(sequelize: Sequelize, nodeId: number, inventoryFirmware: string | null, r: HeartbeatReport): Promise<DriftItem[]> {

@@ -1,7 +1,9 @@
+import pg from 'pg';
 import type { Model, ModelStatic, Transaction } from 'sequelize';
 import { Link, NetworkSettings, Node, Radio, Site } from '../models';
 import { forgetAirViews } from './airViewCache';
 import { forgetInventory } from './drift';
+import { LISTENING_CACHE_MS, ingestCacheMs, setHearingChanges } from './ingestCacheMs';
 import { forgetTokens } from './ingestTokens';
 import { forgetThresholds } from './thresholds';
 
@@ -21,9 +23,8 @@ const radioNodes = (i: Model) => [nodeIdOf(i), Number(i.previous('nodeId') ?? no
 let installed = false;
 /**
  * Edits of thresholds, nodes, sites (who hosts), radios and links forget what ingest cached about
- * them, and edits of nodes, radios and links the air view the map and the overview share
- * (airViewCache.ts). Hooks see model saves; bulk statements and other instances are covered by the
- * cache lifetime.
+ * them at once in this process (before the change notice arrives), and edits of nodes, radios and links the
+ * air view the map and the overview share (airViewCache.ts); the change notices cover every other writer.
  */
 export function installIngestCacheHooks() {
   if (installed) return;
@@ -51,4 +52,75 @@ export function installIngestCacheHooks() {
     forgetInventory();
     forgetAirViews();
   });
+}
+
+/** What one change notice (migration 0019) makes this process forget. */
+export function applyChangeNotice(notice: string) {
+  const [kind, id] = notice.split(':');
+  const nodeId = id === undefined ? undefined : Number(id);
+  if (kind === 'node') forgetTokens(nodeId);
+  else if (kind === 'tokens') forgetTokens();
+  else if (kind === 'radios') forgetInventory(nodeId);
+  if (kind === 'node' || kind === 'radios') forgetAirViews();
+  else if (kind === 'thresholds') forgetThresholds();
+}
+
+export interface ChangeNotices {
+  /** True while the channel is heard; caches then keep entries until a notice says otherwise. */
+  hearing: () => boolean;
+  stop: () => Promise<void>;
+}
+
+/**
+ * Listens for the database's change notices, so ingest's caches forget an edit when it commits, whoever made it.
+ * While not listening (not yet connected, or the connection dropped) caches fall back to their short lifetime;
+ * on every (re)connect everything is forgotten once, since notices sent meanwhile were missed.
+ */
+export function hearChangeNotices(databaseUrl: string, retryMs: number): ChangeNotices {
+  let current: pg.Client | null = null;
+  let stopped = false;
+  let retry: NodeJS.Timeout | null = null;
+  const lost = (client: pg.Client) => {
+    if (current !== client) return;
+    current = null;
+    setHearingChanges(false);
+    forgetEverything();
+    void client.end().catch(() => undefined);
+    if (!stopped) retry = setTimeout(connect, retryMs);
+  };
+  const connect = () => {
+    retry = null;
+    const client = new pg.Client({ connectionString: databaseUrl, connectionTimeoutMillis: 5_000, application_name: 'parapet ingest notices' });
+    current = client;
+    client.on('notification', (m) => applyChangeNotice(m.payload ?? ''));
+    client.on('error', () => lost(client));
+    client.on('end', () => lost(client));
+    client
+      .connect()
+      .then(() => client.query('LISTEN parapet_ingest'))
+      .then(() => {
+        if (current !== client) return;
+        forgetEverything();
+        setHearingChanges(true);
+      })
+      .catch(() => lost(client));
+  };
+  connect();
+  return {
+    hearing: () => current !== null && ingestCacheMs() === LISTENING_CACHE_MS,
+    stop: async () => {
+      stopped = true;
+      if (retry) clearTimeout(retry);
+      const client = current;
+      current = null;
+      setHearingChanges(false);
+      await client?.end().catch(() => undefined);
+    },
+  };
+}
+
+function forgetEverything() {
+  forgetTokens();
+  forgetInventory();
+  forgetThresholds();
 }

@@ -1,7 +1,7 @@
 import { createHash, randomBytes } from 'node:crypto';
 import type { Sequelize } from 'sequelize';
 import { QueryTypes } from 'sequelize';
-import { ingestCacheMs } from './ingestCacheMs';
+import { cacheGeneration, cachesForgot, ingestCacheMs } from './ingestCacheMs';
 
 /** 32 random bytes (256 bits); only the SHA-256 is stored, which is enough for a secret this long. */
 export function newToken(nodeId: number): string {
@@ -44,14 +44,23 @@ export interface TokenNode {
 
 // Token hash → the node with what ingest needs. Ingest updates the node's health fields in place
 // after each store, so a hit carries what this process last wrote; a stale one only sends ingest
-// down its locked path. Entries live ingestCacheMs(); revoking or rotating forgets them here at once.
+// down its locked path. Entries live ingestCacheMs(); revoking or rotating forgets them here at once, and
+// on every instance that hears the database's change notices (ingestCaches.ts) when the change commits.
 const tokenCache = new Map<string, { at: number; node: TokenNode }>();
+// Node id → its cached token hashes, so forgetting one node (a notice per edited node) is not a walk of the cache.
+const hashesOfNode = new Map<number, Set<string>>();
 const TOKEN_CACHE_MAX = 50_000;
 
 /** Forgets cached lookups of one node's tokens (or all of them). */
 export function forgetTokens(nodeId?: number) {
-  if (nodeId === undefined) tokenCache.clear();
-  else for (const [hash, hit] of tokenCache) if (hit.node.nodeId === nodeId) tokenCache.delete(hash);
+  if (nodeId === undefined) {
+    tokenCache.clear();
+    hashesOfNode.clear();
+  } else {
+    for (const hash of hashesOfNode.get(nodeId) ?? []) tokenCache.delete(hash);
+    hashesOfNode.delete(nodeId);
+  }
+  cachesForgot();
 }
 
 /** The node a bearer token belongs to, with what ingest needs: cached for ingestCacheMs(), else one indexed lookup. */
@@ -59,11 +68,18 @@ export async function nodeForToken(sequelize: Sequelize, token: string, hash = h
   if (!/^ppt_\d+_[A-Za-z0-9_-]{43}$/.test(token)) return null;
   const hit = tokenCache.get(hash);
   if (hit && Date.now() - hit.at < ingestCacheMs()) return hit.node;
+  const generation = cacheGeneration();
   const node = await lookUpToken(sequelize, hash);
   if (!node) tokenCache.delete(hash);
-  else {
-    if (tokenCache.size >= TOKEN_CACHE_MAX) tokenCache.clear();
+  else if (generation === cacheGeneration()) {
+    if (tokenCache.size >= TOKEN_CACHE_MAX) {
+      tokenCache.clear();
+      hashesOfNode.clear();
+    }
     tokenCache.set(hash, { at: Date.now(), node });
+    const hashes = hashesOfNode.get(node.nodeId);
+    if (hashes) hashes.add(hash);
+    else hashesOfNode.set(node.nodeId, new Set([hash]));
   }
   return node;
 }

@@ -24,23 +24,28 @@ export async function rememberMacs(sequelize: Sequelize, nodeId: number, report:
   // one forgets it, and a move to another node is recorded once per pair and hour. A statement must touch each
   // row once, so when a report names one MAC on two of its radios, the last radio named keeps it.
   const byMac = new Map(changed.map((c) => [c.mac, c]));
+  const rows = [...byMac.values()];
+  // Arrays rather than a JSON set, so the planner sees how few MACs there are and takes the MAC index.
   const previous = await sequelize.query<{ nodeId: number }>(
-    `WITH changed AS (SELECT * FROM jsonb_to_recordset($1::jsonb) AS c(id int, mac text, iface text)),
+    `WITH changed AS (SELECT * FROM unnest($1::int[], $2::text[], $3::text[]) AS c(id, mac, iface)),
      previous AS (
        UPDATE radios r SET mac = NULL FROM changed c
-        WHERE r.mac = c.mac AND r.id NOT IN (SELECT id FROM changed)
+        WHERE r.mac = ANY($2::text[]) AND r.mac = c.mac AND r.id <> ALL($1::int[])
        RETURNING r.node_id, r.iface AS from_iface, c.mac, c.iface AS to_iface
      ),
      moves AS (
        INSERT INTO radio_mac_moves (mac, from_node_id, from_iface, to_node_id, to_iface, at)
-       SELECT DISTINCT ON (p.mac, p.node_id) p.mac, p.node_id, p.from_iface, $2, p.to_iface, $3 FROM previous p
-        WHERE p.node_id <> $2
-          AND NOT EXISTS (SELECT 1 FROM radio_mac_moves m WHERE m.mac = p.mac AND m.from_node_id = p.node_id AND m.to_node_id = $2 AND m.at > $3::timestamptz - interval '1 hour')
+       SELECT DISTINCT ON (p.mac, p.node_id) p.mac, p.node_id, p.from_iface, $4, p.to_iface, $5 FROM previous p
+        WHERE p.node_id <> $4
+          AND NOT EXISTS (SELECT 1 FROM radio_mac_moves m WHERE m.mac = p.mac AND m.from_node_id = p.node_id AND m.to_node_id = $4 AND m.at > $5::timestamptz - interval '1 hour')
      ),
      -- Raw SQL on purpose: no audit entry and no updated_at bump, so inventory signatures stay put.
-     own AS (UPDATE radios r SET mac = c.mac, mac_reported_at = $3 FROM changed c WHERE r.id = c.id)
+     own AS (UPDATE radios r SET mac = c.mac, mac_reported_at = $5 FROM changed c WHERE r.id = ANY($1::int[]) AND r.id = c.id)
      SELECT DISTINCT node_id AS "nodeId" FROM previous`,
-    { bind: [JSON.stringify([...byMac.values()].map((c) => ({ id: c.radio.id, mac: c.mac, iface: c.radio.iface }))), nodeId, now], type: QueryTypes.SELECT },
+    {
+      bind: [rows.map((c) => c.radio.id), rows.map((c) => c.mac), rows.map((c) => c.radio.iface), nodeId, now],
+      type: QueryTypes.SELECT,
+    },
   );
   for (const { mac, radio } of byMac.values()) radio.mac = mac;
   for (const p of previous) if (p.nodeId !== nodeId) forgetInventory(p.nodeId);

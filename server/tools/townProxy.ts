@@ -18,8 +18,10 @@ if (!targets.length || targets.some((t) => !t.name || !t.url?.startsWith('http:/
 }
 
 const instanceOf = new WeakMap<http.IncomingMessage, string>();
-// A fresh loopback connection per request: reusing idle ones races the instance closing them (ECONNRESET), as it did in trials.
-const proxy = httpProxy.createProxyServer({ agent: new http.Agent({ keepAlive: false, maxSockets: 1024 }), xfwd: true });
+// Connections to the instances are kept and reused (a fresh connection per request costs both sides a handshake).
+// An idle one is closed here after 30 s, well before an instance closes it (server.keepAliveTimeout, 65 s), so a
+// request never goes out on a connection the instance is closing.
+const proxy = httpProxy.createProxyServer({ agent: new http.Agent({ keepAlive: true, maxSockets: 256, timeout: 30_000 }), xfwd: true });
 proxy.on('proxyRes', (proxyRes, req) => {
   proxyRes.headers['x-parapet-instance'] = instanceOf.get(req) ?? '';
 });

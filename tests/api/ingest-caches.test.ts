@@ -2,8 +2,9 @@
 // instance that made them, within INGEST_CACHE_MS on every other (simulated here by editing the
 // database directly, as another app process would, without this process hearing of it).
 import { QueryTypes } from 'sequelize';
-import { describe, expect, it } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Node } from '../../server/models';
+import { hearChangeNotices, type ChangeNotices } from '../../server/services/ingestCaches';
 import { buildUser, call, ingestTokenFor, postReports, signIn, useApi, type TestContext } from '../helpers/api';
 import { manualClock } from '../helpers/clock';
 import { buildNode, buildRadio } from '../helpers/factories';
@@ -116,5 +117,63 @@ describe('ingest caches', () => {
       [20, '20'],
       [20, '20'],
     ]);
+  });
+});
+
+describe('ingest caches while the database’s change notices are heard', () => {
+  const ctx = useApi({ now: clock.now, ingestCacheMs: CACHE_MS });
+  let notices: ChangeNotices;
+  let tokenLookups = 0;
+  beforeAll(async () => {
+    notices = hearChangeNotices(ctx.config.databaseUrl, 200);
+    for (let waited = 0; !notices.hearing() && waited < 5000; waited += 50) await new Promise((r) => setTimeout(r, 50));
+    ctx.sequelize.addHook('beforeQuery', 'count-token-lookups', (_options, query) => {
+      if ((query as unknown as { sql?: string }).sql?.includes('FROM node_tokens t JOIN nodes n')) tokenLookups++;
+    });
+  });
+  afterAll(async () => {
+    ctx.sequelize.removeHook('beforeQuery', 'count-token-lookups');
+    await notices.stop();
+  });
+
+  it('keeps a token lookup past the short lifetime while nothing changes', async () => {
+    expect(notices.hearing()).toBe(true);
+    const node = await buildNode();
+    const token = await ingestTokenFor(ctx, node.id);
+    expect((await postReports(ctx, token, report(1))).status).toBe(202);
+    const before = tokenLookups;
+    await new Promise((r) => setTimeout(r, 3 * CACHE_MS));
+    expect((await postReports(ctx, token, report(2))).status).toBe(202);
+    expect(tokenLookups).toBe(before);
+  });
+
+  it('stops a cached token revoked straight in the database as soon as the change commits', async () => {
+    const node = await buildNode();
+    const token = await ingestTokenFor(ctx, node.id);
+    expect((await postReports(ctx, token, report(1))).status).toBe(202);
+    await ctx.sequelize.query('UPDATE node_tokens SET revoked_at = now() WHERE node_id = $1', { bind: [node.id] });
+    // The notice travels on its own connection: well within a second, not the cache lifetime.
+    const tookMs = await untilAnswer(ctx, token, 401, 2, (seq) => report(seq), REVOKE_BOUND_MS);
+    expect(tookMs).not.toBeNull();
+    expect(tookMs!).toBeLessThan(1000);
+  });
+
+  it('compares the next report with a radio edited straight in the database, and judges by new network thresholds', async () => {
+    const node = await buildNode();
+    const radio = await buildRadio({ nodeId: node.id, iface: 'wlan0' }); // inventory: channel 36, 40 MHz
+    const token = await ingestTokenFor(ctx, node.id);
+    const on44 = (seq: number) => report(seq, { radios: [{ iface: 'wlan0', channel: 44, channelWidthMHz: 40, signalDbm: -70, noiseDbm: -100 }] });
+    expect((await postReports(ctx, token, on44(1))).status).toBe(202);
+    await ctx.sequelize.query('UPDATE radios SET channel = 44 WHERE id = $1', { bind: [radio.id] });
+    await ctx.sequelize.query(`UPDATE network_settings SET thresholds = '{"minSignalDbm": -65, "consecutiveReports": 1}' WHERE id = 1`);
+    try {
+      await new Promise((r) => setTimeout(r, 300));
+      expect((await postReports(ctx, token, on44(2))).status).toBe(202);
+      const after = (await Node.findByPk(node.id))!;
+      expect(after.drift).toEqual([]);
+      expect(after.state).toBe('degraded');
+    } finally {
+      await ctx.sequelize.query(`UPDATE network_settings SET thresholds = '{}' WHERE id = 1`);
+    }
   });
 });
