@@ -9,9 +9,13 @@ import { STORE_FUNCTION_0017 } from './0017-store-function';
 // A state change that opens or closes no outage (unknown to online, online to degraded and back) no longer needs
 // a transaction of its own: an item marked transition records it in node_transitions with the node's move, so a
 // whole town coming online at once is stored in group commits instead of one locked transaction per node.
+// An item whose guard failed (another instance moved the node) gets the node's current state back, so the caller
+// judges it again and retries in the next group instead of taking a locked transaction.
 export async function up({ context: { sequelize } }: { context: MigrationContext }) {
   await sequelize.query(`
-    CREATE OR REPLACE FUNCTION store_heartbeat_items(p_items jsonb, p_lock boolean) RETURNS TABLE (k int, stored int, updated boolean)
+    DROP FUNCTION store_heartbeat_items(jsonb, boolean);
+    CREATE FUNCTION store_heartbeat_items(p_items jsonb, p_lock boolean)
+      RETURNS TABLE (k int, stored int, updated boolean, cur_state text, cur_streak int, cur_seq text, cur_boot_id text)
     LANGUAGE plpgsql VOLATILE
     -- One plan per connection, kept: planning over every daily partition costs more than running the statement.
     SET plan_cache_mode = force_generic_plan AS $fn$
@@ -60,7 +64,8 @@ export async function up({ context: { sequelize } }: { context: MigrationContext
       -- ok: the item may move its node (not guarded, or the node is still as it was judged). The boot the
       -- watermark speaks for afterwards is the node's last boot after this call.
       judged AS (
-        SELECT i.*, g.ok, CASE WHEN g.ok AND i.advances THEN i.boot_id ELSE coalesce(n.last_boot_id, '') END AS wm_boot, n.state AS old_state
+        SELECT i.*, g.ok, CASE WHEN g.ok AND i.advances THEN i.boot_id ELSE coalesce(n.last_boot_id, '') END AS wm_boot,
+               n.state AS old_state, n.health_streak AS old_streak, n.last_seq AS old_seq, n.last_boot_id AS old_boot_id
           FROM items i JOIN nodes n ON n.id = i.node_id
          CROSS JOIN LATERAL (SELECT NOT i.guarded OR (n.last_seq IS NOT DISTINCT FROM i.seen_seq AND n.state = i.seen_state
                              AND n.health_streak = i.seen_streak AND n.last_boot_id IS NOT DISTINCT FROM nullif(i.seen_boot_id, '')) AS ok) g
@@ -95,10 +100,14 @@ export async function up({ context: { sequelize } }: { context: MigrationContext
         SELECT j.node_id, j.old_state, j.state, j.reason, j.received_at FROM judged j
          WHERE j.transition AND j.ok AND j.advances AND j.state <> j.old_state
       )
-      SELECT i.k, coalesce(s.n, 0)::int, coalesce(u.ok, false)
+      -- An item whose guard failed gets the node as it is (its row did not move), so the caller can judge again.
+      SELECT i.k, coalesce(s.n, 0)::int, coalesce(u.ok, false),
+             CASE WHEN u.ok THEN NULL ELSE j.old_state END, CASE WHEN u.ok THEN NULL ELSE j.old_streak END,
+             CASE WHEN u.ok THEN NULL ELSE j.old_seq::text END, CASE WHEN u.ok THEN NULL ELSE j.old_boot_id END
         FROM items i
         LEFT JOIN (SELECT x.k, count(*) AS n FROM kept x GROUP BY x.k) s ON s.k = i.k
         LEFT JOIN node u ON u.k = i.k
+        LEFT JOIN judged j ON j.k = i.k
        ORDER BY i.k;
     END
     $fn$;

@@ -18,7 +18,7 @@ import { thresholdsFor } from './thresholds';
 // request: its node, receive time, reports and what the newest report does to the node (the function's
 // comment says the rules). A report is one row of heartbeats (its radios a jsonb column); only (node, boot
 // id, seq) triples not stored yet are inserted, so a resent report is stored once.
-const STORE_SQL = 'SELECT k, stored, updated FROM store_heartbeat_items($items::jsonb, $lock)';
+const STORE_SQL = 'SELECT k, stored, updated, cur_state, cur_streak, cur_seq, cur_boot_id FROM store_heartbeat_items($items::jsonb, $lock)';
 
 /** One request's share of a store statement (snake_case: the statement reads it with jsonb_to_recordset). */
 interface StoreItem {
@@ -44,7 +44,23 @@ interface StoreItem {
 interface StoreOutcome {
   stored: number;
   updated: boolean;
+  /** The node as it is, when the item's guard failed (its row did not move); null when the node is gone. */
+  current: NodeMemory | null;
 }
+interface StoreRow {
+  k: number;
+  stored: number;
+  updated: boolean;
+  cur_state: NodeState | null;
+  cur_streak: number | null;
+  cur_seq: string | null;
+  cur_boot_id: string | null;
+}
+const outcomeOf = (r: StoreRow): StoreOutcome => ({
+  stored: r.stored,
+  updated: r.updated,
+  current: r.cur_state === null ? null : { state: r.cur_state, healthStreak: r.cur_streak ?? 0, lastSeq: r.cur_seq, lastBootId: r.cur_boot_id },
+});
 
 const DEADLOCK = '40P01';
 const isDeadlock = (err: unknown) => (err as { parent?: { code?: string } })?.parent?.code === DEADLOCK;
@@ -56,8 +72,8 @@ async function storeItems(sequelize: Sequelize, items: StoreItem[], transaction?
   // the batch's nodes in id order, so two calls never wait on each other's nodes in a circle.
   const store = () =>
     sequelize
-      .query<{ k: number; stored: number; updated: boolean }>(STORE_SQL, { bind: { items: json, lock: !transaction }, type: QueryTypes.SELECT, transaction })
-      .then((rows) => rows.map((r) => ({ stored: r.stored, updated: r.updated })));
+      .query<StoreRow>(STORE_SQL, { bind: { items: json, lock: !transaction }, type: QueryTypes.SELECT, transaction })
+      .then((rows) => rows.map(outcomeOf));
   if (transaction) return store();
   for (let attempt = 1; ; attempt++) {
     try {
@@ -184,6 +200,8 @@ export function newestOf(reports: HeartbeatReport[]): HeartbeatReport {
 // Requests of one node are handled one after another in this process, so each is judged against
 // what the one before it wrote (per-node order) and a node is in at most one item of a statement.
 const nodeChains = new Map<number, Promise<unknown>>();
+/** Group commits an item tries (its node moved by another writer in between) before the locked path. */
+const GROUP_ATTEMPTS = 3;
 
 /**
  * Stores reports once each. The newest report (by the node's own seq) moves the node's current
@@ -270,15 +288,26 @@ async function ingestInOrder(sequelize: Sequelize, config: Config, node: TokenNo
   let outcome: { advances: boolean; events: TransitionEvents | null } | null = null;
   // A change that opens or closes no outage (a node's first report, online ⇄ degraded) is stored and recorded
   // in the group commit too, as long as the node is still as this process saw it.
-  const to = quick.verdict?.state ?? seen.state;
-  if (!touchesOutage(seen.state, to)) {
-    const row = await groupOf(sequelize).store(itemFor(seen, quick, true, true));
-    stored = row.stored;
+  // When another writer moved the node meanwhile (another instance took its last report), the store says how the
+  // node is now: judged again from there, the item tries the next group, a few times before the locked path.
+  let memory: NodeMemory | null = seen;
+  let verdict = quick;
+  for (let attempt = 0; memory && attempt < GROUP_ATTEMPTS && !outcome; attempt++) {
+    const to = verdict.verdict?.state ?? memory.state;
+    if (touchesOutage(memory.state, to)) break;
+    const row = await groupOf(sequelize).store(itemFor(memory, verdict, true, true));
+    stored ??= row.stored;
     if (row.updated) {
-      remember(seen, quick);
-      const moved = to !== seen.state ? { state: stateEvent({ ...node, from: seen.state, to, reason: quick.verdict!.reason, at: now }) } : null;
-      outcome = { advances: quick.advances, events: moved };
-    }
+      remember(memory, verdict);
+      const from = memory.state;
+      const moved = to !== from ? { state: stateEvent({ ...node, from, to, reason: verdict.verdict!.reason, at: now }) } : null;
+      outcome = { advances: verdict.advances, events: moved };
+    } else if (row.current) {
+      memory = row.current;
+      Object.assign(node, row.current); // what the cached token lookup carries from now on
+      if (!probed && needsBootProbe(memory)) bootSeenBefore = await bootKnown(sequelize, node.nodeId, newestBoot);
+      verdict = judge(memory);
+    } else memory = null;
   }
   if (!outcome) {
     outcome = await sequelize.transaction(async (transaction) => {

@@ -114,11 +114,13 @@ const server = await startServerProcess({
   SIGNIN_LIMIT_PER_ADDRESS: '100000',
   SIGNIN_LIMIT_PER_ACCOUNT: '100000',
 });
-const browser = await chromium.launch({
-  executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium',
-  headless: true,
-  args: ['--no-sandbox', '--disable-gpu', '--disable-quic'],
-});
+// The server is stopped whatever happens next (a browser that will not start included).
+const browser = await chromium
+  .launch({ executablePath: process.env.CHROMIUM_PATH ?? '/usr/bin/chromium', headless: true, args: ['--no-sandbox', '--disable-gpu', '--disable-quic'] })
+  .catch(async (err: Error) => {
+    await server.stop();
+    throw err;
+  });
 try {
   const signedOut = await browser.newContext({ viewport: { width: 390, height: 844 } });
   const signedIn = await browser.newContext({ viewport: { width: 390, height: 844 } });

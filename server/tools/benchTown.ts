@@ -38,6 +38,14 @@ const config = loadConfig({ ...process.env, DATABASE_URL: databaseUrl });
 const started: { stop: () => Promise<void> }[] = [];
 const sockets: Socket[] = [];
 let reporter: TownReporter | null = null;
+// Ctrl-C (or a supervisor's SIGTERM) stops what the bench started, as the end of a run does.
+for (const signal of ['SIGINT', 'SIGTERM'] as const)
+  process.once(signal, () => {
+    console.log(`${signal}: stopping the town, the instances and the proxy`);
+    void Promise.allSettled([reporter?.stop(1000)])
+      .then(() => Promise.allSettled([...started].reverse().map((s) => s.stop())))
+      .finally(() => process.exit(130));
+  });
 
 async function startProxy(targets: { name: string; url: string }[]) {
   const port = await freePort();

@@ -102,6 +102,28 @@ describe('ingest caches', () => {
     expect(Date.now() - started).toBeLessThanOrEqual(REVOKE_BOUND_MS);
   });
 
+  it('judges a report again from how the node is when another instance moved it meanwhile, without a locked transaction', async () => {
+    const node = await buildNode();
+    const token = await ingestTokenFor(ctx, node.id);
+    expect((await postReports(ctx, token, report(1))).status).toBe(202);
+    // Another instance stored report 5 of the same boot: this process still remembers seq 1.
+    await ctx.sequelize.query('UPDATE nodes SET last_seq = 5 WHERE id = $1', { bind: [node.id] });
+    let locked = 0;
+    ctx.sequelize.addHook('beforeQuery', 'count-locks', (_options, query) => {
+      if ((query as unknown as { sql?: string }).sql?.includes('FOR UPDATE')) locked++;
+    });
+    try {
+      expect((await postReports(ctx, token, report(6))).body).toEqual({ accepted: 1, duplicates: 0 });
+      expect((await Node.findByPk(node.id))!.lastSeq).toBe('6');
+      // A late report (seq 3 < 6) is kept but moves nothing.
+      expect((await postReports(ctx, token, report(3))).body).toEqual({ accepted: 1, duplicates: 0 });
+      expect((await Node.findByPk(node.id))!.lastSeq).toBe('6');
+    } finally {
+      ctx.sequelize.removeHook('beforeQuery', 'count-locks');
+    }
+    expect(locked).toBe(0);
+  });
+
   it('keeps every report of concurrent requests and moves each node to its newest one', async () => {
     const nodes = await Promise.all([buildNode(), buildNode(), buildNode()]);
     const tokens = await Promise.all(nodes.map((n) => ingestTokenFor(ctx, n.id)));
