@@ -56,7 +56,11 @@ export function createRealtime(server: http.Server, config: Config, session: Req
     // Its LISTEN connection stays checked out: guardPool keeps a lost one from ending the process,
     // and the adapter itself re-listens on a new connection when the old one ends.
     // Two connections: the LISTEN one and one for NOTIFY, which keeps events in the order they happened.
-    adapterPool = releaseOnEnd(guardPool(new pg.Pool({ connectionString: config.databaseUrl, max: 2, connectionTimeoutMillis: 5_000 }), 'live updates', watch));
+    // Publishes wait in the pool's queue (in order) for the NOTIFY connection: under a burst (a whole town coming
+    // online) that queue can take seconds, and an event that waited out the timeout would be lost to other instances.
+    adapterPool = releaseOnEnd(
+      guardPool(new pg.Pool({ connectionString: config.databaseUrl, max: 2, connectionTimeoutMillis: 30_000 }), 'live updates', watch),
+    );
     // Its failed publishes are only logged: the watch follows the requests' own database calls.
     io.adapter(
       createAdapter(adapterPool, {
