@@ -3,8 +3,11 @@ import type { MigrationContext } from '../db/umzug';
 // Ingest caches what it needs per node (token lookup, radio inventory, network thresholds). Every app process
 // listens on one channel, and these triggers tell it, when a change commits, what to forget: whoever made the
 // change (this app, another instance, a bulk statement, psql). NOTIFY is delivered only on commit and folds
-// repeats within a transaction, so a bulk edit costs one notice per node. Only the columns ingest reads fire:
-// ingest's own writes to nodes (health, watermark) never do; its MAC writes do, so other instances see a MAC move.
+// repeats within a transaction, so a bulk edit costs one notice per node. Only the columns ingest reads fire, and
+// never ingest's own writes (node health and watermark, learned MACs): a transaction that notifies holds a lock
+// shared by the whole database from just before its commit until the commit is on disk, so a notice on every
+// first report would make a whole town's first reports commit one at a time. Ingest notifies a MAC that moved
+// from another node's radio itself (radioMacs.ts), which is rare.
 export async function up({ context: { sequelize } }: { context: MigrationContext }) {
   await sequelize.query(`
     CREATE FUNCTION ingest_cache_changed() RETURNS trigger LANGUAGE plpgsql AS $fn$
@@ -34,7 +37,7 @@ export async function up({ context: { sequelize } }: { context: MigrationContext
       FOR EACH ROW EXECUTE FUNCTION ingest_cache_changed();
     CREATE TRIGGER ingest_cache_sites AFTER UPDATE OF host_user_id OR DELETE ON sites
       FOR EACH STATEMENT EXECUTE FUNCTION ingest_cache_changed('tokens');
-    CREATE TRIGGER ingest_cache_radios AFTER INSERT OR DELETE OR UPDATE OF node_id, iface, channel, channel_width_mhz, ssid, mac ON radios
+    CREATE TRIGGER ingest_cache_radios AFTER INSERT OR DELETE OR UPDATE OF node_id, iface, channel, channel_width_mhz, ssid ON radios
       FOR EACH ROW EXECUTE FUNCTION ingest_cache_changed();
     CREATE TRIGGER ingest_cache_links AFTER INSERT OR DELETE OR UPDATE ON links
       FOR EACH STATEMENT EXECUTE FUNCTION ingest_cache_changed('radios');

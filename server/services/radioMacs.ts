@@ -41,7 +41,8 @@ export async function rememberMacs(sequelize: Sequelize, nodeId: number, report:
      ),
      -- Raw SQL on purpose: no audit entry and no updated_at bump, so inventory signatures stay put.
      own AS (UPDATE radios r SET mac = c.mac, mac_reported_at = $5 FROM changed c WHERE r.id = ANY($1::int[]) AND r.id = c.id)
-     SELECT DISTINCT node_id AS "nodeId" FROM previous`,
+     -- The old holder's node is told to every instance (migration 0019's channel) only when a MAC moved.
+     SELECT DISTINCT p.node_id AS "nodeId" FROM previous p CROSS JOIN LATERAL (SELECT pg_notify('parapet_ingest', 'radios:' || p.node_id)) told`,
     {
       bind: [rows.map((c) => c.radio.id), rows.map((c) => c.mac), rows.map((c) => c.radio.iface), nodeId, now],
       type: QueryTypes.SELECT,
