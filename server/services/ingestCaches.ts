@@ -3,7 +3,7 @@ import type { Model, ModelStatic, Transaction } from 'sequelize';
 import { Link, NetworkSettings, Node, Radio, Site } from '../models';
 import { forgetAirViews } from './airViewCache';
 import { forgetInventory } from './drift';
-import { LISTENING_CACHE_MS, ingestCacheMs, setHearingChanges } from './ingestCacheMs';
+import { setHearingChanges } from './ingestCacheMs';
 import { forgetTokens } from './ingestTokens';
 import { forgetThresholds } from './thresholds';
 
@@ -58,10 +58,13 @@ export function installIngestCacheHooks() {
 export function applyChangeNotice(notice: string) {
   const [kind, id] = notice.split(':');
   const nodeId = id === undefined ? undefined : Number(id);
-  if (kind === 'node') forgetTokens(nodeId);
-  else if (kind === 'tokens') forgetTokens();
-  else if (kind === 'radios') forgetInventory(nodeId);
-  if (kind === 'node' || kind === 'radios') forgetAirViews();
+  if (kind === 'node') {
+    forgetTokens(nodeId);
+    forgetAirViews();
+  } else if (kind === 'radios') {
+    forgetInventory(nodeId);
+    forgetAirViews();
+  } else if (kind === 'tokens') forgetTokens();
   else if (kind === 'thresholds') forgetThresholds();
 }
 
@@ -78,12 +81,17 @@ export interface ChangeNotices {
  */
 export function hearChangeNotices(databaseUrl: string, retryMs: number): ChangeNotices {
   let current: pg.Client | null = null;
+  let heard = false;
   let stopped = false;
+  const hear = (on: boolean) => {
+    heard = on;
+    setHearingChanges(on);
+  };
   let retry: NodeJS.Timeout | null = null;
   const lost = (client: pg.Client) => {
     if (current !== client) return;
     current = null;
-    setHearingChanges(false);
+    hear(false);
     forgetEverything();
     void client.end().catch(() => undefined);
     if (!stopped) retry = setTimeout(connect, retryMs);
@@ -101,19 +109,19 @@ export function hearChangeNotices(databaseUrl: string, retryMs: number): ChangeN
       .then(() => {
         if (current !== client) return;
         forgetEverything();
-        setHearingChanges(true);
+        hear(true);
       })
       .catch(() => lost(client));
   };
   connect();
   return {
-    hearing: () => current !== null && ingestCacheMs() === LISTENING_CACHE_MS,
+    hearing: () => heard,
     stop: async () => {
       stopped = true;
       if (retry) clearTimeout(retry);
       const client = current;
       current = null;
-      setHearingChanges(false);
+      hear(false);
       await client?.end().catch(() => undefined);
     },
   };

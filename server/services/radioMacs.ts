@@ -48,7 +48,7 @@ export async function rememberMacs(sequelize: Sequelize, nodeId: number, report:
       type: QueryTypes.SELECT,
     },
   );
-  for (const { mac, radio } of byMac.values()) radio.mac = mac;
+  for (const { mac, radio } of rows) radio.mac = mac;
   for (const p of previous) if (p.nodeId !== nodeId) forgetInventory(p.nodeId);
   // A MAC learned or moved changes which reports name which radio.
   forgetAirViews();
